@@ -1,0 +1,114 @@
+#include "range_table.hpp"
+
+#include "stopping.hpp"
+
+#include <cmath>
+#include <stdexcept>
+#include <string>
+
+namespace crewdose::exposure {
+
+double low_energy_range_g_cm2(const Material& material, const Particle& particle,
+                              double energy_MeV_per_n) {
+    // Integral of A E/S(E) d(ln E) from E_top * 1e-6 to E_top by Simpson's rule in ln E, plus the
+    // part below, where the fit is a power law S = c E^p (p from the fit's own slope there):
+    // integral_0^E0 A dE / (c E^p) = A E0 / ((1-p) S(E0)).
+    const double top = energy_MeV_per_n;
+    const double bottom = top * 1e-6;
+    constexpr int kIntervals = 240; // even
+    const double h = std::log(top / bottom) / kIntervals;
+    const double A = particle.A;
+    auto integrand = [&](double lnE) {
+        const double E = std::exp(lnE);
+        return A * E / low_energy_stopping_MeV_cm2_g(material, particle, E);
+    };
+    const double ln_bottom = std::log(bottom);
+    double sum = integrand(ln_bottom) + integrand(std::log(top));
+    for (int i = 1; i < kIntervals; ++i) {
+        sum += (i % 2 == 1 ? 4.0 : 2.0) * integrand(ln_bottom + i * h);
+    }
+    const double body = sum * h / 3.0;
+    const double s0 = low_energy_stopping_MeV_cm2_g(material, particle, bottom);
+    const double s1 = low_energy_stopping_MeV_cm2_g(material, particle, bottom * 1.01);
+    const double p = std::log(s1 / s0) / std::log(1.01);
+    if (!(p < 1.0)) {
+        throw std::logic_error("low_energy_range: stopping does not fall towards zero energy");
+    }
+    return body + A * bottom / ((1.0 - p) * s0);
+}
+
+RangeTable::RangeTable(const Material& material, const Particle& particle, EnergyGridSpec spec)
+    : particle_(particle), material_id_(material.id()),
+      grid_(spec.min_MeV_per_n, spec.max_MeV_per_n,
+            static_cast<std::size_t>(std::lround(std::log10(spec.max_MeV_per_n /
+                                                            spec.min_MeV_per_n) *
+                                                 static_cast<double>(spec.nodes_per_decade))) +
+                1) {
+    const std::size_t n = grid_.size();
+    log_S_.resize(n);
+    log_R_.resize(n);
+    // Stopping at the nodes and at the midpoints; Simpson's rule in ln E on each interval for
+    // R = integral A E / S(E) d(ln E).
+    const double A = particle.A;
+    double S_prev = electronic_stopping_MeV_cm2_g(material, particle, grid_.front());
+    log_S_[0] = std::log(S_prev);
+    double R = low_energy_range_g_cm2(material, particle, grid_.front());
+    log_R_[0] = std::log(R);
+    const double h = grid_.log_step();
+    for (std::size_t i = 1; i < n; ++i) {
+        const double ln_a = grid_.log_node(i - 1);
+        const double E_a = std::exp(ln_a);
+        const double E_m = std::exp(ln_a + 0.5 * h);
+        const double E_b = std::exp(grid_.log_node(i));
+        const double S_m = electronic_stopping_MeV_cm2_g(material, particle, E_m);
+        const double S_b = electronic_stopping_MeV_cm2_g(material, particle, E_b);
+        R += h / 6.0 * A * (E_a / S_prev + 4.0 * E_m / S_m + E_b / S_b);
+        log_S_[i] = std::log(S_b);
+        log_R_[i] = std::log(R);
+        S_prev = S_b;
+    }
+}
+
+double RangeTable::stopping_MeV_cm2_g(double E) const {
+    if (!(E >= grid_.front() && E <= grid_.back())) {
+        throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
+                                " MeV/n is outside the table");
+    }
+    const double x = std::log(E);
+    const std::size_t i = grid_.interval_of_log(x);
+    return std::exp(lerp_at(grid_.log_node(i), log_S_[i], grid_.log_node(i + 1), log_S_[i + 1], x));
+}
+
+double RangeTable::range_g_cm2(double E) const {
+    if (!(E >= grid_.front() && E <= grid_.back())) {
+        throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
+                                " MeV/n is outside the table");
+    }
+    const double x = std::log(E);
+    const std::size_t i = grid_.interval_of_log(x);
+    return std::exp(lerp_at(grid_.log_node(i), log_R_[i], grid_.log_node(i + 1), log_R_[i + 1], x));
+}
+
+double RangeTable::energy_MeV_per_n(double range) const {
+    const double y = std::log(range);
+    if (!(y >= log_R_.front() && y <= log_R_.back())) {
+        throw std::out_of_range("RangeTable: range " + std::to_string(range) +
+                                " g/cm2 is outside the table");
+    }
+    const std::size_t i = interval_index(log_R_, y);
+    return std::exp(lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y));
+}
+
+double RangeTable::min_range_g_cm2() const noexcept { return std::exp(log_R_.front()); }
+double RangeTable::max_range_g_cm2() const noexcept { return std::exp(log_R_.back()); }
+
+RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_nodes) const {
+    if (optical_depth_nodes.size() != grid_.size()) {
+        throw std::logic_error("RangeTable::with_optical_depth: one value per node is needed");
+    }
+    RangeTable copy = *this;
+    copy.optical_depth_ = std::move(optical_depth_nodes);
+    return copy;
+}
+
+} // namespace crewdose::exposure

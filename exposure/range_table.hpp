@@ -1,0 +1,76 @@
+#pragma once
+#include "interpolation.hpp"
+#include "material.hpp"
+#include "particle.hpp"
+
+#include <memory>
+#include <optional>
+#include <vector>
+
+namespace crewdose::exposure {
+
+/// Energy grid of every range table: log-spaced in kinetic energy per nucleon.
+struct EnergyGridSpec {
+    double min_MeV_per_n = 0.01;     ///< 10 keV/n
+    double max_MeV_per_n = 1.0e5;    ///< 100 GeV/n
+    std::size_t nodes_per_decade = 50;
+};
+
+/// CSDA range table of one particle in one material: an immutable value, built once and shared.
+///
+/// Nodes hold ln S(E), ln R(E) (and, once filled, the nuclear optical depth) on a log grid in
+/// energy per nucleon. Between nodes ln R and ln S are linear in ln E, which is monotone, and
+/// E(R) inverts that same interpolant exactly. R(E_min) is the low-energy form's own range from
+/// zero energy, not zero.
+///
+/// Out-of-range policy: energies or ranges outside the grid are a caller bug (std::out_of_range);
+/// the grid covers 10 keV/n to 100 GeV/n, everything a transport step can reach, and callers
+/// handle "stopped" (E below E_min) themselves via range_g_cm2(min_energy()).
+class RangeTable {
+public:
+    RangeTable(const Material& material, const Particle& particle, EnergyGridSpec grid = {});
+
+    [[nodiscard]] const Particle& particle() const noexcept { return particle_; }
+    [[nodiscard]] const std::string& material_id() const noexcept { return material_id_; }
+    [[nodiscard]] double min_energy_MeV_per_n() const noexcept { return grid_.front(); }
+    [[nodiscard]] double max_energy_MeV_per_n() const noexcept { return grid_.back(); }
+    [[nodiscard]] const LogGrid& grid() const noexcept { return grid_; }
+
+    /// Electronic stopping power (whole ion), MeV cm2/g, interpolated from the nodes.
+    [[nodiscard]] double stopping_MeV_cm2_g(double energy_MeV_per_n) const;
+    /// CSDA range, g/cm2.
+    [[nodiscard]] double range_g_cm2(double energy_MeV_per_n) const;
+    /// Energy per nucleon whose CSDA range is `range_g_cm2` (exact inverse of range_g_cm2()).
+    [[nodiscard]] double energy_MeV_per_n(double range_g_cm2) const;
+    /// Smallest and largest range on the table, g/cm2.
+    [[nodiscard]] double min_range_g_cm2() const noexcept;
+    [[nodiscard]] double max_range_g_cm2() const noexcept;
+
+    /// Nodes, for tests and for the transport code: ln R at node i.
+    [[nodiscard]] const std::vector<double>& log_range_nodes() const noexcept { return log_R_; }
+    [[nodiscard]] const std::vector<double>& log_stopping_nodes() const noexcept { return log_S_; }
+
+    /// The nuclear optical depth slot, Lambda(E) = integral Sigma(E)/S(E) dE on the same nodes,
+    /// empty until the nuclear-attenuation code fills it with with_optical_depth().
+    [[nodiscard]] const std::vector<double>& optical_depth_nodes() const noexcept {
+        return optical_depth_;
+    }
+    [[nodiscard]] bool has_optical_depth() const noexcept { return !optical_depth_.empty(); }
+    /// A copy of this table with the optical-depth slot filled (one value per node).
+    [[nodiscard]] RangeTable with_optical_depth(std::vector<double> optical_depth_nodes) const;
+
+private:
+    Particle particle_;
+    std::string material_id_;
+    LogGrid grid_;
+    std::vector<double> log_S_;
+    std::vector<double> log_R_;
+    std::vector<double> optical_depth_;
+};
+
+/// Range of the low-energy form from zero energy up to `energy_MeV_per_n`, g/cm2: integral of
+/// A dE/S(E) with the low-energy fit's own behaviour near zero energy (a power law there).
+[[nodiscard]] double low_energy_range_g_cm2(const Material& material, const Particle& particle,
+                                            double energy_MeV_per_n);
+
+} // namespace crewdose::exposure

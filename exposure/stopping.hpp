@@ -1,0 +1,43 @@
+#pragma once
+#include "material.hpp"
+#include "particle.hpp"
+
+namespace crewdose::exposure {
+
+/// Energies per nucleon (MeV/n) between which the low-energy fits hand over to the Bethe
+/// formula: below `low` only the fit is used, above `high` only Bethe, and in between the two
+/// are blended in log space with a smoothstep weight in ln E, so stopping power and its slope are
+/// continuous.
+struct JoinWindow {
+    double low_MeV_per_n;
+    double high_MeV_per_n;
+};
+
+/// The join window used for `particle`.
+[[nodiscard]] JoinWindow join_window(const Particle& particle);
+
+/// Effective charge of a heavy ion (Z >= 3) at kinetic energy per nucleon `energy_MeV_per_n`:
+/// z_eff = z (1 - exp(-125 beta z^(-2/3))) (Barkas 1963, "Nuclear Research Emulsions" vol. 1).
+/// Protons and alphas return their bare charge: their low-energy fits include the charge state.
+[[nodiscard]] double effective_charge(const Particle& particle, double energy_MeV_per_n);
+
+/// Electronic mass stopping power from the published low-energy fits alone, MeV cm2/g:
+/// ICRU 49 proton fits (heavy ions: scaled by z_eff^2 at equal velocity), ICRU 49 helium fits for
+/// alphas; the compound's own fit where it has one, else Bragg additivity over its elements.
+[[nodiscard]] double low_energy_stopping_MeV_cm2_g(const Material& material,
+                                                   const Particle& particle,
+                                                   double energy_MeV_per_n);
+
+/// Electronic mass stopping power, MeV cm2/g, of `particle` at kinetic energy per nucleon
+/// `energy_MeV_per_n` (> 0) in `material`: the low-energy fits joined to the Bethe formula with
+/// shell, Barkas, Bloch and density-effect corrections (see JoinWindow). Energy loss of the
+/// whole ion per g/cm2; divide by A for the loss of energy per nucleon.
+[[nodiscard]] double electronic_stopping_MeV_cm2_g(const Material& material,
+                                                   const Particle& particle,
+                                                   double energy_MeV_per_n);
+
+/// Unrestricted LET in the material, keV/um: stopping power x density / 10.
+[[nodiscard]] double let_keV_um(const Material& material, const Particle& particle,
+                                double energy_MeV_per_n);
+
+} // namespace crewdose::exposure

@@ -1,0 +1,99 @@
+// crewdose command line: parses arguments and calls the planner library; no physics here.
+#include "input_error.hpp"
+#include "physics_tables.hpp"
+
+#include "exposure/parameter_error.hpp"
+#include "exposure/range_table.hpp"
+
+#include <CLI/CLI.hpp>
+#include <fmt/format.h>
+
+#include <cstdio>
+#include <exception>
+#include <string>
+
+namespace {
+
+constexpr int kExitBadInput = 2;
+
+void write_stdout(const std::string& text) { std::fwrite(text.data(), 1, text.size(), stdout); }
+
+} // namespace
+
+int main(int argc, char** argv) {
+    using namespace crewdose;
+    CLI::App app{"crewdose: radiation dose planning for crewed lunar, Mars and deep-space "
+                 "missions.\n\nResults support, and never replace, review by licensed "
+                 "radiation-protection staff.\nExit codes: 0 success, 2 bad input or usage.",
+                 "crewdose"};
+    app.require_subcommand(1);
+    app.set_version_flag("--version", "crewdose 0.1.0");
+
+    std::string format = "text";
+    std::string material = "water";
+    std::string particle = "proton";
+    std::string energies = "1,10,100,1000";
+
+    const exposure::EnergyGridSpec grid{};
+    auto* range = app.add_subcommand(
+        "range", "Stopping power, LET and CSDA range of a particle in a material.\n"
+                 "Example: crewdose range --material aluminium --particle proton "
+                 "--energy 1,10,100,1000");
+    range->add_option("--material,-m", material,
+                      "built-in material id (see 'crewdose materials')")
+        ->capture_default_str();
+    range->add_option("--particle,-p", particle,
+                      "proton, alpha, or a bare nucleus up to nickel by name or symbol "
+                      "(carbon, C, iron, Fe)")
+        ->capture_default_str();
+    range->add_option("--energy,-e", energies,
+                      fmt::format("kinetic energies per nucleon in MeV/n, comma-separated, "
+                                  "{} to {}",
+                                  grid.min_MeV_per_n, grid.max_MeV_per_n))
+        ->capture_default_str();
+    range->add_option("--format,-f", format, "text (4 significant figures), json (full "
+                                             "precision) or csv")
+        ->capture_default_str();
+
+    auto* materials =
+        app.add_subcommand("materials", "List the built-in materials: id, density, mean "
+                                        "excitation energy I and composition by mass.");
+    materials->add_option("--format,-f", format, "text, json (with sources) or csv")
+        ->capture_default_str();
+
+    try {
+        app.parse(argc, argv);
+    } catch (const CLI::CallForHelp& e) {
+        return app.exit(e);
+    } catch (const CLI::CallForAllHelp& e) {
+        return app.exit(e);
+    } catch (const CLI::CallForVersion& e) {
+        return app.exit(e);
+    } catch (const CLI::ParseError& e) {
+        std::fprintf(stderr, "crewdose: %s\nRun 'crewdose --help' for the commands.\n",
+                     e.what());
+        return kExitBadInput;
+    }
+
+    try {
+        const auto fmt_choice = planner::parse_output_format(format);
+        if (range->parsed()) {
+            const auto& mat = planner::material_by_id(material);
+            const auto part = planner::particle_by_name_or_throw(particle);
+            const auto list =
+                planner::parse_energy_list(energies, "--energy", grid.min_MeV_per_n,
+                                           grid.max_MeV_per_n);
+            write_stdout(planner::format_range_report(
+                mat, part, planner::range_rows(mat, part, list), fmt_choice));
+        } else if (materials->parsed()) {
+            write_stdout(planner::format_materials_report(fmt_choice));
+        }
+    } catch (const InputError& e) {
+        std::fprintf(stderr, "crewdose: %s\n", e.what());
+        return kExitBadInput;
+    } catch (const exposure::ParameterError& e) {
+        std::fprintf(stderr, "crewdose: %s\n", e.what());
+        return kExitBadInput;
+    }
+    return 0;
+}

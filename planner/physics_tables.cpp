@@ -1,0 +1,232 @@
+#include "physics_tables.hpp"
+
+#include "input_error.hpp"
+
+#include "exposure/element.hpp"
+#include "exposure/material_library.hpp"
+#include "exposure/range_table.hpp"
+#include "exposure/stopping.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <charconv>
+#include <cmath>
+
+namespace crewdose::planner {
+namespace {
+
+const SourceLocation kCommandLine{"command line", 0};
+
+std::string trim(std::string_view s) {
+    const auto first = s.find_first_not_of(" \t");
+    if (first == std::string_view::npos) {
+        return {};
+    }
+    const auto last = s.find_last_not_of(" \t");
+    return std::string(s.substr(first, last - first + 1));
+}
+
+std::string material_ids() {
+    std::string out;
+    for (const auto& m : exposure::builtin_materials()) {
+        out += out.empty() ? "" : ", ";
+        out += m.id();
+    }
+    return out;
+}
+
+std::string symbol_of(int Z) {
+    const auto e = exposure::element_by_Z(Z);
+    return e ? std::string(e->symbol) : fmt::format("Z{}", Z);
+}
+
+std::string composition_text(const exposure::Material& m) {
+    std::string out;
+    for (const auto& share : m.composition()) {
+        out += out.empty() ? "" : " ";
+        out += fmt::format("{} {:.4g}", symbol_of(share.Z), share.mass_fraction);
+    }
+    return out;
+}
+
+} // namespace
+
+OutputFormat parse_output_format(std::string_view text) {
+    if (text == "text") {
+        return OutputFormat::text;
+    }
+    if (text == "json") {
+        return OutputFormat::json;
+    }
+    if (text == "csv") {
+        return OutputFormat::csv;
+    }
+    throw InputError(kCommandLine, "--format",
+                     fmt::format("'{}' is not a format; allowed: text, json, csv", text));
+}
+
+std::vector<double> parse_energy_list(std::string_view text, std::string_view field,
+                                      double min_MeV_per_n, double max_MeV_per_n) {
+    std::vector<double> out;
+    std::size_t start = 0;
+    while (start <= text.size()) {
+        const auto comma = text.find(',', start);
+        const auto end = comma == std::string_view::npos ? text.size() : comma;
+        const std::string item = trim(text.substr(start, end - start));
+        double value = 0.0;
+        const auto* first = item.data();
+        const auto* last = item.data() + item.size();
+        const auto [ptr, ec] = std::from_chars(first, last, value);
+        if (item.empty() || ec != std::errc() || ptr != last || !std::isfinite(value)) {
+            throw InputError(kCommandLine, std::string(field),
+                             fmt::format("'{}' is not a number; give energies in MeV per "
+                                         "nucleon separated by commas, e.g. 1,10,100",
+                                         item));
+        }
+        if (value < min_MeV_per_n || value > max_MeV_per_n) {
+            throw InputError(kCommandLine, std::string(field),
+                             fmt::format("{} MeV/n is outside the tables; allowed: {} to {} MeV/n",
+                                         item, min_MeV_per_n, max_MeV_per_n));
+        }
+        out.push_back(value);
+        if (comma == std::string_view::npos) {
+            break;
+        }
+        start = comma + 1;
+    }
+    return out;
+}
+
+const exposure::Material& material_by_id(std::string_view id) {
+    if (const auto* m = exposure::find_builtin_material(id)) {
+        return *m;
+    }
+    throw InputError(kCommandLine, "--material",
+                     fmt::format("no built-in material '{}'; allowed: {}", id, material_ids()));
+}
+
+exposure::Particle particle_by_name_or_throw(std::string_view name) {
+    if (const auto p = exposure::particle_by_name(name)) {
+        return *p;
+    }
+    throw InputError(kCommandLine, "--particle",
+                     fmt::format("'{}' is not a particle crewdose transports; allowed: proton, "
+                                 "alpha, or a bare nucleus up to nickel by name or symbol "
+                                 "(carbon, C, oxygen, iron, Fe, ...; 'nitrogen', not 'N')",
+                                 name));
+}
+
+std::vector<RangeRow> range_rows(const exposure::Material& material,
+                                 const exposure::Particle& particle,
+                                 const std::vector<double>& energies_MeV_per_n) {
+    const exposure::RangeTable table(material, particle);
+    std::vector<RangeRow> rows;
+    rows.reserve(energies_MeV_per_n.size());
+    for (const double E : energies_MeV_per_n) {
+        RangeRow row{};
+        row.energy_MeV_per_n = E;
+        // The exact model value at the requested energy, not the table interpolant.
+        row.stopping_MeV_cm2_g = exposure::electronic_stopping_MeV_cm2_g(material, particle, E);
+        row.let_keV_um = row.stopping_MeV_cm2_g * material.density_g_cm3() * 0.1;
+        row.csda_range_g_cm2 = table.range_g_cm2(E);
+        row.csda_range_cm = row.csda_range_g_cm2 / material.density_g_cm3();
+        rows.push_back(row);
+    }
+    return rows;
+}
+
+std::string format_range_report(const exposure::Material& material,
+                                 const exposure::Particle& particle,
+                                 const std::vector<RangeRow>& rows, OutputFormat format) {
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["material"] = {{"id", material.id()},
+                         {"density_g_cm3", material.density_g_cm3()},
+                         {"mean_excitation_eV", material.mean_excitation_eV()}};
+        j["particle"] = {{"name", particle.name}, {"Z", particle.Z}, {"A", particle.A}};
+        j["rows"] = nlohmann::json::array();
+        for (const auto& r : rows) {
+            j["rows"].push_back({{"energy_MeV_per_n", r.energy_MeV_per_n},
+                                 {"stopping_MeV_cm2_g", r.stopping_MeV_cm2_g},
+                                 {"let_keV_um", r.let_keV_um},
+                                 {"csda_range_g_cm2", r.csda_range_g_cm2},
+                                 {"csda_range_cm", r.csda_range_cm}});
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out =
+            "energy_MeV_per_n,stopping_MeV_cm2_g,let_keV_um,csda_range_g_cm2,csda_range_cm\n";
+        for (const auto& r : rows) {
+            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g}\n", r.energy_MeV_per_n,
+                               r.stopping_MeV_cm2_g, r.let_keV_um, r.csda_range_g_cm2,
+                               r.csda_range_cm);
+        }
+        return out;
+    }
+    std::string out = fmt::format("{} in {} ({}; {:.4g} g/cm3; I = {:.4g} eV)\n", particle.name,
+                                  material.id(), material.name(), material.density_g_cm3(),
+                                  material.mean_excitation_eV());
+    out += "electronic stopping, continuous-slowing-down (CSDA) range\n\n";
+    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "energy", "stopping power",
+                       "LET", "CSDA range", "CSDA range");
+    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g",
+                       "keV/um", "g/cm2", "cm");
+    for (const auto& r : rows) {
+        out += fmt::format("  {:>11.4g}  {:>14.4g}  {:>10.4g}  {:>13.4g}  {:>13.4g}\n",
+                           r.energy_MeV_per_n, r.stopping_MeV_cm2_g, r.let_keV_um,
+                           r.csda_range_g_cm2, r.csda_range_cm);
+    }
+    out += "\nLET is unrestricted, in the material itself. Energies are kinetic energy per "
+           "nucleon.\n";
+    return out;
+}
+
+std::string format_materials_report(OutputFormat format) {
+    const auto materials = exposure::builtin_materials();
+    if (format == OutputFormat::json) {
+        nlohmann::json j = nlohmann::json::array();
+        for (const auto& m : materials) {
+            nlohmann::json comp = nlohmann::json::array();
+            for (const auto& share : m.composition()) {
+                comp.push_back({{"element", symbol_of(share.Z)},
+                                {"Z", share.Z},
+                                {"mass_fraction", share.mass_fraction}});
+            }
+            j.push_back({{"id", m.id()},
+                         {"name", m.name()},
+                         {"density_g_cm3", m.density_g_cm3()},
+                         {"mean_excitation_eV", m.mean_excitation_eV()},
+                         {"mean_excitation_is_own", m.has_own_mean_excitation()},
+                         {"density_effect_tabulated", m.has_tabulated_density_effect()},
+                         {"gas", m.phase() == exposure::Phase::gas},
+                         {"composition", comp},
+                         {"source", m.source()}});
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "id,density_g_cm3,mean_excitation_eV,i_value_origin,composition\n";
+        for (const auto& m : materials) {
+            out += fmt::format("{},{:.10g},{:.10g},{},\"{}\"\n", m.id(), m.density_g_cm3(),
+                               m.mean_excitation_eV(),
+                               m.has_own_mean_excitation() ? "published" : "bragg",
+                               composition_text(m));
+        }
+        return out;
+    }
+    std::string out = fmt::format("{} built-in materials (mass fractions; I marked * is the "
+                                  "Bragg-additivity value)\n\n",
+                                  materials.size());
+    out += fmt::format("  {:<21} {:>10} {:>9}  {}\n", "id", "g/cm3", "I (eV)", "composition");
+    for (const auto& m : materials) {
+        out += fmt::format("  {:<21} {:>10.4g} {:>8.4g}{} {}\n", m.id(), m.density_g_cm3(),
+                           m.mean_excitation_eV(), m.has_own_mean_excitation() ? " " : "*",
+                           composition_text(m));
+    }
+    out += "\nSources of each material: crewdose materials --format json (field 'source').\n";
+    return out;
+}
+
+} // namespace crewdose::planner
