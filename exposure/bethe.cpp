@@ -117,18 +117,20 @@ double shell_correction_over_Z(double mean_excitation_eV, int Z, double eta) {
 }
 
 double bloch_term(double y) {
-    // L2 = -y^2 sum 1/(n (n^2 + y^2)); the sum is taken to N terms and the remainder by its
-    // asymptotic value 1/(2 N'^2) with N' = N + 1/2 (error below 1e-7 for y < 5).
+    // -y^2 sum 1/(n (n^2 + y^2)): the terms up to N = 24 + 2y are summed and the remainder is
+    // the midpoint-rule integral from N + 1/2, (1 / (2 y^2)) ln(1 + y^2 / (N + 1/2)^2)
+    // (relative error below 1e-6 for every y; it tends to 1/(2 (N + 1/2)^2) as y -> 0).
     const double y2 = y * y;
+    const int terms = 24 + static_cast<int>(std::ceil(2.0 * y));
     double sum = 0.0;
-    constexpr int kTerms = 24;
-    for (int n = 1; n <= kTerms; ++n) {
+    for (int n = 1; n <= terms; ++n) {
         const double dn = n;
         sum += 1.0 / (dn * (dn * dn + y2));
     }
-    const double tail_n = kTerms + 0.5;
-    sum += 1.0 / (2.0 * (tail_n * tail_n + y2));
-    return -y2 * sum;
+    const double edge = terms + 0.5;
+    const double tail = y2 > 1e-12 ? std::log1p(y2 / (edge * edge)) / (2.0 * y2)
+                                   : 1.0 / (2.0 * edge * edge);
+    return -y2 * (sum + tail);
 }
 
 BetheTerms bethe_terms(const Material& material, const Particle& particle,

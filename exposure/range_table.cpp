@@ -10,6 +10,13 @@ namespace crewdose::exposure {
 
 double low_energy_range_g_cm2(const Material& material, const Particle& particle,
                               double energy_MeV_per_n) {
+    if (particle.Z >= 3) {
+        // The effective-charge scaling is meant for fast ions; below the grid a heavy ion's
+        // electronic stopping is taken proportional to its velocity (Lindhard & Scharff 1961),
+        // S = c sqrt(E), whose range from zero is 2 A E / S(E).
+        return 2.0 * particle.A * energy_MeV_per_n /
+               low_energy_stopping_MeV_cm2_g(material, particle, energy_MeV_per_n);
+    }
     // Integral of A E/S(E) d(ln E) from E_top * 1e-6 to E_top by Simpson's rule in ln E, plus the
     // part below, where the fit is a power law S = c E^p (p from the fit's own slope there):
     // integral_0^E0 A dE / (c E^p) = A E0 / ((1-p) S(E0)).

@@ -13,8 +13,8 @@ struct JoinWindow {
     double high_MeV_per_n;
 };
 
-/// The join window used for `particle`.
-[[nodiscard]] JoinWindow join_window(const Particle& particle);
+/// The join window used for `particle` in `material`.
+[[nodiscard]] JoinWindow join_window(const Material& material, const Particle& particle);
 
 /// Effective charge of a heavy ion (Z >= 3) at kinetic energy per nucleon `energy_MeV_per_n`:
 /// z_eff = z (1 - exp(-125 beta z^(-2/3))) (Barkas 1963, "Nuclear Research Emulsions" vol. 1).
