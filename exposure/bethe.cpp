@@ -17,14 +17,14 @@ struct FPoint {
     double f;
 };
 constexpr FPoint kArbF[] = {
-    {0.02, 21.5}, {0.03, 20.0}, {0.04, 18.0}, {0.05, 15.6}, {0.06, 15.0}, {0.07, 14.0},
-    {0.08, 13.5}, {0.09, 13.0},  {0.1, 12.2},  {0.2, 9.25},  {0.3, 7.0},   {0.4, 6.0},
-    {0.5, 4.5},   {0.6, 3.5},    {0.7, 3.0},   {0.8, 2.5},   {0.9, 2.0},   {1.0, 1.7},
-    {1.2, 1.2},   {1.3, 1.0},    {1.4, 0.86},  {1.5, 0.7},   {1.6, 0.61},  {1.7, 0.52},
-    {1.8, 0.5},   {1.9, 0.43},   {2.0, 0.42},  {2.1, 0.3},   {2.4, 0.2},   {3.0, 0.13},
-    {3.08, 0.1},  {3.1, 0.09},   {3.3, 0.08},  {3.5, 0.07},  {3.8, 0.06},  {4.0, 0.051},
-    {4.1, 0.04},  {4.8, 0.03},   {5.0, 0.024}, {5.1, 0.02},  {6.0, 0.013}, {6.5, 0.01},
-    {7.0, 0.009}, {7.1, 0.008},  {8.0, 0.006}, {9.0, 0.0032}, {10.0, 0.0025},
+    {0.02, 21.5}, {0.03, 20.0}, {0.04, 18.0}, {0.05, 15.6},  {0.06, 15.0},   {0.07, 14.0},
+    {0.08, 13.5}, {0.09, 13.0}, {0.1, 12.2},  {0.2, 9.25},   {0.3, 7.0},     {0.4, 6.0},
+    {0.5, 4.5},   {0.6, 3.5},   {0.7, 3.0},   {0.8, 2.5},    {0.9, 2.0},     {1.0, 1.7},
+    {1.2, 1.2},   {1.3, 1.0},   {1.4, 0.86},  {1.5, 0.7},    {1.6, 0.61},    {1.7, 0.52},
+    {1.8, 0.5},   {1.9, 0.43},  {2.0, 0.42},  {2.1, 0.3},    {2.4, 0.2},     {3.0, 0.13},
+    {3.08, 0.1},  {3.1, 0.09},  {3.3, 0.08},  {3.5, 0.07},   {3.8, 0.06},    {4.0, 0.051},
+    {4.1, 0.04},  {4.8, 0.03},  {5.0, 0.024}, {5.1, 0.02},   {6.0, 0.013},   {6.5, 0.01},
+    {7.0, 0.009}, {7.1, 0.008}, {8.0, 0.006}, {9.0, 0.0032}, {10.0, 0.0025},
 };
 
 double arb_F(double w) {
@@ -110,7 +110,8 @@ double shell_correction_over_Z(double mean_excitation_eV, int Z, double eta) {
         c = barkas_berger_C(I, eta);
     } else {
         const double c_valid = barkas_berger_C(I, kEtaValid);
-        const double slope = (c_valid - barkas_berger_C(I, kEtaSlope)) / std::log(kEtaSlope / kEtaValid);
+        const double slope =
+            (c_valid - barkas_berger_C(I, kEtaSlope)) / std::log(kEtaSlope / kEtaValid);
         c = c_valid + slope * std::log(kEtaValid / eta);
     }
     return c / static_cast<double>(Z);
@@ -128,13 +129,13 @@ double bloch_term(double y) {
         sum += 1.0 / (dn * (dn * dn + y2));
     }
     const double edge = terms + 0.5;
-    const double tail = y2 > 1e-12 ? std::log1p(y2 / (edge * edge)) / (2.0 * y2)
-                                   : 1.0 / (2.0 * edge * edge);
+    const double tail =
+        y2 > 1e-12 ? std::log1p(y2 / (edge * edge)) / (2.0 * y2) : 1.0 / (2.0 * edge * edge);
     return -y2 * (sum + tail);
 }
 
-BetheTerms bethe_terms(const Material& material, const Particle& particle,
-                       double energy_MeV_per_n, double z_eff) {
+BetheTerms bethe_terms(const Material& material, const Particle& particle, double energy_MeV_per_n,
+                       double z_eff) {
     if (!(energy_MeV_per_n > 0.0)) {
         throw std::logic_error("bethe_terms: energy must be > 0");
     }
@@ -144,8 +145,8 @@ BetheTerms bethe_terms(const Material& material, const Particle& particle,
     const double bg2 = beta2 * gamma * gamma;
     const double mass_ratio = kElectronMass_MeV / particle.mass_MeV;
     // Largest energy transfer to a free electron (PDG eq. 34.4).
-    const double w_max = 2.0 * kElectronMass_MeV * bg2 /
-                         (1.0 + 2.0 * gamma * mass_ratio + mass_ratio * mass_ratio);
+    const double w_max =
+        2.0 * kElectronMass_MeV * bg2 / (1.0 + 2.0 * gamma * mass_ratio + mass_ratio * mass_ratio);
     const double I_MeV = material.mean_excitation_eV() * 1e-6;
     t.beta2 = beta2;
     t.log_term = 0.5 * std::log(2.0 * kElectronMass_MeV * bg2 * w_max / (I_MeV * I_MeV)) - beta2;

@@ -7,12 +7,12 @@ namespace crewdose::exposure {
 /// The parts of the Bethe stopping number L = L0 + z L1 + z^2 L2 at one energy, so that tests
 /// and reports can see each correction.
 struct BetheTerms {
-    double beta2 = 0.0;          ///< beta^2 of the projectile
-    double log_term = 0.0;       ///< 1/2 ln(2 m c^2 beta^2 gamma^2 Wmax / I^2) - beta^2
-    double shell = 0.0;          ///< shell correction C/Z (subtracted)
-    double half_density = 0.0;   ///< density-effect correction delta/2 (subtracted)
-    double barkas = 0.0;         ///< z L1, the Barkas (z^3) term (added)
-    double bloch = 0.0;          ///< z^2 L2, the Bloch term (added, negative)
+    double beta2 = 0.0;        ///< beta^2 of the projectile
+    double log_term = 0.0;     ///< 1/2 ln(2 m c^2 beta^2 gamma^2 Wmax / I^2) - beta^2
+    double shell = 0.0;        ///< shell correction C/Z (subtracted)
+    double half_density = 0.0; ///< density-effect correction delta/2 (subtracted)
+    double barkas = 0.0;       ///< z L1, the Barkas (z^3) term (added)
+    double bloch = 0.0;        ///< z^2 L2, the Bloch term (added, negative)
     /// Total stopping number L.
     [[nodiscard]] double stopping_number() const noexcept {
         return log_term - shell - half_density + barkas + bloch;

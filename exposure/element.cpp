@@ -43,11 +43,13 @@ constexpr std::array kElements{
 
 } // namespace
 
-std::span<const Element> elements() { return kElements; }
+std::span<const Element> elements() {
+    return kElements;
+}
 
 std::optional<Element> element_by_Z(int Z) {
-    const auto it =
-        std::find_if(kElements.begin(), kElements.end(), [Z](const Element& e) { return e.Z == Z; });
+    const auto it = std::find_if(kElements.begin(), kElements.end(),
+                                 [Z](const Element& e) { return e.Z == Z; });
     if (it == kElements.end()) {
         return std::nullopt;
     }

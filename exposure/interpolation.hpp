@@ -18,7 +18,7 @@ namespace crewdose::exposure {
 /// A grid uniform in ln(x): x_i = x_min * exp(i * step), i = 0..count-1. Interval lookup is a
 /// division, not a search, which keeps range-table lookups well under 30 ns.
 class LogGrid {
-public:
+  public:
     /// `count` >= 2 nodes from `x_min` to `x_max` (both > 0, x_max > x_min).
     LogGrid(double x_min, double x_max, std::size_t count);
 
@@ -36,7 +36,7 @@ public:
     /// Interval holding ln(x) = log_x, clamped to [0, size-2] like interval_index().
     [[nodiscard]] std::size_t interval_of_log(double log_x) const noexcept;
 
-private:
+  private:
     double x_min_;
     double x_max_;
     std::size_t count_;

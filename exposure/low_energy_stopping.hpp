@@ -20,7 +20,8 @@ struct ProtonFit {
 
 /// Helium-ion fit (Ziegler 1977 form used by ICRU Report 49). T is the helium kinetic energy in
 /// MeV, S the stopping cross section in eV per 1e15 atoms (or molecules) per cm2:
-///   S = S_low S_high / (S_low + S_high),   S_low = A1 (1000 T)^A2,  S_high = (A3/T) ln(1 + A4/T + A5 T)
+///   S = S_low S_high / (S_low + S_high),   S_low = A1 (1000 T)^A2,  S_high = (A3/T) ln(1 + A4/T +
+///   A5 T)
 struct HeliumFit {
     double a1, a2, a3, a4, a5;
     /// Stopping cross section, eV/(1e15 atoms/cm2), at helium kinetic energy T in MeV (T > 0).

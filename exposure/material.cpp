@@ -38,13 +38,13 @@ Material::Material(MaterialSpec spec) : spec_(std::move(spec)) {
     for (const auto& share : spec_.composition) {
         const auto element = element_by_Z(share.Z);
         if (!element) {
-            throw ParameterError("composition", "element Z = " + std::to_string(share.Z) +
-                                                    " is not known; allowed: " +
-                                                    known_elements_text());
+            throw ParameterError("composition",
+                                 "element Z = " + std::to_string(share.Z) +
+                                     " is not known; allowed: " + known_elements_text());
         }
         if (!seen.insert(share.Z).second) {
-            throw ParameterError("composition", "element " + std::string(element->symbol) +
-                                                    " is listed twice");
+            throw ParameterError("composition",
+                                 "element " + std::string(element->symbol) + " is listed twice");
         }
         if (!(share.mass_fraction > 0.0) || share.mass_fraction > 1.0) {
             throw ParameterError("mass_fraction", "of " + std::string(element->symbol) +

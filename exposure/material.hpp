@@ -37,7 +37,7 @@ struct MaterialSpec {
 
 /// A validated material: immutable, with the quantities stopping-power theory needs derived once.
 class Material {
-public:
+  public:
     /// Validates `spec` and throws ParameterError naming the field ("density_g_cm3",
     /// "composition", "mass_fraction", "mean_excitation_eV") when it is not allowed.
     explicit Material(MaterialSpec spec);
@@ -73,7 +73,7 @@ public:
     /// Plasma energy h-bar omega_p, eV (Sternheimer, Berger & Seltzer 1984, eq. 4).
     [[nodiscard]] double plasma_energy_eV() const noexcept;
 
-private:
+  private:
     MaterialSpec spec_;
     double z_over_a_ = 0.0;
     double mean_excitation_eV_ = 0.0;

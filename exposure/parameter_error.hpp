@@ -8,7 +8,7 @@ namespace crewdose::exposure {
 /// outside what the model allows. Carries the parameter's name, so that the planner can attach
 /// the file and line where the user wrote it. Broken internal invariants use std::logic_error.
 class ParameterError : public std::invalid_argument {
-public:
+  public:
     ParameterError(std::string field, const std::string& message)
         : std::invalid_argument(field + ": " + message), field_(std::move(field)),
           detail_(message) {}
@@ -17,7 +17,7 @@ public:
     /// What is wrong and what is allowed, without the field name.
     [[nodiscard]] const std::string& detail() const noexcept { return detail_; }
 
-private:
+  private:
     std::string field_;
     std::string detail_;
 };

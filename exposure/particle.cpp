@@ -65,7 +65,9 @@ double Particle::beta2(double energy_MeV_per_n) const noexcept {
     return (g - 1.0) * (g + 1.0) / (g * g);
 }
 
-std::span<const Particle> particles() { return kParticles; }
+std::span<const Particle> particles() {
+    return kParticles;
+}
 
 std::optional<Particle> particle_by_Z(int Z) {
     if (Z < 1 || Z > static_cast<int>(kParticles.size())) {
@@ -93,7 +95,11 @@ std::optional<Particle> particle_by_name(std::string_view name) {
     return std::nullopt;
 }
 
-const Particle& proton() { return kParticles[0]; }
-const Particle& alpha() { return kParticles[1]; }
+const Particle& proton() {
+    return kParticles[0];
+}
+const Particle& alpha() {
+    return kParticles[1];
+}
 
 } // namespace crewdose::exposure

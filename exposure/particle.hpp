@@ -8,11 +8,11 @@ namespace crewdose::exposure {
 /// A fully ionised nucleus moving through matter. Energies are kinetic energy per nucleon
 /// (MeV/n); for the proton that is simply its kinetic energy.
 struct Particle {
-    std::string_view name;   ///< lower-case name used on the command line ("proton", "alpha", "iron")
+    std::string_view name; ///< lower-case name used on the command line ("proton", "alpha", "iron")
     std::string_view symbol; ///< chemical symbol of the element ("H", "He", "Fe")
-    int Z;                 ///< charge number of the bare nucleus
-    int A;                 ///< mass number (nucleons)
-    double mass_MeV;       ///< rest energy of the bare nucleus, MeV
+    int Z;                   ///< charge number of the bare nucleus
+    int A;                   ///< mass number (nucleons)
+    double mass_MeV;         ///< rest energy of the bare nucleus, MeV
 
     /// Rest energy per nucleon, MeV: the scale of kinetic energy per nucleon.
     [[nodiscard]] double mass_per_nucleon_MeV() const noexcept {

@@ -46,11 +46,11 @@ double low_energy_range_g_cm2(const Material& material, const Particle& particle
 
 RangeTable::RangeTable(const Material& material, const Particle& particle, EnergyGridSpec spec)
     : particle_(particle), material_id_(material.id()),
-      grid_(spec.min_MeV_per_n, spec.max_MeV_per_n,
-            static_cast<std::size_t>(std::lround(std::log10(spec.max_MeV_per_n /
-                                                            spec.min_MeV_per_n) *
-                                                 static_cast<double>(spec.nodes_per_decade))) +
-                1) {
+      grid_(
+          spec.min_MeV_per_n, spec.max_MeV_per_n,
+          static_cast<std::size_t>(std::lround(std::log10(spec.max_MeV_per_n / spec.min_MeV_per_n) *
+                                               static_cast<double>(spec.nodes_per_decade))) +
+              1) {
     const std::size_t n = grid_.size();
     log_S_.resize(n);
     log_R_.resize(n);
@@ -106,8 +106,12 @@ double RangeTable::energy_MeV_per_n(double range) const {
     return std::exp(lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y));
 }
 
-double RangeTable::min_range_g_cm2() const noexcept { return std::exp(log_R_.front()); }
-double RangeTable::max_range_g_cm2() const noexcept { return std::exp(log_R_.back()); }
+double RangeTable::min_range_g_cm2() const noexcept {
+    return std::exp(log_R_.front());
+}
+double RangeTable::max_range_g_cm2() const noexcept {
+    return std::exp(log_R_.back());
+}
 
 RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_nodes) const {
     if (optical_depth_nodes.size() != grid_.size()) {

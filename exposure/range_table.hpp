@@ -11,8 +11,8 @@ namespace crewdose::exposure {
 
 /// Energy grid of every range table: log-spaced in kinetic energy per nucleon.
 struct EnergyGridSpec {
-    double min_MeV_per_n = 0.01;     ///< 10 keV/n
-    double max_MeV_per_n = 1.0e5;    ///< 100 GeV/n
+    double min_MeV_per_n = 0.01;       ///< 10 keV/n
+    double max_MeV_per_n = 1.0e5;      ///< 100 GeV/n
     std::size_t nodes_per_decade = 64; // ranges converged to 1e-4 (4x denser changes < 9e-5)
 };
 
@@ -27,7 +27,7 @@ struct EnergyGridSpec {
 /// the grid covers 10 keV/n to 100 GeV/n, everything a transport step can reach, and callers
 /// handle "stopped" (E below E_min) themselves via range_g_cm2(min_energy()).
 class RangeTable {
-public:
+  public:
     RangeTable(const Material& material, const Particle& particle, EnergyGridSpec grid = {});
 
     [[nodiscard]] const Particle& particle() const noexcept { return particle_; }
@@ -59,7 +59,7 @@ public:
     /// A copy of this table with the optical-depth slot filled (one value per node).
     [[nodiscard]] RangeTable with_optical_depth(std::vector<double> optical_depth_nodes) const;
 
-private:
+  private:
     Particle particle_;
     std::string material_id_;
     LogGrid grid_;

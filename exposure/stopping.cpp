@@ -121,7 +121,8 @@ double electronic_stopping_MeV_cm2_g(const Material& material, const Particle& p
     const double s_low = low_energy_stopping_MeV_cm2_g(material, particle, energy_MeV_per_n);
     if (!(s_bethe > 0.0) || !(s_low > 0.0)) {
         throw std::logic_error("electronic_stopping: non-positive stopping inside the join "
-                               "window for " + material.id());
+                               "window for " +
+                               material.id());
     }
     const double w = smoothstep(std::log(energy_MeV_per_n / join.low_MeV_per_n) /
                                 std::log(join.high_MeV_per_n / join.low_MeV_per_n));

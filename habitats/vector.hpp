@@ -11,8 +11,12 @@ struct Vector3 {
     double y = 0.0;
     double z = 0.0;
 
-    friend constexpr Vector3 operator+(Vector3 a, Vector3 b) { return {a.x + b.x, a.y + b.y, a.z + b.z}; }
-    friend constexpr Vector3 operator-(Vector3 a, Vector3 b) { return {a.x - b.x, a.y - b.y, a.z - b.z}; }
+    friend constexpr Vector3 operator+(Vector3 a, Vector3 b) {
+        return {a.x + b.x, a.y + b.y, a.z + b.z};
+    }
+    friend constexpr Vector3 operator-(Vector3 a, Vector3 b) {
+        return {a.x - b.x, a.y - b.y, a.z - b.z};
+    }
     friend constexpr Vector3 operator*(double s, Vector3 v) { return {s * v.x, s * v.y, s * v.z}; }
     friend constexpr Vector3 operator-(Vector3 v) { return {-v.x, -v.y, -v.z}; }
 };
@@ -23,17 +27,27 @@ struct Point3 {
     double y = 0.0;
     double z = 0.0;
 
-    friend constexpr Point3 operator+(Point3 p, Vector3 v) { return {p.x + v.x, p.y + v.y, p.z + v.z}; }
-    friend constexpr Vector3 operator-(Point3 a, Point3 b) { return {a.x - b.x, a.y - b.y, a.z - b.z}; }
+    friend constexpr Point3 operator+(Point3 p, Vector3 v) {
+        return {p.x + v.x, p.y + v.y, p.z + v.z};
+    }
+    friend constexpr Vector3 operator-(Point3 a, Point3 b) {
+        return {a.x - b.x, a.y - b.y, a.z - b.z};
+    }
 };
 
-[[nodiscard]] constexpr double dot(Vector3 a, Vector3 b) { return a.x * b.x + a.y * b.y + a.z * b.z; }
+[[nodiscard]] constexpr double dot(Vector3 a, Vector3 b) {
+    return a.x * b.x + a.y * b.y + a.z * b.z;
+}
 [[nodiscard]] constexpr Vector3 cross(Vector3 a, Vector3 b) {
     return {a.y * b.z - a.z * b.y, a.z * b.x - a.x * b.z, a.x * b.y - a.y * b.x};
 }
-[[nodiscard]] inline double length(Vector3 v) { return std::sqrt(dot(v, v)); }
+[[nodiscard]] inline double length(Vector3 v) {
+    return std::sqrt(dot(v, v));
+}
 /// v / |v|; the caller guarantees |v| > 0.
-[[nodiscard]] inline Vector3 normalized(Vector3 v) { return (1.0 / length(v)) * v; }
+[[nodiscard]] inline Vector3 normalized(Vector3 v) {
+    return (1.0 / length(v)) * v;
+}
 
 /// A ray: origin and unit direction, with ray(t) = origin + t direction.
 struct Ray {

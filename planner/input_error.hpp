@@ -13,14 +13,14 @@ struct SourceLocation {
 /// Bad input that the user must fix. what() reads "file:line: field: problem; allowed".
 /// Only main() turns it into a message and exit code 2.
 class InputError : public std::runtime_error {
-public:
+  public:
     InputError(SourceLocation where, std::string field, std::string problem);
 
     [[nodiscard]] const SourceLocation& where() const noexcept { return where_; }
     [[nodiscard]] const std::string& field() const noexcept { return field_; }
     [[nodiscard]] const std::string& problem() const noexcept { return problem_; }
 
-private:
+  private:
     SourceLocation where_;
     std::string field_;
     std::string problem_;

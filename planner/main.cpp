@@ -16,7 +16,9 @@ namespace {
 
 constexpr int kExitBadInput = 2;
 
-void write_stdout(const std::string& text) { std::fwrite(text.data(), 1, text.size(), stdout); }
+void write_stdout(const std::string& text) {
+    std::fwrite(text.data(), 1, text.size(), stdout);
+}
 
 } // namespace
 
@@ -39,20 +41,23 @@ int main(int argc, char** argv) {
         "range", "Stopping power, LET and CSDA range of a particle in a material.\n"
                  "Example: crewdose range --material aluminium --particle proton "
                  "--energy 1,10,100,1000");
-    range->add_option("--material,-m", material,
-                      "built-in material id (see 'crewdose materials')")
+    range->add_option("--material,-m", material, "built-in material id (see 'crewdose materials')")
         ->capture_default_str();
-    range->add_option("--particle,-p", particle,
-                      "proton, alpha, or a bare nucleus up to nickel by name or symbol "
-                      "(carbon, C, iron, Fe)")
+    range
+        ->add_option("--particle,-p", particle,
+                     "proton, alpha, or a bare nucleus up to nickel by name or symbol "
+                     "(carbon, C, iron, Fe)")
         ->capture_default_str();
-    range->add_option("--energy,-e", energies,
-                      fmt::format("kinetic energies per nucleon in MeV/n, comma-separated, "
-                                  "{} to {}",
-                                  grid.min_MeV_per_n, grid.max_MeV_per_n))
+    range
+        ->add_option("--energy,-e", energies,
+                     fmt::format("kinetic energies per nucleon in MeV/n, comma-separated, "
+                                 "{} to {}",
+                                 grid.min_MeV_per_n, grid.max_MeV_per_n))
         ->capture_default_str();
-    range->add_option("--format,-f", format, "text (4 significant figures), json (full "
-                                             "precision) or csv")
+    range
+        ->add_option("--format,-f", format,
+                     "text (4 significant figures), json (full "
+                     "precision) or csv")
         ->capture_default_str();
 
     auto* materials =
@@ -70,8 +75,7 @@ int main(int argc, char** argv) {
     } catch (const CLI::CallForVersion& e) {
         return app.exit(e);
     } catch (const CLI::ParseError& e) {
-        std::fprintf(stderr, "crewdose: %s\nRun 'crewdose --help' for the commands.\n",
-                     e.what());
+        std::fprintf(stderr, "crewdose: %s\nRun 'crewdose --help' for the commands.\n", e.what());
         return kExitBadInput;
     }
 
@@ -80,9 +84,8 @@ int main(int argc, char** argv) {
         if (range->parsed()) {
             const auto& mat = planner::material_by_id(material);
             const auto part = planner::particle_by_name_or_throw(particle);
-            const auto list =
-                planner::parse_energy_list(energies, "--energy", grid.min_MeV_per_n,
-                                           grid.max_MeV_per_n);
+            const auto list = planner::parse_energy_list(energies, "--energy", grid.min_MeV_per_n,
+                                                         grid.max_MeV_per_n);
             write_stdout(planner::format_range_report(
                 mat, part, planner::range_rows(mat, part, list), fmt_choice));
         } else if (materials->parsed()) {

@@ -137,8 +137,8 @@ std::vector<RangeRow> range_rows(const exposure::Material& material,
 }
 
 std::string format_range_report(const exposure::Material& material,
-                                 const exposure::Particle& particle,
-                                 const std::vector<RangeRow>& rows, OutputFormat format) {
+                                const exposure::Particle& particle,
+                                const std::vector<RangeRow>& rows, OutputFormat format) {
     if (format == OutputFormat::json) {
         nlohmann::json j;
         j["material"] = {{"id", material.id()},
@@ -165,14 +165,14 @@ std::string format_range_report(const exposure::Material& material,
         }
         return out;
     }
-    std::string out = fmt::format("{} in {} ({}; {:.4g} g/cm3; I = {:.4g} eV)\n", particle.name,
-                                  material.id(), material.name(), material.density_g_cm3(),
-                                  material.mean_excitation_eV());
+    std::string out =
+        fmt::format("{} in {} ({}; {:.4g} g/cm3; I = {:.4g} eV)\n", particle.name, material.id(),
+                    material.name(), material.density_g_cm3(), material.mean_excitation_eV());
     out += "electronic stopping, continuous-slowing-down (CSDA) range\n\n";
     out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "energy", "stopping power",
                        "LET", "CSDA range", "CSDA range");
-    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g",
-                       "keV/um", "g/cm2", "cm");
+    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g", "keV/um",
+                       "g/cm2", "cm");
     for (const auto& r : rows) {
         out += fmt::format("  {:>11.4g}  {:>14.4g}  {:>10.4g}  {:>13.4g}  {:>13.4g}\n",
                            r.energy_MeV_per_n, r.stopping_MeV_cm2_g, r.let_keV_um,
@@ -209,10 +209,9 @@ std::string format_materials_report(OutputFormat format) {
     if (format == OutputFormat::csv) {
         std::string out = "id,density_g_cm3,mean_excitation_eV,i_value_origin,composition\n";
         for (const auto& m : materials) {
-            out += fmt::format("{},{:.10g},{:.10g},{},\"{}\"\n", m.id(), m.density_g_cm3(),
-                               m.mean_excitation_eV(),
-                               m.has_own_mean_excitation() ? "published" : "bragg",
-                               composition_text(m));
+            out += fmt::format(
+                "{},{:.10g},{:.10g},{},\"{}\"\n", m.id(), m.density_g_cm3(), m.mean_excitation_eV(),
+                m.has_own_mean_excitation() ? "published" : "bragg", composition_text(m));
         }
         return out;
     }

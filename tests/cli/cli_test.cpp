@@ -74,11 +74,11 @@ TEST_CASE("range csv has a header and one row per energy", "[cli]") {
 TEST_CASE("materials lists the library", "[cli]") {
     const Run r = run("materials");
     CHECK(r.exit_code == 0);
-    for (const char* id : {"water", "soft-tissue", "cortical-bone", "aluminium", "al-6061",
-                           "polyethylene", "borated-polyethylene", "aramid", "ceramic-fabric",
-                           "lithium-hydride", "lead", "mare-regolith", "highland-regolith",
-                           "mars-regolith", "mars-atmosphere", "air", "silicon",
-                           "carbon-composite"}) {
+    for (const char* id :
+         {"water", "soft-tissue", "cortical-bone", "aluminium", "al-6061", "polyethylene",
+          "borated-polyethylene", "aramid", "ceramic-fabric", "lithium-hydride", "lead",
+          "mare-regolith", "highland-regolith", "mars-regolith", "mars-atmosphere", "air",
+          "silicon", "carbon-composite"}) {
         CHECK(r.out.find(id) != std::string::npos);
     }
     const Run j = run("materials --format json");
@@ -91,15 +91,15 @@ TEST_CASE("bad input exits 2 and names the option and what is allowed", "[cli]")
         const char* args;
         const char* must_say;
     };
-    for (const Case& c : {Case{"range --material cheese", "--material: no built-in material 'cheese'"},
-                          Case{"range --particle muon", "--particle: 'muon'"},
-                          Case{"range --particle N", "--particle"},
-                          Case{"range --energy 1,abc", "--energy: 'abc' is not a number"},
-                          Case{"range --energy 0.001", "outside the tables; allowed: 0.01"},
-                          Case{"range --energy 1,,2", "--energy"},
-                          Case{"range --format xml", "--format: 'xml' is not a format; allowed"},
-                          Case{"range --bogus", "bogus"},
-                          Case{"", "subcommand"}}) {
+    for (const Case& c :
+         {Case{"range --material cheese", "--material: no built-in material 'cheese'"},
+          Case{"range --particle muon", "--particle: 'muon'"},
+          Case{"range --particle N", "--particle"},
+          Case{"range --energy 1,abc", "--energy: 'abc' is not a number"},
+          Case{"range --energy 0.001", "outside the tables; allowed: 0.01"},
+          Case{"range --energy 1,,2", "--energy"},
+          Case{"range --format xml", "--format: 'xml' is not a format; allowed"},
+          Case{"range --bogus", "bogus"}, Case{"", "subcommand"}}) {
         const Run r = run(c.args);
         INFO(c.args << "\n" << r.out);
         CHECK(r.exit_code == 2);

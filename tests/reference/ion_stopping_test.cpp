@@ -29,15 +29,26 @@ TEST_CASE("carbon ions in water match ICRU 73 above 10 MeV/u", "[ions]") {
     // computed after the report's 2009 errata (water I = 78 eV), as distributed in the libdedx
     // data file ICRU73_NEW. crewdose uses I = 75 eV (ICRU 49), which raises stopping by about
     // 0.6 %; tolerance 5 % (foundation issue).
-    check_ion("carbon", {{10, 1630.2}, {20, 926.30}, {50, 443.28}, {100, 260.28},
-                         {200, 160.83}, {500, 98.575}, {1000, 79.682}},
+    check_ion("carbon",
+              {{10, 1630.2},
+               {20, 926.30},
+               {50, 443.28},
+               {100, 260.28},
+               {200, 160.83},
+               {500, 98.575},
+               {1000, 79.682}},
               5e-2);
 }
 
 TEST_CASE("carbon ions in water match MSTAR above 10 MeV/u", "[ions]") {
     // Source: H. Paul & A. Schinner, program MSTAR 3.12 with water I = 75 eV, MeV cm2/g.
-    check_ion("carbon", {{10, 1639.72}, {20, 938.005}, {50, 448.228}, {100, 262.61},
-                         {250, 141.078}, {1000, 80.0059}},
+    check_ion("carbon",
+              {{10, 1639.72},
+               {20, 938.005},
+               {50, 448.228},
+               {100, 262.61},
+               {250, 141.078},
+               {1000, 80.0059}},
               5e-2);
 }
 

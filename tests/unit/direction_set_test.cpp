@@ -19,8 +19,7 @@ TEST_CASE("Fibonacci directions are unit vectors whose mean vanishes", "[directi
     CHECK(length((1.0 / 1000.0) * sum) < 1e-3);
 }
 
-TEST_CASE("Fibonacci directions are nearly equal-area: caps hold their share",
-          "[directions]") {
+TEST_CASE("Fibonacci directions are nearly equal-area: caps hold their share", "[directions]") {
     // Analytic: a polar cap of half-angle theta holds the fraction (1 - cos theta) / 2 of the
     // sphere; a hemisphere about any axis holds one half.
     const std::size_t n = 4000;

@@ -14,8 +14,8 @@ TEST_CASE("interval_index finds the interval and clamps at both ends", "[interpo
     CHECK(interval_index(x, 1.5) == 0);
     CHECK(interval_index(x, 2.0) == 1); // a node belongs to the interval it starts
     CHECK(interval_index(x, 7.9) == 2);
-    CHECK(interval_index(x, 8.0) == 2); // last node: last interval
-    CHECK(interval_index(x, 0.5) == 0); // below: clamped
+    CHECK(interval_index(x, 8.0) == 2);   // last node: last interval
+    CHECK(interval_index(x, 0.5) == 0);   // below: clamped
     CHECK(interval_index(x, 100.0) == 2); // above: clamped
     CHECK(interval_index(x, std::numeric_limits<double>::quiet_NaN()) == 0);
     CHECK_THROWS_AS(interval_index(std::vector<double>{1.0}, 1.0), std::logic_error);

@@ -62,8 +62,8 @@ TEST_CASE("the Sternheimer-Peierls recipe reproduces the tabulated C-bar", "[mat
     const Material& w = *find_builtin_material("water");
     const auto sp = sternheimer_peierls(75.0, w.plasma_energy_eV(), false);
     CHECK(sp.c_bar == Approx(3.5017).epsilon(1e-4));
-    CHECK(sp.x1 == 2.0);  // I < 100 eV branch, by the recipe
-    CHECK(sp.x0 == 0.2);  // C-bar < 3.681, by the recipe
+    CHECK(sp.x1 == 2.0); // I < 100 eV branch, by the recipe
+    CHECK(sp.x0 == 0.2); // C-bar < 3.681, by the recipe
     const Material& al = *find_builtin_material("aluminium");
     CHECK(sternheimer_peierls(166.0, al.plasma_energy_eV(), false).c_bar ==
           Approx(4.2395).epsilon(1e-4));
@@ -78,7 +78,8 @@ TEST_CASE("Bragg additivity of I: electron-weighted mean of ln I", "[material]")
     const Material m(spec_of({{1, 0.5}, {8, 0.5}}));
     const double za_h = 0.5 * 1.0 / 1.00794;
     const double za_o = 0.5 * 8.0 / 15.9994;
-    const double expected = std::exp((za_h * std::log(19.2) + za_o * std::log(95.0)) / (za_h + za_o));
+    const double expected =
+        std::exp((za_h * std::log(19.2) + za_o * std::log(95.0)) / (za_h + za_o));
     CHECK(m.mean_excitation_eV() == Approx(expected).epsilon(1e-12));
     CHECK_FALSE(m.has_own_mean_excitation());
 }
@@ -86,7 +87,7 @@ TEST_CASE("Bragg additivity of I: electron-weighted mean of ln I", "[material]")
 TEST_CASE("bad material definitions name the field at fault", "[material]") {
     CHECK(field_of_error(spec_of({{1, 0.5}, {8, 0.4}})) == "composition"); // sums to 0.9
     CHECK(field_of_error(spec_of({{1, 0.5}, {1, 0.5}})) == "composition"); // listed twice
-    CHECK(field_of_error(spec_of({{99, 1.0}})) == "composition");           // unknown element
+    CHECK(field_of_error(spec_of({{99, 1.0}})) == "composition");          // unknown element
     CHECK(field_of_error(spec_of({{1, -0.1}, {8, 1.1}})) == "mass_fraction");
     CHECK(field_of_error(spec_of({{13, 1.0}}, 0.0)) == "density_g_cm3");
     CHECK(field_of_error(spec_of({{13, 1.0}}, std::nan(""))) == "density_g_cm3");

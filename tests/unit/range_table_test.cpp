@@ -26,8 +26,7 @@ TEST_CASE("range is strictly increasing and E(R) inverts R(E) to 1e-9", "[range]
     }
 }
 
-TEST_CASE("the range starts from the low-energy form's own R(E_min), not from zero",
-          "[range]") {
+TEST_CASE("the range starts from the low-energy form's own R(E_min), not from zero", "[range]") {
     const RangeTable t(*find_builtin_material("aluminium"), proton());
     const double r_min = t.range_g_cm2(0.01);
     // Source: the foundation issue's figure, R(10 keV) is about 1.5 % of R(1 MeV) in aluminium;
@@ -35,8 +34,8 @@ TEST_CASE("the range starts from the low-energy form's own R(E_min), not from ze
     CHECK(r_min / t.range_g_cm2(1.0) == Approx(0.017).margin(0.003));
     // By construction: below 10 keV/u the ICRU 49 fit is S = A1 sqrt(T), whose range from zero
     // is 2 E / S(E).
-    const double s = low_energy_stopping_MeV_cm2_g(*find_builtin_material("aluminium"),
-                                                    proton(), 0.01);
+    const double s =
+        low_energy_stopping_MeV_cm2_g(*find_builtin_material("aluminium"), proton(), 0.01);
     CHECK(r_min == Approx(2.0 * 0.01 / s).epsilon(2e-3));
 }
 

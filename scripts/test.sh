@@ -1,0 +1,33 @@
+#!/usr/bin/env bash
+# One command: install the dependencies, build with warnings as errors, run every test.
+#   scripts/test.sh              normal build in build/, all tests (slow ones included)
+#   scripts/test.sh --sanitize   AddressSanitizer + UndefinedBehaviorSanitizer build in
+#                                build-sanitize/, every test except those labelled 'slow'
+set -euo pipefail
+cd "$(dirname "$0")/.."
+
+sanitize=0
+for arg in "$@"; do
+  case "$arg" in
+    --sanitize) sanitize=1 ;;
+    *) echo "usage: scripts/test.sh [--sanitize]" >&2; exit 2 ;;
+  esac
+done
+
+bash scripts/install-deps.sh
+jobs=$(nproc 2>/dev/null || echo 2)
+
+if ((sanitize)); then
+  dir=build-sanitize
+  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCREWDOSE_WERROR=ON \
+        -DCREWDOSE_SANITIZE=ON -DCREWDOSE_BUILD_BENCHMARKS=OFF > /dev/null
+  cmake --build "$dir" -j "$jobs"
+  export ASAN_OPTIONS=detect_leaks=1:abort_on_error=1
+  export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
+  (cd "$dir" && ctest --output-on-failure --no-tests=error -j "$jobs" -LE slow)
+else
+  dir=build
+  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCREWDOSE_WERROR=ON > /dev/null
+  cmake --build "$dir" -j "$jobs"
+  (cd "$dir" && ctest --output-on-failure --no-tests=error -j "$jobs")
+fi
