@@ -76,24 +76,23 @@ RangeTable::RangeTable(const Material& material, const Particle& particle, Energ
     }
 }
 
-double RangeTable::stopping_MeV_cm2_g(double E) const {
+double RangeTable::log_interpolate(const std::vector<double>& log_values, double E) const {
     if (!(E >= grid_.front() && E <= grid_.back())) {
         throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
                                 " MeV/n is outside the table");
     }
     const double x = std::log(E);
     const std::size_t i = grid_.interval_of_log(x);
-    return std::exp(lerp_at(grid_.log_node(i), log_S_[i], grid_.log_node(i + 1), log_S_[i + 1], x));
+    return std::exp(
+        lerp_at(grid_.log_node(i), log_values[i], grid_.log_node(i + 1), log_values[i + 1], x));
+}
+
+double RangeTable::stopping_MeV_cm2_g(double E) const {
+    return log_interpolate(log_S_, E);
 }
 
 double RangeTable::range_g_cm2(double E) const {
-    if (!(E >= grid_.front() && E <= grid_.back())) {
-        throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
-                                " MeV/n is outside the table");
-    }
-    const double x = std::log(E);
-    const std::size_t i = grid_.interval_of_log(x);
-    return std::exp(lerp_at(grid_.log_node(i), log_R_[i], grid_.log_node(i + 1), log_R_[i + 1], x));
+    return log_interpolate(log_R_, E);
 }
 
 double RangeTable::energy_MeV_per_n(double range) const {

@@ -60,6 +60,9 @@ class RangeTable {
     [[nodiscard]] RangeTable with_optical_depth(std::vector<double> optical_depth_nodes) const;
 
   private:
+    /// exp of the node values `log_values`, linear in ln E between nodes.
+    [[nodiscard]] double log_interpolate(const std::vector<double>& log_values, double E) const;
+
     Particle particle_;
     std::string material_id_;
     LogGrid grid_;

@@ -13,44 +13,44 @@
 namespace crewdose::exposure {
 namespace {
 
-double proton_fit_stopping(const Material& material, double T_keV_per_u) {
+// Mass stopping power from a fit family: the compound's own fit if it has one (selected by
+// `compound_fit`), else Bragg additivity over the elements' fits (`element_fit`).
+template <class CompoundFit, class ElementFit>
+double fit_stopping(const Material& material, double T, CompoundFit compound_fit,
+                    ElementFit element_fit, const char* family) {
     const auto& compound = material.low_energy_fit();
-    if (compound && compound->proton) {
-        return cross_section_to_mass_stopping(compound->proton->cross_section(T_keV_per_u),
-                                              compound->formula_mass_g_mol);
+    if (compound) {
+        if (const auto& fit = compound_fit(*compound)) {
+            return cross_section_to_mass_stopping(fit->cross_section(T),
+                                                  compound->formula_mass_g_mol);
+        }
     }
     double s = 0.0;
     for (const auto& share : material.composition()) {
-        const auto fit = proton_fit_for_element(share.Z);
+        const auto fit = element_fit(share.Z);
         const auto element = element_by_Z(share.Z);
         if (!fit || !element) {
-            throw std::logic_error("no ICRU 49 proton fit for element Z = " +
-                                   std::to_string(share.Z));
+            throw std::logic_error(std::string("no ICRU 49 ") + family +
+                                   " fit for element Z = " + std::to_string(share.Z));
         }
-        s += share.mass_fraction * cross_section_to_mass_stopping(fit->cross_section(T_keV_per_u),
-                                                                  element->atomic_mass_g_mol);
+        s += share.mass_fraction *
+             cross_section_to_mass_stopping(fit->cross_section(T), element->atomic_mass_g_mol);
     }
     return s;
 }
 
+double proton_fit_stopping(const Material& material, double T_keV_per_u) {
+    return fit_stopping(
+        material, T_keV_per_u,
+        [](const CompoundLowEnergyFit& c) -> const std::optional<ProtonFit>& { return c.proton; },
+        proton_fit_for_element, "proton");
+}
+
 double helium_fit_stopping(const Material& material, double T_MeV) {
-    const auto& compound = material.low_energy_fit();
-    if (compound && compound->helium) {
-        return cross_section_to_mass_stopping(compound->helium->cross_section(T_MeV),
-                                              compound->formula_mass_g_mol);
-    }
-    double s = 0.0;
-    for (const auto& share : material.composition()) {
-        const auto fit = helium_fit_for_element(share.Z);
-        const auto element = element_by_Z(share.Z);
-        if (!fit || !element) {
-            throw std::logic_error("no ICRU 49 helium fit for element Z = " +
-                                   std::to_string(share.Z));
-        }
-        s += share.mass_fraction *
-             cross_section_to_mass_stopping(fit->cross_section(T_MeV), element->atomic_mass_g_mol);
-    }
-    return s;
+    return fit_stopping(
+        material, T_MeV,
+        [](const CompoundLowEnergyFit& c) -> const std::optional<HeliumFit>& { return c.helium; },
+        helium_fit_for_element, "helium");
 }
 
 double smoothstep(double u) {
