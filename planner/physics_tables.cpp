@@ -174,7 +174,7 @@ std::string format_range_report(const exposure::Material& material,
     out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g", "keV/um",
                        "g/cm2", "cm");
     for (const auto& r : rows) {
-        out += fmt::format("  {:>11.4g}  {:>14.4g}  {:>10.4g}  {:>13.4g}  {:>13.4g}\n",
+        out += fmt::format("  {:>11.4g}  {:>#14.4g}  {:>#10.4g}  {:>#13.4g}  {:>#13.4g}\n",
                            r.energy_MeV_per_n, r.stopping_MeV_cm2_g, r.let_keV_um,
                            r.csda_range_g_cm2, r.csda_range_cm);
     }

@@ -54,7 +54,7 @@ TEST_CASE("range json carries full precision that agrees with the text", "[cli]"
     CHECK(doc["rows"][0]["csda_range_cm"].get<double>() == Approx(R / 2.699).epsilon(1e-12));
     const Run t = run("range -m aluminium -p proton -e 100");
     char buf[64];
-    std::snprintf(buf, sizeof buf, "%.4g", s);
+    std::snprintf(buf, sizeof buf, "%#.4g", s);
     CHECK(t.out.find(buf) != std::string::npos);
 }
 
