@@ -128,7 +128,7 @@ std::vector<RangeRow> range_rows(const exposure::Material& material,
         row.energy_MeV_per_n = E;
         // The exact model value at the requested energy, not the table interpolant.
         row.stopping_MeV_cm2_g = exposure::electronic_stopping_MeV_cm2_g(material, particle, E);
-        row.let_keV_um = row.stopping_MeV_cm2_g * material.density_g_cm3() * 0.1;
+        row.let_keV_um = exposure::let_keV_um(material, particle, E);
         row.csda_range_g_cm2 = table.range_g_cm2(E);
         row.csda_range_cm = row.csda_range_g_cm2 / material.density_g_cm3();
         rows.push_back(row);
