@@ -2,6 +2,7 @@
 
 #include "stopping.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <stdexcept>
 #include <string>
@@ -44,22 +45,45 @@ double low_energy_range_g_cm2(const Material& material, const Particle& particle
     return body + A * bottom / ((1.0 - p) * s0);
 }
 
+namespace {
+
+std::size_t node_count(const EnergyGridSpec& spec) {
+    return static_cast<std::size_t>(
+               std::lround(std::log10(spec.max_MeV_per_n / spec.min_MeV_per_n) *
+                           static_cast<double>(spec.nodes_per_decade))) +
+           1;
+}
+
+} // namespace
+
 RangeTable::RangeTable(const Material& material, const Particle& particle, EnergyGridSpec spec)
-    : particle_(particle), material_id_(material.id()),
-      grid_(
-          spec.min_MeV_per_n, spec.max_MeV_per_n,
-          static_cast<std::size_t>(std::lround(std::log10(spec.max_MeV_per_n / spec.min_MeV_per_n) *
-                                               static_cast<double>(spec.nodes_per_decade))) +
-              1) {
+    : RangeTable(
+          material.id(), particle, spec,
+          [&](double E) { return electronic_stopping_MeV_cm2_g(material, particle, E); },
+          low_energy_range_g_cm2(material, particle, spec.min_MeV_per_n)) {}
+
+RangeTable RangeTable::from_stopping_law(std::string id, const Particle& particle,
+                                         const std::function<double(double)>& stopping,
+                                         double range_at_min_g_cm2, EnergyGridSpec grid) {
+    return RangeTable(std::move(id), particle, grid, stopping, range_at_min_g_cm2);
+}
+
+RangeTable::RangeTable(std::string id, const Particle& particle, EnergyGridSpec spec,
+                       const std::function<double(double)>& stopping, double range_at_min)
+    : particle_(particle), material_id_(std::move(id)),
+      grid_(spec.min_MeV_per_n, spec.max_MeV_per_n, node_count(spec)) {
+    if (!(range_at_min > 0.0)) {
+        throw std::logic_error("RangeTable: the range at the lowest energy must be > 0");
+    }
     const std::size_t n = grid_.size();
     log_S_.resize(n);
     log_R_.resize(n);
     // Stopping at the nodes and at the midpoints; Simpson's rule in ln E on each interval for
     // R = integral A E / S(E) d(ln E).
     const double A = particle.A;
-    double S_prev = electronic_stopping_MeV_cm2_g(material, particle, grid_.front());
+    double S_prev = stopping(grid_.front());
     log_S_[0] = std::log(S_prev);
-    double R = low_energy_range_g_cm2(material, particle, grid_.front());
+    double R = range_at_min;
     log_R_[0] = std::log(R);
     const double h = grid_.log_step();
     for (std::size_t i = 1; i < n; ++i) {
@@ -67,8 +91,8 @@ RangeTable::RangeTable(const Material& material, const Particle& particle, Energ
         const double E_a = std::exp(ln_a);
         const double E_m = std::exp(ln_a + 0.5 * h);
         const double E_b = std::exp(grid_.log_node(i));
-        const double S_m = electronic_stopping_MeV_cm2_g(material, particle, E_m);
-        const double S_b = electronic_stopping_MeV_cm2_g(material, particle, E_b);
+        const double S_m = stopping(E_m);
+        const double S_b = stopping(E_b);
         R += h / 6.0 * A * (E_a / S_prev + 4.0 * E_m / S_m + E_b / S_b);
         log_S_[i] = std::log(S_b);
         log_R_[i] = std::log(R);
@@ -102,7 +126,10 @@ double RangeTable::energy_MeV_per_n(double range) const {
                                 " g/cm2 is outside the table");
     }
     const std::size_t i = interval_index(log_R_, y);
-    return std::exp(lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y));
+    // Clamped so that rounding at the table's ends never leaves the table.
+    return std::clamp(
+        std::exp(lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y)),
+        grid_.front(), grid_.back());
 }
 
 double RangeTable::min_range_g_cm2() const noexcept {
@@ -110,6 +137,20 @@ double RangeTable::min_range_g_cm2() const noexcept {
 }
 double RangeTable::max_range_g_cm2() const noexcept {
     return std::exp(log_R_.back());
+}
+
+double RangeTable::optical_depth(double E) const {
+    if (optical_depth_.empty()) {
+        return 0.0;
+    }
+    if (!(E >= grid_.front() && E <= grid_.back())) {
+        throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
+                                " MeV/n is outside the table");
+    }
+    const double x = std::log(E);
+    const std::size_t i = grid_.interval_of_log(x);
+    return lerp_at(grid_.log_node(i), optical_depth_[i], grid_.log_node(i + 1),
+                   optical_depth_[i + 1], x);
 }
 
 RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_nodes) const {

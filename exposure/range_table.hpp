@@ -3,8 +3,9 @@
 #include "material.hpp"
 #include "particle.hpp"
 
-#include <memory>
+#include <functional>
 #include <optional>
+#include <string>
 #include <vector>
 
 namespace crewdose::exposure {
@@ -29,6 +30,13 @@ struct EnergyGridSpec {
 class RangeTable {
   public:
     RangeTable(const Material& material, const Particle& particle, EnergyGridSpec grid = {});
+
+    /// A table for any stopping law: `stopping_MeV_cm2_g(E)` for the whole ion at energy per
+    /// nucleon E, and the range at the grid's lowest energy. Used for manufactured-solution
+    /// tests of the transport code and for stopping laws given as data.
+    static RangeTable from_stopping_law(std::string id, const Particle& particle,
+                                        const std::function<double(double)>& stopping_MeV_cm2_g,
+                                        double range_at_min_g_cm2, EnergyGridSpec grid = {});
 
     [[nodiscard]] const Particle& particle() const noexcept { return particle_; }
     [[nodiscard]] const std::string& material_id() const noexcept { return material_id_; }
@@ -58,8 +66,14 @@ class RangeTable {
     [[nodiscard]] bool has_optical_depth() const noexcept { return !optical_depth_.empty(); }
     /// A copy of this table with the optical-depth slot filled (one value per node).
     [[nodiscard]] RangeTable with_optical_depth(std::vector<double> optical_depth_nodes) const;
+    /// Nuclear optical depth Lambda(E), linear in ln E between nodes; 0 when the slot is empty.
+    /// Survival while slowing from E0 to E is exp(-(Lambda(E0) - Lambda(E))).
+    [[nodiscard]] double optical_depth(double energy_MeV_per_n) const;
 
   private:
+    RangeTable(std::string id, const Particle& particle, EnergyGridSpec grid,
+               const std::function<double(double)>& stopping_MeV_cm2_g, double range_at_min_g_cm2);
+
     /// exp of the node values `log_values`, linear in ln E between nodes.
     [[nodiscard]] double log_interpolate(const std::vector<double>& log_values, double E) const;
 

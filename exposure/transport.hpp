@@ -1,0 +1,55 @@
+#pragma once
+// Straight-ahead continuous-slowing-down transport of a charged particle through an ordered
+// path of shield layers (DESIGN.md physics item 3). The same code serves protons, alphas and
+// heavier ions: every layer carries the range table of the transported particle.
+#include "range_table.hpp"
+
+#include <span>
+#include <vector>
+
+namespace crewdose::exposure {
+
+/// One layer crossed on the way to the dose point: the transported particle's range table in
+/// the layer's material (shared, not owned; it must outlive the path) and its areal density.
+struct Layer {
+    const RangeTable* table = nullptr;
+    double areal_density_g_cm2 = 0.0;
+};
+
+/// Layers in the order the particle crosses them: outermost first, the dose point after the
+/// last one. An empty path is the free field.
+using LayerPath = std::vector<Layer>;
+
+/// Whether nuclear reactions remove particles. Removal is not conservative until secondaries
+/// are modelled (their energy partly reappears as secondary nucleons), so limit checks use the
+/// higher dose of the two.
+enum class Removal { with, without };
+
+/// A particle followed forwards from its incident energy.
+struct ForwardResult {
+    bool stopped = false;             ///< came to rest before the dose point (exit < grid min)
+    double exit_energy_MeV_per_n = 0; ///< energy at the dose point when not stopped
+    double survival = 1.0;            ///< probability of no nuclear reaction on the way
+    std::size_t stopped_in_layer = 0; ///< index of the layer where it stopped, if stopped
+};
+
+/// Forward CSDA transport of one particle of incident energy `incident_MeV_per_n` (inside the
+/// tables): in each layer R(E_out) = R(E_in) - t; survival exp(-(Lambda(E_in) - Lambda(E_out))).
+[[nodiscard]] ForwardResult transport_forward(std::span<const Layer> path,
+                                              double incident_MeV_per_n, Removal removal);
+
+/// The incident particle that arrives at the dose point with a given energy.
+struct BackwardResult {
+    bool reachable = false;        ///< false when the incident energy would exceed the tables
+    double incident_MeV_per_n = 0; ///< E0
+    double jacobian = 1.0;         ///< dE0/dE = prod S_i(E_in,i) / S_i(E_out,i)
+    double survival = 1.0;         ///< as in ForwardResult
+};
+
+/// Backward CSDA transport from the exit energy `exit_MeV_per_n` at the dose point, layer by
+/// layer outwards: R(E_in) = R(E_out) + t. With it the transmitted spectrum is
+/// phi_out(E) = phi_in(E0) * jacobian * survival, exact within the CSDA model.
+[[nodiscard]] BackwardResult transport_backward(std::span<const Layer> path, double exit_MeV_per_n,
+                                                Removal removal);
+
+} // namespace crewdose::exposure
