@@ -1,6 +1,8 @@
 // crewdose command line: parses arguments and calls the planner library; no physics here.
+#include "depth_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
+#include "spectrum_spec.hpp"
 
 #include "exposure/parameter_error.hpp"
 #include "exposure/range_table.hpp"
@@ -66,6 +68,32 @@ int main(int argc, char** argv) {
     materials->add_option("--format,-f", format, "text, json (with sources) or csv")
         ->capture_default_str();
 
+    std::string spectrum;
+    std::string depths = "0.5,1,2,5,10,20,50";
+    std::string tissue_depth = "bfo";
+    std::string shield = "aluminium";
+    auto* depth = app.add_subcommand(
+        "depth", "Dose of an SPE spectrum at a tissue depth behind a uniform shield (the dose at "
+                 "the centre of a spherical shell), per shield areal density.\n"
+                 "Example: crewdose depth --spectrum "
+                 "\"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\" --material aluminium "
+                 "--depths 0.5,1,2,5,10,20,50 --tissue-depth bfo\n\n" +
+                     planner::spectrum_help());
+    depth->add_option("--spectrum,-s", spectrum, "the SPE proton spectrum (see above)")->required();
+    depth->add_option("--material,-m", shield, "shield material id (see 'crewdose materials')")
+        ->capture_default_str();
+    depth
+        ->add_option("--depths,-d", depths,
+                     "shield areal densities in g/cm2, comma-separated, 0 to 1000")
+        ->capture_default_str();
+    depth
+        ->add_option("--tissue-depth,-t", tissue_depth,
+                     "where the dose is scored: skin (0.07 mm), lens (3 mm), bfo (5 cm) or a "
+                     "number of g/cm2 of tissue; the named depths are the quick screening model")
+        ->capture_default_str();
+    depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
+        ->capture_default_str();
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -88,6 +116,13 @@ int main(int argc, char** argv) {
                                                          grid.max_MeV_per_n);
             write_stdout(planner::format_range_report(
                 mat, part, planner::range_rows(mat, part, list), fmt_choice));
+        } else if (depth->parsed()) {
+            const auto spec = planner::parse_spectrum(spectrum, "--spectrum");
+            const auto& mat = planner::material_by_id(shield);
+            const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
+            const auto list = planner::parse_depth_list(depths, "--depths");
+            write_stdout(planner::format_depth_report(
+                spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list), fmt_choice));
         } else if (materials->parsed()) {
             write_stdout(planner::format_materials_report(fmt_choice));
         }

@@ -1,6 +1,7 @@
 #include "physics_tables.hpp"
 
 #include "input_error.hpp"
+#include "number_format.hpp"
 
 #include "exposure/element.hpp"
 #include "exposure/material_library.hpp"
@@ -174,9 +175,9 @@ std::string format_range_report(const exposure::Material& material,
     out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g", "keV/um",
                        "g/cm2", "cm");
     for (const auto& r : rows) {
-        out += fmt::format("  {:>11.4g}  {:>#14.4g}  {:>#10.4g}  {:>#13.4g}  {:>#13.4g}\n",
-                           r.energy_MeV_per_n, r.stopping_MeV_cm2_g, r.let_keV_um,
-                           r.csda_range_g_cm2, r.csda_range_cm);
+        out += fmt::format("  {:>11.4g}  {:>14}  {:>10}  {:>13}  {:>13}\n", r.energy_MeV_per_n,
+                           significant(r.stopping_MeV_cm2_g, 4), significant(r.let_keV_um, 4),
+                           significant(r.csda_range_g_cm2, 4), significant(r.csda_range_cm, 4));
     }
     out += "\nLET is unrestricted, in the material itself. Energies are kinetic energy per "
            "nucleon.\n";

@@ -116,3 +116,76 @@ TEST_CASE("help teaches the commands", "[cli]") {
     CHECK(rr.exit_code == 0);
     CHECK(rr.out.find("MeV/n") != std::string::npos);
 }
+
+TEST_CASE("depth prints doses that fall with shielding and carries the cautions", "[cli]") {
+    // Demo spectrum of the transport issue (invented values).
+    const Run r = run("depth --spectrum \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\" "
+                      "--material aluminium --depths 0.5,1,2,5,10,20,50 --tissue-depth bfo "
+                      "--format json");
+    INFO(r.out);
+    REQUIRE(r.exit_code == 0);
+    const auto doc = nlohmann::json::parse(r.out);
+    REQUIRE(doc["rows"].size() == 7);
+    double previous = 1e300;
+    for (const auto& row : doc["rows"]) {
+        const double d = row["for_limits"]["absorbed_Gy"].get<double>();
+        CHECK(d < previous);
+        CHECK(d >= row["with_removal"]["absorbed_Gy"].get<double>());
+        CHECK(d == row["without_removal"]["absorbed_Gy"].get<double>());
+        previous = d;
+    }
+    CHECK(doc["cautions"].get<std::string>().find("responsible agency") != std::string::npos);
+    const Run t = run("depth -s \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\" -d 10");
+    CHECK(t.exit_code == 0);
+    CHECK(t.out.find("planning value") != std::string::npos);
+    CHECK(t.out.find("licensed radiation-protection") != std::string::npos);
+    // The text shows the JSON value (Gy -> mGy) rounded to 3 significant figures: parse the
+    // absorbed-dose column of the 10 g/cm2 row and compare within the rounding (0.5 %).
+    const Run j = run("depth -s \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\" -d 10 -f json");
+    const double mGy =
+        1e3 * nlohmann::json::parse(j.out)["rows"][0]["for_limits"]["absorbed_Gy"].get<double>();
+    const auto row = t.out.find("\n        10 ");
+    REQUIRE(row != std::string::npos);
+    const double shown = std::stod(t.out.substr(row + 12, 16));
+    CHECK(shown == Approx(mGy).epsilon(5e-3));
+    CHECK(shown != Approx(mGy).epsilon(1e-9)); // it is rounded, not the full value
+}
+
+TEST_CASE("every spectrum form has a spelling", "[cli]") {
+    for (const char* s :
+         {"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25", "weibull:J0=5e9,k=0.9,alpha=0.4",
+          "exp-rigidity:J0=3e9,R0_GV=0.12", "exp-energy:J0=1e9,E0_MeV=30",
+          "power:J0=1e9,gamma=2.5,E_ref_MeV=30", "table:10=1e9,30=2e8,100=1e7",
+          "band:J0=1e8,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25,per_sr=yes,scale_to=1e9@30,fit_min_MeV=5,"
+          "fit_max_MeV=500"}) {
+        const Run r = run(std::string("depth -d 5 -f csv -s \"") + s + "\"");
+        INFO(s << "\n" << r.out);
+        CHECK(r.exit_code == 0);
+        CHECK(r.out.rfind("shield_g_cm2,absorbed_mGy", 0) == 0);
+    }
+}
+
+TEST_CASE("bad spectra and depths exit 2 naming the key and what is allowed", "[cli]") {
+    struct Case {
+        const char* args;
+        const char* must_say;
+    };
+    for (const Case& c :
+         {Case{"depth -s \"band:J0=1e10,gamma_a=3.5,gamma_b=1.1,R0_GV=0.25\"",
+               "--spectrum: gamma_b: must be finite and greater than gamma_a"},
+          Case{"depth -s \"band:J0=1e10,gamma_a=1.1,R0_GV=0.25\"", "needs gamma_b"},
+          Case{"depth -s \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0=0.25\"", "no key 'R0'"},
+          Case{"depth -s \"gauss:J0=1\"", "unknown spectrum form 'gauss'"},
+          Case{"depth -s band", "has no form"},
+          Case{"depth -s \"table:10=1e8,30=2e8\"", "must decrease"},
+          Case{"depth -s \"exp-energy:J0=1e9,E0_MeV=x\"", "E0_MeV: 'x' is not a number"},
+          Case{"depth -s \"exp-energy:J0=1e9,E0_MeV=30\" -d 5,-1", "--depths: '-1'"},
+          Case{"depth -s \"exp-energy:J0=1e9,E0_MeV=30\" -t liver", "--tissue-depth: 'liver'"},
+          Case{"depth -s \"exp-energy:J0=1e9,E0_MeV=30\" -m cheese", "--material"},
+          Case{"depth", "--spectrum"}}) {
+        const Run r = run(c.args);
+        INFO(c.args << "\n" << r.out);
+        CHECK(r.exit_code == 2);
+        CHECK(r.out.find(c.must_say) != std::string::npos);
+    }
+}

@@ -1,0 +1,156 @@
+#include "depth_report.hpp"
+
+#include "cautions.hpp"
+#include "input_error.hpp"
+#include "number_format.hpp"
+#include "spectrum_spec.hpp"
+
+#include "exposure/depth_dose.hpp"
+#include "exposure/material_library.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <charconv>
+#include <cmath>
+
+namespace crewdose::planner {
+namespace {
+
+const SourceLocation kCommandLine{"command line", 0};
+
+nlohmann::json to_json(const exposure::DoseQuantities& d) {
+    return {{"absorbed_Gy", d.absorbed_Gy},
+            {"dose_equivalent_Sv", d.dose_equivalent_Sv},
+            {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}};
+}
+
+} // namespace
+
+TissueDepth parse_tissue_depth(std::string_view text, std::string_view field) {
+    // Quick-model depths, common practice in space radiation protection: skin 0.07 mm, eye
+    // lens 3 mm, blood-forming organs 5 cm, of unit-density tissue.
+    if (text == "skin") {
+        return {0.007, "skin (0.07 mm of tissue)"};
+    }
+    if (text == "lens") {
+        return {0.3, "eye lens (3 mm of tissue)"};
+    }
+    if (text == "bfo") {
+        return {5.0, "BFO (5 cm of tissue)"};
+    }
+    double v = 0.0;
+    const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
+    if (text.empty() || ec != std::errc() || ptr != text.data() + text.size() ||
+        !std::isfinite(v) || v < 0.0 || v > 100.0) {
+        throw InputError(kCommandLine, std::string(field),
+                         fmt::format("'{}' is not a tissue depth; allowed: skin, lens, bfo or a "
+                                     "number of g/cm2 from 0 to 100",
+                                     text));
+    }
+    return {v, fmt::format("{:g} g/cm2 of tissue", v)};
+}
+
+std::vector<double> parse_depth_list(std::string_view text, std::string_view field) {
+    // The same rules as energies: numbers separated by commas, here in [0, 1000] g/cm2.
+    std::vector<double> out;
+    std::size_t start = 0;
+    while (start <= text.size()) {
+        const auto comma = text.find(',', start);
+        const auto item =
+            text.substr(start, (comma == std::string_view::npos ? text.size() : comma) - start);
+        double v = 0.0;
+        const auto [ptr, ec] = std::from_chars(item.data(), item.data() + item.size(), v);
+        if (item.empty() || ec != std::errc() || ptr != item.data() + item.size() ||
+            !std::isfinite(v) || v < 0.0 || v > 1000.0) {
+            throw InputError(kCommandLine, std::string(field),
+                             fmt::format("'{}' is not a shield areal density; allowed: numbers "
+                                         "from 0 to 1000 g/cm2 separated by commas",
+                                         item));
+        }
+        out.push_back(v);
+        if (comma == std::string_view::npos) {
+            break;
+        }
+        start = comma + 1;
+    }
+    return out;
+}
+
+std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
+                                 const exposure::Material& shield, const TissueDepth& tissue,
+                                 const std::vector<double>& depths_g_cm2) {
+    exposure::TableLibrary tables;
+    const exposure::DepthDoseSetup setup{&shield, exposure::find_builtin_material("soft-tissue"),
+                                         exposure::find_builtin_material("water"), tissue.g_cm2,
+                                         exposure::RbeModel{}};
+    std::vector<DepthRow> rows;
+    for (const double t : depths_g_cm2) {
+        rows.push_back({t, exposure::depth_dose(tables, setup, spectrum, t)});
+    }
+    return rows;
+}
+
+std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
+                                const exposure::Material& shield, const TissueDepth& tissue,
+                                const std::vector<DepthRow>& rows, OutputFormat format) {
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["shield_material"] = shield.id();
+        j["tissue_depth_g_cm2"] = tissue.g_cm2;
+        j["tissue"] = "soft-tissue";
+        j["spectrum"] = describe_spectrum(spectrum);
+        j["geometry"] = "shell-equivalent: every direction sees the shield, then the tissue";
+        j["rows"] = nlohmann::json::array();
+        for (const auto& r : rows) {
+            j["rows"].push_back({{"shield_g_cm2", r.shield_g_cm2},
+                                 {"for_limits", to_json(r.dose.for_limits())},
+                                 {"with_removal", to_json(r.dose.with_removal)},
+                                 {"without_removal", to_json(r.dose.without_removal)},
+                                 {"extrapolated_share", r.dose.extrapolated_share}});
+        }
+        j["cautions"] = caution_text();
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "shield_g_cm2,absorbed_mGy,dose_equivalent_mSv,rbe_weighted_mGyEq,"
+                          "absorbed_with_removal_mGy,extrapolated_share\n";
+        for (const auto& r : rows) {
+            const auto d = r.dose.for_limits();
+            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.6g}\n", r.shield_g_cm2,
+                               1e3 * d.absorbed_Gy, 1e3 * d.dose_equivalent_Sv,
+                               1e3 * d.rbe_weighted_GyEq, 1e3 * r.dose.with_removal.absorbed_Gy,
+                               r.dose.extrapolated_share);
+        }
+        return out;
+    }
+    std::string out =
+        fmt::format("SPE dose behind {} ({}) at {}\n", shield.id(), shield.name(), tissue.label);
+    out += fmt::format("spectrum: {}\n", describe_spectrum(spectrum));
+    out += "geometry: shell-equivalent (the event's full omnidirectional fluence through the same\n"
+           "thickness in every direction: the dose at the centre of a spherical shell)\n\n";
+    out += fmt::format("  {:>8}  {:>12}  {:>12}  {:>12}  {:>14}  {:>12}\n", "shield", "absorbed",
+                       "dose equiv.", "RBE-weighted", "absorbed with", "share from");
+    out += fmt::format("  {:>8}  {:>12}  {:>12}  {:>12}  {:>14}  {:>12}\n", "g/cm2", "mGy", "mSv",
+                       "mGy-Eq", "removal, mGy", "extrapolated");
+    for (const auto& r : rows) {
+        const auto d = r.dose.for_limits();
+        out += fmt::format("  {:>8.4g}  {:>12}  {:>12}  {:>12}  {:>14}  {:>11.1f}%\n",
+                           r.shield_g_cm2, significant(1e3 * d.absorbed_Gy, 3),
+                           significant(1e3 * d.dose_equivalent_Sv, 3),
+                           significant(1e3 * d.rbe_weighted_GyEq, 3),
+                           significant(1e3 * r.dose.with_removal.absorbed_Gy, 3),
+                           100.0 * r.dose.extrapolated_share);
+    }
+    out +=
+        "\nModel: straight-ahead CSDA transport of primary protons; dose equivalent with ICRP 60\n"
+        "Q(L); RBE 1.5 for protons (NCRP 132). Secondary particles are not modelled yet, so\n"
+        "removal by nuclear reactions is not conservative: the first three columns are the\n"
+        "higher of the doses with and without removal, and limits must be checked against them.\n";
+    out += "Tissue: ICRU four-component soft tissue. 'share from extrapolated' is the part of the\n"
+           "absorbed dose from incident energies outside the spectrum's fit range.\n\n";
+    out += caution_text();
+    return out;
+}
+
+} // namespace crewdose::planner

@@ -1,0 +1,46 @@
+#pragma once
+// The `depth` command: SPE dose at a tissue depth behind a uniform (shell-equivalent) shield.
+#include "physics_tables.hpp"
+
+#include "exposure/dosimetry.hpp"
+#include "exposure/spectrum.hpp"
+
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// A tissue depth as given on the command line: g/cm2, or a quick-model name.
+struct TissueDepth {
+    double g_cm2;
+    std::string label; ///< "skin (0.07 mm)", "5 g/cm2", ...
+};
+
+/// "skin" (0.07 mm), "lens" (3 mm), "bfo" (5 cm) of unit-density tissue, or a number of g/cm2
+/// (0 to 100); InputError naming `field` otherwise.
+[[nodiscard]] TissueDepth parse_tissue_depth(std::string_view text, std::string_view field);
+
+/// A comma-separated list of shield areal densities, g/cm2, each in [0, 1000].
+[[nodiscard]] std::vector<double> parse_depth_list(std::string_view text, std::string_view field);
+
+/// One row: the dose behind one shield thickness.
+struct DepthRow {
+    double shield_g_cm2;
+    exposure::BracketedDose dose;
+};
+
+/// Computes the rows (exact transport, one response per thickness).
+[[nodiscard]] std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
+                                               const exposure::Material& shield,
+                                               const TissueDepth& tissue,
+                                               const std::vector<double>& depths_g_cm2);
+
+/// The report in the chosen format.
+[[nodiscard]] std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
+                                              const exposure::Material& shield,
+                                              const TissueDepth& tissue,
+                                              const std::vector<DepthRow>& rows,
+                                              OutputFormat format);
+
+} // namespace crewdose::planner
