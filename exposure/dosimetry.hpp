@@ -45,6 +45,12 @@ struct DoseMedium {
 [[nodiscard]] DoseQuantities dose_per_fluence(const DoseMedium& medium, const Particle& particle,
                                               double energy_MeV_per_n, const RbeModel& rbe);
 
+/// dose_per_fluence() at grid node `node` of the medium's and water's tables (which share the
+/// grid), avoiding the interpolation.
+[[nodiscard]] DoseQuantities dose_per_fluence_at_node(const DoseMedium& medium,
+                                                      const Particle& particle, std::size_t node,
+                                                      const RbeModel& rbe);
+
 /// The two answers of the removal bracket, and the one a limit check uses.
 struct BracketedDose {
     DoseQuantities with_removal;

@@ -132,6 +132,42 @@ double RangeTable::energy_MeV_per_n(double range) const {
         grid_.front(), grid_.back());
 }
 
+RangeTable::Cursor RangeTable::cursor_at_log_energy(double log_E) const {
+    const double lo = grid_.log_front();
+    const double hi = grid_.log_node(grid_.size() - 1);
+    if (!(log_E >= lo - 1e-12 && log_E <= hi + 1e-12)) {
+        throw std::out_of_range("RangeTable: energy outside the table");
+    }
+    return {std::clamp(log_E, lo, hi), grid_.interval_of_log(log_E)};
+}
+
+RangeTable::Cursor RangeTable::cursor_at_log_range(double y) const {
+    if (!(y >= log_R_.front() && y <= log_R_.back())) {
+        throw std::out_of_range("RangeTable: range outside the table");
+    }
+    const std::size_t i = interval_index(log_R_, y);
+    return {lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y), i};
+}
+
+double RangeTable::log_range(const Cursor& c) const noexcept {
+    const std::size_t i = c.interval;
+    return lerp_at(grid_.log_node(i), log_R_[i], grid_.log_node(i + 1), log_R_[i + 1], c.log_E);
+}
+
+double RangeTable::log_stopping(const Cursor& c) const noexcept {
+    const std::size_t i = c.interval;
+    return lerp_at(grid_.log_node(i), log_S_[i], grid_.log_node(i + 1), log_S_[i + 1], c.log_E);
+}
+
+double RangeTable::optical_depth(const Cursor& c) const noexcept {
+    if (optical_depth_.empty()) {
+        return 0.0;
+    }
+    const std::size_t i = c.interval;
+    return lerp_at(grid_.log_node(i), optical_depth_[i], grid_.log_node(i + 1),
+                   optical_depth_[i + 1], c.log_E);
+}
+
 double RangeTable::min_range_g_cm2() const noexcept {
     return std::exp(log_R_.front());
 }

@@ -3,6 +3,7 @@
 #include "material.hpp"
 #include "particle.hpp"
 
+#include <cmath>
 #include <functional>
 #include <optional>
 #include <string>
@@ -53,6 +54,25 @@ class RangeTable {
     /// Smallest and largest range on the table, g/cm2.
     [[nodiscard]] double min_range_g_cm2() const noexcept;
     [[nodiscard]] double max_range_g_cm2() const noexcept;
+
+    /// A position on the table in log space: ln E and the grid interval holding it. Transport
+    /// loops chain look-ups through cursors so that each layer costs one exp and one log.
+    struct Cursor {
+        double log_E;
+        std::size_t interval;
+    };
+    /// Cursor at ln E (inside the table; std::out_of_range otherwise).
+    [[nodiscard]] Cursor cursor_at_log_energy(double log_E) const;
+    /// Cursor at ln R (inside the table; std::out_of_range otherwise): the exact inverse of
+    /// log_range().
+    [[nodiscard]] Cursor cursor_at_log_range(double log_R) const;
+    [[nodiscard]] double log_range(const Cursor& c) const noexcept;
+    [[nodiscard]] double log_stopping(const Cursor& c) const noexcept;
+    [[nodiscard]] double optical_depth(const Cursor& c) const noexcept;
+    /// Stopping power at grid node i, MeV cm2/g (no interpolation).
+    [[nodiscard]] double stopping_at_node(std::size_t i) const { return std::exp(log_S_.at(i)); }
+    /// ln of the largest range on the table.
+    [[nodiscard]] double log_max_range() const noexcept { return log_R_.back(); }
 
     /// Nodes, for tests and for the transport code: ln R at node i.
     [[nodiscard]] const std::vector<double>& log_range_nodes() const noexcept { return log_R_; }

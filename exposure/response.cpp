@@ -81,18 +81,18 @@ PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium
     double log_prev = 0.0; // ln E0 of the previous node
     const double h = g.log_step();
     for (std::size_t j = 0; j < n; ++j) {
-        const BackwardResult b = transport_backward(path, node[j], Removal::with);
+        const BackwardResult b = transport_backward_log(path, g.log_node(j), Removal::with);
         if (!b.reachable) {
             break;
         }
-        const DoseQuantities d = dose_per_fluence(medium, particle, node[j], rbe);
+        const DoseQuantities d = dose_per_fluence_at_node(medium, particle, j, rbe);
         const DoseQuantities w[2] = {d.scaled(b.jacobian * b.survival), d.scaled(b.jacobian)};
         Cumulative* cum[2] = {&with, &without};
         for (int m = 0; m < 2; ++m) {
             DoseQuantities g0;
             DoseQuantities g1;
             const double inv = 1.0 / b.incident_MeV_per_n;
-            const double lg = std::log(b.incident_MeV_per_n);
+            const double lg = b.log_incident;
             if (j == 0) {
                 // Exit energies below the grid: weight held constant down to zero, all at E0_0.
                 g0 = w[m].scaled(node[0] * inv);
@@ -113,7 +113,7 @@ PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium
         with.slope_above = d.scaled(b.survival);
         without.slope_above = d;
         inv_prev = 1.0 / b.incident_MeV_per_n;
-        log_prev = std::log(b.incident_MeV_per_n);
+        log_prev = b.log_incident;
     }
 
     // Hat-function weights: over interval [E_k, E_k+1] the fluence per unit ln E, psi = E phi,
@@ -135,10 +135,8 @@ PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium
             cum[m]->at(node[k + 1], hi0, hi1);
             const DoseQuantities M0 = minus(hi0, lo0);
             const DoseQuantities M1 = minus(hi1, lo1);
-            const double width = std::log(node[k + 1] / node[k]);
-            // integral d u dE0/E0 = (M1 - ln(E_k) M0) / width
-            const DoseQuantities upper =
-                minus(M1, M0.scaled(std::log(node[k]))).scaled(1.0 / width);
+            // integral d u dE0/E0 = (M1 - ln(E_k) M0) / (ln E_k+1 - ln E_k)
+            const DoseQuantities upper = minus(M1, M0.scaled(g.log_node(k))).scaled(1.0 / h);
             (*out[m])[k + 1] += upper;
             (*out[m])[k] += minus(M0, upper);
             lo0 = hi0;

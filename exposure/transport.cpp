@@ -8,7 +8,7 @@ namespace crewdose::exposure {
 ForwardResult transport_forward(std::span<const Layer> path, double incident_MeV_per_n,
                                 Removal removal) {
     ForwardResult out;
-    double E = incident_MeV_per_n;
+    double log_E = std::log(incident_MeV_per_n);
     double optical_depth = 0.0;
     for (std::size_t i = 0; i < path.size(); ++i) {
         const Layer& layer = path[i];
@@ -16,28 +16,37 @@ ForwardResult transport_forward(std::span<const Layer> path, double incident_MeV
             continue;
         }
         const RangeTable& t = *layer.table;
-        const double residual = t.range_g_cm2(E) - layer.areal_density_g_cm2;
+        const RangeTable::Cursor c_in = t.cursor_at_log_energy(log_E);
+        const double residual = std::exp(t.log_range(c_in)) - layer.areal_density_g_cm2;
         if (residual <= t.min_range_g_cm2()) {
             out.stopped = true;
             out.stopped_in_layer = i;
             out.survival = 0.0;
             return out;
         }
-        const double E_out = t.energy_MeV_per_n(residual);
+        const RangeTable::Cursor c_out = t.cursor_at_log_range(std::log(residual));
         if (removal == Removal::with) {
-            optical_depth += t.optical_depth(E) - t.optical_depth(E_out);
+            optical_depth += t.optical_depth(c_in) - t.optical_depth(c_out);
         }
-        E = E_out;
+        log_E = c_out.log_E;
     }
-    out.exit_energy_MeV_per_n = E;
+    out.exit_energy_MeV_per_n = std::exp(log_E);
+    if (path.empty() || log_E == std::log(incident_MeV_per_n)) {
+        out.exit_energy_MeV_per_n = incident_MeV_per_n; // nothing crossed: bit for bit
+    }
     out.survival = std::exp(-optical_depth);
     return out;
 }
 
 BackwardResult transport_backward(std::span<const Layer> path, double exit_MeV_per_n,
                                   Removal removal) {
+    return transport_backward_log(path, std::log(exit_MeV_per_n), removal);
+}
+
+BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
+                                      Removal removal) {
     BackwardResult out;
-    double E = exit_MeV_per_n;
+    double log_E = log_exit;
     double log_jacobian = 0.0;
     double optical_depth = 0.0;
     for (std::size_t k = path.size(); k-- > 0;) {
@@ -46,19 +55,21 @@ BackwardResult transport_backward(std::span<const Layer> path, double exit_MeV_p
             continue;
         }
         const RangeTable& t = *layer.table;
-        const double R_in = t.range_g_cm2(E) + layer.areal_density_g_cm2;
-        if (R_in > t.max_range_g_cm2()) {
+        const RangeTable::Cursor c_out = t.cursor_at_log_energy(log_E);
+        const double log_R_in = std::log(std::exp(t.log_range(c_out)) + layer.areal_density_g_cm2);
+        if (log_R_in > t.log_max_range()) {
             return out; // the incident energy lies above the tables
         }
-        const double E_in = t.energy_MeV_per_n(R_in);
-        log_jacobian += std::log(t.stopping_MeV_cm2_g(E_in) / t.stopping_MeV_cm2_g(E));
+        const RangeTable::Cursor c_in = t.cursor_at_log_range(log_R_in);
+        log_jacobian += t.log_stopping(c_in) - t.log_stopping(c_out);
         if (removal == Removal::with) {
-            optical_depth += t.optical_depth(E_in) - t.optical_depth(E);
+            optical_depth += t.optical_depth(c_in) - t.optical_depth(c_out);
         }
-        E = E_in;
+        log_E = c_in.log_E;
     }
     out.reachable = true;
-    out.incident_MeV_per_n = E;
+    out.log_incident = log_E;
+    out.incident_MeV_per_n = std::exp(log_E);
     out.jacobian = std::exp(log_jacobian);
     out.survival = std::exp(-optical_depth);
     return out;

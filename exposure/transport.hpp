@@ -42,6 +42,7 @@ struct ForwardResult {
 struct BackwardResult {
     bool reachable = false;        ///< false when the incident energy would exceed the tables
     double incident_MeV_per_n = 0; ///< E0
+    double log_incident = 0;        ///< ln E0
     double jacobian = 1.0;         ///< dE0/dE = prod S_i(E_in,i) / S_i(E_out,i)
     double survival = 1.0;         ///< as in ForwardResult
 };
@@ -51,5 +52,9 @@ struct BackwardResult {
 /// phi_out(E) = phi_in(E0) * jacobian * survival, exact within the CSDA model.
 [[nodiscard]] BackwardResult transport_backward(std::span<const Layer> path, double exit_MeV_per_n,
                                                 Removal removal);
+
+/// transport_backward() from ln of the exit energy (saves a log in loops over grid nodes).
+[[nodiscard]] BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
+                                                    Removal removal);
 
 } // namespace crewdose::exposure
