@@ -233,4 +233,46 @@ BracketedDose exact_spectrum_dose(std::span<const Layer> path, const DoseMedium&
     return out;
 }
 
+LetSpectrum let_spectrum(std::span<const Layer> path, const DoseMedium& medium,
+                         const Particle& particle,
+                         const std::function<double(double)>& differential_in, int bins_per_decade,
+                         int intervals) {
+    LetSpectrum out;
+    const int bins = 4 * bins_per_decade; // 0.1 .. 1000 keV/um
+    for (int i = 0; i <= bins; ++i) {
+        out.let_edges_keV_um.push_back(0.1 *
+                                       std::pow(10.0, static_cast<double>(i) / bins_per_decade));
+    }
+    out.fluence_per_cm2.assign(static_cast<std::size_t>(bins), 0.0);
+    out.absorbed_Gy.assign(static_cast<std::size_t>(bins), 0.0);
+    const LogGrid& g = grid_table(path, medium).grid();
+    const ForwardResult top = transport_forward(path, g.back(), Removal::without);
+    if (top.stopped) {
+        return out;
+    }
+    const double lo = std::log(g.front());
+    const double hi = std::log(top.exit_energy_MeV_per_n);
+    const double h = (hi - lo) / intervals;
+    const RbeModel rbe{};
+    // Midpoint rule in ln E: each slice's fluence goes to the LET bin of its midpoint.
+    for (int i = 0; i < intervals; ++i) {
+        const double E = std::clamp(std::exp(lo + (i + 0.5) * h), g.front(), g.back());
+        const BackwardResult b = transport_backward(path, E, Removal::without);
+        if (!b.reachable) {
+            continue;
+        }
+        const double fluence = differential_in(b.incident_MeV_per_n) * b.jacobian * E * h;
+        const double let = 0.1 * medium.water->stopping_MeV_cm2_g(E);
+        const auto bin =
+            static_cast<std::ptrdiff_t>(std::floor(std::log10(let / 0.1) * bins_per_decade));
+        if (bin < 0 || bin >= bins) {
+            continue;
+        }
+        out.fluence_per_cm2[static_cast<std::size_t>(bin)] += fluence;
+        out.absorbed_Gy[static_cast<std::size_t>(bin)] +=
+            fluence * dose_per_fluence(medium, particle, E, rbe).absorbed_Gy;
+    }
+    return out;
+}
+
 } // namespace crewdose::exposure

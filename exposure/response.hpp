@@ -53,4 +53,18 @@ exact_spectrum_dose(std::span<const Layer> path, const DoseMedium& medium, const
                     const std::function<double(double)>& differential_in, FitRange fit,
                     const RbeModel& rbe, int intervals = 4000);
 
+/// The LET spectrum at the dose point: fluence and absorbed dose per bin of unrestricted LET
+/// in water, from the exact transmitted spectrum (no removal; the higher of the bracket).
+struct LetSpectrum {
+    std::vector<double> let_edges_keV_um; ///< bin edges, increasing
+    std::vector<double> fluence_per_cm2;  ///< per bin
+    std::vector<double> absorbed_Gy;      ///< per bin
+};
+
+/// Bins log-spaced from 0.1 to 1000 keV/um, `bins_per_decade` per decade.
+[[nodiscard]] LetSpectrum let_spectrum(std::span<const Layer> path, const DoseMedium& medium,
+                                       const Particle& particle,
+                                       const std::function<double(double)>& differential_in,
+                                       int bins_per_decade = 10, int intervals = 4000);
+
 } // namespace crewdose::exposure

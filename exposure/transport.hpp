@@ -42,7 +42,7 @@ struct ForwardResult {
 struct BackwardResult {
     bool reachable = false;        ///< false when the incident energy would exceed the tables
     double incident_MeV_per_n = 0; ///< E0
-    double log_incident = 0;        ///< ln E0
+    double log_incident = 0;       ///< ln E0
     double jacobian = 1.0;         ///< dE0/dE = prod S_i(E_in,i) / S_i(E_out,i)
     double survival = 1.0;         ///< as in ForwardResult
 };

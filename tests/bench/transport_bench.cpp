@@ -29,8 +29,8 @@ BENCHMARK(BM_ResponseThreeLayerPath)->Unit(benchmark::kMicrosecond);
 static void BM_DepthDoseCurve50(benchmark::State& state) {
     TableLibrary tables;
     const DepthDoseSetup setup{find_builtin_material("aluminium"),
-                               find_builtin_material("soft-tissue"),
-                               find_builtin_material("water"), 5.0, RbeModel{}};
+                               find_builtin_material("soft-tissue"), find_builtin_material("water"),
+                               5.0, RbeModel{}};
     const ProtonSpectrum band(BandRigidity{1e10, 1.1, 3.5, 0.25}, FitRange{10, 1000});
     (void)depth_dose(tables, setup, band, 1.0); // tables built outside the timing
     for (auto _ : state) {

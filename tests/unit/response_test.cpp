@@ -144,3 +144,47 @@ TEST_CASE("depth-dose table interpolates within 0.5 % of the exact dose", "[dose
     CHECK(table.at(0.0).absorbed_Gy ==
           Approx(depth_dose(tables, setup, band, 0.0).for_limits().absorbed_Gy).epsilon(1e-12));
 }
+
+TEST_CASE("the LET spectrum accounts for the dose at the point", "[dose]") {
+    // By construction: the LET bins partition the transmitted spectrum, so their doses add up
+    // to the exact absorbed dose (without removal), and protons never exceed ~100 keV/um.
+    Fixture f;
+    const auto& band = demo_spectra()[0];
+    const LayerPath path{{&f.tal, 10.0}, {&f.tw, 5.0}};
+    auto phi = [&](double E) {
+        return band.differential_fluence_per_cm2_MeV(E);
+    };
+    const LetSpectrum s = let_spectrum(path, f.medium, proton(), phi);
+    double total = 0.0;
+    double above_200 = 0.0;
+    for (std::size_t i = 0; i < s.absorbed_Gy.size(); ++i) {
+        total += s.absorbed_Gy[i];
+        if (s.let_edges_keV_um[i] >= 200.0) {
+            above_200 += s.absorbed_Gy[i];
+        }
+    }
+    const BracketedDose exact =
+        exact_spectrum_dose(path, f.medium, proton(), phi, band.fit_range(), f.rbe);
+    // The exact sum also counts exit energies below the grid (< 1e-4 of the dose).
+    CHECK(total == Approx(exact.without_removal.absorbed_Gy).epsilon(1e-3));
+    CHECK(above_200 == 0.0);
+}
+
+TEST_CASE("alphas and ions use the same transport code", "[dose]") {
+    // By construction: the forward step through one layer is R(E_out) = R(E_in) - t on the
+    // particle's own table, whatever the particle.
+    TableLibrary tables;
+    const Material& al = *find_builtin_material("aluminium");
+    for (const Particle& p : {alpha(), *particle_by_name("carbon"), *particle_by_name("iron")}) {
+        const RangeTable& t = tables.table(al, p);
+        const double E0 = 400.0;
+        const ForwardResult fr = transport_forward(LayerPath{{&t, 3.0}}, E0, Removal::with);
+        REQUIRE_FALSE(fr.stopped);
+        CHECK(fr.exit_energy_MeV_per_n ==
+              Approx(t.energy_MeV_per_n(t.range_g_cm2(E0) - 3.0)).epsilon(1e-12));
+        CHECK(fr.survival == 1.0); // no nucleus-nucleus removal yet
+        const BackwardResult b =
+            transport_backward(LayerPath{{&t, 3.0}}, fr.exit_energy_MeV_per_n, Removal::with);
+        CHECK(b.incident_MeV_per_n == Approx(E0).epsilon(1e-9));
+    }
+}
