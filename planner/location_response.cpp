@@ -1,0 +1,89 @@
+#include "location_response.hpp"
+
+#include <algorithm>
+#include <cmath>
+
+namespace crewdose::planner {
+
+std::vector<QuickOrgan> quick_body_model() {
+    return {{"skin", 0.007}, {"lens", 0.3}, {"bfo", 5.0}};
+}
+
+std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
+                                                 habitats::Vector3 direction) {
+    std::vector<habitats::PathSegment> path;
+    if (where.surroundings.atmosphere && direction.z > -1.0) {
+        const double zenith_deg =
+            std::acos(std::clamp(direction.z, -1.0, 1.0)) * 180.0 / 3.14159265358979323846;
+        path.push_back({where.atmosphere_material_id,
+                        habitats::slant_column_g_cm2(*where.surroundings.atmosphere,
+                                                     std::min(zenith_deg, 90.0))});
+    }
+    if (where.scene) {
+        auto walls = where.scene->trace(where.point, direction); // nearest first
+        std::reverse(walls.begin(), walls.end());                // outermost first
+        path.insert(path.end(), walls.begin(), walls.end());
+    }
+    for (const auto& s : where.suit) {
+        path.push_back({s.material_id, s.areal_density_g_cm2});
+    }
+    return path;
+}
+
+std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
+                                                 const MaterialResolver& materials,
+                                                 const LocationGeometry& where,
+                                                 const std::vector<habitats::Vector3>& directions) {
+    const exposure::Particle& p = exposure::proton();
+    const exposure::Material& tissue = materials("soft-tissue");
+    const exposure::Material& water = materials("water");
+    const exposure::DoseMedium medium{&tables.table(tissue, p), &tables.table(water, p)};
+    const auto organs = quick_body_model();
+    std::vector<OrganResponse> out;
+    for (const auto& organ : organs) {
+        OrganResponse r;
+        r.organ = organ.name;
+        out.push_back(std::move(r));
+    }
+    std::size_t blocked = 0;
+    const double weight = 1.0 / static_cast<double>(directions.size());
+    for (const auto& d : directions) {
+        if (where.surroundings.blocked(d)) {
+            ++blocked; // fully shielded: contributes zero to the equal-weight mean
+            continue;
+        }
+        exposure::LayerPath path;
+        for (const auto& seg : external_path(where, d)) {
+            path.push_back({&tables.table(materials(seg.material_id), p), seg.areal_density_g_cm2});
+        }
+        path.push_back({medium.medium, 0.0});
+        for (std::size_t k = 0; k < organs.size(); ++k) {
+            path.back().areal_density_g_cm2 = organs[k].depth_g_cm2;
+            const auto r = exposure::path_response(path, medium, p, exposure::RbeModel{});
+            auto& acc = out[k].response;
+            if (acc.node_energies_MeV_per_n.empty()) {
+                acc.node_energies_MeV_per_n = r.node_energies_MeV_per_n;
+                acc.with_removal.assign(r.with_removal.size(), {});
+                acc.without_removal.assign(r.without_removal.size(), {});
+            }
+            for (std::size_t j = 0; j < r.with_removal.size(); ++j) {
+                acc.with_removal[j] += r.with_removal[j].scaled(weight);
+                acc.without_removal[j] += r.without_removal[j].scaled(weight);
+            }
+        }
+    }
+    for (auto& o : out) {
+        o.blocked_fraction = static_cast<double>(blocked) * weight;
+        if (o.response.node_energies_MeV_per_n.empty()) { // every direction blocked
+            o.response.node_energies_MeV_per_n.assign(medium.medium->grid().size(), 0.0);
+            for (std::size_t j = 0; j < o.response.node_energies_MeV_per_n.size(); ++j) {
+                o.response.node_energies_MeV_per_n[j] = std::exp(medium.medium->grid().log_node(j));
+            }
+            o.response.with_removal.assign(o.response.node_energies_MeV_per_n.size(), {});
+            o.response.without_removal.assign(o.response.node_energies_MeV_per_n.size(), {});
+        }
+    }
+    return out;
+}
+
+} // namespace crewdose::planner
