@@ -24,8 +24,19 @@ std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
         std::reverse(walls.begin(), walls.end());                // outermost first
         path.insert(path.end(), walls.begin(), walls.end());
     }
-    for (const auto& s : where.suit) {
-        path.push_back({s.material_id, s.areal_density_g_cm2});
+    if (where.suit) {
+        for (const auto& s : where.suit->all_around) {
+            path.push_back({s.material_id, s.areal_density_g_cm2});
+        }
+        // The pack covers a cone about the horizontal direction behind the wearer.
+        constexpr double kDeg = 3.14159265358979323846 / 180.0;
+        const double back_az = (where.heading_deg + 180.0) * kDeg;
+        const habitats::Vector3 back{std::sin(back_az), std::cos(back_az), 0.0};
+        if (habitats::dot(back, direction) >= std::cos(where.suit->pack_half_angle_deg * kDeg)) {
+            for (const auto& s : where.suit->pack) {
+                path.push_back({s.material_id, s.areal_density_g_cm2});
+            }
+        }
     }
     return path;
 }

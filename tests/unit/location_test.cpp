@@ -77,7 +77,8 @@ TEST_CASE("the Mars atmosphere and a suit lower the dose", "[location]") {
     planner::LocationGeometry mars = moon;
     mars.surroundings.atmosphere = habitats::Atmosphere{20.2, 11.1, 3389.5};
     planner::LocationGeometry suited = moon;
-    suited.suit = {{"aluminium", 0.3}}; // thin suit, 0.3 g/cm2 aluminium-equivalent (from memory)
+    suited.suit = planner::SuitModel{};
+    suited.suit->pack.clear(); // thin suit only: 0.3 g/cm2 aluminium-equivalent (from memory)
     const double d_moon = bfo_dose(planner::quick_model_responses(tables, builtin, moon, dirs));
     const double d_mars = bfo_dose(planner::quick_model_responses(tables, builtin, mars, dirs));
     const double d_suit = bfo_dose(planner::quick_model_responses(tables, builtin, suited, dirs));
@@ -89,4 +90,22 @@ TEST_CASE("the Mars atmosphere and a suit lower the dose", "[location]") {
     REQUIRE(path.size() == 1);
     CHECK(path[0].material_id == "mars-atmosphere");
     CHECK(path[0].areal_density_g_cm2 == Approx(20.2).epsilon(1e-3));
+}
+
+TEST_CASE("the suit's pack shields the directions behind the wearer", "[location]") {
+    planner::LocationGeometry eva;
+    eva.surroundings.ground = true;
+    eva.suit = planner::SuitModel{};
+    eva.heading_deg = 90.0; // facing east: the pack is to the west
+    const auto west = planner::external_path(eva, habitats::Vector3{-1, 0, 0.1});
+    const auto east = planner::external_path(eva, habitats::Vector3{1, 0, 0.1});
+    REQUIRE(west.size() == 2);
+    REQUIRE(east.size() == 1);
+    CHECK(west[1].areal_density_g_cm2 == 2.0);
+    TableLibrary tables;
+    const auto dirs = habitats::fibonacci_directions(512);
+    planner::LocationGeometry thin = eva;
+    thin.suit->pack.clear();
+    CHECK(bfo_dose(planner::quick_model_responses(tables, builtin, eva, dirs)) <
+          bfo_dose(planner::quick_model_responses(tables, builtin, thin, dirs)));
 }
