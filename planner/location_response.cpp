@@ -19,7 +19,10 @@ std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
                         habitats::slant_column_g_cm2(*where.surroundings.atmosphere,
                                                      std::min(zenith_deg, 90.0))});
     }
-    if (where.scene) {
+    if (where.imported) {
+        const auto& rows = where.imported->nearest(direction); // nearest first
+        path.insert(path.end(), rows.rbegin(), rows.rend());
+    } else if (where.scene) {
         auto walls = where.scene->trace(where.point, direction); // nearest first
         std::reverse(walls.begin(), walls.end());                // outermost first
         path.insert(path.end(), walls.begin(), walls.end());

@@ -6,6 +6,7 @@
 // ground count as zero.
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
+#include "habitats/directional_shielding.hpp"
 #include "habitats/scene.hpp"
 #include "habitats/surroundings.hpp"
 
@@ -49,7 +50,10 @@ inline constexpr std::size_t kDefaultDirections = 2048;
 /// Everything that sets the shielding around one dose point.
 struct LocationGeometry {
     const habitats::Scene* scene = nullptr; ///< may be null: no structures
-    habitats::Point3 point;                 ///< dose point, m
+    /// Imported shielding instead of a scene (each direction takes the nearest table row);
+    /// evaluate such a location over the table's own directions.
+    const habitats::DirectionalShielding* imported = nullptr;
+    habitats::Point3 point; ///< dose point, m
     habitats::Surroundings surroundings;
     std::string atmosphere_material_id = "mars-atmosphere";
     std::optional<SuitModel> suit; ///< no suit when empty

@@ -2,7 +2,9 @@
 #include "exposure/depth_dose.hpp"
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
+#include "planner/input_error.hpp"
 #include "planner/location_response.hpp"
+#include "planner/shielding_table_file.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -108,4 +110,50 @@ TEST_CASE("the suit's pack shields the directions behind the wearer", "[location
     thin.suit->pack.clear();
     CHECK(bfo_dose(planner::quick_model_responses(tables, builtin, eva, dirs)) <
           bfo_dose(planner::quick_model_responses(tables, builtin, thin, dirs)));
+}
+
+TEST_CASE("imported shielding tables: parsed with file and line, same response code",
+          "[location]") {
+    auto known = [](const std::string& id) {
+        return find_builtin_material(id) != nullptr;
+    };
+    const std::string text = "# invented CAD export\n"
+                             "0 0 1   aluminium=2.7 polyethylene=4.7\n"
+                             "\n"
+                             "0 0 -2  aluminium=2.7\n";
+    const auto table = planner::parse_shielding_table(text, "hab.dirs", known);
+    REQUIRE(table.directions.size() == 2);
+    CHECK(table.directions[1].z == Approx(-1.0));
+    CHECK(table.paths[0][1].material_id == "polyethylene");
+    struct Bad {
+        const char* text;
+        const char* must_say;
+    };
+    for (const Bad& b :
+         {Bad{"0 0\n", "hab.dirs:1: direction: needs three numbers"},
+          Bad{"0 0 0 aluminium=1\n", "hab.dirs:1: direction: is the zero vector"},
+          Bad{"# c\n1 0 0 cheese=1\n", "hab.dirs:2: layer: unknown material 'cheese'"},
+          Bad{"1 0 0 aluminium=-1\n", "hab.dirs:1: layer: 'aluminium=-1'"},
+          Bad{"1 0 x\n", "hab.dirs:1: direction: 'x' is not a number"},
+          Bad{"# nothing\n", "hab.dirs: table: has no direction rows"}}) {
+        try {
+            (void)planner::parse_shielding_table(b.text, "hab.dirs", known);
+            FAIL("expected an error for " << b.text);
+        } catch (const InputError& e) {
+            INFO(e.what());
+            CHECK(std::string(e.what()).find(b.must_say) != std::string::npos);
+        }
+    }
+    // A table whose every row is the 10 g/cm2 aluminium shell gives the shell's dose (by
+    // construction: the same response code serves scenes and tables).
+    habitats::DirectionalShielding shell;
+    shell.directions = habitats::fibonacci_directions(30);
+    shell.paths.assign(30, {{"aluminium", 10.0}});
+    TableLibrary tables;
+    planner::LocationGeometry where;
+    where.imported = &shell;
+    const DepthDoseSetup setup{&builtin("aluminium"), &builtin("soft-tissue"), &builtin("water"),
+                               5.0, RbeModel{}};
+    CHECK(bfo_dose(planner::quick_model_responses(tables, builtin, where, shell.directions)) ==
+          Approx(depth_dose(tables, setup, kBand, 10.0).for_limits().absorbed_Gy).epsilon(1e-9));
 }
