@@ -1,4 +1,6 @@
 // crewdose command line: parses arguments and calls the planner library; no physics here.
+#include "atomic_file.hpp"
+#include "check_report.hpp"
 #include "depth_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
@@ -11,8 +13,10 @@
 #include <fmt/format.h>
 
 #include <cstdio>
+#include <cstdlib>
 #include <exception>
 #include <string>
+#include <unistd.h>
 
 namespace {
 
@@ -94,6 +98,32 @@ int main(int argc, char** argv) {
     depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
+    std::string scenario_path;
+    std::string out_path;
+    std::string series_path;
+    bool allow_gaps = false;
+    auto* check = app.add_subcommand(
+        "check", "Check every crew member's doses along the scenario's timeline against the "
+                 "30-day, annual and career planning limits; report margins and where they are "
+                 "smallest.\nExample: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
+                 "evaluated limits met; 1: a limit exceeded; 2: bad input.");
+    check->add_option("scenario", scenario_path, "scenario file (TOML; see scenarios/README.md)")
+        ->required();
+    check->add_option("--format,-f", format, "text, json (full precision) or csv")
+        ->capture_default_str();
+    check->add_option("--out,-o", out_path,
+                      "write the report to this file (atomically) "
+                      "instead of standard output");
+    check->add_option("--series", series_path,
+                      "also write cumulative dose and dose rate against time per crew member "
+                      "and organ to this CSV file");
+    check->add_flag("--allow-gaps", allow_gaps,
+                    "accept gaps in a crew member's timeline; each gap is charged at the "
+                    "location of the activity before it and listed in the report");
+    auto* validate = app.add_subcommand(
+        "validate", "Parse and check a scenario file only, and list what it defines.");
+    validate->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -123,6 +153,29 @@ int main(int argc, char** argv) {
             const auto list = planner::parse_depth_list(depths, "--depths");
             write_stdout(planner::format_depth_report(
                 spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list), fmt_choice));
+        } else if (validate->parsed()) {
+            write_stdout(planner::format_validation(planner::load_scenario(scenario_path)));
+        } else if (check->parsed()) {
+            const planner::Study study(planner::load_scenario(scenario_path));
+            planner::LedgerOptions options;
+            options.allow_gaps = allow_gaps;
+            const auto ledger = planner::build_ledger(study, options);
+            const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
+                                isatty(fileno(stdout)) != 0 && std::getenv("NO_COLOR") == nullptr;
+            const std::string report =
+                planner::format_check_report(study, ledger, fmt_choice, colour);
+            // Both files are prepared before either is written, so bad input writes nothing.
+            const std::string series =
+                series_path.empty() ? "" : planner::format_series(study, ledger);
+            if (!series_path.empty()) {
+                planner::write_file_atomically(series_path, series, "--series");
+            }
+            if (out_path.empty()) {
+                write_stdout(report);
+            } else {
+                planner::write_file_atomically(out_path, report, "--out");
+            }
+            return ledger.any_exceeded ? 1 : 0;
         } else if (materials->parsed()) {
             write_stdout(planner::format_materials_report(fmt_choice));
         }

@@ -15,44 +15,51 @@
 namespace crewdose::planner {
 namespace {
 
-const SourceLocation kCommandLine{"command line", 0};
-
 struct Keys {
     std::map<std::string, std::string> values;
     std::vector<std::pair<double, double>> table; // for the table form
 };
 
-[[noreturn]] void fail(std::string_view field, const std::string& problem) {
-    throw InputError(kCommandLine, std::string(field), problem);
+[[noreturn]] void fail(const SourceLocation& where, std::string_view field,
+                       const std::string& problem) {
+    throw InputError(where, std::string(field), problem);
 }
 
-double to_number(std::string_view text, std::string_view field, const std::string& key) {
+double to_number(const SourceLocation& where, std::string_view text, std::string_view field,
+                 const std::string& key) {
     double v = 0.0;
     const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
     if (text.empty() || ec != std::errc() || ptr != text.data() + text.size() ||
         !std::isfinite(v)) {
-        fail(field, fmt::format("{}: '{}' is not a number", key, text));
+        fail(where, field, fmt::format("{}: '{}' is not a number", key, text));
     }
     return v;
 }
 
-double required(const Keys& k, const std::string& key, std::string_view field,
-                std::string_view form) {
+double required(const SourceLocation& where, const Keys& k, const std::string& key,
+                std::string_view field, std::string_view form) {
     const auto it = k.values.find(key);
     if (it == k.values.end()) {
-        fail(field, fmt::format("the {} form needs {}; see 'crewdose depth --help'", form, key));
+        fail(where, field,
+             fmt::format("the {} form needs {}; see 'crewdose depth --help'", form, key));
     }
-    return to_number(it->second, field, key);
+    return to_number(where, it->second, field, key);
 }
 
 } // namespace
 
 exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view field) {
+    return parse_spectrum(text, field, SourceLocation{"command line", 0});
+}
+
+exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view field,
+                                        const SourceLocation& where) {
     const auto colon = text.find(':');
     if (colon == std::string_view::npos) {
-        fail(field, fmt::format("'{}' has no form; write FORM:key=value,... with FORM one of "
-                                "band, weibull, exp-rigidity, exp-energy, power, table",
-                                text));
+        fail(where, field,
+             fmt::format("'{}' has no form; write FORM:key=value,... with FORM one of "
+                         "band, weibull, exp-rigidity, exp-energy, power, table",
+                         text));
     }
     const std::string form(text.substr(0, colon));
     const std::string_view rest = text.substr(colon + 1);
@@ -65,9 +72,10 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
         {"table", {}}};
     const auto allowed = kKeys.find(form);
     if (allowed == kKeys.end()) {
-        fail(field, fmt::format("unknown spectrum form '{}'; allowed: band, weibull, "
-                                "exp-rigidity, exp-energy, power, table",
-                                form));
+        fail(where, field,
+             fmt::format("unknown spectrum form '{}'; allowed: band, weibull, "
+                         "exp-rigidity, exp-energy, power, table",
+                         form));
     }
     const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to"};
     Keys k;
@@ -78,25 +86,26 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
             rest.substr(start, (comma == std::string_view::npos ? rest.size() : comma) - start);
         const auto eq = item.find('=');
         if (eq == std::string_view::npos || eq == 0) {
-            fail(field, fmt::format("'{}' is not key=value", item));
+            fail(where, field, fmt::format("'{}' is not key=value", item));
         }
         const std::string key(item.substr(0, eq));
         const std::string value(item.substr(eq + 1));
         if (form == "table" && !common.count(key)) {
-            k.table.emplace_back(to_number(key, field, "table energy"),
-                                 to_number(value, field, "J(>" + key + " MeV)"));
+            k.table.emplace_back(to_number(where, key, field, "table energy"),
+                                 to_number(where, value, field, "J(>" + key + " MeV)"));
         } else {
             if (!allowed->second.count(key) && !common.count(key)) {
                 std::string list;
                 for (const auto& a : allowed->second) {
                     list += a + ", ";
                 }
-                fail(field, fmt::format("the {} form has no key '{}'; allowed: {}fit_min_MeV, "
-                                        "fit_max_MeV, per_sr, scale_to",
-                                        form, key, list));
+                fail(where, field,
+                     fmt::format("the {} form has no key '{}'; allowed: {}fit_min_MeV, "
+                                 "fit_max_MeV, per_sr, scale_to",
+                                 form, key, list));
             }
             if (!k.values.emplace(key, value).second) {
-                fail(field, fmt::format("{} is given twice", key));
+                fail(where, field, fmt::format("{} is given twice", key));
             }
         }
         if (comma == std::string_view::npos) {
@@ -113,36 +122,37 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
         if (it->second == "yes") {
             return exposure::omnidirectional_from_per_sr(1.0);
         }
-        fail(field, "per_sr: allowed values are yes and no");
+        fail(where, field, "per_sr: allowed values are yes and no");
     }();
     exposure::FitRange fit{10.0, 1000.0};
     if (k.values.count("fit_min_MeV")) {
-        fit.min_MeV = to_number(k.values["fit_min_MeV"], field, "fit_min_MeV");
+        fit.min_MeV = to_number(where, k.values["fit_min_MeV"], field, "fit_min_MeV");
     }
     if (k.values.count("fit_max_MeV")) {
-        fit.max_MeV = to_number(k.values["fit_max_MeV"], field, "fit_max_MeV");
+        fit.max_MeV = to_number(where, k.values["fit_max_MeV"], field, "fit_max_MeV");
     }
 
     exposure::SpectrumForm shape;
     try {
         if (form == "band") {
-            shape = exposure::BandRigidity{
-                per_sr * required(k, "J0", field, form), required(k, "gamma_a", field, form),
-                required(k, "gamma_b", field, form), required(k, "R0_GV", field, form)};
+            shape = exposure::BandRigidity{per_sr * required(where, k, "J0", field, form),
+                                           required(where, k, "gamma_a", field, form),
+                                           required(where, k, "gamma_b", field, form),
+                                           required(where, k, "R0_GV", field, form)};
         } else if (form == "weibull") {
-            shape = exposure::WeibullEnergy{per_sr * required(k, "J0", field, form),
-                                            required(k, "k", field, form),
-                                            required(k, "alpha", field, form)};
+            shape = exposure::WeibullEnergy{per_sr * required(where, k, "J0", field, form),
+                                            required(where, k, "k", field, form),
+                                            required(where, k, "alpha", field, form)};
         } else if (form == "exp-rigidity") {
-            shape = exposure::ExponentialRigidity{per_sr * required(k, "J0", field, form),
-                                                  required(k, "R0_GV", field, form)};
+            shape = exposure::ExponentialRigidity{per_sr * required(where, k, "J0", field, form),
+                                                  required(where, k, "R0_GV", field, form)};
         } else if (form == "exp-energy") {
-            shape = exposure::ExponentialEnergy{per_sr * required(k, "J0", field, form),
-                                                required(k, "E0_MeV", field, form)};
+            shape = exposure::ExponentialEnergy{per_sr * required(where, k, "J0", field, form),
+                                                required(where, k, "E0_MeV", field, form)};
         } else if (form == "power") {
-            shape = exposure::PowerLawEnergy{per_sr * required(k, "J0", field, form),
-                                             required(k, "gamma", field, form),
-                                             required(k, "E_ref_MeV", field, form)};
+            shape = exposure::PowerLawEnergy{per_sr * required(where, k, "J0", field, form),
+                                             required(where, k, "gamma", field, form),
+                                             required(where, k, "E_ref_MeV", field, form)};
         } else {
             exposure::TabulatedIntegral t;
             for (const auto& [E, J] : k.table) {
@@ -156,15 +166,15 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
             const std::string& v = k.values["scale_to"];
             const auto at = v.find('@');
             if (at == std::string::npos) {
-                fail(field, "scale_to: write F@E, F protons/cm2 above E MeV, e.g. 1e9@30");
+                fail(where, field, "scale_to: write F@E, F protons/cm2 above E MeV, e.g. 1e9@30");
             }
             spectrum = spectrum.scaled_to(
-                to_number(std::string_view(v).substr(0, at), field, "scale_to fluence"),
-                to_number(std::string_view(v).substr(at + 1), field, "scale_to energy"));
+                to_number(where, std::string_view(v).substr(0, at), field, "scale_to fluence"),
+                to_number(where, std::string_view(v).substr(at + 1), field, "scale_to energy"));
         }
         return spectrum;
     } catch (const exposure::ParameterError& e) {
-        fail(field, fmt::format("{}: {}", e.field(), e.detail()));
+        fail(where, field, fmt::format("{}: {}", e.field(), e.detail()));
     }
 }
 

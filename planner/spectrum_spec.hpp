@@ -11,6 +11,8 @@
 // Keys every form takes: fit_min_MeV, fit_max_MeV (the range the fit was made over, default
 // 10 to 1000), per_sr=yes (J0 or the table is per steradian of an isotropic field: x 4 pi),
 // scale_to=F@E (same shape, F protons/cm2 above E MeV).
+#include "input_error.hpp"
+
 #include "exposure/spectrum.hpp"
 
 #include <string>
@@ -18,9 +20,13 @@
 
 namespace crewdose::planner {
 
-/// Parses a spectrum spelling; InputError naming `field` (the option or key) on any problem.
+/// Parses a spectrum spelling; InputError naming `field` (the option or key) on any problem,
+/// located on the command line.
 [[nodiscard]] exposure::ProtonSpectrum parse_spectrum(std::string_view text,
                                                       std::string_view field);
+/// The same, with errors located at `where` (a scenario file line).
+[[nodiscard]] exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view field,
+                                                      const SourceLocation& where);
 
 /// One line describing a spectrum for reports.
 [[nodiscard]] std::string describe_spectrum(const exposure::ProtonSpectrum& spectrum);

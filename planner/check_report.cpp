@@ -1,0 +1,282 @@
+#include "check_report.hpp"
+
+#include "cautions.hpp"
+#include "number_format.hpp"
+#include "spectrum_spec.hpp"
+#include "time_format.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <set>
+
+namespace crewdose::planner {
+namespace {
+
+std::string site_name(SiteKind s) {
+    switch (s) {
+    case SiteKind::moon:
+        return "moon";
+    case SiteKind::mars:
+        return "mars";
+    case SiteKind::deep_space:
+        return "deep-space";
+    }
+    return "?";
+}
+
+std::string organ_label(const std::string& organ) {
+    if (organ == "bfo") {
+        return "BFO";
+    }
+    return organ;
+}
+
+std::string model_text(const Study& study) {
+    const Scenario& sc = study.scenario();
+    return fmt::format(
+        "Model: quick body model (tissue depth in every direction: skin 0.07 mm, lens 3 mm, BFO 5 "
+        "cm; a conservative screening model); {} directions per location; SPE primary protons by "
+        "straight-ahead CSDA transport, dose the higher of with and without nuclear removal "
+        "(secondaries not modelled); RBE-weighted dose with NCRP 132 values; uncertainty factor "
+        "{:.2f} applied to every dose. Not modelled yet: GCR background (30-day, annual and "
+        "career totals hold SPE, prior and recorded doses only), the stylised phantom, "
+        "circulatory, CNS and effective-dose limits. Window maxima are exact at activity and "
+        "event boundaries and sampled every 10 minutes inside event profiles.",
+        study.direction_count(), sc.limits.uncertainty_factor);
+}
+
+std::string wrap(const std::string& text, std::size_t width) {
+    std::string out;
+    std::string line;
+    std::size_t start = 0;
+    while (start < text.size()) {
+        auto space = text.find(' ', start);
+        if (space == std::string::npos) {
+            space = text.size();
+        }
+        const std::string word = text.substr(start, space - start);
+        if (!line.empty() && line.size() + 1 + word.size() > width) {
+            out += line + "\n";
+            line.clear();
+        }
+        line += (line.empty() ? "" : " ") + word;
+        start = space + 1;
+    }
+    if (!line.empty()) {
+        out += line + "\n";
+    }
+    return out;
+}
+
+nlohmann::json window_json(const WindowMax& w) {
+    return {{"dose_mGyEq", w.dose_mGyEq},
+            {"window_start", w.dose_mGyEq > 0 ? format_time(w.window_start) : ""},
+            {"window_end", w.dose_mGyEq > 0 ? format_time(w.window_end) : ""},
+            {"top_contributor", w.top_contributor}};
+}
+
+} // namespace
+
+std::string format_check_report(const Study& study, const LedgerResult& ledger, OutputFormat format,
+                                bool colour) {
+    const Scenario& sc = study.scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["mission"] = {{"name", sc.mission.name},
+                        {"site", site_name(sc.mission.site)},
+                        {"start", format_time(sc.mission.start)},
+                        {"end", format_time(sc.mission.end)}};
+        j["cautions"] = caution_text();
+        j["model"] = model_text(study);
+        j["uncertainty_factor"] = sc.limits.uncertainty_factor;
+        j["directions"] = study.direction_count();
+        j["any_limit_exceeded"] = ledger.any_exceeded;
+        j["events"] = nlohmann::json::array();
+        for (const auto& e : sc.events) {
+            j["events"].push_back({{"id", e.id},
+                                   {"flare_seen", format_time(e.flare_seen)},
+                                   {"arrival", format_time(e.arrival())},
+                                   {"spectrum", e.spectrum_text}});
+        }
+        j["crew"] = nlohmann::json::array();
+        for (const auto& c : ledger.crew) {
+            nlohmann::json cj{{"id", c.crew}, {"name", c.name}};
+            for (const auto& o : c.organs) {
+                cj["organs"][o.organ] = {
+                    {"max_30d", window_json(o.max_30d)},
+                    {"max_365d", window_json(o.max_365d)},
+                    {"career_mGyEq", o.career_mGyEq},
+                    {"mission_mGyEq", o.mission_mGyEq},
+                    {"mission_absorbed_mGy", o.mission_absorbed_mGy},
+                    {"mission_dose_equivalent_mSv", o.mission_dose_equivalent_mSv}};
+            }
+            for (const auto& chk : c.checks) {
+                cj["limits"].push_back({{"organ", chk.limit.organ},
+                                        {"window", chk.limit.window},
+                                        {"limit", chk.limit.value},
+                                        {"basis", chk.limit.basis},
+                                        {"dose", chk.dose},
+                                        {"margin", chk.margin},
+                                        {"exceeded", chk.exceeded},
+                                        {"where", chk.window_text},
+                                        {"top_contributor", chk.top_contributor}});
+            }
+            j["crew"].push_back(cj);
+        }
+        j["gaps"] = nlohmann::json::array();
+        for (const auto& g : ledger.gaps) {
+            j["gaps"].push_back({{"crew", g.crew},
+                                 {"start", format_time(g.start)},
+                                 {"end", format_time(g.end)},
+                                 {"charged_at", g.charged_at}});
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n";
+        for (const auto& c : ledger.crew) {
+            for (const auto& chk : c.checks) {
+                out += fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},\"{}\"\n", c.crew,
+                                   chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
+                                   chk.margin, chk.exceeded ? "yes" : "no", chk.limit.basis);
+            }
+        }
+        return out;
+    }
+    const char* red = colour ? "\033[31m" : "";
+    const char* green = colour ? "\033[32m" : "";
+    const char* reset = colour ? "\033[0m" : "";
+    std::string out =
+        fmt::format("crewdose check: {} ({}, {} to {})\nscenario: {}\n\n", sc.mission.name,
+                    site_name(sc.mission.site), format_time(sc.mission.start),
+                    format_time(sc.mission.end), sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_text(study), 96) + "\n";
+    out += "Events:\n";
+    for (const auto& e : sc.events) {
+        out += fmt::format("  {}: flare seen {}, arrival {}; {}\n", e.id, format_time(e.flare_seen),
+                           format_time(e.arrival()), describe_spectrum(e.spectrum));
+    }
+    if (sc.events.empty()) {
+        out += "  none\n";
+    }
+    out += "\n";
+    for (const auto& c : ledger.crew) {
+        out += fmt::format("{} ({})\n", c.name, c.crew);
+        out += fmt::format("  {:<6} {:<8} {:>12} {:>10} {:>10}  {}\n", "organ", "window", "mGy-Eq",
+                           "limit", "margin", "where the window lies");
+        const LimitCheck* lowest = nullptr;
+        for (const auto& chk : c.checks) {
+            if (!lowest || chk.margin / chk.limit.value < lowest->margin / lowest->limit.value) {
+                lowest = &chk;
+            }
+            out += fmt::format(
+                "  {:<6} {:<8} {:>12} {:>10} {}{:>10}{}  {}\n", organ_label(chk.limit.organ),
+                chk.limit.window, significant(chk.dose, 3), significant(chk.limit.value, 3),
+                chk.exceeded ? red : "", significant(chk.margin, 3), chk.exceeded ? reset : "",
+                chk.window_text.empty() ? "-" : chk.window_text);
+        }
+        if (lowest) {
+            out += fmt::format(
+                "  smallest margin: {} {} ({:.0f} % of the limit left){}\n",
+                organ_label(lowest->limit.organ), lowest->limit.window,
+                100.0 * lowest->margin / lowest->limit.value,
+                lowest->top_contributor.empty() ? "" : "; mostly " + lowest->top_contributor);
+        }
+        out += "  largest BFO contributors:\n";
+        for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {
+            out += fmt::format("    {:>10} mGy-Eq  {}\n", significant(c.contributors[i].second, 3),
+                               c.contributors[i].first);
+        }
+        if (c.contributors.empty()) {
+            out += "    none (no modelled dose)\n";
+        }
+        out += "\n";
+    }
+    out += "Limits (planning values, not official; basis):\n";
+    std::set<std::string> bases;
+    for (const auto& l : sc.limits.limits) {
+        out += fmt::format("  {} {}: {} {} ({}){}\n", organ_label(l.organ), l.window,
+                           significant(l.value, 3), l.organ == "effective" ? "mSv" : "mGy-Eq",
+                           l.basis, l.organ == "effective" ? " - not evaluated yet" : "");
+    }
+    for (const auto& g : ledger.gaps) {
+        out += fmt::format("Gap filled: {} from {} to {}, charged at {}\n", g.crew,
+                           format_time(g.start), format_time(g.end), g.charged_at);
+    }
+    out += "\n";
+    if (ledger.any_exceeded) {
+        for (const auto& c : ledger.crew) {
+            for (const auto& chk : c.checks) {
+                if (chk.exceeded) {
+                    out += fmt::format(
+                        "{}PLANNING LIMIT EXCEEDED{}: {} ({}), {} {} limit, {} of {} "
+                        "mGy-Eq{}\n",
+                        red, reset, c.name, c.crew, organ_label(chk.limit.organ), chk.limit.window,
+                        significant(chk.dose, 3), significant(chk.limit.value, 3),
+                        chk.window_text.empty() ? "" : ", window " + chk.window_text);
+                }
+            }
+        }
+    } else {
+        out += fmt::format("{}Every evaluated planning limit is met.{}\n", green, reset);
+    }
+    return out;
+}
+
+std::string format_series(const Study& study, const LedgerResult& ledger) {
+    (void)study;
+    std::string out = "crew,organ,time,cumulative_mGyEq,rate_mGyEq_per_h\n";
+    for (const auto& [key, pieces] : ledger.pieces) {
+        std::set<Time> times;
+        for (const auto& p : pieces) {
+            times.insert(p.start);
+            times.insert(p.end);
+            if (p.event) {
+                for (Time t = p.start; t < p.end; t += boost::posix_time::hours(1)) {
+                    times.insert(t);
+                }
+            }
+        }
+        double previous = 0.0;
+        Time previous_t;
+        bool first = true;
+        for (const auto& t : times) {
+            double d = 0.0;
+            for (const auto& p : pieces) {
+                d += 1e3 * p.dose.rbe_weighted_GyEq * p.fraction_by(t);
+            }
+            const double rate =
+                first || t == previous_t ? 0.0 : (d - previous) / hours(t - previous_t);
+            out += fmt::format("{},{},{},{:.10g},{:.10g}\n", key.first, key.second, format_time(t),
+                               d, rate);
+            previous = d;
+            previous_t = t;
+            first = false;
+        }
+    }
+    return out;
+}
+
+std::string format_validation(const Scenario& sc) {
+    std::string out = fmt::format("{}: valid\n", sc.file);
+    out +=
+        fmt::format("  mission: {} ({}, {} to {})\n", sc.mission.name, site_name(sc.mission.site),
+                    format_time(sc.mission.start), format_time(sc.mission.end));
+    out += fmt::format("  {} user materials, {} solids, {} locations, {} events, {} crew, {} "
+                       "activities, {} recorded doses\n",
+                       sc.materials.size(), sc.solids.size(), sc.locations.size(), sc.events.size(),
+                       sc.crew.size(), sc.activities.size(), sc.recorded.size());
+    for (const auto& l : sc.locations) {
+        out += fmt::format("  location {}: {}\n", l.id,
+                           l.shielding_table_file ? "imported table " + *l.shielding_table_file
+                                                  : fmt::format("{} solids", l.solids.size()));
+    }
+    for (const auto& c : sc.crew) {
+        out += fmt::format("  crew {}: {}\n", c.id, c.name);
+    }
+    return out;
+}
+
+} // namespace crewdose::planner

@@ -1,0 +1,260 @@
+#include "ledger.hpp"
+
+#include "time_format.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <set>
+
+namespace crewdose::planner {
+namespace {
+
+using boost::posix_time::time_duration;
+
+const std::vector<std::string> kOrgans{"bfo", "lens", "skin"};
+
+double cumulative(const std::vector<DosePiece>& pieces, const Time& t) {
+    double sum = 0.0;
+    for (const auto& p : pieces) {
+        sum += 1e3 * p.dose.rbe_weighted_GyEq * p.fraction_by(t);
+    }
+    return sum;
+}
+
+} // namespace
+
+double DosePiece::fraction_by(const Time& t) const {
+    if (t < start) {
+        return 0.0;
+    }
+    if (t >= end) {
+        return 1.0;
+    }
+    if (event) {
+        const Time arrival = event->arrival();
+        const double f0 = event->profile.fraction_by(hours(start - arrival));
+        const double f1 = event->profile.fraction_by(hours(end - arrival));
+        const double ft = event->profile.fraction_by(hours(t - arrival));
+        return f1 > f0 ? (ft - f0) / (f1 - f0) : 1.0;
+    }
+    return hours(t - start) / hours(end - start);
+}
+
+WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration length,
+                         time_duration step) {
+    WindowMax best;
+    if (pieces.empty()) {
+        return best;
+    }
+    // Candidate window ends: every piece boundary and the same plus the window length (the
+    // maxima of a piecewise-smooth running window lie there), and steps inside event pieces.
+    std::set<Time> ends;
+    for (const auto& p : pieces) {
+        for (const Time& t : {p.start, p.end}) {
+            ends.insert(t);
+            ends.insert(t + length);
+        }
+        if (p.event) {
+            for (Time t = p.start; t < p.end; t += step) {
+                ends.insert(t);
+                ends.insert(t + length);
+            }
+        }
+    }
+    for (const Time& e : ends) {
+        const double d = cumulative(pieces, e) - cumulative(pieces, e - length);
+        if (d > best.dose_mGyEq) {
+            best.dose_mGyEq = d;
+            best.window_end = e;
+            best.window_start = e - length;
+        }
+    }
+    if (best.dose_mGyEq > 0.0) {
+        double top = 0.0;
+        for (const auto& p : pieces) {
+            const double part = 1e3 * p.dose.rbe_weighted_GyEq *
+                                (p.fraction_by(best.window_end) - p.fraction_by(best.window_start));
+            if (part > top) {
+                top = part;
+                best.top_contributor = p.source + " during " + p.activity;
+            }
+        }
+    }
+    return best;
+}
+
+LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
+    const Scenario& sc = study.scenario();
+    LedgerResult out;
+    const double uf = sc.limits.uncertainty_factor;
+    for (const auto& crew : sc.crew) {
+        // The crew member's timeline, sorted, with gaps found (and filled if allowed).
+        struct Span {
+            Time start;
+            Time end;
+            std::string location;
+            std::string label;
+        };
+        std::vector<Span> spans;
+        for (const auto& a : sc.activities) {
+            if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
+                spans.push_back({a.start, a.end, a.location,
+                                 fmt::format("{} at {} ({}:{})", to_string(a.kind), a.location,
+                                             sc.file, a.where.line)});
+            }
+        }
+        std::sort(spans.begin(), spans.end(),
+                  [](const Span& x, const Span& y) { return x.start < y.start; });
+        if (spans.empty()) {
+            throw InputError(crew.where, "crew",
+                             fmt::format("crew member '{}' has no activities; "
+                                         "the timeline must cover the mission",
+                                         crew.id));
+        }
+        std::vector<Span> filled;
+        Time cursor = sc.mission.start;
+        for (std::size_t i = 0; i <= spans.size(); ++i) {
+            const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
+            if (next > cursor) {
+                if (!options.allow_gaps) {
+                    throw InputError(crew.where, "activity",
+                                     fmt::format("crew member '{}' has no activity from {} to {}; "
+                                                 "cover the whole mission or run with "
+                                                 "--allow-gaps",
+                                                 crew.id, format_time(cursor), format_time(next)));
+                }
+                const std::string at = i > 0 ? spans[i - 1].location : spans[0].location;
+                out.gaps.push_back({crew.id, cursor, next, at});
+                filled.push_back({cursor, next, at, fmt::format("gap charged at {}", at)});
+            }
+            if (i < spans.size()) {
+                filled.push_back(spans[i]);
+                cursor = std::max(cursor, spans[i].end);
+            }
+        }
+
+        CrewResult result;
+        result.crew = crew.id;
+        result.name = crew.name;
+        double lowest_margin = 1e300;
+        for (const auto& organ : kOrgans) {
+            std::vector<DosePiece> pieces;
+            for (const auto& span : filled) {
+                for (const auto& ev : sc.events) {
+                    const Time arrival = ev.arrival();
+                    const double f = ev.profile.fraction_by(hours(span.end - arrival)) -
+                                     ev.profile.fraction_by(hours(span.start - arrival));
+                    if (f <= 0.0) {
+                        continue;
+                    }
+                    const auto full = study.event_dose(span.location, organ, ev);
+                    pieces.push_back({span.start, span.end, full.scaled(f * uf), &ev,
+                                      "SPE " + ev.id, span.label});
+                }
+            }
+            // Recorded doses: replace the modelled dose of their period (the pieces are cut
+            // there) or add to it (doses the tool does not model).
+            for (const auto& rec : sc.recorded) {
+                if (rec.crew != crew.id) {
+                    continue;
+                }
+                if (rec.replaces_model) {
+                    std::vector<DosePiece> kept;
+                    for (const auto& p : pieces) {
+                        const double before = p.fraction_by(rec.start);
+                        const double after = 1.0 - p.fraction_by(rec.end);
+                        if (before > 0.0) {
+                            DosePiece q = p;
+                            q.end = std::min(p.end, rec.start);
+                            q.dose = p.dose.scaled(before);
+                            kept.push_back(q);
+                        }
+                        if (after > 0.0) {
+                            DosePiece q = p;
+                            q.start = std::max(p.start, rec.end);
+                            q.dose = p.dose.scaled(after);
+                            kept.push_back(q);
+                        }
+                    }
+                    pieces = std::move(kept);
+                }
+                if (const auto it = rec.doses.mGyEq.find(organ); it != rec.doses.mGyEq.end()) {
+                    const double gyeq = it->second * 1e-3;
+                    pieces.push_back({rec.start,
+                                      rec.end,
+                                      {gyeq, gyeq, gyeq},
+                                      nullptr,
+                                      "recorded (" + rec.source + ")",
+                                      fmt::format("{}:{}", sc.file, rec.where.line)});
+                }
+            }
+            OrganResult r;
+            r.organ = organ;
+            for (const auto& p : pieces) {
+                r.mission_mGyEq += 1e3 * p.dose.rbe_weighted_GyEq;
+                r.mission_absorbed_mGy += 1e3 * p.dose.absorbed_Gy;
+                r.mission_dose_equivalent_mSv += 1e3 * p.dose.dose_equivalent_Sv;
+                if (organ == "bfo") {
+                    result.contributors.emplace_back(p.source + " during " + p.activity,
+                                                     1e3 * p.dose.rbe_weighted_GyEq);
+                }
+            }
+            for (const auto& prior : crew.prior) {
+                if (const auto it = prior.doses.mGyEq.find(organ); it != prior.doses.mGyEq.end()) {
+                    const double gyeq = it->second * 1e-3;
+                    pieces.push_back({prior.start,
+                                      prior.end,
+                                      {gyeq, gyeq, gyeq},
+                                      nullptr,
+                                      "prior dose",
+                                      fmt::format("{}:{}", sc.file, prior.where.line)});
+                }
+            }
+            r.career_mGyEq = cumulative(pieces, sc.mission.end);
+            r.max_30d =
+                window_maximum(pieces, boost::posix_time::hours(24 * 30), options.profile_step);
+            r.max_365d =
+                window_maximum(pieces, boost::posix_time::hours(24 * 365), options.profile_step);
+            for (const auto& limit : sc.limits.limits) {
+                if (limit.organ != organ) {
+                    continue;
+                }
+                LimitCheck c;
+                c.limit = limit;
+                const WindowMax* w = nullptr;
+                if (limit.window == "30-day") {
+                    w = &r.max_30d;
+                    c.dose = r.max_30d.dose_mGyEq;
+                } else if (limit.window == "annual") {
+                    w = &r.max_365d;
+                    c.dose = r.max_365d.dose_mGyEq;
+                } else {
+                    c.dose = r.career_mGyEq;
+                }
+                c.margin = limit.value - c.dose;
+                c.exceeded = c.margin < 0.0;
+                if (w && w->dose_mGyEq > 0.0) {
+                    c.window_text =
+                        format_time(w->window_start) + " to " + format_time(w->window_end);
+                    c.top_contributor = w->top_contributor;
+                }
+                out.any_exceeded = out.any_exceeded || c.exceeded;
+                if (c.margin / limit.value < lowest_margin) {
+                    lowest_margin = c.margin / limit.value;
+                    result.pieces = pieces;
+                }
+                result.checks.push_back(c);
+            }
+            out.pieces[{crew.id, organ}] = pieces;
+            result.organs.push_back(r);
+        }
+        std::sort(result.contributors.begin(), result.contributors.end(),
+                  [](const auto& a, const auto& b) { return a.second > b.second; });
+        out.crew.push_back(std::move(result));
+    }
+    return out;
+}
+
+} // namespace crewdose::planner

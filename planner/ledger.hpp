@@ -1,0 +1,95 @@
+#pragma once
+// The dose ledger: per crew member and organ, dose pieces along the timeline (SPE doses inside
+// activities, prior history, recorded doses), their rolling 30-day and 365-day maxima, career
+// totals, and the margins to every planning limit.
+#include "study.hpp"
+
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// A dose delivered over [start, end]: spread evenly, or following an event's time profile.
+struct DosePiece {
+    Time start;
+    Time end;
+    exposure::DoseQuantities dose;    ///< Gy, Sv, Gy-Eq, already times the uncertainty factor
+    const EventSpec* event = nullptr; ///< shape of the piece, if from an event
+    std::string source;               ///< "spe:ID", "prior", "recorded: ..."
+    std::string activity;             ///< "eva at rover-site (line 40)", ...
+
+    /// Part of the piece's dose delivered by time t (0 before start, all of it after end).
+    [[nodiscard]] double fraction_by(const Time& t) const;
+};
+
+/// A timeline gap filled under --allow-gaps.
+struct Gap {
+    std::string crew;
+    Time start;
+    Time end;
+    std::string charged_at; ///< location id
+};
+
+/// The largest dose in a rolling window and where it lies.
+struct WindowMax {
+    double dose_mGyEq = 0.0;
+    Time window_start;
+    Time window_end;
+    std::string top_contributor; ///< the piece that gave most of it
+};
+
+struct OrganResult {
+    std::string organ;
+    WindowMax max_30d;
+    WindowMax max_365d;
+    double career_mGyEq = 0.0;  ///< prior + mission
+    double mission_mGyEq = 0.0; ///< mission part only
+    double mission_absorbed_mGy = 0.0;
+    double mission_dose_equivalent_mSv = 0.0;
+};
+
+/// One limit checked: dose, limit and margin (limit - dose; negative means exceeded).
+struct LimitCheck {
+    Limit limit;
+    double dose = 0.0;
+    double margin = 0.0;
+    bool exceeded = false;
+    std::string window_text; ///< where the dose was highest
+    std::string top_contributor;
+};
+
+struct CrewResult {
+    std::string crew;
+    std::string name;
+    std::vector<OrganResult> organs;
+    std::vector<LimitCheck> checks;
+    std::vector<DosePiece> pieces; ///< all pieces of the lowest-margin organ's ledger
+    std::vector<std::pair<std::string, double>> contributors; ///< BFO mGy-Eq by activity x source
+};
+
+struct LedgerOptions {
+    bool allow_gaps = false;
+    /// Resolution inside smooth event profiles when searching window maxima.
+    boost::posix_time::time_duration profile_step = boost::posix_time::minutes(10);
+};
+
+struct LedgerResult {
+    std::vector<CrewResult> crew;
+    std::vector<Gap> gaps;
+    bool any_exceeded = false;
+    /// Per crew and organ, the pieces (for --series output).
+    std::map<std::pair<std::string, std::string>, std::vector<DosePiece>> pieces;
+};
+
+/// Builds the ledger of every crew member. Timeline gaps are InputError (at the crew entry's
+/// line) unless `options.allow_gaps`.
+[[nodiscard]] LedgerResult build_ledger(const Study& study, const LedgerOptions& options = {});
+
+/// The largest dose (mGy-Eq) in any window of `length` over the pieces, exact at piece
+/// boundaries and sampled at `step` inside event profiles.
+[[nodiscard]] WindowMax window_maximum(const std::vector<DosePiece>& pieces,
+                                       boost::posix_time::time_duration length,
+                                       boost::posix_time::time_duration step);
+
+} // namespace crewdose::planner

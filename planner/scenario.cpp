@@ -1,0 +1,67 @@
+#include "scenario.hpp"
+
+#include "exposure/material_library.hpp"
+
+#include <cmath>
+
+namespace crewdose::planner {
+
+double EventProfile::fraction_by(double t) const {
+    if (t <= 0.0) {
+        return 0.0;
+    }
+    // I(t) = (1 - e^{-t/r}) e^{-t/d}: integral_0^t = d (1 - e^{-t/d}) - c (1 - e^{-t/c}) with
+    // c = 1 / (1/r + 1/d); the total is d - c.
+    const double d = decay_h;
+    const double c = 1.0 / (1.0 / rise_h + 1.0 / decay_h);
+    const double part = d * -std::expm1(-t / d) - c * -std::expm1(-t / c);
+    return std::min(1.0, part / (d - c));
+}
+
+Time EventSpec::arrival() const {
+    return flare_seen + boost::posix_time::microseconds(
+                            static_cast<std::int64_t>(std::llround(arrival_delay_h * 3.6e9)));
+}
+
+const exposure::Material* Scenario::material(const std::string& id) const {
+    for (const auto& m : materials) {
+        if (m.id() == id) {
+            return &m;
+        }
+    }
+    return exposure::find_builtin_material(id);
+}
+
+std::vector<Limit> default_limits() {
+    // Planning defaults, never official limits. NCRP Report 132 (2000) for BFO, lens and skin
+    // (from memory); career effective dose 600 mSv from the 2022 revision of NASA-STD-3001
+    // (from memory). Circulatory (heart) and CNS (brain) limits need the phantom's organ doses
+    // and are added when it lands.
+    const std::string ncrp = "NCRP Report 132 (planning value, from memory)";
+    const std::string std3001 = "NASA-STD-3001 2022 revision (planning value, from memory)";
+    return {{"bfo", "30-day", 250.0, ncrp},         {"bfo", "annual", 500.0, ncrp},
+            {"lens", "30-day", 1000.0, ncrp},       {"lens", "annual", 2000.0, ncrp},
+            {"lens", "career", 4000.0, ncrp},       {"skin", "30-day", 1500.0, ncrp},
+            {"skin", "annual", 3000.0, ncrp},       {"skin", "career", 6000.0, ncrp},
+            {"effective", "career", 600.0, std3001}};
+}
+
+std::string to_string(ActivityKind kind) {
+    switch (kind) {
+    case ActivityKind::stay:
+        return "stay";
+    case ActivityKind::sleep:
+        return "sleep";
+    case ActivityKind::eva:
+        return "eva";
+    case ActivityKind::rover:
+        return "rover";
+    case ActivityKind::transit:
+        return "transit";
+    case ActivityKind::shelter:
+        return "shelter";
+    }
+    return "?";
+}
+
+} // namespace crewdose::planner

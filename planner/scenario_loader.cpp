@@ -1,0 +1,726 @@
+// Reading a scenario file (TOML, toml++) into a validated Scenario. Every error names the
+// file, the line and the key, says what is wrong and what is allowed. Unknown keys are errors.
+#include "scenario.hpp"
+#include "shielding_table_file.hpp"
+#include "spectrum_spec.hpp"
+#include "time_format.hpp"
+
+#include "exposure/element.hpp"
+#include "exposure/material_library.hpp"
+#include "exposure/parameter_error.hpp"
+#include "habitats/direction_set.hpp"
+
+#include <boost/date_time/gregorian/gregorian_types.hpp>
+#include <fmt/format.h>
+#include <toml++/toml.h>
+
+#include <algorithm>
+#include <cmath>
+#include <filesystem>
+#include <fstream>
+#include <set>
+#include <sstream>
+
+namespace crewdose::planner {
+namespace {
+
+// One TOML table being read: knows its file, its name for messages, and which keys it allows.
+class Section {
+  public:
+    Section(const toml::table& t, std::string file, std::string name, std::set<std::string> allowed)
+        : t_(t), file_(std::move(file)), name_(std::move(name)), allowed_(std::move(allowed)) {
+        for (const auto& [key, node] : t_) {
+            const std::string k(key.str());
+            if (!allowed_.count(k)) {
+                std::string list;
+                for (const auto& a : allowed_) {
+                    list += (list.empty() ? "" : ", ") + a;
+                }
+                throw InputError(at(node), name_ + "." + k, "unknown key; allowed here: " + list);
+            }
+        }
+    }
+
+    [[nodiscard]] SourceLocation where() const { return at(t_); }
+    [[nodiscard]] SourceLocation at(const toml::node& n) const {
+        return {file_, static_cast<int>(n.source().begin.line)};
+    }
+    [[nodiscard]] std::string field(const std::string& key) const { return name_ + "." + key; }
+    [[nodiscard]] bool has(const std::string& key) const { return t_.contains(key); }
+    [[nodiscard]] const toml::node* node(const std::string& key) const { return t_.get(key); }
+
+    [[noreturn]] void fail(const std::string& key, const std::string& problem) const {
+        const toml::node* n = t_.get(key);
+        throw InputError(n ? at(*n) : where(), field(key), problem);
+    }
+
+    const toml::node& need(const std::string& key) const {
+        const toml::node* n = t_.get(key);
+        if (!n) {
+            throw InputError(where(), field(key), "is required here");
+        }
+        return *n;
+    }
+
+    [[nodiscard]] std::string text(const std::string& key) const {
+        const auto* s = need(key).as_string();
+        if (!s) {
+            fail(key, "must be a string");
+        }
+        return s->get();
+    }
+    [[nodiscard]] std::string text_or(const std::string& key, std::string fallback) const {
+        return has(key) ? text(key) : std::move(fallback);
+    }
+
+    [[nodiscard]] double number(const std::string& key) const {
+        const toml::node& n = need(key);
+        if (const auto* d = n.as_floating_point()) {
+            return d->get();
+        }
+        if (const auto* i = n.as_integer()) {
+            return static_cast<double>(i->get());
+        }
+        fail(key, "must be a number");
+    }
+    [[nodiscard]] double positive(const std::string& key) const {
+        const double v = number(key);
+        if (!(v > 0.0) || !std::isfinite(v)) {
+            fail(key, fmt::format("must be a number > 0, got {}", v));
+        }
+        return v;
+    }
+    [[nodiscard]] double non_negative(const std::string& key) const {
+        const double v = number(key);
+        if (!(v >= 0.0) || !std::isfinite(v)) {
+            fail(key, fmt::format("must be a number >= 0, got {}", v));
+        }
+        return v;
+    }
+    [[nodiscard]] bool boolean(const std::string& key) const {
+        const auto* b = need(key).as_boolean();
+        if (!b) {
+            fail(key, "must be true or false");
+        }
+        return b->get();
+    }
+
+    [[nodiscard]] Time time(const std::string& key) const {
+        const auto* dt = need(key).as_date_time();
+        if (!dt || !dt->get().offset) {
+            fail(key, "must be an RFC 3339 date-time with its UTC offset, e.g. "
+                      "2031-05-01T06:00:00Z");
+        }
+        const toml::date_time v = dt->get();
+        const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
+        const auto tod = boost::posix_time::hours(v.time.hour) +
+                         boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
+                         boost::posix_time::seconds(v.time.second) +
+                         boost::posix_time::microseconds(v.time.nanosecond / 1000);
+        return Time(day, tod);
+    }
+
+    [[nodiscard]] std::vector<double> numbers(const std::string& key, std::size_t count) const {
+        const auto* a = need(key).as_array();
+        if (!a || (count != 0 && a->size() != count)) {
+            fail(key, count ? fmt::format("must be an array of {} numbers", count)
+                            : "must be an array of numbers");
+        }
+        std::vector<double> out;
+        for (const auto& e : *a) {
+            if (const auto* d = e.as_floating_point()) {
+                out.push_back(d->get());
+            } else if (const auto* i = e.as_integer()) {
+                out.push_back(static_cast<double>(i->get()));
+            } else {
+                fail(key, "must hold numbers only");
+            }
+            if (!std::isfinite(out.back())) {
+                fail(key, "must hold finite numbers");
+            }
+        }
+        return out;
+    }
+    [[nodiscard]] habitats::Point3 point(const std::string& key) const {
+        const auto v = numbers(key, 3);
+        return {v[0], v[1], v[2]};
+    }
+    [[nodiscard]] habitats::Vector3 unit_vector(const std::string& key) const {
+        const auto v = numbers(key, 3);
+        const habitats::Vector3 d{v[0], v[1], v[2]};
+        if (!(habitats::length(d) > 0.0)) {
+            fail(key, "must be a non-zero vector");
+        }
+        return habitats::normalized(d);
+    }
+    [[nodiscard]] std::vector<std::string> strings(const std::string& key) const {
+        const toml::node& n = need(key);
+        std::vector<std::string> out;
+        if (const auto* s = n.as_string()) {
+            out.push_back(s->get());
+            return out;
+        }
+        const auto* a = n.as_array();
+        if (!a) {
+            fail(key, "must be a string or an array of strings");
+        }
+        for (const auto& e : *a) {
+            const auto* s = e.as_string();
+            if (!s) {
+                fail(key, "must hold strings only");
+            }
+            out.push_back(s->get());
+        }
+        return out;
+    }
+    [[nodiscard]] const toml::table& table(const std::string& key) const {
+        const auto* t = need(key).as_table();
+        if (!t) {
+            fail(key, "must be a table { ... }");
+        }
+        return *t;
+    }
+
+  private:
+    const toml::table& t_;
+    std::string file_;
+    std::string name_;
+    std::set<std::string> allowed_;
+};
+
+// Each [[name]] entry, or an error if `name` is not an array of tables.
+std::vector<const toml::table*> entries(const toml::table& root, const std::string& name,
+                                        const std::string& file) {
+    std::vector<const toml::table*> out;
+    const toml::node* n = root.get(name);
+    if (!n) {
+        return out;
+    }
+    const auto* arr = n->as_array();
+    if (!arr || !arr->is_array_of_tables()) {
+        throw InputError({file, static_cast<int>(n->source().begin.line)}, name,
+                         "must be written as [[" + name + "]] entries");
+    }
+    for (const auto& e : *arr) {
+        out.push_back(e.as_table());
+    }
+    return out;
+}
+
+const std::set<std::string> kOrgans{"bfo", "lens", "skin"};
+
+OrganDoses read_doses(const Section& s) {
+    OrganDoses d;
+    for (const auto& organ : kOrgans) {
+        if (s.has(organ + "_mGyEq")) {
+            d.mGyEq[organ] = s.non_negative(organ + "_mGyEq");
+        }
+    }
+    if (s.has("effective_mSv")) {
+        d.effective_mSv = s.non_negative("effective_mSv");
+    }
+    return d;
+}
+
+std::set<std::string> with_dose_keys(std::set<std::string> keys) {
+    for (const auto& organ : kOrgans) {
+        keys.insert(organ + "_mGyEq");
+    }
+    keys.insert("effective_mSv");
+    return keys;
+}
+
+habitats::Shape read_shape(const Section& s, const std::string& shape) {
+    if (shape == "sphere") {
+        return habitats::Sphere{s.point("center_m"), s.positive("radius_m")};
+    }
+    if (shape == "cylinder") {
+        return habitats::Cylinder{s.point("base_m"), s.unit_vector("axis"), s.positive("height_m"),
+                                  s.positive("radius_m")};
+    }
+    if (shape == "box") {
+        const auto h = s.numbers("half_size_m", 3);
+        for (double v : h) {
+            if (!(v > 0.0)) {
+                s.fail("half_size_m", "every half size must be > 0 m");
+            }
+        }
+        habitats::Box b{s.point("center_m"), {h[0], h[1], h[2]}};
+        if (s.has("axis_u") || s.has("axis_v")) {
+            b.u = s.unit_vector("axis_u");
+            const habitats::Vector3 v = s.unit_vector("axis_v");
+            if (std::abs(habitats::dot(b.u, v)) > 1e-9) {
+                s.fail("axis_v", "must be perpendicular to axis_u");
+            }
+            b.v = v;
+            b.w = habitats::cross(b.u, b.v);
+        }
+        return b;
+    }
+    if (shape == "dome") {
+        return habitats::Dome{s.point("center_m"), s.positive("radius_m")};
+    }
+    if (shape == "slab") {
+        return habitats::Slab{s.point("outer_point_m"), s.unit_vector("normal"),
+                              s.positive("thickness_m")};
+    }
+    s.fail("shape", "'" + shape +
+                        "' is not a supported shape; allowed: sphere, cylinder, box, "
+                        "dome, slab (the ground is the site's own)");
+}
+
+std::vector<SuitLayer> read_suit_layers(const Section& s, const std::string& key,
+                                        const std::string& file) {
+    std::vector<SuitLayer> out;
+    const auto* a = s.need(key).as_array();
+    if (!a || !a->is_array_of_tables()) {
+        s.fail(key, "must be an array of { material = \"...\", areal_density_g_cm2 = ... }");
+    }
+    for (const auto& e : *a) {
+        const Section l(*e.as_table(), file, s.field(key), {"material", "areal_density_g_cm2"});
+        out.push_back({l.text("material"), l.positive("areal_density_g_cm2")});
+    }
+    return out;
+}
+
+} // namespace
+
+Scenario parse_scenario(const std::string& text, const std::string& file) {
+    toml::table root;
+    try {
+        root = toml::parse(text, file);
+    } catch (const toml::parse_error& e) {
+        throw InputError({file, static_cast<int>(e.source().begin.line)}, "syntax",
+                         std::string(e.description()));
+    }
+    const Section top(root, file, "scenario",
+                      {"mission", "material", "solid", "location", "event", "crew", "activity",
+                       "recorded", "limits"});
+    Scenario sc;
+    sc.file = file;
+
+    // [mission]
+    {
+        const Section m(top.table("mission"), file, "mission",
+                        {"name", "site", "start", "end", "directions", "terrain_mask",
+                         "surface_pressure_Pa", "scale_height_km"});
+        sc.mission.where = m.where();
+        sc.mission.name = m.text("name");
+        const std::string site = m.text("site");
+        if (site == "moon") {
+            sc.mission.site = SiteKind::moon;
+        } else if (site == "mars") {
+            sc.mission.site = SiteKind::mars;
+        } else if (site == "deep-space") {
+            sc.mission.site = SiteKind::deep_space;
+        } else {
+            m.fail("site", "'" + site + "' is not a site; allowed: moon, mars, deep-space");
+        }
+        sc.mission.start = m.time("start");
+        sc.mission.end = m.time("end");
+        if (!(sc.mission.end > sc.mission.start)) {
+            m.fail("end", "must be after mission.start");
+        }
+        if (m.has("directions")) {
+            const double n = m.number("directions");
+            if (!(n >= 16 && n <= 65536) || n != std::floor(n)) {
+                m.fail("directions", "must be a whole number from 16 to 65536");
+            }
+            sc.mission.directions = static_cast<std::size_t>(n);
+        }
+        if (m.has("terrain_mask")) {
+            const auto* a = m.need("terrain_mask").as_array();
+            std::vector<std::pair<double, double>> pts;
+            if (!a) {
+                m.fail("terrain_mask", "must be an array of [azimuth_deg, elevation_deg] pairs");
+            }
+            for (const auto& e : *a) {
+                const auto* pair = e.as_array();
+                if (!pair || pair->size() != 2 || !(*pair)[0].is_number() ||
+                    !(*pair)[1].is_number()) {
+                    m.fail("terrain_mask", "each entry must be [azimuth_deg, elevation_deg]");
+                }
+                pts.emplace_back((*pair)[0].value<double>().value_or(0.0),
+                                 (*pair)[1].value<double>().value_or(0.0));
+            }
+            try {
+                sc.mission.terrain_mask = habitats::TerrainMask(pts);
+            } catch (const std::invalid_argument& e) {
+                m.fail("terrain_mask", e.what());
+            }
+        }
+        if (m.has("surface_pressure_Pa")) {
+            sc.mission.surface_pressure_Pa = m.positive("surface_pressure_Pa");
+        }
+        if (m.has("scale_height_km")) {
+            sc.mission.scale_height_km = m.positive("scale_height_km");
+        }
+    }
+
+    // [[material]]
+    for (const auto* t : entries(root, "material", file)) {
+        const Section s(
+            *t, file, "material",
+            {"id", "name", "density_g_cm3", "composition", "mean_excitation_eV", "gas"});
+        exposure::MaterialSpec spec;
+        spec.id = s.text("id");
+        if (exposure::find_builtin_material(spec.id) || sc.material_lines.count(spec.id)) {
+            s.fail("id", "'" + spec.id +
+                             "' is already defined (built-in materials: see "
+                             "'crewdose materials'); choose another id");
+        }
+        spec.name = s.text_or("name", spec.id);
+        spec.density_g_cm3 = s.positive("density_g_cm3");
+        const Section comp(s.table("composition"), file, "material.composition", [] {
+            std::set<std::string> symbols;
+            for (const auto& e : exposure::elements()) {
+                symbols.insert(std::string(e.symbol));
+            }
+            return symbols;
+        }());
+        for (const auto& [key, node] : s.table("composition")) {
+            const std::string sym(key.str());
+            spec.composition.push_back({exposure::element_by_symbol(sym)->Z, comp.positive(sym)});
+        }
+        if (s.has("mean_excitation_eV")) {
+            spec.mean_excitation_eV = s.positive("mean_excitation_eV");
+        }
+        if (s.has("gas") && s.boolean("gas")) {
+            spec.phase = exposure::Phase::gas;
+        }
+        spec.source = "scenario " + file;
+        try {
+            sc.materials.emplace_back(std::move(spec));
+        } catch (const exposure::ParameterError& e) {
+            throw InputError(s.where(), "material." + e.field(), e.detail());
+        }
+        sc.material_lines[sc.materials.back().id()] = s.where();
+    }
+
+    auto require_material = [&](const Section& s, const std::string& key, const std::string& id) {
+        if (!sc.material(id)) {
+            s.fail(key, "unknown material '" + id +
+                            "'; use a built-in id ('crewdose materials') "
+                            "or define it in a [[material]] entry");
+        }
+    };
+
+    // [[solid]]
+    for (const auto* t : entries(root, "solid", file)) {
+        const Section s(*t, file, "solid",
+                        {"id", "shape", "center_m", "radius_m", "base_m", "axis", "height_m",
+                         "half_size_m", "axis_u", "axis_v", "outer_point_m", "normal",
+                         "thickness_m", "layers", "core"});
+        habitats::Solid solid;
+        solid.id = s.text("id");
+        if (sc.solid_lines.count(solid.id)) {
+            s.fail("id", "'" + solid.id + "' is defined twice");
+        }
+        solid.shape = read_shape(s, s.text("shape"));
+        if (s.has("layers")) {
+            const auto* a = s.need("layers").as_array();
+            if (!a || !a->is_array_of_tables()) {
+                s.fail("layers", "must be an array of { material = \"...\", thickness_m = ... }");
+            }
+            for (const auto& e : *a) {
+                const Section l(*e.as_table(), file, "solid.layers",
+                                {"material", "thickness_m", "density_g_cm3"});
+                const std::string id = l.text("material");
+                require_material(l, "material", id);
+                const double density = l.has("density_g_cm3") ? l.positive("density_g_cm3")
+                                                              : sc.material(id)->density_g_cm3();
+                solid.layers.push_back({id, l.positive("thickness_m"), density});
+            }
+        }
+        if (s.has("core")) {
+            const std::string id = s.text("core");
+            require_material(s, "core", id);
+            solid.core = habitats::SolidLayer{id, 0.0, sc.material(id)->density_g_cm3()};
+        }
+        if (solid.layers.empty() && !solid.core) {
+            s.fail("layers", "a solid needs layers, a core material, or both");
+        }
+        sc.solid_lines[solid.id] = s.where();
+        sc.solids.push_back(std::move(solid));
+    }
+
+    // [[location]]
+    std::set<std::string> location_ids;
+    for (const auto* t : entries(root, "location", file)) {
+        const Section s(*t, file, "location",
+                        {"id", "point_m", "solids", "shielding_table", "body", "suit",
+                         "heading_deg", "surroundings"});
+        LocationSpec loc;
+        loc.where = s.where();
+        loc.id = s.text("id");
+        if (!location_ids.insert(loc.id).second) {
+            s.fail("id", "'" + loc.id + "' is defined twice");
+        }
+        loc.point_m = s.has("point_m") ? s.point("point_m") : habitats::Point3{0, 0, 1.0};
+        if (s.has("solids")) {
+            loc.solids = s.strings("solids");
+            for (const auto& id : loc.solids) {
+                if (!sc.solid_lines.count(id)) {
+                    s.fail("solids", "unknown solid '" + id + "'");
+                }
+            }
+        }
+        if (s.has("shielding_table")) {
+            if (s.has("solids")) {
+                s.fail("shielding_table", "give either solids or a shielding table, not both");
+            }
+            loc.shielding_table_file = s.text("shielding_table");
+        }
+        const std::string body = s.text_or("body", "quick");
+        if (body != "quick") {
+            s.fail("body", "'" + body +
+                               "': only the quick screening model ('quick') is available "
+                               "yet; the stylised phantom arrives with the geometry issue");
+        }
+        if (s.has("suit")) {
+            const toml::node& n = s.need("suit");
+            if (const auto* b = n.as_boolean()) {
+                if (b->get()) {
+                    loc.suit = SuitModel{};
+                }
+            } else if (const auto* st = n.as_table()) {
+                const Section su(*st, file, "location.suit",
+                                 {"layers", "pack", "pack_half_angle_deg"});
+                SuitModel m;
+                if (su.has("layers")) {
+                    m.all_around = read_suit_layers(su, "layers", file);
+                }
+                if (su.has("pack")) {
+                    m.pack = read_suit_layers(su, "pack", file);
+                }
+                if (su.has("pack_half_angle_deg")) {
+                    m.pack_half_angle_deg = su.positive("pack_half_angle_deg");
+                }
+                for (const auto& l : m.all_around) {
+                    require_material(su, "layers", l.material_id);
+                }
+                for (const auto& l : m.pack) {
+                    require_material(su, "pack", l.material_id);
+                }
+                loc.suit = m;
+            } else {
+                s.fail("suit", "must be true, false, or a table { layers, pack, "
+                               "pack_half_angle_deg }");
+            }
+        }
+        if (s.has("heading_deg")) {
+            loc.heading_deg = s.number("heading_deg");
+        }
+        const std::string surroundings = s.text_or("surroundings", "site");
+        if (surroundings == "deep-space") {
+            loc.deep_space = true;
+        } else if (surroundings != "site") {
+            s.fail("surroundings", "'" + surroundings +
+                                       "'; allowed: site (the mission's ground "
+                                       "and atmosphere), deep-space (a transit cabin)");
+        }
+        sc.locations.push_back(std::move(loc));
+    }
+
+    // [[event]]
+    std::set<std::string> event_ids;
+    for (const auto* t : entries(root, "event", file)) {
+        const Section s(*t, file, "event",
+                        {"id", "flare_seen", "arrival_delay_h", "spectrum", "rise_h", "decay_h"});
+        const std::string id = s.text("id");
+        if (!event_ids.insert(id).second) {
+            s.fail("id", "'" + id + "' is defined twice");
+        }
+        const std::string text_spec = s.text("spectrum");
+        EventSpec ev{s.where(),
+                     id,
+                     s.time("flare_seen"),
+                     0.0,
+                     parse_spectrum(text_spec, "event.spectrum", s.at(s.need("spectrum"))),
+                     text_spec,
+                     EventProfile{}};
+        if (s.has("arrival_delay_h")) {
+            ev.arrival_delay_h = s.non_negative("arrival_delay_h");
+        }
+        if (s.has("rise_h")) {
+            ev.profile.rise_h = s.positive("rise_h");
+        }
+        if (s.has("decay_h")) {
+            ev.profile.decay_h = s.positive("decay_h");
+        }
+        if (ev.flare_seen < sc.mission.start || ev.flare_seen > sc.mission.end) {
+            s.fail("flare_seen", "lies outside the mission (mission.start to mission.end)");
+        }
+        sc.events.push_back(std::move(ev));
+    }
+
+    // [[crew]]
+    std::set<std::string> crew_ids;
+    for (const auto* t : entries(root, "crew", file)) {
+        const Section s(*t, file, "crew", {"id", "name", "prior", "prior_totals"});
+        CrewSpec c;
+        c.where = s.where();
+        c.id = s.text("id");
+        if (!crew_ids.insert(c.id).second) {
+            s.fail("id", "'" + c.id + "' is defined twice");
+        }
+        c.name = s.text_or("name", c.id);
+        if (s.has("prior")) {
+            const auto* a = s.need("prior").as_array();
+            if (!a || !a->is_array_of_tables()) {
+                s.fail("prior", "must be an array of { start, end, bfo_mGyEq, ... } tables");
+            }
+            for (const auto& e : *a) {
+                const Section p(*e.as_table(), file, "crew.prior",
+                                with_dose_keys({"start", "end"}));
+                PriorPeriod pp{p.where(), p.time("start"), p.time("end"), read_doses(p)};
+                if (!(pp.end > pp.start)) {
+                    p.fail("end", "must be after start");
+                }
+                if (pp.end > sc.mission.start) {
+                    p.fail("end", "a prior period must end by mission.start");
+                }
+                c.prior.push_back(std::move(pp));
+            }
+        }
+        if (s.has("prior_totals")) {
+            const Section p(s.table("prior_totals"), file, "crew.prior_totals", with_dose_keys({}));
+            // Totals with no dates are placed at mission start, where they count against
+            // every window that includes it (the conservative choice).
+            c.prior.push_back({p.where(), sc.mission.start, sc.mission.start, read_doses(p)});
+        }
+        sc.crew.push_back(std::move(c));
+    }
+
+    // [[activity]]
+    for (const auto* t : entries(root, "activity", file)) {
+        const Section s(*t, file, "activity", {"crew", "kind", "location", "start", "end"});
+        ActivitySpec a;
+        a.where = s.where();
+        a.crew = s.strings("crew");
+        for (const auto& id : a.crew) {
+            if (!crew_ids.count(id)) {
+                s.fail("crew", "unknown crew member '" + id + "'");
+            }
+        }
+        const std::string kind = s.text("kind");
+        static const std::map<std::string, ActivityKind> kKinds{
+            {"stay", ActivityKind::stay},       {"sleep", ActivityKind::sleep},
+            {"eva", ActivityKind::eva},         {"rover", ActivityKind::rover},
+            {"transit", ActivityKind::transit}, {"shelter", ActivityKind::shelter}};
+        const auto k = kKinds.find(kind);
+        if (k == kKinds.end()) {
+            s.fail("kind", "'" + kind + "'; allowed: stay, sleep, eva, rover, transit, shelter");
+        }
+        a.kind = k->second;
+        a.location = s.text("location");
+        if (!location_ids.count(a.location)) {
+            s.fail("location", "unknown location '" + a.location + "'");
+        }
+        a.start = s.time("start");
+        a.end = s.time("end");
+        if (!(a.end > a.start)) {
+            s.fail("end", "must be after start (activities need a positive duration)");
+        }
+        if (a.start < sc.mission.start || a.end > sc.mission.end) {
+            s.fail(a.start < sc.mission.start ? "start" : "end",
+                   "lies outside the mission (mission.start to mission.end)");
+        }
+        sc.activities.push_back(std::move(a));
+    }
+
+    // [[recorded]]
+    for (const auto* t : entries(root, "recorded", file)) {
+        const Section s(*t, file, "recorded",
+                        with_dose_keys({"crew", "start", "end", "source", "replaces_model"}));
+        RecordedSpec r{s.where(),     s.text("crew"), s.time("start"),
+                       s.time("end"), read_doses(s),  s.text("source"),
+                       true};
+        if (!crew_ids.count(r.crew)) {
+            s.fail("crew", "unknown crew member '" + r.crew + "'");
+        }
+        if (!(r.end > r.start)) {
+            s.fail("end", "must be after start");
+        }
+        if (s.has("replaces_model")) {
+            r.replaces_model = s.boolean("replaces_model");
+        }
+        sc.recorded.push_back(std::move(r));
+    }
+
+    // [limits]
+    sc.limits.limits = default_limits();
+    if (top.has("limits")) {
+        std::set<std::string> keys{"uncertainty_factor"};
+        for (const auto& l : sc.limits.limits) {
+            keys.insert(l.organ + "_" + (l.window == "30-day" ? "30d" : l.window) +
+                        (l.organ == "effective" ? "_mSv" : "_mGyEq"));
+        }
+        const Section s(top.table("limits"), file, "limits", keys);
+        sc.limits.where = s.where();
+        if (s.has("uncertainty_factor")) {
+            sc.limits.uncertainty_factor = s.positive("uncertainty_factor");
+        }
+        for (auto& l : sc.limits.limits) {
+            const std::string key = l.organ + "_" + (l.window == "30-day" ? "30d" : l.window) +
+                                    (l.organ == "effective" ? "_mSv" : "_mGyEq");
+            if (s.has(key)) {
+                l.value = s.positive(key);
+                l.basis = "scenario " + file + " (user value)";
+            }
+        }
+    }
+
+    // Semantic checks that need everything: overlapping activities of one crew member,
+    // dose points inside walls or between overlapping solids.
+    for (const auto& c : sc.crew) {
+        std::vector<const ActivitySpec*> mine;
+        for (const auto& a : sc.activities) {
+            if (std::find(a.crew.begin(), a.crew.end(), c.id) != a.crew.end()) {
+                mine.push_back(&a);
+            }
+        }
+        std::sort(mine.begin(), mine.end(),
+                  [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
+        for (std::size_t i = 1; i < mine.size(); ++i) {
+            if (mine[i]->start < mine[i - 1]->end) {
+                throw InputError(mine[i]->where, "activity.start",
+                                 fmt::format("crew member '{}' is already busy until {} (the "
+                                             "activity at line {}); activities of one crew "
+                                             "member must not overlap",
+                                             c.id, format_time(mine[i - 1]->end),
+                                             mine[i - 1]->where.line));
+            }
+        }
+    }
+    const auto probe = habitats::fibonacci_directions(64);
+    for (const auto& loc : sc.locations) {
+        std::vector<habitats::Solid> around;
+        for (const auto& s : sc.solids) {
+            if (std::find(loc.solids.begin(), loc.solids.end(), s.id) != loc.solids.end()) {
+                around.push_back(s);
+            }
+        }
+        const habitats::Scene scene(std::move(around));
+        try {
+            for (const auto& d : probe) {
+                (void)scene.trace(loc.point_m, d);
+            }
+        } catch (const habitats::GeometryError& e) {
+            throw InputError(loc.where, "location.point_m", e.what());
+        }
+    }
+    return sc;
+}
+
+Scenario load_scenario(const std::string& path) {
+    std::ifstream in(path);
+    if (!in) {
+        throw InputError({path, 0}, "file", "cannot be read");
+    }
+    std::ostringstream buf;
+    buf << in.rdbuf();
+    return parse_scenario(buf.str(), path);
+}
+
+} // namespace crewdose::planner

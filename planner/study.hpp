@@ -1,0 +1,39 @@
+#pragma once
+// A scenario with its per-(location, organ) responses computed once per run.
+#include "location_response.hpp"
+#include "scenario.hpp"
+
+#include "exposure/table_library.hpp"
+#include "habitats/directional_shielding.hpp"
+
+#include <map>
+#include <memory>
+#include <string>
+
+namespace crewdose::planner {
+
+/// Responses of every location and organ, shared by every crew member and activity.
+class Study {
+  public:
+    explicit Study(Scenario scenario);
+
+    [[nodiscard]] const Scenario& scenario() const noexcept { return sc_; }
+    /// The organ response at a location (organ: bfo, lens, skin).
+    [[nodiscard]] const OrganResponse& response(const std::string& location,
+                                                const std::string& organ) const;
+    /// Limit-check dose quantities of an event's whole fluence at a location and organ.
+    [[nodiscard]] exposure::DoseQuantities
+    event_dose(const std::string& location, const std::string& organ, const EventSpec& event) const;
+    [[nodiscard]] const LocationSpec& location(const std::string& id) const;
+    [[nodiscard]] std::size_t direction_count() const noexcept { return directions_; }
+
+  private:
+    Scenario sc_;
+    exposure::TableLibrary tables_;
+    std::vector<std::unique_ptr<habitats::Scene>> scenes_;
+    std::vector<std::unique_ptr<habitats::DirectionalShielding>> imported_;
+    std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
+    std::size_t directions_ = 0;
+};
+
+} // namespace crewdose::planner

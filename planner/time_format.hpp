@@ -1,0 +1,22 @@
+#pragma once
+// Printing times: RFC 3339 in UTC to the minute ("2031-05-09T14:00Z"), and a fmt::formatter
+// so that fmt can print boost::posix_time::ptime (fmt 9 does not use operator<<).
+#include <boost/date_time/posix_time/posix_time_types.hpp>
+#include <fmt/format.h>
+
+#include <string>
+
+namespace crewdose::planner {
+
+/// "YYYY-MM-DDTHH:MMZ" (seconds shown only when not zero).
+[[nodiscard]] std::string format_time(const boost::posix_time::ptime& t);
+/// A duration in hours, for reports.
+[[nodiscard]] double hours(const boost::posix_time::time_duration& d);
+
+} // namespace crewdose::planner
+
+template <> struct fmt::formatter<boost::posix_time::ptime> : fmt::formatter<std::string> {
+    auto format(const boost::posix_time::ptime& t, format_context& ctx) const {
+        return fmt::formatter<std::string>::format(crewdose::planner::format_time(t), ctx);
+    }
+};
