@@ -46,7 +46,7 @@ std::string model_text(const Study& study) {
         study.direction_count(), sc.limits.uncertainty_factor);
 }
 
-std::string wrap(const std::string& text, std::size_t width) {
+std::string wrap(const std::string& text, std::size_t width, const std::string& indent = "") {
     std::string out;
     std::string line;
     std::size_t start = 0;
@@ -58,9 +58,9 @@ std::string wrap(const std::string& text, std::size_t width) {
         const std::string word = text.substr(start, space - start);
         if (!line.empty() && line.size() + 1 + word.size() > width) {
             out += line + "\n";
-            line.clear();
+            line = indent;
         }
-        line += (line.empty() ? "" : " ") + word;
+        line += (line.empty() || line == indent ? "" : " ") + word;
         start = space + 1;
     }
     if (!line.empty()) {
@@ -155,8 +155,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += wrap(model_text(study), 96) + "\n";
     out += "Events:\n";
     for (const auto& e : sc.events) {
-        out += fmt::format("  {}: flare seen {}, arrival {}; {}\n", e.id, format_time(e.flare_seen),
-                           format_time(e.arrival()), describe_spectrum(e.spectrum));
+        out +=
+            wrap(fmt::format("  {}: flare seen {}, arrival {}; {}", e.id, format_time(e.flare_seen),
+                             format_time(e.arrival()), describe_spectrum(e.spectrum)),
+                 100, "    ");
     }
     if (sc.events.empty()) {
         out += "  none\n";
@@ -178,16 +180,20 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                 chk.window_text.empty() ? "-" : chk.window_text);
         }
         if (lowest) {
-            out += fmt::format(
-                "  smallest margin: {} {} ({:.0f} % of the limit left){}\n",
-                organ_label(lowest->limit.organ), lowest->limit.window,
-                100.0 * lowest->margin / lowest->limit.value,
-                lowest->top_contributor.empty() ? "" : "; mostly " + lowest->top_contributor);
+            out += wrap(fmt::format("  smallest margin: {} {} ({:.0f} % of the limit left){}",
+                                    organ_label(lowest->limit.organ), lowest->limit.window,
+                                    100.0 * lowest->margin / lowest->limit.value,
+                                    lowest->top_contributor.empty()
+                                        ? ""
+                                        : "; mostly " + lowest->top_contributor),
+                        100, "    ");
         }
         out += "  largest BFO contributors:\n";
         for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {
-            out += fmt::format("    {:>10} mGy-Eq  {}\n", significant(c.contributors[i].second, 3),
-                               c.contributors[i].first);
+            out +=
+                wrap(fmt::format("    {:>10} mGy-Eq  {}", significant(c.contributors[i].second, 3),
+                                 c.contributors[i].first),
+                     100, "                       ");
         }
         if (c.contributors.empty()) {
             out += "    none (no modelled dose)\n";
@@ -197,9 +203,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += "Limits (planning values, not official; basis):\n";
     std::set<std::string> bases;
     for (const auto& l : sc.limits.limits) {
-        out += fmt::format("  {} {}: {} {} ({}){}\n", organ_label(l.organ), l.window,
-                           significant(l.value, 3), l.organ == "effective" ? "mSv" : "mGy-Eq",
-                           l.basis, l.organ == "effective" ? " - not evaluated yet" : "");
+        out += wrap(fmt::format("  {} {}: {} {} ({}){}", organ_label(l.organ), l.window,
+                                significant(l.value, 3), l.organ == "effective" ? "mSv" : "mGy-Eq",
+                                l.basis, l.organ == "effective" ? " - not evaluated yet" : ""),
+                    100, "    ");
     }
     for (const auto& g : ledger.gaps) {
         out += fmt::format("Gap filled: {} from {} to {}, charged at {}\n", g.crew,

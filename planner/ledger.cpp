@@ -101,8 +101,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
         for (const auto& a : sc.activities) {
             if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
                 spans.push_back({a.start, a.end, a.location,
-                                 fmt::format("{} at {} ({}:{})", to_string(a.kind), a.location,
-                                             sc.file, a.where.line)});
+                                 fmt::format("{} at {} (line {})", to_string(a.kind), a.location,
+                                             a.where.line)});
             }
         }
         std::sort(spans.begin(), spans.end(),
@@ -187,7 +187,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                                       {gyeq, gyeq, gyeq},
                                       nullptr,
                                       "recorded (" + rec.source + ")",
-                                      fmt::format("{}:{}", sc.file, rec.where.line)});
+                                      fmt::format("line {}", rec.where.line)});
                 }
             }
             OrganResult r;
@@ -209,7 +209,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                                       {gyeq, gyeq, gyeq},
                                       nullptr,
                                       "prior dose",
-                                      fmt::format("{}:{}", sc.file, prior.where.line)});
+                                      fmt::format("line {}", prior.where.line)});
                 }
             }
             r.career_mGyEq = cumulative(pieces, sc.mission.end);

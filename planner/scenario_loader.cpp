@@ -457,6 +457,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             s.fail("id", "'" + loc.id + "' is defined twice");
         }
         loc.point_m = s.has("point_m") ? s.point("point_m") : habitats::Point3{0, 0, 1.0};
+        loc.point_where = s.has("point_m") ? s.at(s.need("point_m")) : s.where();
         if (s.has("solids")) {
             loc.solids = s.strings("solids");
             for (const auto& id : loc.solids) {
@@ -707,7 +708,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 (void)scene.trace(loc.point_m, d);
             }
         } catch (const habitats::GeometryError& e) {
-            throw InputError(loc.where, "location.point_m", e.what());
+            throw InputError(loc.point_where, "location.point_m", e.what());
         }
     }
     return sc;

@@ -2,10 +2,13 @@
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <array>
 #include <cstdio>
+#include <cstdlib>
 #include <string>
 #include <sys/wait.h>
+#include <unistd.h>
 
 namespace {
 
@@ -188,4 +191,127 @@ TEST_CASE("bad spectra and depths exit 2 naming the key and what is allowed", "[
         CHECK(r.exit_code == 2);
         CHECK(r.out.find(c.must_say) != std::string::npos);
     }
+}
+
+namespace {
+
+std::string demo() {
+    return std::string(CREWDOSE_SOURCE_DIR) + "/scenarios/lunar-demo.toml";
+}
+
+std::string read_file(const std::string& path) {
+    FILE* f = std::fopen(path.c_str(), "rb");
+    if (!f) {
+        return {};
+    }
+    std::string s;
+    std::array<char, 4096> buf{};
+    std::size_t n = 0;
+    while ((n = std::fread(buf.data(), 1, buf.size(), f)) > 0) {
+        s.append(buf.data(), n);
+    }
+    std::fclose(f);
+    return s;
+}
+
+void write_file(const std::string& path, const std::string& text) {
+    FILE* f = std::fopen(path.c_str(), "wb");
+    REQUIRE(f != nullptr);
+    std::fwrite(text.data(), 1, text.size(), f);
+    std::fclose(f);
+}
+
+std::string temp_dir() {
+    char tmpl[] = "/tmp/crewdose-cli-XXXXXX";
+    const char* d = mkdtemp(tmpl);
+    REQUIRE(d != nullptr);
+    return d;
+}
+
+} // namespace
+
+TEST_CASE("check: the lunar demo is within every evaluated limit", "[cli][check]") {
+    const Run r = run("check " + demo());
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    CHECK(r.out.find("Every evaluated planning limit is met.") != std::string::npos);
+    CHECK(r.out.find("planning value") != std::string::npos);
+    CHECK(r.out.find("licensed radiation-protection") != std::string::npos);
+    CHECK(r.out.find("uncertainty factor 1.50") != std::string::npos);
+    CHECK(r.out.find("\033[") == std::string::npos); // no colour into a pipe
+    // Readable at 100 columns.
+    std::size_t longest = 0;
+    std::size_t current = 0;
+    for (char c : r.out) {
+        current = c == '\n' ? 0 : current + 1;
+        longest = std::max(longest, current);
+    }
+    CHECK(longest <= 100);
+}
+
+TEST_CASE("check: a larger event exceeds a limit and says who, what and when", "[cli][check]") {
+    const std::string dir = temp_dir();
+    std::string text = read_file(demo());
+    const std::string from = "J0=6e8";
+    REQUIRE(text.find(from) != std::string::npos);
+    text.replace(text.find(from), from.size(), "J0=3e9");
+    write_file(dir + "/big.toml", text);
+    const Run r = run("check " + dir + "/big.toml");
+    INFO(r.out);
+    CHECK(r.exit_code == 1);
+    CHECK(r.out.find("PLANNING LIMIT EXCEEDED: Ines Halvorsen (halvorsen), BFO 30-day limit") !=
+          std::string::npos);
+    CHECK(r.out.find("window 2032-") != std::string::npos);
+}
+
+TEST_CASE("check: json carries full precision agreeing with the text", "[cli][check]") {
+    const Run j = run("check " + demo() + " --format json");
+    REQUIRE(j.exit_code == 0);
+    const auto doc = nlohmann::json::parse(j.out);
+    CHECK(doc["any_limit_exceeded"] == false);
+    CHECK(doc["cautions"].get<std::string>().find("responsible agency") != std::string::npos);
+    const auto& crew = doc["crew"][2];
+    CHECK(crew["id"] == "halvorsen");
+    const double bfo30 = crew["organs"]["bfo"]["max_30d"]["dose_mGyEq"].get<double>();
+    const Run t = run("check " + demo());
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%.3g", bfo30);
+    CHECK(t.out.find(std::string("  BFO    30-day ")) != std::string::npos);
+    CHECK(t.out.find(buf) != std::string::npos);
+    const Run c = run("check " + demo() + " --format csv");
+    CHECK(c.out.rfind("crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n", 0) == 0);
+}
+
+TEST_CASE("check: --out and --series are written atomically; bad input writes nothing",
+          "[cli][check]") {
+    const std::string dir = temp_dir();
+    const Run r =
+        run("check " + demo() + " --out " + dir + "/report.txt --series " + dir + "/s.csv");
+    CHECK(r.exit_code == 0);
+    CHECK(read_file(dir + "/report.txt").find("crewdose check:") == 0);
+    const std::string series = read_file(dir + "/s.csv");
+    CHECK(series.rfind("crew,organ,time,cumulative_mGyEq,rate_mGyEq_per_h\n", 0) == 0);
+    CHECK(series.find("halvorsen,bfo,") != std::string::npos);
+    // A broken scenario: exit 2, the old report stays as it was, no temporary file is left.
+    std::string text = read_file(demo());
+    text.replace(text.find("radius_m = 2.5"), 14, "radius_m = -2.5");
+    write_file(dir + "/broken.toml", text);
+    const std::string before = read_file(dir + "/report.txt");
+    const Run bad = run("check " + dir + "/broken.toml --out " + dir + "/report.txt");
+    INFO(bad.out);
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("broken.toml:28: solid.radius_m: must be a number > 0") !=
+          std::string::npos);
+    CHECK(read_file(dir + "/report.txt") == before);
+    CHECK(read_file(dir + "/report.txt.crewdose-tmp").empty());
+}
+
+TEST_CASE("validate lists what the scenario defines", "[cli][check]") {
+    const Run r = run("validate " + demo());
+    CHECK(r.exit_code == 0);
+    CHECK(r.out.find("valid") != std::string::npos);
+    CHECK(r.out.find("4 crew, 31 activities") != std::string::npos);
+    const Run missing = run("validate /nonexistent/plan.toml");
+    CHECK(missing.exit_code == 2);
+    CHECK(missing.out.find("/nonexistent/plan.toml: file: cannot be read") != std::string::npos);
 }

@@ -1,0 +1,180 @@
+// The ledger: rolling windows, recorded and prior doses, and a timeline checked by hand.
+#include "planner/ledger.hpp"
+#include "planner/scenario.hpp"
+
+#include <boost/date_time/gregorian/gregorian_types.hpp>
+#include <catch2/catch.hpp>
+
+#include <cmath>
+
+using namespace crewdose;
+using namespace crewdose::planner;
+using boost::posix_time::hours;
+
+namespace {
+
+const Time kT0(boost::gregorian::date(2032, 1, 1));
+Time day(double d) {
+    return kT0 + boost::posix_time::minutes(static_cast<long>(std::llround(d * 1440)));
+}
+
+DosePiece uniform(double from, double to, double mGyEq) {
+    const double g = mGyEq * 1e-3;
+    return {day(from), day(to), {g, g, g}, nullptr, "test", "test"};
+}
+
+} // namespace
+
+TEST_CASE("rolling-window maxima by hand", "[ledger]") {
+    // By construction: 10 mGy-Eq spread over days 0-10, 5 at day 25 (instantaneous), 20 over
+    // days 40-41. The best 30-day window ends at day 41 and holds 5 + 20 = 25; the best 10-day
+    // window is days 31-41 (20).
+    const std::vector<DosePiece> p{uniform(0, 10, 10), uniform(25, 25, 5), uniform(40, 41, 20)};
+    const WindowMax w30 = window_maximum(p, hours(24 * 30), boost::posix_time::minutes(10));
+    CHECK(w30.dose_mGyEq == Approx(25.0).epsilon(1e-12));
+    CHECK(w30.window_end == day(41));
+    const WindowMax w10 = window_maximum(p, hours(24 * 10), boost::posix_time::minutes(10));
+    CHECK(w10.dose_mGyEq == Approx(20.0).epsilon(1e-12));
+    // A piece straddling the window edge counts in proportion: window [5, 35] holds 5 of the
+    // first piece and the 5 at day 25.
+    // (checked through the cumulative fraction of a piece)
+    CHECK(p[0].fraction_by(day(5)) == Approx(0.5).epsilon(1e-12));
+    CHECK(p[1].fraction_by(day(25)) == 1.0);
+    CHECK(p[1].fraction_by(day(24.99)) == 0.0);
+}
+
+TEST_CASE("a mission longer than a year: annual window against the career total", "[ledger]") {
+    // 1 mGy-Eq per day for 500 days: the largest 365-day window holds 365, the career 500.
+    const std::vector<DosePiece> p{uniform(0, 500, 500)};
+    CHECK(window_maximum(p, hours(24 * 365), hours(1)).dose_mGyEq == Approx(365.0).epsilon(1e-9));
+    CHECK(window_maximum(p, hours(24 * 30), hours(1)).dose_mGyEq == Approx(30.0).epsilon(1e-9));
+}
+
+namespace {
+
+const std::string kPlan = R"([mission]
+name = "hand"
+site = "deep-space"
+start = 2032-01-01T00:00:00Z
+end = 2032-03-01T00:00:00Z
+directions = 16
+
+[[location]]
+id = "free"
+
+[[location]]
+id = "free-too"
+
+[[event]]
+id = "spe"
+flare_seen = 2032-01-10T00:00:00Z
+arrival_delay_h = 1.0
+spectrum = "exp-energy:J0=1e9,E0_MeV=30"
+rise_h = 2.0
+decay_h = 10.0
+
+[[crew]]
+id = "a"
+prior_totals = { bfo_mGyEq = 7.0 }
+
+[[activity]]
+crew = "a"
+kind = "stay"
+location = "free"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-10T05:00:00Z
+
+[[activity]]
+crew = "a"
+kind = "eva"
+location = "free-too"
+start = 2032-01-10T05:00:00Z
+end = 2032-03-01T00:00:00Z
+
+[limits]
+uncertainty_factor = 1.5
+)";
+
+} // namespace
+
+TEST_CASE("a small timeline checked against a hand computation", "[ledger]") {
+    // By construction: in free space every direction sees nothing, so the BFO dose of the whole
+    // event D is the same at both locations. The first activity receives the part of the profile
+    // from arrival (01:00) to 05:00, F(4 h), the second the rest, 1 - F(4 h), where
+    // F(t) = [d (1 - e^-t/d) - c (1 - e^-t/c)] / (d - c), c = 1 / (1/r + 1/d), r = 2, d = 10.
+    // With the uncertainty factor 1.5 the 30-day maximum is 1.5 D + 7 (the prior total at the
+    // mission start lies within 30 days of the event).
+    const Study study(parse_scenario(kPlan, "hand.toml"));
+    const auto& ev = study.scenario().events[0];
+    const double D = 1e3 * study.event_dose("free", "bfo", ev).rbe_weighted_GyEq;
+    const double D2 = 1e3 * study.event_dose("free-too", "bfo", ev).rbe_weighted_GyEq;
+    REQUIRE(D == Approx(D2).epsilon(1e-12));
+    const double r = 2.0;
+    const double d = 10.0;
+    const double c = 1.0 / (1.0 / r + 1.0 / d);
+    const double F4 = (d * (1 - std::exp(-4.0 / d)) - c * (1 - std::exp(-4.0 / c))) / (d - c);
+    const LedgerResult ledger = build_ledger(study);
+    const auto& crew = ledger.crew.at(0);
+    const auto& bfo = crew.organs.at(0);
+    REQUIRE(bfo.organ == "bfo");
+    CHECK(bfo.mission_mGyEq == Approx(1.5 * D).epsilon(1e-9));
+    CHECK(bfo.max_30d.dose_mGyEq == Approx(1.5 * D + 7.0).epsilon(1e-9));
+    CHECK(bfo.career_mGyEq == Approx(1.5 * D + 7.0).epsilon(1e-9));
+    const auto& pieces = ledger.pieces.at({"a", "bfo"});
+    double first = 0.0;
+    for (const auto& p : pieces) {
+        if (p.activity.find("stay") != std::string::npos) {
+            first += 1e3 * p.dose.rbe_weighted_GyEq;
+        }
+    }
+    CHECK(first == Approx(1.5 * D * F4).epsilon(1e-9));
+}
+
+TEST_CASE("recorded doses replace the modelled dose of their period, and only it", "[ledger]") {
+    // The event arrives at 01:00 on 10 January; a dosimeter reading of 2 mGy-Eq for 10 January
+    // 00:00-03:00 replaces the model there (by construction the modelled part F(2 h) goes).
+    const std::string rec = "\n[[recorded]]\ncrew = \"a\"\nstart = 2032-01-10T00:00:00Z\nend = "
+                            "2032-01-10T03:00:00Z\nbfo_mGyEq = 2.0\nsource = \"badge\"\n";
+    const Study plain(parse_scenario(kPlan, "hand.toml"));
+    const Study with(parse_scenario(kPlan + rec, "hand.toml"));
+    const auto& ev = plain.scenario().events[0];
+    const double D = 1.5e3 * plain.event_dose("free", "bfo", ev).rbe_weighted_GyEq;
+    const double r = 2.0;
+    const double d = 10.0;
+    const double c = 1.0 / (1.0 / r + 1.0 / d);
+    const double F2 = (d * (1 - std::exp(-2.0 / d)) - c * (1 - std::exp(-2.0 / c))) / (d - c);
+    const double base = build_ledger(plain).crew[0].organs[0].mission_mGyEq;
+    const double replaced = build_ledger(with).crew[0].organs[0].mission_mGyEq;
+    CHECK(replaced == Approx(base - D * F2 + 2.0).epsilon(1e-9));
+    // Not replacing: the reading adds to the model (a dose the tool does not model).
+    const std::string add = rec + "replaces_model = false\n";
+    CHECK(build_ledger(Study(parse_scenario(kPlan + add, "hand.toml")))
+              .crew[0]
+              .organs[0]
+              .mission_mGyEq == Approx(base + 2.0).epsilon(1e-9));
+}
+
+TEST_CASE("timeline gaps are errors unless allowed, then charged and listed", "[ledger]") {
+    std::string gap = kPlan;
+    gap.replace(gap.find("start = 2032-01-10T05:00:00Z"), 28, "start = 2032-01-11T05:00:00Z");
+    const Study study(parse_scenario(gap, "hand.toml"));
+    try {
+        (void)build_ledger(study);
+        FAIL("expected a gap error");
+    } catch (const InputError& e) {
+        CHECK(std::string(e.what()).find("hand.toml:22: activity: crew member 'a' has no activity "
+                                         "from 2032-01-10T05:00Z to 2032-01-11T05:00Z") !=
+              std::string::npos);
+    }
+    LedgerOptions options;
+    options.allow_gaps = true;
+    const LedgerResult ledger = build_ledger(study, options);
+    REQUIRE(ledger.gaps.size() == 1);
+    CHECK(ledger.gaps[0].charged_at == "free");
+    // The gap is charged, so the total dose is unchanged (both locations are free space).
+    CHECK(
+        ledger.crew[0].organs[0].mission_mGyEq ==
+        Approx(
+            build_ledger(Study(parse_scenario(kPlan, "hand.toml"))).crew[0].organs[0].mission_mGyEq)
+            .epsilon(1e-9));
+}

@@ -1,0 +1,176 @@
+// Scenario validation: every error names file:line: key, says what is wrong and what is
+// allowed (main-job issue, "Validation").
+#include "planner/scenario.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <string>
+
+using namespace crewdose;
+using namespace crewdose::planner;
+
+namespace {
+
+// A small valid scenario (invented), line numbers matter for the tests below.
+const std::string kBase = R"([mission]
+name = "test"
+site = "moon"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+directions = 16
+
+[[solid]]
+id = "hut"
+shape = "sphere"
+center_m = [0.0, 0.0, 2.0]
+radius_m = 2.0
+layers = [ { material = "aluminium", thickness_m = 0.01 } ]
+
+[[location]]
+id = "inside"
+point_m = [0.0, 0.0, 2.0]
+solids = ["hut"]
+
+[[event]]
+id = "spe"
+flare_seen = 2032-01-05T00:00:00Z
+spectrum = "exp-energy:J0=1e9,E0_MeV=30"
+
+[[crew]]
+id = "a"
+
+[[activity]]
+crew = "a"
+kind = "stay"
+location = "inside"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+)";
+
+std::string replace(std::string s, const std::string& from, const std::string& to) {
+    const auto at = s.find(from);
+    REQUIRE(at != std::string::npos);
+    return s.replace(at, from.size(), to);
+}
+
+std::string replace_last(std::string s, const std::string& from, const std::string& to) {
+    const auto at = s.rfind(from);
+    REQUIRE(at != std::string::npos);
+    return s.replace(at, from.size(), to);
+}
+
+std::string error_of(const std::string& text) {
+    try {
+        (void)parse_scenario(text, "plan.toml");
+    } catch (const InputError& e) {
+        return e.what();
+    }
+    return "no error";
+}
+
+void expect(const std::string& text, const std::string& must_say) {
+    const std::string e = error_of(text);
+    INFO(e);
+    CHECK(e.find(must_say) != std::string::npos);
+}
+
+} // namespace
+
+TEST_CASE("the base scenario is valid", "[scenario]") {
+    const Scenario s = parse_scenario(kBase, "plan.toml");
+    CHECK(s.locations.size() == 1);
+    CHECK(s.activities.size() == 1);
+    CHECK(s.activities[0].where.line == 28);
+    CHECK(s.limits.uncertainty_factor == 1.0);
+    CHECK(s.limits.limits.size() == 9);
+}
+
+TEST_CASE("syntax errors, unknown and missing keys, wrong types", "[scenario]") {
+    expect(replace(kBase, "site = \"moon\"", "site = moon\""), "plan.toml:3: syntax:");
+    expect(replace(kBase, "radius_m = 2.0", "radius_m = 2.0\nradius_cm = 200"),
+           "plan.toml:13: solid.radius_cm: unknown key; allowed here:");
+    expect(replace(kBase, "spectrum = \"exp-energy:J0=1e9,E0_MeV=30\"\n", ""),
+           "plan.toml:20: event.spectrum: is required here");
+    expect(replace(kBase, "radius_m = 2.0", "radius_m = \"2\""),
+           "plan.toml:12: solid.radius_m: must be a number");
+    expect(replace(kBase, "start = 2032-01-01T00:00:00Z\nend = 2032-01-11",
+                   "start = 2032-01-01\nend = 2032-01-11"),
+           "plan.toml:4: mission.start: must be an RFC 3339 date-time with its UTC offset");
+}
+
+TEST_CASE("duplicate and unknown ids", "[scenario]") {
+    expect(replace(kBase, "[[crew]]\nid = \"a\"\n", "[[crew]]\nid = \"a\"\n[[crew]]\nid = \"a\"\n"),
+           "plan.toml:28: crew.id: 'a' is defined twice");
+    expect(replace(kBase, "location = \"inside\"", "location = \"outside\""),
+           "plan.toml:31: activity.location: unknown location 'outside'");
+    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"shed\"]"),
+           "plan.toml:18: location.solids: unknown solid 'shed'");
+    expect(replace(kBase, "material = \"aluminium\"", "material = \"unobtainium\""),
+           "solid.layers.material: unknown material 'unobtainium'");
+}
+
+TEST_CASE("materials: unknown elements and fractions that do not sum to one", "[scenario]") {
+    const std::string m =
+        "[[material]]\nid = \"mix\"\ndensity_g_cm3 = 1.0\ncomposition = { H = 0.5, "
+        "Xx = 0.5 }\n\n";
+    expect(replace(kBase, "[[solid]]", m + "[[solid]]"), "material.composition.Xx: unknown key");
+    const std::string bad = "[[material]]\nid = \"mix\"\ndensity_g_cm3 = 1.0\ncomposition = { H = "
+                            "0.5, O = 0.4 }\n\n";
+    expect(replace(kBase, "[[solid]]", bad + "[[solid]]"),
+           "plan.toml:8: material.composition: mass fractions sum to 0.9");
+    const std::string shadow = "[[material]]\nid = \"water\"\ndensity_g_cm3 = 1.0\ncomposition = { "
+                               "H = 0.111894, O = 0.888106 }\n\n";
+    expect(replace(kBase, "[[solid]]", shadow + "[[solid]]"),
+           "material.id: 'water' is already defined");
+}
+
+TEST_CASE("non-positive sizes and durations, times out of order or outside the mission",
+          "[scenario]") {
+    expect(replace(kBase, "thickness_m = 0.01", "thickness_m = -0.01"),
+           "solid.layers.thickness_m: must be a number > 0");
+    expect(replace(kBase, "end = 2032-01-11T00:00:00Z\ndirections",
+                   "end = 2031-12-01T00:00:00Z\ndirections"),
+           "plan.toml:5: mission.end: must be after mission.start");
+    expect(replace_last(kBase, "end = 2032-01-11T00:00:00Z", "end = 2032-01-01T00:00:00Z"),
+           "activity.end: must be after start");
+    expect(replace(kBase, "flare_seen = 2032-01-05T00:00:00Z", "flare_seen = 2033-01-05T00:00:00Z"),
+           "plan.toml:22: event.flare_seen: lies outside the mission");
+}
+
+TEST_CASE("overlapping activities of one crew member", "[scenario]") {
+    const std::string extra = "\n[[activity]]\ncrew = [\"a\"]\nkind = \"eva\"\nlocation = "
+                              "\"inside\"\nstart = 2032-01-03T00:00:00Z\nend = "
+                              "2032-01-03T06:00:00Z\n";
+    expect(kBase + extra, "activity.start: crew member 'a' is already busy until");
+}
+
+TEST_CASE("spectrum parameters, shapes and geometry are checked at their line", "[scenario]") {
+    expect(replace(kBase, "E0_MeV=30", "E0_MeV=-30"),
+           "plan.toml:23: event.spectrum: E0_MeV: must be a finite number > 0");
+    expect(replace(kBase, "shape = \"sphere\"", "shape = \"torus\""),
+           "plan.toml:10: solid.shape: 'torus' is not a supported shape; allowed: sphere");
+    expect(replace(kBase, "point_m = [0.0, 0.0, 2.0]", "point_m = [0.0, 0.0, 3.995]"),
+           "plan.toml:17: location.point_m: the dose point lies inside solid 'hut'");
+    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"phantom\""),
+           "location.body: 'phantom': only the quick screening model");
+    expect(replace(kBase, "solids = [\"hut\"]", "shielding_table = \"x.dirs\"\nsolids = [\"hut\"]"),
+           "location.shielding_table: give either solids or a shielding table, not both");
+}
+
+TEST_CASE("limits: overrides and the uncertainty factor", "[scenario]") {
+    const Scenario s = parse_scenario(
+        kBase + "\n[limits]\nuncertainty_factor = 2.0\nbfo_30d_mGyEq = 100\n", "plan.toml");
+    CHECK(s.limits.uncertainty_factor == 2.0);
+    bool found = false;
+    for (const auto& l : s.limits.limits) {
+        if (l.organ == "bfo" && l.window == "30-day") {
+            CHECK(l.value == 100.0);
+            CHECK(l.basis.find("user value") != std::string::npos);
+            found = true;
+        }
+    }
+    CHECK(found);
+    expect(kBase + "\n[limits]\nbfo_7d_mGyEq = 100\n", "limits.bfo_7d_mGyEq: unknown key");
+    expect(kBase + "\n[limits]\nuncertainty_factor = 0\n",
+           "limits.uncertainty_factor: must be a number > 0");
+}
