@@ -46,27 +46,36 @@ std::string model_text(const Study& study) {
         study.direction_count(), sc.limits.uncertainty_factor);
 }
 
+// Wraps `text` at `width` columns, keeping its leading spaces on the first line and starting
+// continuation lines with `indent`.
 std::string wrap(const std::string& text, std::size_t width, const std::string& indent = "") {
+    const std::size_t lead = text.find_first_not_of(' ');
+    if (lead == std::string::npos) {
+        return text + "\n";
+    }
     std::string out;
-    std::string line;
-    std::size_t start = 0;
+    std::string line = text.substr(0, lead);
+    bool line_has_word = false;
+    std::size_t start = lead;
     while (start < text.size()) {
         auto space = text.find(' ', start);
         if (space == std::string::npos) {
             space = text.size();
         }
         const std::string word = text.substr(start, space - start);
-        if (!line.empty() && line.size() + 1 + word.size() > width) {
+        start = space + 1;
+        if (word.empty()) {
+            continue;
+        }
+        if (line_has_word && line.size() + 1 + word.size() > width) {
             out += line + "\n";
             line = indent;
+            line_has_word = false;
         }
-        line += (line.empty() || line == indent ? "" : " ") + word;
-        start = space + 1;
+        line += (line_has_word ? " " : "") + word;
+        line_has_word = true;
     }
-    if (!line.empty()) {
-        out += line + "\n";
-    }
-    return out;
+    return out + line + "\n";
 }
 
 nlohmann::json window_json(const WindowMax& w) {

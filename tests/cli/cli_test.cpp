@@ -315,3 +315,10 @@ TEST_CASE("validate lists what the scenario defines", "[cli][check]") {
     CHECK(missing.exit_code == 2);
     CHECK(missing.out.find("/nonexistent/plan.toml: file: cannot be read") != std::string::npos);
 }
+
+TEST_CASE("check: the Mars demo runs and stays within limits", "[cli][check]") {
+    const Run r = run("check " + std::string(CREWDOSE_SOURCE_DIR) + "/scenarios/mars-demo.toml");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    CHECK(r.out.find("(mars,") != std::string::npos);
+}
