@@ -4,6 +4,7 @@
 #include "depth_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
+#include "shielding_report.hpp"
 #include "spectrum_spec.hpp"
 
 #include "exposure/parameter_error.hpp"
@@ -15,6 +16,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <exception>
+#include <optional>
 #include <string>
 #include <unistd.h>
 
@@ -124,6 +126,19 @@ int main(int argc, char** argv) {
         "validate", "Parse and check a scenario file only, and list what it defines.");
     validate->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
 
+    std::string location_id;
+    std::string event_id;
+    auto* shielding = app.add_subcommand(
+        "shielding", "What a location's shielding looks like: the areal-density distribution "
+                     "over directions, the sky blocked by the ground, per organ for the body "
+                     "model, and with --event the organ doses of that event there.\nExample: "
+                     "crewdose shielding scenarios/lunar-demo.toml --location storm-shelter "
+                     "--event design-spe");
+    shielding->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+    shielding->add_option("--location,-l", location_id, "location id")->required();
+    shielding->add_option("--event,-e", event_id, "event id: also show its organ doses there");
+    shielding->add_option("--format,-f", format, "text or json")->capture_default_str();
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -153,6 +168,12 @@ int main(int argc, char** argv) {
             const auto list = planner::parse_depth_list(depths, "--depths");
             write_stdout(planner::format_depth_report(
                 spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list), fmt_choice));
+        } else if (shielding->parsed()) {
+            const planner::Study study(planner::load_scenario(scenario_path));
+            write_stdout(planner::format_shielding_report(
+                study, location_id,
+                event_id.empty() ? std::nullopt : std::optional<std::string>(event_id),
+                fmt_choice));
         } else if (validate->parsed()) {
             write_stdout(planner::format_validation(planner::load_scenario(scenario_path)));
         } else if (check->parsed()) {

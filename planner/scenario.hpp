@@ -38,7 +38,7 @@ struct LocationSpec {
     SourceLocation where;
     std::string id;
     habitats::Point3 point_m;
-    SourceLocation point_where; ///< line of point_m (or of the entry)
+    SourceLocation point_where;      ///< line of point_m (or of the entry)
     std::vector<std::string> solids; ///< ids of the solids around it
     std::optional<std::string> shielding_table_file;
     std::optional<SuitModel> suit;

@@ -55,6 +55,8 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             scenes_.push_back(std::make_unique<habitats::Scene>(std::move(around)));
             where.scene = scenes_.back().get();
         }
+        geometries_[loc.id] = where;
+        location_directions_[loc.id] = loc_dirs;
         for (auto& r : quick_model_responses(tables_, materials, where, loc_dirs)) {
             const std::string organ = r.organ;
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
@@ -71,6 +73,14 @@ exposure::DoseQuantities Study::event_dose(const std::string& location, const st
     const auto& r = response(location, organ).response;
     return exposure::fold(r, exposure::node_fluences(event.spectrum, r.node_energies_MeV_per_n))
         .for_limits();
+}
+
+const LocationGeometry& Study::geometry(const std::string& id) const {
+    return geometries_.at(id);
+}
+
+const std::vector<habitats::Vector3>& Study::directions(const std::string& id) const {
+    return location_directions_.at(id);
 }
 
 const LocationSpec& Study::location(const std::string& id) const {

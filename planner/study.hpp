@@ -25,6 +25,9 @@ class Study {
     [[nodiscard]] exposure::DoseQuantities
     event_dose(const std::string& location, const std::string& organ, const EventSpec& event) const;
     [[nodiscard]] const LocationSpec& location(const std::string& id) const;
+    /// The geometry of a location and the directions its responses were computed over.
+    [[nodiscard]] const LocationGeometry& geometry(const std::string& id) const;
+    [[nodiscard]] const std::vector<habitats::Vector3>& directions(const std::string& id) const;
     [[nodiscard]] std::size_t direction_count() const noexcept { return directions_; }
 
   private:
@@ -33,6 +36,8 @@ class Study {
     std::vector<std::unique_ptr<habitats::Scene>> scenes_;
     std::vector<std::unique_ptr<habitats::DirectionalShielding>> imported_;
     std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
+    std::map<std::string, LocationGeometry> geometries_;
+    std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
 };
 

@@ -322,3 +322,24 @@ TEST_CASE("check: the Mars demo runs and stays within limits", "[cli][check]") {
     CHECK(r.exit_code == 0);
     CHECK(r.out.find("(mars,") != std::string::npos);
 }
+
+TEST_CASE("shielding shows the areal-density distribution and event doses", "[cli][check]") {
+    const Run r = run("shielding " + demo() + " --location storm-shelter --event design-spe");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    CHECK(r.out.find("blocked by the ground or terrain") != std::string::npos);
+    CHECK(r.out.find("design-spe:") != std::string::npos);
+    const Run j = run("shielding " + demo() + " --location storm-shelter --format json");
+    REQUIRE(j.exit_code == 0);
+    const auto doc = nlohmann::json::parse(j.out);
+    const auto& ext = doc["external_g_cm2"];
+    // Properties: percentiles are ordered; on the Moon at least half the sky is ground.
+    CHECK(ext["p05"].get<double>() <= ext["p50"].get<double>());
+    CHECK(ext["p50"].get<double>() <= ext["p95"].get<double>());
+    CHECK(doc["blocked_by_ground_share"].get<double>() >= 0.5);
+    // The shelter's water walls: every open direction sees at least the 20 cm of tanks.
+    CHECK(ext["p05"].get<double>() > 20.0);
+    const Run bad = run("shielding " + demo() + " --location attic");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("--location: no location 'attic'") != std::string::npos);
+}

@@ -1,0 +1,129 @@
+#include "shielding_report.hpp"
+
+#include "cautions.hpp"
+#include "number_format.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+
+namespace crewdose::planner {
+namespace {
+
+double percentile(const std::vector<double>& sorted, double p) {
+    if (sorted.empty()) {
+        return 0.0;
+    }
+    const double x = p * static_cast<double>(sorted.size() - 1);
+    const auto i = static_cast<std::size_t>(std::floor(x));
+    const std::size_t j = std::min(i + 1, sorted.size() - 1);
+    return sorted[i] + (sorted[j] - sorted[i]) * (x - static_cast<double>(i));
+}
+
+} // namespace
+
+std::string format_shielding_report(const Study& study, const std::string& location,
+                                    const std::optional<std::string>& event, OutputFormat format) {
+    const Scenario& sc = study.scenario();
+    bool known = false;
+    for (const auto& l : sc.locations) {
+        known = known || l.id == location;
+    }
+    if (!known) {
+        throw InputError({"command line", 0}, "--location",
+                         "no location '" + location + "' in " + sc.file);
+    }
+    const EventSpec* ev = nullptr;
+    if (event) {
+        for (const auto& e : sc.events) {
+            if (e.id == *event) {
+                ev = &e;
+            }
+        }
+        if (!ev) {
+            throw InputError({"command line", 0}, "--event",
+                             "no event '" + *event + "' in " + sc.file);
+        }
+    }
+    const LocationGeometry& where = study.geometry(location);
+    std::vector<double> external;
+    std::size_t blocked = 0;
+    const auto& dirs = study.directions(location);
+    for (const auto& d : dirs) {
+        if (where.surroundings.blocked(d)) {
+            ++blocked;
+            continue;
+        }
+        double total = 0.0;
+        for (const auto& seg : external_path(where, d)) {
+            total += seg.areal_density_g_cm2;
+        }
+        external.push_back(total);
+    }
+    std::sort(external.begin(), external.end());
+    double mean = 0.0;
+    for (double v : external) {
+        mean += v;
+    }
+    mean = external.empty() ? 0.0 : mean / static_cast<double>(external.size());
+    const double blocked_share = static_cast<double>(blocked) / static_cast<double>(dirs.size());
+    const std::vector<double> ps{0.05, 0.25, 0.5, 0.75, 0.95};
+
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["location"] = location;
+        j["directions"] = dirs.size();
+        j["blocked_by_ground_share"] = blocked_share;
+        j["external_g_cm2"] = {{"mean", mean},
+                               {"p05", percentile(external, 0.05)},
+                               {"p25", percentile(external, 0.25)},
+                               {"p50", percentile(external, 0.5)},
+                               {"p75", percentile(external, 0.75)},
+                               {"p95", percentile(external, 0.95)}};
+        for (const auto& organ : quick_body_model()) {
+            j["organs"][organ.name]["tissue_g_cm2"] = organ.depth_g_cm2;
+            if (ev) {
+                const auto d = study.event_dose(location, organ.name, *ev);
+                j["organs"][organ.name]["event"] = {{"absorbed_Gy", d.absorbed_Gy},
+                                                    {"dose_equivalent_Sv", d.dose_equivalent_Sv},
+                                                    {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}};
+            }
+        }
+        j["cautions"] = caution_text();
+        return j.dump(2) + "\n";
+    }
+    std::string out =
+        fmt::format("Shielding at {} ({}), {} directions\n", location, sc.file, dirs.size());
+    out += fmt::format(
+        "  blocked by the ground or terrain: {:.1f} % of the sky (counted as zero dose)\n",
+        100.0 * blocked_share);
+    out += fmt::format("  external areal density over the open sky, g/cm2: mean {}",
+                       significant(mean, 3));
+    for (double p : ps) {
+        out += fmt::format(", p{:.0f} {}", 100 * p, significant(percentile(external, p), 3));
+    }
+    out += "\n  per organ (quick body model: the tissue depth is added in every direction):\n";
+    for (const auto& organ : quick_body_model()) {
+        out += fmt::format("    {:<5} tissue {} g/cm2, median total {} g/cm2", organ.name,
+                           significant(organ.depth_g_cm2, 3),
+                           significant(percentile(external, 0.5) + organ.depth_g_cm2, 3));
+        if (ev) {
+            const auto d = study.event_dose(location, organ.name, *ev);
+            out += fmt::format("; {}: {} mGy, {} mSv, {} mGy-Eq", ev->id,
+                               significant(1e3 * d.absorbed_Gy, 3),
+                               significant(1e3 * d.dose_equivalent_Sv, 3),
+                               significant(1e3 * d.rbe_weighted_GyEq, 3));
+        }
+        out += "\n";
+    }
+    if (ev) {
+        out += "  (event doses: the whole event at this location, no uncertainty factor, the "
+               "higher of the removal bracket)\n";
+    }
+    out += "\n" + caution_text();
+    return out;
+}
+
+} // namespace crewdose::planner
