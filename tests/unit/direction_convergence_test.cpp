@@ -38,7 +38,8 @@ void check_converged(const planner::LocationGeometry& where) {
 
 TEST_CASE("EVA in a suit with its pack: organ doses converged at the default direction count",
           "[location][slow]") {
-    // Convergence (geometry issue): N -> 4N changes skin and lens doses by less than 0.5 %.
+    // Convergence (by construction; geometry issue): N -> 4N changes skin and lens doses by
+    // less than 0.5 %.
     planner::LocationGeometry eva;
     eva.surroundings.ground = true;
     eva.suit = planner::SuitModel{};
