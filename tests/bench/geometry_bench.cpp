@@ -16,14 +16,17 @@ namespace {
 habitats::Scene twenty_solids() {
     // An invented outpost: a layered cylindrical module, a dome, berms and boxes around it.
     std::vector<habitats::Solid> s;
-    s.push_back({"module", habitats::Cylinder{{0, -6, 1.5}, {0, 1, 0}, 12.0, 2.2},
+    s.push_back({"module",
+                 habitats::Cylinder{{0, -6, 1.5}, {0, 1, 0}, 12.0, 2.2},
                  {{"aluminium", 0.004, 2.7}, {"polyethylene", 0.05, 0.94}, {"water", 0.02, 1.0}},
                  {}});
     s.push_back({"dome", habitats::Dome{{15, 0, 0}, 4.0}, {{"mare-regolith", 1.0, 1.5}}, {}});
     for (int i = 0; i < 18; ++i) {
         const double x = -20.0 + 2.3 * i;
-        s.push_back({"block" + std::to_string(i), habitats::Box{{x, 12.0, 1.0}, {1.0, 1.0, 1.0}},
-                     {}, habitats::SolidLayer{"mare-regolith", 0, 1.5}});
+        s.push_back({"block" + std::to_string(i),
+                     habitats::Box{{x, 12.0, 1.0}, {1.0, 1.0, 1.0}},
+                     {},
+                     habitats::SolidLayer{"mare-regolith", 0, 1.5}});
     }
     return habitats::Scene(std::move(s));
 }
