@@ -62,6 +62,15 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
         }
     }
+    // Every event folded once with every response: the ledger asks for these per activity.
+    for (const auto& ev : sc_.events) {
+        for (const auto& [key, r] : responses_) {
+            const auto fluences =
+                exposure::node_fluences(ev.spectrum, r.response.node_energies_MeV_per_n);
+            event_doses_[{key.first, key.second, ev.id}] =
+                exposure::fold(r.response, fluences).for_limits();
+        }
+    }
 }
 
 const OrganResponse& Study::response(const std::string& location, const std::string& organ) const {
@@ -70,9 +79,7 @@ const OrganResponse& Study::response(const std::string& location, const std::str
 
 exposure::DoseQuantities Study::event_dose(const std::string& location, const std::string& organ,
                                            const EventSpec& event) const {
-    const auto& r = response(location, organ).response;
-    return exposure::fold(r, exposure::node_fluences(event.spectrum, r.node_energies_MeV_per_n))
-        .for_limits();
+    return event_doses_.at({location, organ, event.id});
 }
 
 const LocationGeometry& Study::geometry(const std::string& id) const {

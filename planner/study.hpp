@@ -9,6 +9,7 @@
 #include <map>
 #include <memory>
 #include <string>
+#include <tuple>
 
 namespace crewdose::planner {
 
@@ -21,7 +22,8 @@ class Study {
     /// The organ response at a location (organ: bfo, lens, skin).
     [[nodiscard]] const OrganResponse& response(const std::string& location,
                                                 const std::string& organ) const;
-    /// Limit-check dose quantities of an event's whole fluence at a location and organ.
+    /// Limit-check dose quantities of an event's whole fluence at a location and organ (folded
+    /// once per run, at construction).
     [[nodiscard]] exposure::DoseQuantities
     event_dose(const std::string& location, const std::string& organ, const EventSpec& event) const;
     [[nodiscard]] const LocationSpec& location(const std::string& id) const;
@@ -37,6 +39,7 @@ class Study {
     std::vector<std::unique_ptr<habitats::DirectionalShielding>> imported_;
     std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
     std::map<std::string, LocationGeometry> geometries_;
+    std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities> event_doses_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
 };
