@@ -13,17 +13,6 @@
 namespace crewdose::planner {
 namespace {
 
-std::string site_name(SiteKind s) {
-    switch (s) {
-    case SiteKind::moon:
-        return "moon";
-    case SiteKind::mars:
-        return "mars";
-    case SiteKind::deep_space:
-        return "deep-space";
-    }
-    return "?";
-}
 
 std::string organ_label(const std::string& organ) {
     if (organ == "bfo") {
@@ -93,7 +82,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     if (format == OutputFormat::json) {
         nlohmann::json j;
         j["mission"] = {{"name", sc.mission.name},
-                        {"site", site_name(sc.mission.site)},
+                        {"site", to_string(sc.mission.site)},
                         {"start", format_time(sc.mission.start)},
                         {"end", format_time(sc.mission.end)}};
         j["cautions"] = caution_text();
@@ -158,7 +147,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     const char* reset = colour ? "\033[0m" : "";
     std::string out =
         fmt::format("crewdose check: {} ({}, {} to {})\nscenario: {}\n\n", sc.mission.name,
-                    site_name(sc.mission.site), format_time(sc.mission.start),
+                    to_string(sc.mission.site), format_time(sc.mission.start),
                     format_time(sc.mission.end), sc.file);
     out += caution_text() + "\n";
     out += wrap(model_text(study), 96) + "\n";
@@ -278,7 +267,7 @@ std::string format_series(const Study& study, const LedgerResult& ledger) {
 std::string format_validation(const Scenario& sc) {
     std::string out = fmt::format("{}: valid\n", sc.file);
     out +=
-        fmt::format("  mission: {} ({}, {} to {})\n", sc.mission.name, site_name(sc.mission.site),
+        fmt::format("  mission: {} ({}, {} to {})\n", sc.mission.name, to_string(sc.mission.site),
                     format_time(sc.mission.start), format_time(sc.mission.end));
     out += fmt::format("  {} user materials, {} solids, {} locations, {} events, {} crew, {} "
                        "activities, {} recorded doses\n",

@@ -46,6 +46,18 @@ std::vector<Limit> default_limits() {
             {"effective", "career", 600.0, std3001}};
 }
 
+std::string to_string(SiteKind site) {
+    switch (site) {
+    case SiteKind::moon:
+        return "moon";
+    case SiteKind::mars:
+        return "mars";
+    case SiteKind::deep_space:
+        return "deep-space";
+    }
+    return "?";
+}
+
 std::string to_string(ActivityKind kind) {
     switch (kind) {
     case ActivityKind::stay:
