@@ -13,7 +13,6 @@
 namespace crewdose::planner {
 namespace {
 
-
 std::string organ_label(const std::string& organ) {
     if (organ == "bfo") {
         return "BFO";

@@ -3,6 +3,7 @@
 #include "cautions.hpp"
 #include "input_error.hpp"
 #include "number_format.hpp"
+#include "number_parse.hpp"
 #include "spectrum_spec.hpp"
 
 #include "exposure/depth_dose.hpp"
@@ -11,7 +12,6 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
-#include <charconv>
 #include <cmath>
 
 namespace crewdose::planner {
@@ -39,10 +39,9 @@ TissueDepth parse_tissue_depth(std::string_view text, std::string_view field) {
     if (text == "bfo") {
         return {5.0, "BFO (5 cm of tissue)"};
     }
-    double v = 0.0;
-    const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
-    if (text.empty() || ec != std::errc() || ptr != text.data() + text.size() ||
-        !std::isfinite(v) || v < 0.0 || v > 100.0) {
+    const auto parsed = parse_finite(text);
+    const double v = parsed.value_or(-1.0);
+    if (!parsed || v < 0.0 || v > 100.0) {
         throw InputError(kCommandLine, std::string(field),
                          fmt::format("'{}' is not a tissue depth; allowed: skin, lens, bfo or a "
                                      "number of g/cm2 from 0 to 100",
@@ -52,27 +51,16 @@ TissueDepth parse_tissue_depth(std::string_view text, std::string_view field) {
 }
 
 std::vector<double> parse_depth_list(std::string_view text, std::string_view field) {
-    // The same rules as energies: numbers separated by commas, here in [0, 1000] g/cm2.
     std::vector<double> out;
-    std::size_t start = 0;
-    while (start <= text.size()) {
-        const auto comma = text.find(',', start);
-        const auto item =
-            text.substr(start, (comma == std::string_view::npos ? text.size() : comma) - start);
-        double v = 0.0;
-        const auto [ptr, ec] = std::from_chars(item.data(), item.data() + item.size(), v);
-        if (item.empty() || ec != std::errc() || ptr != item.data() + item.size() ||
-            !std::isfinite(v) || v < 0.0 || v > 1000.0) {
+    for (const auto item : split_commas(text)) {
+        const auto v = parse_finite(item);
+        if (!v || *v < 0.0 || *v > 1000.0) {
             throw InputError(kCommandLine, std::string(field),
                              fmt::format("'{}' is not a shield areal density; allowed: numbers "
                                          "from 0 to 1000 g/cm2 separated by commas",
                                          item));
         }
-        out.push_back(v);
-        if (comma == std::string_view::npos) {
-            break;
-        }
-        start = comma + 1;
+        out.push_back(*v);
     }
     return out;
 }

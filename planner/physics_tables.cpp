@@ -2,6 +2,7 @@
 
 #include "input_error.hpp"
 #include "number_format.hpp"
+#include "number_parse.hpp"
 
 #include "exposure/element.hpp"
 #include "exposure/material_library.hpp"
@@ -11,7 +12,6 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
-#include <charconv>
 #include <cmath>
 
 namespace crewdose::planner {
@@ -70,31 +70,21 @@ OutputFormat parse_output_format(std::string_view text) {
 std::vector<double> parse_energy_list(std::string_view text, std::string_view field,
                                       double min_MeV_per_n, double max_MeV_per_n) {
     std::vector<double> out;
-    std::size_t start = 0;
-    while (start <= text.size()) {
-        const auto comma = text.find(',', start);
-        const auto end = comma == std::string_view::npos ? text.size() : comma;
-        const std::string item = trim(text.substr(start, end - start));
-        double value = 0.0;
-        const auto* first = item.data();
-        const auto* last = item.data() + item.size();
-        const auto [ptr, ec] = std::from_chars(first, last, value);
-        if (item.empty() || ec != std::errc() || ptr != last || !std::isfinite(value)) {
+    for (const auto raw : split_commas(text)) {
+        const std::string item = trim(raw);
+        const auto value = parse_finite(item);
+        if (!value) {
             throw InputError(kCommandLine, std::string(field),
                              fmt::format("'{}' is not a number; give energies in MeV per "
                                          "nucleon separated by commas, e.g. 1,10,100",
                                          item));
         }
-        if (value < min_MeV_per_n || value > max_MeV_per_n) {
+        if (*value < min_MeV_per_n || *value > max_MeV_per_n) {
             throw InputError(kCommandLine, std::string(field),
                              fmt::format("{} MeV/n is outside the tables; allowed: {} to {} MeV/n",
                                          item, min_MeV_per_n, max_MeV_per_n));
         }
-        out.push_back(value);
-        if (comma == std::string_view::npos) {
-            break;
-        }
-        start = comma + 1;
+        out.push_back(*value);
     }
     return out;
 }

@@ -1,10 +1,10 @@
 #include "shielding_table_file.hpp"
 
 #include "input_error.hpp"
+#include "number_parse.hpp"
 
 #include <fmt/format.h>
 
-#include <charconv>
 #include <cmath>
 #include <fstream>
 #include <sstream>
@@ -13,8 +13,9 @@ namespace crewdose::planner {
 namespace {
 
 bool parse_number(const std::string& s, double& v) {
-    const auto [ptr, ec] = std::from_chars(s.data(), s.data() + s.size(), v);
-    return !s.empty() && ec == std::errc() && ptr == s.data() + s.size() && std::isfinite(v);
+    const auto parsed = parse_finite(s);
+    v = parsed.value_or(0.0);
+    return parsed.has_value();
 }
 
 } // namespace

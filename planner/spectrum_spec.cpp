@@ -1,12 +1,12 @@
 #include "spectrum_spec.hpp"
 
 #include "input_error.hpp"
+#include "number_parse.hpp"
 
 #include "exposure/parameter_error.hpp"
 
 #include <fmt/format.h>
 
-#include <charconv>
 #include <cmath>
 #include <map>
 #include <set>
@@ -27,13 +27,11 @@ struct Keys {
 
 double to_number(const SourceLocation& where, std::string_view text, std::string_view field,
                  const std::string& key) {
-    double v = 0.0;
-    const auto [ptr, ec] = std::from_chars(text.data(), text.data() + text.size(), v);
-    if (text.empty() || ec != std::errc() || ptr != text.data() + text.size() ||
-        !std::isfinite(v)) {
+    const auto v = parse_finite(text);
+    if (!v) {
         fail(where, field, fmt::format("{}: '{}' is not a number", key, text));
     }
-    return v;
+    return *v;
 }
 
 double required(const SourceLocation& where, const Keys& k, const std::string& key,

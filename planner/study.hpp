@@ -39,7 +39,8 @@ class Study {
     std::vector<std::unique_ptr<habitats::DirectionalShielding>> imported_;
     std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
     std::map<std::string, LocationGeometry> geometries_;
-    std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities> event_doses_;
+    std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>
+        event_doses_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
 };
