@@ -53,6 +53,10 @@ double TerrainMask::horizon_elevation_deg(double az) const {
     return last.second + a / span * (first.second - last.second);
 }
 
+Atmosphere mars_atmosphere(double surface_pressure_Pa, double scale_height_km) {
+    return Atmosphere{surface_pressure_Pa / 3.71 / 10.0, scale_height_km, 3389.5};
+}
+
 double slant_column_g_cm2(const Atmosphere& atm, double zenith_deg) {
     const double R = atm.planet_radius_km;
     const double H = atm.scale_height_km;

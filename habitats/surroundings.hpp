@@ -36,6 +36,11 @@ struct Atmosphere {
     double planet_radius_km;      ///< R
 };
 
+/// The Martian atmosphere at a site of surface pressure `surface_pressure_Pa`: vertical column
+/// P / g with g = 3.71 m/s2 (ESA Mars facts; 10 kg/m2 = 1 g/cm2) and the Mars mean radius
+/// 3389.5 km (NASA NSSDC fact sheet).
+[[nodiscard]] Atmosphere mars_atmosphere(double surface_pressure_Pa, double scale_height_km);
+
 /// The column of atmosphere, g/cm2, from the surface out along a direction at `zenith_deg`
 /// (0 = straight up, 90 = horizontal): integral of rho along the straight slant path through
 /// the spherical shell (Simpson's rule out to 40 scale heights of altitude). Finite at the

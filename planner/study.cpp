@@ -28,11 +28,8 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             where.surroundings.ground = true;
             where.surroundings.mask = sc_.mission.terrain_mask;
             if (sc_.mission.site == SiteKind::mars) {
-                // Vertical column P / g with g = 3.71 m/s2 (ESA Mars facts); Pa / (m/s2) = kg/m2
-                // and 10 kg/m2 = 1 g/cm2. Mars mean radius 3389.5 km (NASA NSSDC fact sheet).
-                where.surroundings.atmosphere =
-                    habitats::Atmosphere{sc_.mission.surface_pressure_Pa / 3.71 / 10.0,
-                                         sc_.mission.scale_height_km, 3389.5};
+                where.surroundings.atmosphere = habitats::mars_atmosphere(
+                    sc_.mission.surface_pressure_Pa, sc_.mission.scale_height_km);
             }
         }
         std::vector<habitats::Vector3> loc_dirs = dirs;
