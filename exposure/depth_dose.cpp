@@ -7,13 +7,30 @@ namespace crewdose::exposure {
 
 BracketedDose depth_dose(TableLibrary& tables, const DepthDoseSetup& setup,
                          const ProtonSpectrum& spectrum, double shield_g_cm2) {
+    const double one[] = {shield_g_cm2};
+    return depth_dose_curve(tables, setup, spectrum, one).front();
+}
+
+std::vector<BracketedDose> depth_dose_curve(TableLibrary& tables, const DepthDoseSetup& setup,
+                                            const ProtonSpectrum& spectrum,
+                                            std::span<const double> shields_g_cm2) {
     const Particle& p = proton();
     const RangeTable& shield = tables.table(*setup.shield, p);
     const RangeTable& tissue = tables.table(*setup.tissue, p);
     const RangeTable& water = tables.table(*setup.water, p);
-    const LayerPath path{{&shield, shield_g_cm2}, {&tissue, setup.tissue_depth_g_cm2}};
-    const PathResponse r = path_response(path, DoseMedium{&tissue, &water}, p, setup.rbe);
-    return fold(r, node_fluences(spectrum, r.node_energies_MeV_per_n));
+    const NodeDoses doses = node_doses(DoseMedium{&tissue, &water}, p, setup.rbe);
+    std::vector<double> nodes(tissue.grid().size());
+    for (std::size_t j = 0; j < nodes.size(); ++j) {
+        nodes[j] = tissue.energy_at_node(j);
+    }
+    const NodeFluences fluences = node_fluences(spectrum, nodes);
+    std::vector<BracketedDose> out;
+    out.reserve(shields_g_cm2.size());
+    for (const double t : shields_g_cm2) {
+        const LayerPath path{{&shield, t}, {&tissue, setup.tissue_depth_g_cm2}};
+        out.push_back(fold(path_response(path, doses), fluences));
+    }
+    return out;
 }
 
 DepthDoseTable::DepthDoseTable(TableLibrary& tables, const DepthDoseSetup& setup,
@@ -27,8 +44,8 @@ DepthDoseTable::DepthDoseTable(TableLibrary& tables, const DepthDoseSetup& setup
         t_.push_back(
             0.01 * std::pow(10.0, static_cast<double>(i) / static_cast<double>(nodes_per_decade)));
     }
-    for (const double t : t_) {
-        dose_.push_back(depth_dose(tables, setup, spectrum, t).for_limits());
+    for (const BracketedDose& d : depth_dose_curve(tables, setup, spectrum, t_)) {
+        dose_.push_back(d.for_limits());
     }
 }
 

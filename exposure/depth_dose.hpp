@@ -5,6 +5,7 @@
 #include "response.hpp"
 #include "table_library.hpp"
 
+#include <span>
 #include <vector>
 
 namespace crewdose::exposure {
@@ -22,6 +23,13 @@ struct DepthDoseSetup {
 /// the spectrum's node fluences).
 [[nodiscard]] BracketedDose depth_dose(TableLibrary& tables, const DepthDoseSetup& setup,
                                        const ProtonSpectrum& spectrum, double shield_g_cm2);
+
+/// depth_dose() at each of `shields_g_cm2`, with the spectrum's node fluences and the node
+/// doses computed once for the whole curve; identical results.
+[[nodiscard]] std::vector<BracketedDose> depth_dose_curve(TableLibrary& tables,
+                                                          const DepthDoseSetup& setup,
+                                                          const ProtonSpectrum& spectrum,
+                                                          std::span<const double> shields_g_cm2);
 
 /// A depth-dose table: exact doses at nodes log-spaced in shield areal density from 0.01 to
 /// 1000 g/cm2 (plus 0), interpolated linearly in (ln t, ln D); below 0.01 g/cm2 linearly in t.

@@ -31,7 +31,7 @@ DoseQuantities dose_per_fluence(const DoseMedium& medium, const Particle& partic
 
 DoseQuantities dose_per_fluence_at_node(const DoseMedium& medium, const Particle& particle,
                                         std::size_t node, const RbeModel& rbe) {
-    const double E = std::exp(medium.medium->grid().log_node(node));
+    const double E = medium.medium->energy_at_node(node);
     return from_stopping(particle, E, medium.medium->stopping_at_node(node),
                          medium.water->stopping_at_node(node), rbe);
 }

@@ -21,24 +21,14 @@ std::size_t interval_index(std::span<const double> x, double value) {
 }
 
 LogGrid::LogGrid(double x_min, double x_max, std::size_t count)
-    : x_min_(x_min), x_max_(x_max), count_(count), log_min_(0.0), log_step_(0.0) {
+    : x_min_(x_min), x_max_(x_max), count_(count), log_min_(0.0), log_step_(0.0),
+      inverse_step_(0.0) {
     if (!(x_min > 0.0) || !(x_max > x_min) || count < 2) {
         throw std::logic_error("LogGrid: need 0 < x_min < x_max and at least two nodes");
     }
     log_min_ = std::log(x_min);
     log_step_ = (std::log(x_max) - log_min_) / static_cast<double>(count - 1);
-}
-
-std::size_t LogGrid::interval_of_log(double log_x) const noexcept {
-    const double u = (log_x - log_min_) / log_step_;
-    if (!(u > 0.0)) {
-        return 0;
-    }
-    const auto last = count_ - 2;
-    if (u >= static_cast<double>(last)) {
-        return last;
-    }
-    return static_cast<std::size_t>(u);
+    inverse_step_ = 1.0 / log_step_;
 }
 
 } // namespace crewdose::exposure

@@ -34,7 +34,17 @@ class LogGrid {
         return log_min_ + static_cast<double>(i) * log_step_;
     }
     /// Interval holding ln(x) = log_x, clamped to [0, size-2] like interval_index().
-    [[nodiscard]] std::size_t interval_of_log(double log_x) const noexcept;
+    [[nodiscard]] std::size_t interval_of_log(double log_x) const noexcept {
+        const double u = (log_x - log_min_) * inverse_step_;
+        if (!(u > 0.0)) {
+            return 0;
+        }
+        const auto last = count_ - 2;
+        if (u >= static_cast<double>(last)) {
+            return last;
+        }
+        return static_cast<std::size_t>(u);
+    }
 
   private:
     double x_min_;
@@ -42,6 +52,7 @@ class LogGrid {
     std::size_t count_;
     double log_min_;
     double log_step_;
+    double inverse_step_;
 };
 
 } // namespace crewdose::exposure

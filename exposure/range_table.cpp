@@ -98,25 +98,57 @@ RangeTable::RangeTable(std::string id, const Particle& particle, EnergyGridSpec 
         log_R_[i] = std::log(R);
         S_prev = S_b;
     }
+    derive_from_nodes();
 }
 
-double RangeTable::log_interpolate(const std::vector<double>& log_values, double E) const {
+void RangeTable::derive_from_nodes() {
+    const std::size_t n = grid_.size();
+    const double h = grid_.log_step();
+    log_E_top_ = grid_.log_node(n - 1);
+    slope_S_.resize(n - 1);
+    slope_R_.resize(n - 1);
+    inverse_R_.resize(n - 1);
+    for (std::size_t i = 0; i + 1 < n; ++i) {
+        slope_S_[i] = (log_S_[i + 1] - log_S_[i]) / h;
+        slope_R_[i] = (log_R_[i + 1] - log_R_[i]) / h;
+        inverse_R_[i] = h / (log_R_[i + 1] - log_R_[i]);
+    }
+    slope_tau_.clear();
+    if (!optical_depth_.empty()) {
+        slope_tau_.resize(n - 1);
+        for (std::size_t i = 0; i + 1 < n; ++i) {
+            slope_tau_[i] = (optical_depth_[i + 1] - optical_depth_[i]) / h;
+        }
+    }
+    S_nodes_.resize(n);
+    E_nodes_.resize(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        S_nodes_[i] = std::exp(log_S_[i]);
+        E_nodes_[i] = std::clamp(std::exp(grid_.log_node(i)), grid_.front(), grid_.back());
+    }
+}
+
+void RangeTable::throw_energy_outside() {
+    throw std::out_of_range("RangeTable: energy outside the table");
+}
+
+double RangeTable::log_interpolate(const std::vector<double>& log_values,
+                                   const std::vector<double>& slopes, double E) const {
     if (!(E >= grid_.front() && E <= grid_.back())) {
         throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
                                 " MeV/n is outside the table");
     }
     const double x = std::log(E);
     const std::size_t i = grid_.interval_of_log(x);
-    return std::exp(
-        lerp_at(grid_.log_node(i), log_values[i], grid_.log_node(i + 1), log_values[i + 1], x));
+    return std::exp(log_values[i] + slopes[i] * (x - grid_.log_node(i)));
 }
 
 double RangeTable::stopping_MeV_cm2_g(double E) const {
-    return log_interpolate(log_S_, E);
+    return log_interpolate(log_S_, slope_S_, E);
 }
 
 double RangeTable::range_g_cm2(double E) const {
-    return log_interpolate(log_R_, E);
+    return log_interpolate(log_R_, slope_R_, E);
 }
 
 double RangeTable::energy_MeV_per_n(double range) const {
@@ -127,18 +159,8 @@ double RangeTable::energy_MeV_per_n(double range) const {
     }
     const std::size_t i = interval_index(log_R_, y);
     // Clamped so that rounding at the table's ends never leaves the table.
-    return std::clamp(
-        std::exp(lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y)),
-        grid_.front(), grid_.back());
-}
-
-RangeTable::Cursor RangeTable::cursor_at_log_energy(double log_E) const {
-    const double lo = grid_.log_front();
-    const double hi = grid_.log_node(grid_.size() - 1);
-    if (!(log_E >= lo - 1e-12 && log_E <= hi + 1e-12)) {
-        throw std::out_of_range("RangeTable: energy outside the table");
-    }
-    return {std::clamp(log_E, lo, hi), grid_.interval_of_log(log_E)};
+    return std::clamp(std::exp(grid_.log_node(i) + inverse_R_[i] * (y - log_R_[i])), grid_.front(),
+                      grid_.back());
 }
 
 RangeTable::Cursor RangeTable::cursor_at_log_range(double y) const {
@@ -146,26 +168,33 @@ RangeTable::Cursor RangeTable::cursor_at_log_range(double y) const {
         throw std::out_of_range("RangeTable: range outside the table");
     }
     const std::size_t i = interval_index(log_R_, y);
-    return {lerp_at(log_R_[i], grid_.log_node(i), log_R_[i + 1], grid_.log_node(i + 1), y), i};
+    return {grid_.log_node(i) + inverse_R_[i] * (y - log_R_[i]), i};
 }
 
-double RangeTable::log_range(const Cursor& c) const noexcept {
-    const std::size_t i = c.interval;
-    return lerp_at(grid_.log_node(i), log_R_[i], grid_.log_node(i + 1), log_R_[i + 1], c.log_E);
-}
-
-double RangeTable::log_stopping(const Cursor& c) const noexcept {
-    const std::size_t i = c.interval;
-    return lerp_at(grid_.log_node(i), log_S_[i], grid_.log_node(i + 1), log_S_[i + 1], c.log_E);
-}
-
-double RangeTable::optical_depth(const Cursor& c) const noexcept {
-    if (optical_depth_.empty()) {
-        return 0.0;
+RangeTable::Cursor RangeTable::cursor_at_log_range(double y, std::size_t& hint) const {
+    if (!(y >= log_R_.front() && y <= log_R_.back())) {
+        throw std::out_of_range("RangeTable: range outside the table");
     }
-    const std::size_t i = c.interval;
-    return lerp_at(grid_.log_node(i), optical_depth_[i], grid_.log_node(i + 1),
-                   optical_depth_[i + 1], c.log_E);
+    const std::size_t last = log_R_.size() - 2;
+    std::size_t i = std::min(hint, last);
+    // The interval holding y, as interval_index() defines it: log_R_[i] <= y < log_R_[i+1],
+    // with the ends clamped to the first and last interval.
+    constexpr int kMaxWalk = 8;
+    int steps = 0;
+    while (i < last && y >= log_R_[i + 1] && steps < kMaxWalk) {
+        ++i;
+        ++steps;
+    }
+    while (i > 0 && y < log_R_[i] && steps < kMaxWalk) {
+        --i;
+        ++steps;
+    }
+    const bool found = (i == last || y < log_R_[i + 1]) && (i == 0 || y >= log_R_[i]);
+    if (!found) {
+        i = interval_index(log_R_, y);
+    }
+    hint = i;
+    return {grid_.log_node(i) + inverse_R_[i] * (y - log_R_[i]), i};
 }
 
 double RangeTable::min_range_g_cm2() const noexcept {
@@ -185,8 +214,7 @@ double RangeTable::optical_depth(double E) const {
     }
     const double x = std::log(E);
     const std::size_t i = grid_.interval_of_log(x);
-    return lerp_at(grid_.log_node(i), optical_depth_[i], grid_.log_node(i + 1),
-                   optical_depth_[i + 1], x);
+    return optical_depth_[i] + slope_tau_[i] * (x - grid_.log_node(i));
 }
 
 RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_nodes) const {
@@ -195,6 +223,7 @@ RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_node
     }
     RangeTable copy = *this;
     copy.optical_depth_ = std::move(optical_depth_nodes);
+    copy.derive_from_nodes();
     return copy;
 }
 

@@ -3,6 +3,7 @@
 #include "material.hpp"
 #include "particle.hpp"
 
+#include <algorithm>
 #include <cmath>
 #include <functional>
 #include <optional>
@@ -62,15 +63,42 @@ class RangeTable {
         std::size_t interval;
     };
     /// Cursor at ln E (inside the table; std::out_of_range otherwise).
-    [[nodiscard]] Cursor cursor_at_log_energy(double log_E) const;
+    [[nodiscard]] Cursor cursor_at_log_energy(double log_E) const {
+        const double lo = grid_.log_front();
+        const double hi = log_E_top_;
+        if (!(log_E >= lo - 1e-12 && log_E <= hi + 1e-12)) {
+            throw_energy_outside();
+        }
+        return {std::clamp(log_E, lo, hi), grid_.interval_of_log(log_E)};
+    }
     /// Cursor at ln R (inside the table; std::out_of_range otherwise): the exact inverse of
     /// log_range().
     [[nodiscard]] Cursor cursor_at_log_range(double log_R) const;
-    [[nodiscard]] double log_range(const Cursor& c) const noexcept;
-    [[nodiscard]] double log_stopping(const Cursor& c) const noexcept;
-    [[nodiscard]] double optical_depth(const Cursor& c) const noexcept;
+    /// cursor_at_log_range() for monotone sweeps: the search starts at interval `hint` (the
+    /// previous look-up's) and walks, so a sweep over increasing ranges costs O(1) per step.
+    /// `hint` is updated to the interval found. Same result as the unhinted look-up.
+    [[nodiscard]] Cursor cursor_at_log_range(double log_R, std::size_t& hint) const;
+    // The interpolants below are linear in ln E on each interval, written with the interval's
+    // precomputed slope (no division in the transport loops).
+    [[nodiscard]] double log_range(const Cursor& c) const noexcept {
+        const std::size_t i = c.interval;
+        return log_R_[i] + slope_R_[i] * (c.log_E - grid_.log_node(i));
+    }
+    [[nodiscard]] double log_stopping(const Cursor& c) const noexcept {
+        const std::size_t i = c.interval;
+        return log_S_[i] + slope_S_[i] * (c.log_E - grid_.log_node(i));
+    }
+    [[nodiscard]] double optical_depth(const Cursor& c) const noexcept {
+        if (optical_depth_.empty()) {
+            return 0.0;
+        }
+        const std::size_t i = c.interval;
+        return optical_depth_[i] + slope_tau_[i] * (c.log_E - grid_.log_node(i));
+    }
     /// Stopping power at grid node i, MeV cm2/g (no interpolation).
-    [[nodiscard]] double stopping_at_node(std::size_t i) const { return std::exp(log_S_.at(i)); }
+    [[nodiscard]] double stopping_at_node(std::size_t i) const { return S_nodes_.at(i); }
+    /// Energy per nucleon of grid node i, MeV/n.
+    [[nodiscard]] double energy_at_node(std::size_t i) const { return E_nodes_.at(i); }
     /// ln of the largest range on the table.
     [[nodiscard]] double log_max_range() const noexcept { return log_R_.back(); }
 
@@ -94,8 +122,12 @@ class RangeTable {
     RangeTable(std::string id, const Particle& particle, EnergyGridSpec grid,
                const std::function<double(double)>& stopping_MeV_cm2_g, double range_at_min_g_cm2);
 
-    /// exp of the node values `log_values`, linear in ln E between nodes.
-    [[nodiscard]] double log_interpolate(const std::vector<double>& log_values, double E) const;
+    /// exp of the node values `log_values` with interval slopes `slopes`, linear in ln E.
+    [[nodiscard]] double log_interpolate(const std::vector<double>& log_values,
+                                         const std::vector<double>& slopes, double E) const;
+    /// Fills the per-interval slopes and the linear node values from the ln nodes.
+    void derive_from_nodes();
+    [[noreturn]] static void throw_energy_outside();
 
     Particle particle_;
     std::string material_id_;
@@ -103,6 +135,14 @@ class RangeTable {
     std::vector<double> log_S_;
     std::vector<double> log_R_;
     std::vector<double> optical_depth_;
+    // Derived from the nodes by derive_from_nodes():
+    double log_E_top_ = 0.0;        // ln of the last node
+    std::vector<double> slope_S_;   // d ln S / d ln E per interval
+    std::vector<double> slope_R_;   // d ln R / d ln E per interval
+    std::vector<double> inverse_R_; // d ln E / d ln R per interval
+    std::vector<double> slope_tau_; // d Lambda / d ln E per interval (empty without Lambda)
+    std::vector<double> S_nodes_;   // S at the nodes, MeV cm2/g
+    std::vector<double> E_nodes_;   // E at the nodes, MeV/n
 };
 
 /// Range of the low-energy form from zero energy up to `energy_MeV_per_n`, g/cm2: integral of

@@ -28,92 +28,139 @@ DoseQuantities minus(const DoseQuantities& a, const DoseQuantities& b) {
             a.rbe_weighted_GyEq - b.rbe_weighted_GyEq};
 }
 
+// Both removal cases side by side: index 0 with removal, 1 without.
+struct Pair {
+    DoseQuantities q[2];
+};
+
 // Cumulative moments of the dose per incident fluence d over ln E0,
 // G0(E0) = integral d dE0'/E0' and G1(E0) = integral d ln(E0') dE0'/E0' up to E0, known at the
 // incident energies of the exit-grid nodes and interpolated linearly in E0 between them.
 struct Cumulative {
-    std::vector<double> incident; // E0_j, increasing
-    std::vector<DoseQuantities> G0;
-    std::vector<DoseQuantities> G1;
-    DoseQuantities slope_above; // d beyond the last point
+    std::vector<double> incident;     // E0_j, increasing
+    std::vector<double> log_incident; // ln E0_j
+    std::vector<Pair> G0;
+    std::vector<Pair> G1;
+    Pair slope_above; // d beyond the last point
 
-    void at(double E0, DoseQuantities& g0, DoseQuantities& g1) const {
+    // The moments at E0 (ln E0 = log_E0). `hint` carries the interval of the previous look-up:
+    // the hat weights query increasing energies, so the walk is O(1) per query.
+    void at(double E0, double log_E0, Pair& g0, Pair& g1, std::size_t& hint) const {
         if (incident.empty() || E0 < incident.front()) {
-            g0 = g1 = {};
+            g0 = g1 = Pair{};
             return;
         }
         if (E0 >= incident.back()) {
-            const double le = std::log(incident.back());
-            const double lE = std::log(E0);
-            g0 = G0.back();
-            g0 += slope_above.scaled(lE - le);
-            g1 = G1.back();
-            g1 += slope_above.scaled(0.5 * (lE * lE - le * le));
+            const double le = log_incident.back();
+            for (int m = 0; m < 2; ++m) {
+                g0.q[m] = G0.back().q[m];
+                g0.q[m] += slope_above.q[m].scaled(log_E0 - le);
+                g1.q[m] = G1.back().q[m];
+                g1.q[m] += slope_above.q[m].scaled(0.5 * (log_E0 * log_E0 - le * le));
+            }
             return;
         }
-        const auto it = std::upper_bound(incident.begin(), incident.end(), E0);
-        const std::size_t j = static_cast<std::size_t>(it - incident.begin()) - 1;
+        // incident[j] <= E0 < incident[j+1], walked from the hint.
+        std::size_t j = std::min(hint, incident.size() - 2);
+        while (j + 2 < incident.size() && E0 >= incident[j + 1]) {
+            ++j;
+        }
+        while (j > 0 && E0 < incident[j]) {
+            --j;
+        }
+        hint = j;
         const double u = (E0 - incident[j]) / (incident[j + 1] - incident[j]);
-        g0 = lerp(G0[j], G0[j + 1], u);
-        g1 = lerp(G1[j], G1[j + 1], u);
+        for (int m = 0; m < 2; ++m) {
+            g0.q[m] = lerp(G0[j].q[m], G0[j + 1].q[m], u);
+            g1.q[m] = lerp(G1[j].q[m], G1[j + 1].q[m], u);
+        }
     }
 };
 
 } // namespace
 
+NodeDoses node_doses(const DoseMedium& medium, const Particle& particle, const RbeModel& rbe) {
+    NodeDoses out;
+    out.grid_table = medium.medium;
+    const std::size_t n = medium.medium->grid().size();
+    out.per_node.reserve(n);
+    for (std::size_t j = 0; j < n; ++j) {
+        out.per_node.push_back(dose_per_fluence_at_node(medium, particle, j, rbe));
+    }
+    return out;
+}
+
 PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium,
                            const Particle& particle, const RbeModel& rbe) {
-    const RangeTable& table = grid_table(path, medium);
+    grid_table(path, medium);
+    return path_response(path, node_doses(medium, particle, rbe));
+}
+
+PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses) {
+    const RangeTable& table = *doses.grid_table;
+    for (const auto& layer : path) {
+        if (layer.table->grid().size() != table.grid().size() ||
+            layer.table->grid().front() != table.grid().front()) {
+            throw std::logic_error("path_response: every table must share one energy grid");
+        }
+    }
     const LogGrid& g = table.grid();
     const std::size_t n = g.size();
     std::vector<double> node(n);
     for (std::size_t j = 0; j < n; ++j) {
-        node[j] = std::clamp(std::exp(g.log_node(j)), g.front(), g.back());
+        node[j] = table.energy_at_node(j);
     }
 
     // Exit-energy space: one backward transport per grid node gives E0, dE0/dE and survival.
     // The weights per unit exit energy w = d(E) dE0/dE (x survival) integrate (trapezoid in
     // ln E) to the moments G0, G1 of the dose per incident fluence d(E0).
-    Cumulative with;
-    Cumulative without;
-    DoseQuantities w_prev[2];
+    Cumulative cum;
+    cum.incident.reserve(n);
+    cum.log_incident.reserve(n);
+    cum.G0.reserve(n);
+    cum.G1.reserve(n);
+    std::vector<double> log_exits(n);
+    for (std::size_t j = 0; j < n; ++j) {
+        log_exits[j] = g.log_node(j);
+    }
+    const std::vector<BackwardResult> sweep =
+        transport_backward_sweep(path, log_exits, Removal::with);
+    Pair w_prev;
     double inv_prev = 0.0; // 1 / E0 of the previous node
     double log_prev = 0.0; // ln E0 of the previous node
     const double h = g.log_step();
-    for (std::size_t j = 0; j < n; ++j) {
-        const BackwardResult b = transport_backward_log(path, g.log_node(j), Removal::with);
-        if (!b.reachable) {
-            break;
-        }
-        const DoseQuantities d = dose_per_fluence_at_node(medium, particle, j, rbe);
-        const DoseQuantities w[2] = {d.scaled(b.jacobian * b.survival), d.scaled(b.jacobian)};
-        Cumulative* cum[2] = {&with, &without};
+    for (std::size_t j = 0; j < sweep.size(); ++j) {
+        const BackwardResult& b = sweep[j];
+        const DoseQuantities& d = doses.per_node[j];
+        const Pair w{{d.scaled(b.jacobian * b.survival), d.scaled(b.jacobian)}};
+        const double inv = 1.0 / b.incident_MeV_per_n;
+        const double lg = b.log_incident;
+        Pair g0;
+        Pair g1;
         for (int m = 0; m < 2; ++m) {
-            DoseQuantities g0;
-            DoseQuantities g1;
-            const double inv = 1.0 / b.incident_MeV_per_n;
-            const double lg = b.log_incident;
             if (j == 0) {
                 // Exit energies below the grid: weight held constant down to zero, all at E0_0.
-                g0 = w[m].scaled(node[0] * inv);
-                g1 = g0.scaled(lg);
+                g0.q[m] = w.q[m].scaled(node[0] * inv);
+                g1.q[m] = g0.q[m].scaled(lg);
             } else {
-                g0 = cum[m]->G0.back();
-                g0 += w_prev[m].scaled(0.5 * h * node[j - 1] * inv_prev);
-                g0 += w[m].scaled(0.5 * h * node[j] * inv);
-                g1 = cum[m]->G1.back();
-                g1 += w_prev[m].scaled(0.5 * h * node[j - 1] * inv_prev * log_prev);
-                g1 += w[m].scaled(0.5 * h * node[j] * inv * lg);
+                const double a = 0.5 * h * node[j - 1] * inv_prev;
+                const double c = 0.5 * h * node[j] * inv;
+                g0.q[m] = cum.G0.back().q[m];
+                g0.q[m] += w_prev.q[m].scaled(a);
+                g0.q[m] += w.q[m].scaled(c);
+                g1.q[m] = cum.G1.back().q[m];
+                g1.q[m] += w_prev.q[m].scaled(a * log_prev);
+                g1.q[m] += w.q[m].scaled(c * lg);
             }
-            cum[m]->incident.push_back(b.incident_MeV_per_n);
-            cum[m]->G0.push_back(g0);
-            cum[m]->G1.push_back(g1);
-            w_prev[m] = w[m];
         }
-        with.slope_above = d.scaled(b.survival);
-        without.slope_above = d;
-        inv_prev = 1.0 / b.incident_MeV_per_n;
-        log_prev = b.log_incident;
+        cum.incident.push_back(b.incident_MeV_per_n);
+        cum.log_incident.push_back(lg);
+        cum.G0.push_back(g0);
+        cum.G1.push_back(g1);
+        w_prev = w;
+        cum.slope_above = Pair{{d.scaled(b.survival), d}};
+        inv_prev = inv;
+        log_prev = lg;
     }
 
     // Hat-function weights: over interval [E_k, E_k+1] the fluence per unit ln E, psi = E phi,
@@ -123,25 +170,25 @@ PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium
     r.node_energies_MeV_per_n = node;
     r.with_removal.assign(n, DoseQuantities{});
     r.without_removal.assign(n, DoseQuantities{});
-    const Cumulative* cum[2] = {&with, &without};
     std::vector<DoseQuantities>* out[2] = {&r.with_removal, &r.without_removal};
-    for (int m = 0; m < 2; ++m) {
-        DoseQuantities lo0;
-        DoseQuantities lo1;
-        cum[m]->at(node[0], lo0, lo1);
-        for (std::size_t k = 0; k + 1 < n; ++k) {
-            DoseQuantities hi0;
-            DoseQuantities hi1;
-            cum[m]->at(node[k + 1], hi0, hi1);
-            const DoseQuantities M0 = minus(hi0, lo0);
-            const DoseQuantities M1 = minus(hi1, lo1);
+    Pair lo0;
+    Pair lo1;
+    std::size_t hint = 0;
+    cum.at(node[0], g.log_node(0), lo0, lo1, hint);
+    for (std::size_t k = 0; k + 1 < n; ++k) {
+        Pair hi0;
+        Pair hi1;
+        cum.at(node[k + 1], g.log_node(k + 1), hi0, hi1, hint);
+        for (int m = 0; m < 2; ++m) {
+            const DoseQuantities M0 = minus(hi0.q[m], lo0.q[m]);
+            const DoseQuantities M1 = minus(hi1.q[m], lo1.q[m]);
             // integral d u dE0/E0 = (M1 - ln(E_k) M0) / (ln E_k+1 - ln E_k)
             const DoseQuantities upper = minus(M1, M0.scaled(g.log_node(k))).scaled(1.0 / h);
             (*out[m])[k + 1] += upper;
             (*out[m])[k] += minus(M0, upper);
-            lo0 = hi0;
-            lo1 = hi1;
         }
+        lo0 = hi0;
+        lo1 = hi1;
     }
     return r;
 }

@@ -31,6 +31,18 @@ struct PathResponse {
 [[nodiscard]] PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium,
                                          const Particle& particle, const RbeModel& rbe);
 
+/// The dose per fluence at every grid node of `medium` (the part of a response that does not
+/// depend on the path), for callers that build many responses for one medium.
+struct NodeDoses {
+    const RangeTable* grid_table = nullptr; ///< the medium's table: its grid is the response's
+    std::vector<DoseQuantities> per_node;
+};
+[[nodiscard]] NodeDoses node_doses(const DoseMedium& medium, const Particle& particle,
+                                   const RbeModel& rbe);
+
+/// path_response() with the node doses computed once; identical results.
+[[nodiscard]] PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses);
+
 /// A spectrum's fluence per unit ln E at the nodes, psi = E phi(E), and the part of it outside
 /// the spectrum's fit range, particles/cm2.
 struct NodeFluences {

@@ -43,8 +43,11 @@ BackwardResult transport_backward(std::span<const Layer> path, double exit_MeV_p
     return transport_backward_log(path, std::log(exit_MeV_per_n), removal);
 }
 
-BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
-                                      Removal removal) {
+namespace {
+
+// One backward pass; `hints` is empty (search every look-up) or holds one interval per layer.
+BackwardResult backward(std::span<const Layer> path, double log_exit, Removal removal,
+                        std::span<std::size_t> hints) {
     BackwardResult out;
     double log_E = log_exit;
     double log_jacobian = 0.0;
@@ -60,7 +63,8 @@ BackwardResult transport_backward_log(std::span<const Layer> path, double log_ex
         if (log_R_in > t.log_max_range()) {
             return out; // the incident energy lies above the tables
         }
-        const RangeTable::Cursor c_in = t.cursor_at_log_range(log_R_in);
+        const RangeTable::Cursor c_in = hints.empty() ? t.cursor_at_log_range(log_R_in)
+                                                      : t.cursor_at_log_range(log_R_in, hints[k]);
         log_jacobian += t.log_stopping(c_in) - t.log_stopping(c_out);
         if (removal == Removal::with) {
             optical_depth += t.optical_depth(c_in) - t.optical_depth(c_out);
@@ -72,6 +76,63 @@ BackwardResult transport_backward_log(std::span<const Layer> path, double log_ex
     out.incident_MeV_per_n = std::exp(log_E);
     out.jacobian = std::exp(log_jacobian);
     out.survival = std::exp(-optical_depth);
+    return out;
+}
+
+} // namespace
+
+BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
+                                      Removal removal) {
+    return backward(path, log_exit, removal, {});
+}
+
+BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit, Removal removal,
+                                      std::span<std::size_t> hints) {
+    if (hints.size() != path.size()) {
+        throw std::logic_error("transport_backward_log: one hint per layer is needed");
+    }
+    return backward(path, log_exit, removal, hints);
+}
+
+std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path,
+                                                     std::span<const double> log_exits,
+                                                     Removal removal) {
+    std::size_t m = log_exits.size(); // energies still reachable
+    std::vector<double> log_E(log_exits.begin(), log_exits.end());
+    std::vector<double> log_jacobian(m, 0.0);
+    std::vector<double> optical_depth(m, 0.0);
+    for (std::size_t k = path.size(); k-- > 0;) {
+        const Layer& layer = path[k];
+        if (layer.areal_density_g_cm2 <= 0.0) {
+            continue;
+        }
+        const RangeTable& t = *layer.table;
+        const double top = t.log_max_range();
+        std::size_t hint = 0;
+        for (std::size_t j = 0; j < m; ++j) {
+            const RangeTable::Cursor c_out = t.cursor_at_log_energy(log_E[j]);
+            const double log_R_in =
+                std::log(std::exp(t.log_range(c_out)) + layer.areal_density_g_cm2);
+            if (log_R_in > top) {
+                m = j; // incident energies increase with exit energy: the rest are out too
+                break;
+            }
+            const RangeTable::Cursor c_in = t.cursor_at_log_range(log_R_in, hint);
+            log_jacobian[j] += t.log_stopping(c_in) - t.log_stopping(c_out);
+            if (removal == Removal::with) {
+                optical_depth[j] += t.optical_depth(c_in) - t.optical_depth(c_out);
+            }
+            log_E[j] = c_in.log_E;
+        }
+    }
+    std::vector<BackwardResult> out(m);
+    for (std::size_t j = 0; j < m; ++j) {
+        out[j].reachable = true;
+        out[j].log_incident = log_E[j];
+        out[j].incident_MeV_per_n = std::exp(log_E[j]);
+        out[j].jacobian = std::exp(log_jacobian[j]);
+        out[j].survival = std::exp(-optical_depth[j]);
+    }
     return out;
 }
 

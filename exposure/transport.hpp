@@ -57,4 +57,18 @@ struct BackwardResult {
 [[nodiscard]] BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
                                                     Removal removal);
 
+/// transport_backward_log() for a sweep over increasing exit energies: `hints` holds one
+/// range-table interval per layer (start with zeros) and is carried from call to call, so the
+/// look-ups walk instead of search. Same results as the unhinted call.
+[[nodiscard]] BackwardResult transport_backward_log(std::span<const Layer> path, double log_exit,
+                                                    Removal removal, std::span<std::size_t> hints);
+
+/// transport_backward_log() for many exit energies at once, `log_exits` increasing: layer by
+/// layer over all energies, so that the independent energies overlap in the processor. Returns
+/// the results of the reachable prefix (the energies whose incident energy is inside the
+/// tables); identical to one call per energy.
+[[nodiscard]] std::vector<BackwardResult>
+transport_backward_sweep(std::span<const Layer> path, std::span<const double> log_exits,
+                         Removal removal);
+
 } // namespace crewdose::exposure

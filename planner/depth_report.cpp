@@ -72,9 +72,10 @@ std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
     const exposure::DepthDoseSetup setup{&shield, exposure::find_builtin_material("soft-tissue"),
                                          exposure::find_builtin_material("water"), tissue.g_cm2,
                                          exposure::RbeModel{}};
+    const auto doses = exposure::depth_dose_curve(tables, setup, spectrum, depths_g_cm2);
     std::vector<DepthRow> rows;
-    for (const double t : depths_g_cm2) {
-        rows.push_back({t, exposure::depth_dose(tables, setup, spectrum, t)});
+    for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
+        rows.push_back({depths_g_cm2[i], doses[i]});
     }
     return rows;
 }

@@ -61,6 +61,7 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
     }
     std::size_t blocked = 0;
     const double weight = 1.0 / static_cast<double>(directions.size());
+    const exposure::NodeDoses doses = exposure::node_doses(medium, p, exposure::RbeModel{});
     for (const auto& d : directions) {
         if (where.surroundings.blocked(d)) {
             ++blocked; // fully shielded: contributes zero to the equal-weight mean
@@ -73,7 +74,7 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
         path.push_back({medium.medium, 0.0});
         for (std::size_t k = 0; k < organs.size(); ++k) {
             path.back().areal_density_g_cm2 = organs[k].depth_g_cm2;
-            const auto r = exposure::path_response(path, medium, p, exposure::RbeModel{});
+            const auto r = exposure::path_response(path, doses);
             auto& acc = out[k].response;
             if (acc.node_energies_MeV_per_n.empty()) {
                 acc.node_energies_MeV_per_n = r.node_energies_MeV_per_n;

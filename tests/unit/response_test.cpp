@@ -188,3 +188,30 @@ TEST_CASE("alphas and ions use the same transport code", "[dose]") {
         CHECK(b.incident_MeV_per_n == Approx(E0).epsilon(1e-9));
     }
 }
+
+TEST_CASE("shared node doses and the depth curve equal the one-off calls", "[dose]") {
+    // By construction: the same arithmetic with the path-independent parts computed once.
+    Fixture f;
+    const LayerPath path{{&f.tal, 4.0}, {&f.tw, 5.0}};
+    const PathResponse one = path_response(path, f.medium, proton(), f.rbe);
+    const PathResponse shared = path_response(path, node_doses(f.medium, proton(), f.rbe));
+    REQUIRE(shared.with_removal.size() == one.with_removal.size());
+    for (std::size_t j = 0; j < one.with_removal.size(); ++j) {
+        CHECK(shared.with_removal[j].absorbed_Gy == one.with_removal[j].absorbed_Gy);
+        CHECK(shared.without_removal[j].dose_equivalent_Sv ==
+              one.without_removal[j].dose_equivalent_Sv);
+    }
+    const DepthDoseSetup setup{&f.al, find_builtin_material("soft-tissue"), &f.water, 5.0, f.rbe};
+    const std::vector<double> depths{0.0, 0.5, 20.0, 300.0};
+    for (const auto& s : demo_spectra()) {
+        const auto curve = depth_dose_curve(f.tables, setup, s, depths);
+        REQUIRE(curve.size() == depths.size());
+        for (std::size_t i = 0; i < depths.size(); ++i) {
+            const BracketedDose single = depth_dose(f.tables, setup, s, depths[i]);
+            CHECK(curve[i].with_removal.absorbed_Gy == single.with_removal.absorbed_Gy);
+            CHECK(curve[i].without_removal.rbe_weighted_GyEq ==
+                  single.without_removal.rbe_weighted_GyEq);
+        }
+        CHECK(curve[1].for_limits().absorbed_Gy > curve[2].for_limits().absorbed_Gy);
+    }
+}

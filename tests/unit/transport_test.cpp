@@ -5,7 +5,9 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
+#include <vector>
 
 using namespace crewdose::exposure;
 
@@ -195,4 +197,62 @@ TEST_CASE("energy balance in a thin layer", "[transport]") {
         expected += wgt * E0 * phi * thickness * t.stopping_MeV_cm2_g(E0);
     }
     CHECK(lost == Approx(expected).epsilon(2e-3));
+}
+
+TEST_CASE("the fast backward paths equal the one-energy reference", "[transport]") {
+    // By construction: the hinted look-ups and the layer-by-layer sweep are reorderings of the
+    // same arithmetic as transport_backward_log() without hints, so the results agree to
+    // rounding (1e-13 relative) at every grid node, including where the sweep stops.
+    const Material& al = *find_builtin_material("aluminium");
+    const Material& pe = *find_builtin_material("polyethylene");
+    const RangeTable tal = with_proton_removal(RangeTable(al, proton()), al);
+    const RangeTable tpe = with_proton_removal(RangeTable(pe, proton()), pe);
+    for (const double thick : {0.0, 0.3, 7.0, 400.0}) {
+        const LayerPath path{{&tal, thick}, {&tpe, 2.0}, {&tal, 0.5 * thick}};
+        const LogGrid& g = tal.grid();
+        std::vector<double> log_exits;
+        for (std::size_t j = 0; j < g.size(); ++j) {
+            log_exits.push_back(g.log_node(j));
+        }
+        const auto sweep = transport_backward_sweep(path, log_exits, Removal::with);
+        std::vector<std::size_t> hints(path.size(), 0);
+        std::size_t reachable = 0;
+        for (std::size_t j = 0; j < g.size(); ++j) {
+            const BackwardResult ref = transport_backward_log(path, log_exits[j], Removal::with);
+            const BackwardResult hinted =
+                transport_backward_log(path, log_exits[j], Removal::with, hints);
+            REQUIRE(hinted.reachable == ref.reachable);
+            if (!ref.reachable) {
+                continue;
+            }
+            ++reachable;
+            CHECK(hinted.incident_MeV_per_n == Approx(ref.incident_MeV_per_n).epsilon(1e-13));
+            REQUIRE(j < sweep.size());
+            CHECK(sweep[j].incident_MeV_per_n == Approx(ref.incident_MeV_per_n).epsilon(1e-13));
+            CHECK(sweep[j].jacobian == Approx(ref.jacobian).epsilon(1e-13));
+            CHECK(sweep[j].survival == Approx(ref.survival).epsilon(1e-13));
+        }
+        CHECK(sweep.size() == reachable);
+        CHECK(reachable > 0);
+        if (thick == 400.0) {
+            CHECK(reachable < g.size()); // the sweep's early stop is exercised
+        }
+    }
+}
+
+TEST_CASE("hinted range look-ups from any hint equal the search", "[range]") {
+    const RangeTable t(*find_builtin_material("water"), proton());
+    const auto& lr = t.log_range_nodes();
+    for (const std::size_t start : {std::size_t{0}, std::size_t{3}, lr.size() / 2, lr.size()}) {
+        for (std::size_t i = 0; i < lr.size(); i += 7) {
+            for (const double y : {lr[i], lr[std::min(i + 1, lr.size() - 1)] - 1e-9}) {
+                std::size_t hint = start;
+                const auto a = t.cursor_at_log_range(y, hint);
+                const auto b = t.cursor_at_log_range(y);
+                CHECK(a.interval == b.interval);
+                CHECK(a.log_E == b.log_E);
+                CHECK(hint == a.interval);
+            }
+        }
+    }
 }
