@@ -43,15 +43,50 @@ double proton_removal_cm2_g(const Material& material, double E) {
     return sigma;
 }
 
-RangeTable with_proton_removal(const RangeTable& table, const Material& material) {
-    if (table.particle().Z != 1) {
-        throw std::logic_error("with_proton_removal: the table is not a proton table");
+double nucleus_reaction_cross_section_mb(int Zp, double Ap, int Zt, double At, double E) {
+    if (!(Ap >= 2.0) || !(At >= 1.0)) {
+        throw std::logic_error("nucleus_reaction_cross_section_mb: need Ap >= 2 and At >= 1");
     }
+    if (Zt == 1) {
+        return proton_reaction_cross_section_mb(Zp, Ap, E);
+    }
+    constexpr double kR0_fm = 1.36;
+    const double ap = std::cbrt(Ap);
+    const double at = std::cbrt(At);
+    const double inverse_sum = 1.0 / ap + 1.0 / at;
+    const double b0 = 1.581 - 0.876 * inverse_sum;
+    const double radius = ap + at - b0 * inverse_sum;
+    return kPi * kR0_fm * kR0_fm * radius * radius * 10.0; // fm2 -> mb
+}
+
+double removal_cm2_g(const Material& material, const Particle& particle, double E) {
+    if (particle.Z == 1) {
+        return proton_removal_cm2_g(material, E);
+    }
+    double sigma = 0.0;
+    for (const auto& share : material.composition()) {
+        const auto element = element_by_Z(share.Z);
+        if (!element) {
+            throw std::logic_error("removal_cm2_g: unknown element in " + material.id());
+        }
+        const double A = element->atomic_mass_g_mol;
+        sigma += share.mass_fraction * kAvogadro_per_mol / A *
+                 nucleus_reaction_cross_section_mb(particle.Z, particle.A, share.Z, A, E) * 1e-27;
+    }
+    return sigma;
+}
+
+namespace {
+
+RangeTable fill_optical_depth(const RangeTable& table, const Material& material) {
     const LogGrid& g = table.grid();
+    const Particle& particle = table.particle();
     std::vector<double> lambda(g.size(), 0.0);
-    auto integrand = [&](double lnE) { // Sigma(E) / S(E) dE = E Sigma / S d(ln E)
+    // Sigma(E) / S(E) dE per nucleon energy: S is the whole ion's stopping, so dE/dx per
+    // nucleon is S / A and the integrand is A E Sigma / S d(ln E).
+    auto integrand = [&](double lnE) {
         const double E = std::clamp(std::exp(lnE), g.front(), g.back());
-        return E * proton_removal_cm2_g(material, E) / table.stopping_MeV_cm2_g(E);
+        return particle.A * E * removal_cm2_g(material, particle, E) / table.stopping_MeV_cm2_g(E);
     };
     const double h = g.log_step();
     for (std::size_t i = 1; i < g.size(); ++i) {
@@ -60,6 +95,19 @@ RangeTable with_proton_removal(const RangeTable& table, const Material& material
                     h / 6.0 * (integrand(a) + 4.0 * integrand(a + 0.5 * h) + integrand(a + h));
     }
     return table.with_optical_depth(std::move(lambda));
+}
+
+} // namespace
+
+RangeTable with_removal(const RangeTable& table, const Material& material) {
+    return fill_optical_depth(table, material);
+}
+
+RangeTable with_proton_removal(const RangeTable& table, const Material& material) {
+    if (table.particle().Z != 1) {
+        throw std::logic_error("with_proton_removal: the table is not a proton table");
+    }
+    return fill_optical_depth(table, material);
 }
 
 } // namespace crewdose::exposure

@@ -113,11 +113,16 @@ void RangeTable::derive_from_nodes() {
         slope_R_[i] = (log_R_[i + 1] - log_R_[i]) / h;
         inverse_R_[i] = h / (log_R_[i + 1] - log_R_[i]);
     }
+    R_nodes_.resize(n);
+    for (std::size_t i = 0; i < n; ++i) {
+        R_nodes_[i] = std::exp(log_R_[i]);
+    }
     slope_tau_.clear();
     if (!optical_depth_.empty()) {
         slope_tau_.resize(n - 1);
         for (std::size_t i = 0; i + 1 < n; ++i) {
-            slope_tau_[i] = (optical_depth_[i + 1] - optical_depth_[i]) / h;
+            slope_tau_[i] =
+                (optical_depth_[i + 1] - optical_depth_[i]) / (R_nodes_[i + 1] - R_nodes_[i]);
         }
     }
     S_nodes_.resize(n);
@@ -212,9 +217,8 @@ double RangeTable::optical_depth(double E) const {
         throw std::out_of_range("RangeTable: energy " + std::to_string(E) +
                                 " MeV/n is outside the table");
     }
-    const double x = std::log(E);
-    const std::size_t i = grid_.interval_of_log(x);
-    return optical_depth_[i] + slope_tau_[i] * (x - grid_.log_node(i));
+    const Cursor c = cursor_at_log_energy(std::log(E));
+    return optical_depth(c, std::exp(log_range(c)));
 }
 
 RangeTable RangeTable::with_optical_depth(std::vector<double> optical_depth_nodes) const {

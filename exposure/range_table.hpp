@@ -88,12 +88,17 @@ class RangeTable {
         const std::size_t i = c.interval;
         return log_S_[i] + slope_S_[i] * (c.log_E - grid_.log_node(i));
     }
-    [[nodiscard]] double optical_depth(const Cursor& c) const noexcept {
+    /// Nuclear optical depth at cursor `c` whose range is `range_g_cm2` (the caller has it):
+    /// linear in the range on each interval, d Lambda / dR being the interval's mean removal
+    /// cross section. A constant cross section is thus reproduced exactly, and the optical
+    /// depth across a thin layer keeps second-order accuracy (linear in ln E it would not: the
+    /// slope of a piecewise-linear interpolant is only first-order).
+    [[nodiscard]] double optical_depth(const Cursor& c, double range_g_cm2) const noexcept {
         if (optical_depth_.empty()) {
             return 0.0;
         }
         const std::size_t i = c.interval;
-        return optical_depth_[i] + slope_tau_[i] * (c.log_E - grid_.log_node(i));
+        return optical_depth_[i] + slope_tau_[i] * (range_g_cm2 - R_nodes_[i]);
     }
     /// Stopping power at grid node i, MeV cm2/g (no interpolation).
     [[nodiscard]] double stopping_at_node(std::size_t i) const { return S_nodes_.at(i); }
@@ -114,7 +119,8 @@ class RangeTable {
     [[nodiscard]] bool has_optical_depth() const noexcept { return !optical_depth_.empty(); }
     /// A copy of this table with the optical-depth slot filled (one value per node).
     [[nodiscard]] RangeTable with_optical_depth(std::vector<double> optical_depth_nodes) const;
-    /// Nuclear optical depth Lambda(E), linear in ln E between nodes; 0 when the slot is empty.
+    /// Nuclear optical depth Lambda(E), linear in the range between nodes; 0 when the slot is
+    /// empty.
     /// Survival while slowing from E0 to E is exp(-(Lambda(E0) - Lambda(E))).
     [[nodiscard]] double optical_depth(double energy_MeV_per_n) const;
 
@@ -140,7 +146,8 @@ class RangeTable {
     std::vector<double> slope_S_;   // d ln S / d ln E per interval
     std::vector<double> slope_R_;   // d ln R / d ln E per interval
     std::vector<double> inverse_R_; // d ln E / d ln R per interval
-    std::vector<double> slope_tau_; // d Lambda / d ln E per interval (empty without Lambda)
+    std::vector<double> slope_tau_; // d Lambda / dR per interval (empty without Lambda)
+    std::vector<double> R_nodes_;   // R at the nodes, g/cm2
     std::vector<double> S_nodes_;   // S at the nodes, MeV cm2/g
     std::vector<double> E_nodes_;   // E at the nodes, MeV/n
 };

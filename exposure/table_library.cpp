@@ -9,10 +9,8 @@ const RangeTable& TableLibrary::table(const Material& material, const Particle& 
     auto it = tables_.find(key);
     if (it == tables_.end()) {
         RangeTable t(material, particle, grid_);
-        // Removal is modelled for protons; ions keep an empty optical-depth slot (no removal)
-        // until nucleus-nucleus cross sections are added.
-        auto built = std::make_unique<RangeTable>(particle.Z == 1 ? with_proton_removal(t, material)
-                                                                  : std::move(t));
+        // Every table carries its removal: Letaw/Kafexhiu for protons, Sihver for nuclei.
+        auto built = std::make_unique<RangeTable>(with_removal(t, material));
         it = tables_.emplace(std::move(key), std::move(built)).first;
     }
     return *it->second;

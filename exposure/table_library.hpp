@@ -11,8 +11,8 @@
 namespace crewdose::exposure {
 
 /// Range tables built on demand and kept for the run, one per (material, particle), all on the
-/// same energy grid; proton tables carry their nuclear optical depth. References stay valid as
-/// long as the library lives. Not thread-safe: fill it before any parallel use.
+/// same energy grid; every table carries its nuclear optical depth (nuclear.hpp). References stay
+/// valid as long as the library lives. Not thread-safe: fill it before any parallel use.
 class TableLibrary {
   public:
     explicit TableLibrary(EnergyGridSpec grid = {}) : grid_(grid) {}

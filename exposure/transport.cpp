@@ -17,7 +17,8 @@ ForwardResult transport_forward(std::span<const Layer> path, double incident_MeV
         }
         const RangeTable& t = *layer.table;
         const RangeTable::Cursor c_in = t.cursor_at_log_energy(log_E);
-        const double residual = std::exp(t.log_range(c_in)) - layer.areal_density_g_cm2;
+        const double R_in = std::exp(t.log_range(c_in));
+        const double residual = R_in - layer.areal_density_g_cm2;
         if (residual <= t.min_range_g_cm2()) {
             out.stopped = true;
             out.stopped_in_layer = i;
@@ -26,7 +27,7 @@ ForwardResult transport_forward(std::span<const Layer> path, double incident_MeV
         }
         const RangeTable::Cursor c_out = t.cursor_at_log_range(std::log(residual));
         if (removal == Removal::with) {
-            optical_depth += t.optical_depth(c_in) - t.optical_depth(c_out);
+            optical_depth += t.optical_depth(c_in, R_in) - t.optical_depth(c_out, residual);
         }
         log_E = c_out.log_E;
     }
@@ -59,7 +60,9 @@ BackwardResult backward(std::span<const Layer> path, double log_exit, Removal re
         }
         const RangeTable& t = *layer.table;
         const RangeTable::Cursor c_out = t.cursor_at_log_energy(log_E);
-        const double log_R_in = std::log(std::exp(t.log_range(c_out)) + layer.areal_density_g_cm2);
+        const double R_out = std::exp(t.log_range(c_out));
+        const double R_in = R_out + layer.areal_density_g_cm2;
+        const double log_R_in = std::log(R_in);
         if (log_R_in > t.log_max_range()) {
             return out; // the incident energy lies above the tables
         }
@@ -67,7 +70,7 @@ BackwardResult backward(std::span<const Layer> path, double log_exit, Removal re
                                                       : t.cursor_at_log_range(log_R_in, hints[k]);
         log_jacobian += t.log_stopping(c_in) - t.log_stopping(c_out);
         if (removal == Removal::with) {
-            optical_depth += t.optical_depth(c_in) - t.optical_depth(c_out);
+            optical_depth += t.optical_depth(c_in, R_in) - t.optical_depth(c_out, R_out);
         }
         log_E = c_in.log_E;
     }
@@ -111,8 +114,9 @@ std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path
         std::size_t hint = 0;
         for (std::size_t j = 0; j < m; ++j) {
             const RangeTable::Cursor c_out = t.cursor_at_log_energy(log_E[j]);
-            const double log_R_in =
-                std::log(std::exp(t.log_range(c_out)) + layer.areal_density_g_cm2);
+            const double R_out = std::exp(t.log_range(c_out));
+            const double R_in = R_out + layer.areal_density_g_cm2;
+            const double log_R_in = std::log(R_in);
             if (log_R_in > top) {
                 m = j; // incident energies increase with exit energy: the rest are out too
                 break;
@@ -120,7 +124,7 @@ std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path
             const RangeTable::Cursor c_in = t.cursor_at_log_range(log_R_in, hint);
             log_jacobian[j] += t.log_stopping(c_in) - t.log_stopping(c_out);
             if (removal == Removal::with) {
-                optical_depth[j] += t.optical_depth(c_in) - t.optical_depth(c_out);
+                optical_depth[j] += t.optical_depth(c_in, R_in) - t.optical_depth(c_out, R_out);
             }
             log_E[j] = c_in.log_E;
         }

@@ -1,6 +1,7 @@
 // Responses per incident-energy node, dose quantities and depth-dose tables.
 #include "exposure/depth_dose.hpp"
 #include "exposure/material_library.hpp"
+#include "exposure/nuclear.hpp"
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "exposure/units.hpp"
@@ -182,7 +183,10 @@ TEST_CASE("alphas and ions use the same transport code", "[dose]") {
         REQUIRE_FALSE(fr.stopped);
         CHECK(fr.exit_energy_MeV_per_n ==
               Approx(t.energy_MeV_per_n(t.range_g_cm2(E0) - 3.0)).epsilon(1e-12));
-        CHECK(fr.survival == 1.0); // no nucleus-nucleus removal yet
+        // Removal by the energy-independent nucleus-nucleus cross section on aluminium:
+        // survival exp(-Sigma t) over the 3 g/cm2 crossed (by construction).
+        CHECK(fr.survival == Approx(std::exp(-removal_cm2_g(al, p, E0) * 3.0)).epsilon(1e-5));
+        CHECK(fr.survival < 1.0);
         const BackwardResult b =
             transport_backward(LayerPath{{&t, 3.0}}, fr.exit_energy_MeV_per_n, Removal::with);
         CHECK(b.incident_MeV_per_n == Approx(E0).epsilon(1e-9));
