@@ -20,18 +20,46 @@ std::string organ_label(const std::string& organ) {
     return organ;
 }
 
+std::string phi_text(const Mission& m) {
+    std::string t = fmt::format("phi = {:.0f} MV from the mission start", m.gcr_phi_MV);
+    for (const auto& phase : m.gcr_phases) {
+        t += fmt::format(", {:.0f} MV from {}", phase.phi_MV, format_time(phase.from));
+    }
+    if (!m.gcr_phi_given) {
+        t += " (no value given: the solar-minimum example, the higher background)";
+    }
+    return t;
+}
+
 std::string model_text(const Study& study) {
     const Scenario& sc = study.scenario();
     return fmt::format(
         "Model: quick body model (tissue depth in every direction: skin 0.07 mm, lens 3 mm, BFO 5 "
-        "cm; a conservative screening model); {} directions per location; SPE primary protons by "
-        "straight-ahead CSDA transport, dose the higher of with and without nuclear removal "
-        "(secondaries not modelled); RBE-weighted dose with NCRP 132 values; uncertainty factor "
-        "{:.2f} applied to every dose. Not modelled yet: GCR background (30-day, annual and "
-        "career totals hold SPE, prior and recorded doses only), the stylised phantom, "
-        "circulatory, CNS and effective-dose limits. Window maxima are exact at activity and "
-        "event boundaries and sampled every 10 minutes inside event profiles.",
-        study.direction_count(), sc.limits.uncertainty_factor);
+        "cm; a conservative screening model); {} directions per location for SPEs, {} for GCR; "
+        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium left "
+        "out) from the Burger et al. 2000 local interstellar spectrum, force-field modulated with "
+        "{}, carried by the same transport with nucleus-nucleus removal (Sihver et al. 1993); "
+        "every dose is the higher of with and without nuclear removal, because secondaries are "
+        "not modelled: no projectile fragments, target fragments or secondary neutrons. Without "
+        "them the GCR absorbed dose behind thick shielding is too low, and the heavy ions keep "
+        "their high quality factor (GCR dose equivalent high). RBE-weighted dose with NCRP 132 "
+        "values; uncertainty factor {:.2f} applied to every dose. Not modelled yet: the stylised "
+        "phantom, circulatory, CNS and effective-dose limits. Window maxima are exact at "
+        "activity and event boundaries and sampled every 10 minutes inside event profiles.",
+        study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
+        sc.limits.uncertainty_factor);
+}
+
+nlohmann::json totals_json(const DoseTotals& t) {
+    return {{"mGyEq", t.mGyEq},
+            {"absorbed_mGy", t.absorbed_mGy},
+            {"dose_equivalent_mSv", t.dose_equivalent_mSv}};
+}
+
+nlohmann::json dose_json(const exposure::DoseQuantities& d) {
+    return {{"absorbed_mGy", 1e3 * d.absorbed_Gy},
+            {"dose_equivalent_mSv", 1e3 * d.dose_equivalent_Sv},
+            {"mGyEq", 1e3 * d.rbe_weighted_GyEq}};
 }
 
 // Wraps `text` at `width` columns, keeping its leading spaces on the first line and starting
@@ -89,6 +117,27 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         j["uncertainty_factor"] = sc.limits.uncertainty_factor;
         j["directions"] = study.direction_count();
         j["any_limit_exceeded"] = ledger.any_exceeded;
+        {
+            nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
+                             {"phi_given", sc.mission.gcr_phi_given},
+                             {"composition", std::string(exposure::gcr_composition_source())},
+                             {"directions", sc.mission.gcr_directions},
+                             {"phases", nlohmann::json::array()},
+                             {"daily_rates_at_start", nlohmann::json::object()}};
+            for (const auto& phase : sc.mission.gcr_phases) {
+                g["phases"].push_back(
+                    {{"from", format_time(phase.from)}, {"phi_MV", phase.phi_MV}});
+            }
+            for (const auto& loc : sc.locations) {
+                for (const auto& q : quick_body_model()) {
+                    const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
+                    g["daily_rates_at_start"][loc.id][q.name] = {
+                        {"with_removal", dose_json(d.with_removal)},
+                        {"without_removal", dose_json(d.without_removal)}};
+                }
+            }
+            j["gcr"] = g;
+        }
         j["events"] = nlohmann::json::array();
         for (const auto& e : sc.events) {
             j["events"].push_back({{"id", e.id},
@@ -106,7 +155,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     {"career_mGyEq", o.career_mGyEq},
                     {"mission_mGyEq", o.mission_mGyEq},
                     {"mission_absorbed_mGy", o.mission_absorbed_mGy},
-                    {"mission_dose_equivalent_mSv", o.mission_dose_equivalent_mSv}};
+                    {"mission_dose_equivalent_mSv", o.mission_dose_equivalent_mSv},
+                    {"mission_by_source",
+                     {{"gcr", totals_json(o.gcr)},
+                      {"spe", totals_json(o.spe)},
+                      {"recorded", totals_json(o.other)}}}};
             }
             for (const auto& chk : c.checks) {
                 cj["limits"].push_back({{"organ", chk.limit.organ},
@@ -150,6 +203,19 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     format_time(sc.mission.end), sc.file);
     out += caution_text() + "\n";
     out += wrap(model_text(study), 96) + "\n";
+    out += "GCR dose rate at the mission start, per day (removal on / off; the higher is used):\n";
+    out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
+    for (const auto& loc : sc.locations) {
+        for (const auto& q : quick_body_model()) {
+            const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
+            out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", loc.id, organ_label(q.name),
+                               significant(1e3 * d.with_removal.rbe_weighted_GyEq, 3) + " / " +
+                                   significant(1e3 * d.without_removal.rbe_weighted_GyEq, 3),
+                               significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
+                                   significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
+        }
+    }
+    out += "\n";
     out += "Events:\n";
     for (const auto& e : sc.events) {
         out +=
@@ -184,6 +250,16 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                                         ? ""
                                         : "; mostly " + lowest->top_contributor),
                         100, "    ");
+        }
+        out += fmt::format("  mission dose by source (mGy-Eq; dose equivalent in mSv)\n");
+        out += fmt::format("  {:<6} {:>16} {:>16} {:>16}\n", "organ", "GCR", "SPE", "recorded");
+        for (const auto& o : c.organs) {
+            auto cell = [](const DoseTotals& t) {
+                return fmt::format("{} ({})", significant(t.mGyEq, 3),
+                                   significant(t.dose_equivalent_mSv, 3));
+            };
+            out += fmt::format("  {:<6} {:>16} {:>16} {:>16}\n", organ_label(o.organ), cell(o.gcr),
+                               cell(o.spe), cell(o.other));
         }
         out += "  largest BFO contributors:\n";
         for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {

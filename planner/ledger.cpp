@@ -153,6 +153,22 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     pieces.push_back({span.start, span.end, full.scaled(f * uf), &ev,
                                       "SPE " + ev.id, span.label});
                 }
+                // GCR: the location's daily rate over the span, cut where phi changes.
+                std::vector<Time> cuts{span.start};
+                for (const auto& phase : sc.mission.gcr_phases) {
+                    if (phase.from > span.start && phase.from < span.end) {
+                        cuts.push_back(phase.from);
+                    }
+                }
+                cuts.push_back(span.end);
+                for (std::size_t c = 0; c + 1 < cuts.size(); ++c) {
+                    const double phi = sc.mission.gcr_phi_at(cuts[c]);
+                    const double days =
+                        static_cast<double>((cuts[c + 1] - cuts[c]).total_seconds()) / 86400.0;
+                    const auto rate = study.gcr_daily_dose(span.location, organ, phi).for_limits();
+                    pieces.push_back({cuts[c], cuts[c + 1], rate.scaled(days * uf), nullptr,
+                                      kGcrSource, span.label});
+                }
             }
             // Recorded doses: replace the modelled dose of their period (the pieces are cut
             // there) or add to it (doses the tool does not model).
@@ -193,6 +209,13 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
             OrganResult r;
             r.organ = organ;
             for (const auto& p : pieces) {
+                if (p.source == kGcrSource) {
+                    r.gcr.add(p.dose);
+                } else if (p.event) {
+                    r.spe.add(p.dose);
+                } else {
+                    r.other.add(p.dose);
+                }
                 r.mission_mGyEq += 1e3 * p.dose.rbe_weighted_GyEq;
                 r.mission_absorbed_mGy += 1e3 * p.dose.absorbed_Gy;
                 r.mission_dose_equivalent_mSv += 1e3 * p.dose.dose_equivalent_Sv;

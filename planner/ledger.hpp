@@ -39,8 +39,26 @@ struct WindowMax {
     std::string top_contributor; ///< the piece that gave most of it
 };
 
+/// The source name of GCR pieces.
+inline constexpr const char* kGcrSource = "GCR";
+
+/// Mission dose of one kind of source, in the report's units.
+struct DoseTotals {
+    double mGyEq = 0.0;
+    double absorbed_mGy = 0.0;
+    double dose_equivalent_mSv = 0.0;
+    void add(const exposure::DoseQuantities& d) {
+        mGyEq += 1e3 * d.rbe_weighted_GyEq;
+        absorbed_mGy += 1e3 * d.absorbed_Gy;
+        dose_equivalent_mSv += 1e3 * d.dose_equivalent_Sv;
+    }
+};
+
 struct OrganResult {
     std::string organ;
+    DoseTotals gcr;   ///< mission GCR part
+    DoseTotals spe;   ///< mission SPE part
+    DoseTotals other; ///< recorded doses of the mission period
     WindowMax max_30d;
     WindowMax max_365d;
     double career_mGyEq = 0.0;  ///< prior + mission

@@ -48,7 +48,14 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
                                                  const MaterialResolver& materials,
                                                  const LocationGeometry& where,
                                                  const std::vector<habitats::Vector3>& directions) {
-    const exposure::Particle& p = exposure::proton();
+    return quick_model_responses(tables, materials, where, directions, exposure::proton());
+}
+
+std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
+                                                 const MaterialResolver& materials,
+                                                 const LocationGeometry& where,
+                                                 const std::vector<habitats::Vector3>& directions,
+                                                 const exposure::Particle& p) {
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
     const exposure::DoseMedium medium{&tables.table(tissue, p), &tables.table(water, p)};

@@ -107,7 +107,13 @@ int main(int argc, char** argv) {
     auto* check = app.add_subcommand(
         "check", "Check every crew member's doses along the scenario's timeline against the "
                  "30-day, annual and career planning limits; report margins and where they are "
-                 "smallest.\nExample: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
+                 "smallest. Doses are SPE plus the galactic cosmic-ray (GCR) background, "
+                 "shown apart.\nGCR: set the modulation potential with mission.gcr_phi_MV "
+                 "(and [[mission.gcr_modulation]] for later changes); about 400 MV near solar "
+                 "minimum, 1000 MV or more near maximum, for the Burger et al. 2000 interstellar "
+                 "spectrum the model uses: a phi derived with another spectrum is not "
+                 "interchangeable. Without a value the solar-minimum example (400 MV) is used.\n"
+                 "Example: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
                  "evaluated limits met; 1: a limit exceeded; 2: bad input.");
     check->add_option("scenario", scenario_path, "scenario file (TOML; see scenarios/README.md)")
         ->required();

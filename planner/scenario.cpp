@@ -6,6 +6,16 @@
 
 namespace crewdose::planner {
 
+double Mission::gcr_phi_at(const Time& t) const {
+    double phi = gcr_phi_MV;
+    for (const auto& phase : gcr_phases) {
+        if (t >= phase.from) {
+            phi = phase.phi_MV;
+        }
+    }
+    return phi;
+}
+
 double EventProfile::fraction_by(double t) const {
     if (t <= 0.0) {
         return 0.0;

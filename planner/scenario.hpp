@@ -4,6 +4,7 @@
 #include "input_error.hpp"
 #include "location_response.hpp"
 
+#include "exposure/gcr.hpp"
 #include "exposure/material.hpp"
 #include "exposure/spectrum.hpp"
 #include "habitats/scene.hpp"
@@ -32,6 +33,21 @@ struct Mission {
     habitats::TerrainMask terrain_mask;
     double surface_pressure_Pa = 750.0; ///< Mars only
     double scale_height_km = 11.1;      ///< Mars only
+    /// GCR modulation potential phi (MV, for the Usoskin et al. 2005 LIS) from mission start;
+    /// when the scenario gives none, the solar-minimum example (the conservative choice).
+    double gcr_phi_MV = exposure::kExampleSolarMinimumPhi_MV;
+    bool gcr_phi_given = false;
+    /// Later values of phi, each from its date on (sorted, after mission start).
+    struct GcrPhase {
+        SourceLocation where;
+        Time from;
+        double phi_MV;
+    };
+    std::vector<GcrPhase> gcr_phases;
+    /// Directions for the GCR responses (the GCR dose varies slowly with direction).
+    std::size_t gcr_directions = kDefaultGcrDirections;
+    /// phi at time t.
+    [[nodiscard]] double gcr_phi_at(const Time& t) const;
 };
 
 struct LocationSpec {

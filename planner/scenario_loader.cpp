@@ -303,7 +303,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     {
         const Section m(top.table("mission"), file, "mission",
                         {"name", "site", "start", "end", "directions", "terrain_mask",
-                         "surface_pressure_Pa", "scale_height_km"});
+                         "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
+                         "gcr_directions"});
         sc.mission.where = m.where();
         sc.mission.name = m.text("name");
         const std::string site = m.text("site");
@@ -354,6 +355,47 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (m.has("scale_height_km")) {
             sc.mission.scale_height_km = m.positive("scale_height_km");
+        }
+        auto phi_value = [](const Section& s, const std::string& key) {
+            const double phi = s.number(key);
+            if (!(phi >= 0.0 && phi <= 3000.0)) {
+                s.fail(key, "must be a modulation potential from 0 to 3000 MV (for this LIS about "
+                            "400 at solar minimum, 1000 or more at maximum)");
+            }
+            return phi;
+        };
+        if (m.has("gcr_phi_MV")) {
+            sc.mission.gcr_phi_MV = phi_value(m, "gcr_phi_MV");
+            sc.mission.gcr_phi_given = true;
+        }
+        if (m.has("gcr_directions")) {
+            const double n = m.number("gcr_directions");
+            if (!(n >= 16 && n <= 65536) || n != std::floor(n)) {
+                m.fail("gcr_directions", "must be a whole number from 16 to 65536");
+            }
+            sc.mission.gcr_directions = static_cast<std::size_t>(n);
+        }
+        if (m.has("gcr_modulation")) {
+            const auto* a = m.need("gcr_modulation").as_array();
+            if (!a || !a->is_array_of_tables()) {
+                m.fail("gcr_modulation",
+                       "must be an array of tables [[mission.gcr_modulation]] with from and "
+                       "phi_MV");
+            }
+            for (const auto& e : *a) {
+                const Section g(*e.as_table(), file, "mission.gcr_modulation", {"from", "phi_MV"});
+                Mission::GcrPhase phase{g.where(), g.time("from"), phi_value(g, "phi_MV")};
+                if (!(phase.from > sc.mission.start) || !(phase.from < sc.mission.end)) {
+                    g.fail("from", "must lie inside the mission (after mission.start, before "
+                                   "mission.end); the value at the start is mission.gcr_phi_MV");
+                }
+                if (!sc.mission.gcr_phases.empty() &&
+                    !(phase.from > sc.mission.gcr_phases.back().from)) {
+                    g.fail("from", "must be later than the previous entry's from");
+                }
+                sc.mission.gcr_phases.push_back(phase);
+                sc.mission.gcr_phi_given = true;
+            }
         }
     }
 

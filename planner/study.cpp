@@ -10,6 +10,12 @@
 
 namespace crewdose::planner {
 
+exposure::EnergyGridSpec gcr_grid() {
+    exposure::EnergyGridSpec g;
+    g.nodes_per_decade = kGcrNodesPerDecade;
+    return g;
+}
+
 Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
     const MaterialResolver materials = [this](const std::string& id) -> const exposure::Material& {
         const auto* m = sc_.material(id);
@@ -19,6 +25,12 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
         return *m;
     };
     const auto dirs = habitats::fibonacci_directions(directions_);
+    const auto gcr_dirs = habitats::fibonacci_directions(sc_.mission.gcr_directions);
+    exposure::TableLibrary gcr_tables(gcr_grid());
+    std::vector<double> phis{sc_.mission.gcr_phi_MV};
+    for (const auto& phase : sc_.mission.gcr_phases) {
+        phis.push_back(phase.phi_MV);
+    }
     for (const auto& loc : sc_.locations) {
         LocationGeometry where;
         where.point = loc.point_m;
@@ -58,6 +70,27 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             const std::string organ = r.organ;
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
         }
+        // GCR: per nucleus, the organ responses over the GCR direction set, folded at once
+        // with every phi of the mission (the responses themselves are not kept).
+        const auto& g_dirs = where.imported ? loc_dirs : gcr_dirs;
+        for (const auto& particle : exposure::particles()) {
+            if (!exposure::gcr_nucleus_included(particle.Z)) {
+                continue;
+            }
+            for (const auto& r :
+                 quick_model_responses(gcr_tables, materials, where, g_dirs, particle)) {
+                for (const double phi : phis) {
+                    auto& rates = gcr_rates_[{loc.id, r.organ, phi}];
+                    rates.by_nucleus.resize(exposure::particles().size());
+                    const auto d = exposure::fold(
+                        r.response, exposure::gcr_node_fluences(
+                                        particle, phi, r.response.node_energies_MeV_per_n));
+                    rates.by_nucleus[static_cast<std::size_t>(particle.Z - 1)] = d;
+                    rates.total.with_removal += d.with_removal;
+                    rates.total.without_removal += d.without_removal;
+                }
+            }
+        }
     }
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
@@ -68,6 +101,17 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                 exposure::fold(r.response, fluences).for_limits();
         }
     }
+}
+
+const exposure::BracketedDose&
+Study::gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const {
+    return gcr_rates_.at({location, organ, phi_MV}).total;
+}
+
+const std::vector<exposure::BracketedDose>&
+Study::gcr_daily_dose_by_nucleus(const std::string& location, const std::string& organ,
+                                 double phi_MV) const {
+    return gcr_rates_.at({location, organ, phi_MV}).by_nucleus;
 }
 
 const OrganResponse& Study::response(const std::string& location, const std::string& organ) const {

@@ -1,9 +1,12 @@
 // Geometry benchmarks (geometry issue): tracing 10,000 directions through a 20-solid scene
-// (goal under 10 ms), and the quick-model organ responses of one location.
+// (goal under 10 ms), the quick-model organ responses of one location, and the GCR responses
+// of every nucleus and organ at one location (GCR issue: goal under 200 ms).
+#include "exposure/gcr.hpp"
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
 #include "habitats/scene.hpp"
 #include "planner/location_response.hpp"
+#include "planner/study.hpp"
 
 #include <benchmark/benchmark.h>
 
@@ -31,6 +34,19 @@ habitats::Scene twenty_solids() {
     return habitats::Scene(std::move(s));
 }
 
+// A dose point on the module's deck, on the ground.
+planner::LocationGeometry module_deck(const habitats::Scene& scene) {
+    planner::LocationGeometry where;
+    where.scene = &scene;
+    where.point = {0, 0, 1.5};
+    where.surroundings.ground = true;
+    return where;
+}
+
+const exposure::Material& materials(const std::string& id) {
+    return *exposure::find_builtin_material(id);
+}
+
 } // namespace
 
 static void BM_Trace10000Directions(benchmark::State& state) {
@@ -49,17 +65,41 @@ BENCHMARK(BM_Trace10000Directions)->Unit(benchmark::kMillisecond);
 static void BM_QuickModelLocation(benchmark::State& state) {
     const habitats::Scene scene = twenty_solids();
     exposure::TableLibrary tables;
-    planner::LocationGeometry where;
-    where.scene = &scene;
-    where.point = {0, 0, 1.5};
-    where.surroundings.ground = true;
+    const planner::LocationGeometry where = module_deck(scene);
     const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
-    auto materials = [](const std::string& id) -> const exposure::Material& {
-        return *exposure::find_builtin_material(id);
-    };
     (void)planner::quick_model_responses(tables, materials, where, dirs); // build tables once
     for (auto _ : state) {
         benchmark::DoNotOptimize(planner::quick_model_responses(tables, materials, where, dirs));
     }
 }
 BENCHMARK(BM_QuickModelLocation)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisecond);
+
+// What the study does per location for the GCR: for each of the 27 nuclei the organ responses
+// over the GCR direction set on the GCR energy grid, folded with one modulation potential.
+static void BM_GcrLocation(benchmark::State& state) {
+    const habitats::Scene scene = twenty_solids();
+    exposure::TableLibrary tables(planner::gcr_grid());
+    const planner::LocationGeometry where = module_deck(scene);
+    const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
+    auto run = [&] {
+        double total = 0.0;
+        for (const auto& p : exposure::particles()) {
+            if (!exposure::gcr_nucleus_included(p.Z)) {
+                continue;
+            }
+            for (const auto& r :
+                 planner::quick_model_responses(tables, materials, where, dirs, p)) {
+                const auto d = exposure::fold(
+                    r.response,
+                    exposure::gcr_node_fluences(p, 400.0, r.response.node_energies_MeV_per_n));
+                total += d.for_limits().absorbed_Gy;
+            }
+        }
+        return total;
+    };
+    (void)run(); // build the tables once, as a run does before its locations
+    for (auto _ : state) {
+        benchmark::DoNotOptimize(run());
+    }
+}
+BENCHMARK(BM_GcrLocation)->Arg(256)->Unit(benchmark::kMillisecond);

@@ -237,7 +237,15 @@ TEST_CASE("check: the lunar demo is within every evaluated limit", "[cli][check]
     CHECK(r.out.find("Every evaluated planning limit is met.") != std::string::npos);
     CHECK(r.out.find("planning value") != std::string::npos);
     CHECK(r.out.find("licensed radiation-protection") != std::string::npos);
-    CHECK(r.out.find("uncertainty factor 1.50") != std::string::npos);
+    std::string flat = r.out; // the model paragraph is wrapped: read it as one line
+    std::replace(flat.begin(), flat.end(), '\n', ' ');
+    CHECK(flat.find("uncertainty factor 1.50") != std::string::npos);
+    // The GCR background: its model, its phi, its daily rates and its share of every total.
+    CHECK(flat.find("force-field modulated with phi = 450 MV") != std::string::npos);
+    CHECK(flat.find("no projectile fragments, target fragments or secondary neutrons") !=
+          std::string::npos);
+    CHECK(r.out.find("GCR dose rate at the mission start") != std::string::npos);
+    CHECK(r.out.find("mission dose by source") != std::string::npos);
     CHECK(r.out.find("\033[") == std::string::npos); // no colour into a pipe
     // Readable at 100 columns.
     std::size_t longest = 0;
@@ -278,6 +286,17 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     std::snprintf(buf, sizeof buf, "%.3g", bfo30);
     CHECK(t.out.find(std::string("  BFO    30-day ")) != std::string::npos);
     CHECK(t.out.find(buf) != std::string::npos);
+    // The parts by source add up to the mission total (nothing else is charged).
+    const auto& bfo = crew["organs"]["bfo"];
+    const auto& by = bfo["mission_by_source"];
+    CHECK(by["gcr"]["mGyEq"].get<double>() > 0.0);
+    CHECK(by["gcr"]["mGyEq"].get<double>() + by["spe"]["mGyEq"].get<double>() +
+              by["recorded"]["mGyEq"].get<double>() ==
+          Approx(bfo["mission_mGyEq"].get<double>()).epsilon(1e-12));
+    CHECK(doc["gcr"]["phi_MV"] == 450.0);
+    const auto& rate = doc["gcr"]["daily_rates_at_start"]["storm-shelter"]["bfo"];
+    CHECK(rate["without_removal"]["absorbed_mGy"].get<double>() >
+          rate["with_removal"]["absorbed_mGy"].get<double>());
     const Run c = run("check " + demo() + " --format csv");
     CHECK(c.out.rfind("crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n", 0) == 0);
 }

@@ -6,6 +6,7 @@
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "exposure/units.hpp"
+#include "planner/study.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -165,4 +166,39 @@ TEST_CASE("lunar surface GCR dose in silicon against Chang'E-4", "[gcr][referenc
     CHECK(uGy_per_h == Approx(10.1).epsilon(0.30));
     // Removal across 1 g/cm2 is small: the bracket is narrow here.
     CHECK(d.with_removal.absorbed_Gy > 0.95 * d.without_removal.absorbed_Gy);
+}
+
+TEST_CASE("the GCR energy grid is converged to 0.1 %", "[gcr]") {
+    // The study's GCR grid (planner::kGcrNodesPerDecade) against four times denser, all
+    // nuclei at phi = 400 MV behind 1, 10 and 40 g/cm2 aluminium plus 5 cm water.
+    auto dose = [](std::size_t nodes_per_decade, double aluminium_g_cm2) {
+        EnergyGridSpec g;
+        g.nodes_per_decade = nodes_per_decade;
+        TableLibrary tables(g);
+        const Material& al = *find_builtin_material("aluminium");
+        const Material& water = *find_builtin_material("water");
+        BracketedDose total;
+        for (const auto& p : particles()) {
+            if (!gcr_nucleus_included(p.Z)) {
+                continue;
+            }
+            const LayerPath path{{&tables.table(al, p), aluminium_g_cm2},
+                                 {&tables.table(water, p), 5.0}};
+            const RangeTable& tw = tables.table(water, p);
+            const PathResponse r = path_response(path, DoseMedium{&tw, &tw}, p, RbeModel{});
+            const BracketedDose d = fold(r, gcr_node_fluences(p, 400.0, r.node_energies_MeV_per_n));
+            total.with_removal += d.with_removal;
+            total.without_removal += d.without_removal;
+        }
+        return total;
+    };
+    for (const double t : {1.0, 10.0, 40.0}) {
+        const BracketedDose coarse = dose(crewdose::planner::kGcrNodesPerDecade, t);
+        const BracketedDose fine = dose(4 * crewdose::planner::kGcrNodesPerDecade, t);
+        for (const auto& [c, f] : {std::pair{coarse.with_removal, fine.with_removal},
+                                   std::pair{coarse.without_removal, fine.without_removal}}) {
+            CHECK(c.absorbed_Gy == Approx(f.absorbed_Gy).epsilon(1e-3));
+            CHECK(c.dose_equivalent_Sv == Approx(f.dose_equivalent_Sv).epsilon(1e-3));
+        }
+    }
 }

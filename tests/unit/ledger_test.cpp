@@ -113,17 +113,32 @@ TEST_CASE("a small timeline checked against a hand computation", "[ledger]") {
     const double d = 10.0;
     const double c = 1.0 / (1.0 / r + 1.0 / d);
     const double F4 = (d * (1 - std::exp(-4.0 / d)) - c * (1 - std::exp(-4.0 / c))) / (d - c);
+    // The GCR background adds its daily rate G (the same at both locations, both free space)
+    // over the 60 days of the mission (1 January to 1 March 2032), times the factor 1.5; the
+    // best 30-day window holds the prior total, the event and 30 days of GCR.
+    const double G =
+        1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
+    REQUIRE(
+        G ==
+        Approx(1e3 * study.gcr_daily_dose("free-too", "bfo", 400.0).for_limits().rbe_weighted_GyEq)
+            .epsilon(1e-12));
+    REQUIRE(G > 0.0);
     const LedgerResult ledger = build_ledger(study);
     const auto& crew = ledger.crew.at(0);
     const auto& bfo = crew.organs.at(0);
     REQUIRE(bfo.organ == "bfo");
-    CHECK(bfo.mission_mGyEq == Approx(1.5 * D).epsilon(1e-9));
-    CHECK(bfo.max_30d.dose_mGyEq == Approx(1.5 * D + 7.0).epsilon(1e-9));
-    CHECK(bfo.career_mGyEq == Approx(1.5 * D + 7.0).epsilon(1e-9));
+    CHECK(bfo.spe.mGyEq == Approx(1.5 * D).epsilon(1e-9));
+    CHECK(bfo.gcr.mGyEq == Approx(1.5 * G * 60.0).epsilon(1e-9));
+    CHECK(bfo.mission_mGyEq == Approx(1.5 * D + 1.5 * G * 60.0).epsilon(1e-9));
+    // (window ends are searched on a 10-minute step: the window that also holds the prior
+    // total at the mission start misses up to 10 minutes of GCR)
+    CHECK(bfo.max_30d.dose_mGyEq <= 1.5 * D + 7.0 + 1.5 * G * 30.0 + 1e-9);
+    CHECK(bfo.max_30d.dose_mGyEq >= 1.5 * D + 7.0 + 1.5 * G * (30.0 - 10.0 / 1440.0) - 1e-9);
+    CHECK(bfo.career_mGyEq == Approx(1.5 * D + 7.0 + 1.5 * G * 60.0).epsilon(1e-9));
     const auto& pieces = ledger.pieces.at({"a", "bfo"});
     double first = 0.0;
     for (const auto& p : pieces) {
-        if (p.activity.find("stay") != std::string::npos) {
+        if (p.activity.find("stay") != std::string::npos && p.event) {
             first += 1e3 * p.dose.rbe_weighted_GyEq;
         }
     }
@@ -143,9 +158,12 @@ TEST_CASE("recorded doses replace the modelled dose of their period, and only it
     const double d = 10.0;
     const double c = 1.0 / (1.0 / r + 1.0 / d);
     const double F2 = (d * (1 - std::exp(-2.0 / d)) - c * (1 - std::exp(-2.0 / c))) / (d - c);
+    // The GCR of those 3 hours (rate G per day, times 1.5) is replaced as well.
+    const double G =
+        1.5e3 * plain.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
     const double base = build_ledger(plain).crew[0].organs[0].mission_mGyEq;
     const double replaced = build_ledger(with).crew[0].organs[0].mission_mGyEq;
-    CHECK(replaced == Approx(base - D * F2 + 2.0).epsilon(1e-9));
+    CHECK(replaced == Approx(base - D * F2 - G * 3.0 / 24.0 + 2.0).epsilon(1e-9));
     // Not replacing: the reading adds to the model (a dose the tool does not model).
     const std::string add = rec + "replaces_model = false\n";
     CHECK(build_ledger(Study(parse_scenario(kPlan + add, "hand.toml")))
@@ -177,4 +195,21 @@ TEST_CASE("timeline gaps are errors unless allowed, then charged and listed", "[
         Approx(
             build_ledger(Study(parse_scenario(kPlan, "hand.toml"))).crew[0].organs[0].mission_mGyEq)
             .epsilon(1e-9));
+}
+
+TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledger][gcr]") {
+    // By construction: phi = 400 MV for the first 20 days, 900 MV for the remaining 40; the
+    // GCR part is the sum of each phase's daily rate times its days (times the factor 1.5).
+    std::string plan = kPlan;
+    plan.replace(plan.find("directions = 16"), 15,
+                 "directions = 16\ngcr_phi_MV = 400\n[[mission.gcr_modulation]]\n"
+                 "from = 2032-01-21T00:00:00Z\nphi_MV = 900");
+    const Study study(parse_scenario(plan, "hand.toml"));
+    const double g400 =
+        1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
+    const double g900 =
+        1e3 * study.gcr_daily_dose("free", "bfo", 900.0).for_limits().rbe_weighted_GyEq;
+    CHECK(g900 < 0.7 * g400); // more modulation, less GCR
+    const auto& bfo = build_ledger(study).crew.at(0).organs.at(0);
+    CHECK(bfo.gcr.mGyEq == Approx(1.5 * (20.0 * g400 + 40.0 * g900)).epsilon(1e-9));
 }

@@ -174,3 +174,29 @@ TEST_CASE("limits: overrides and the uncertainty factor", "[scenario]") {
     expect(kBase + "\n[limits]\nuncertainty_factor = 0\n",
            "limits.uncertainty_factor: must be a number > 0");
 }
+
+TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenario][gcr]") {
+    const Scenario plain = parse_scenario(kBase, "plan.toml");
+    CHECK_FALSE(plain.mission.gcr_phi_given);
+    CHECK(plain.mission.gcr_phi_MV == 400.0); // the solar-minimum example
+    const std::string phased = replace(kBase, "directions = 16",
+                                       "directions = 16\ngcr_phi_MV = 550\n"
+                                       "[[mission.gcr_modulation]]\nfrom = 2032-01-04T00:00:00Z\n"
+                                       "phi_MV = 700\n[[mission.gcr_modulation]]\n"
+                                       "from = 2032-01-08T00:00:00Z\nphi_MV = 900");
+    const Scenario s = parse_scenario(phased, "plan.toml");
+    CHECK(s.mission.gcr_phi_given);
+    CHECK(s.mission.gcr_phi_at(s.mission.start) == 550.0);
+    REQUIRE(s.mission.gcr_phases.size() == 2);
+    CHECK(s.mission.gcr_phi_at(s.mission.gcr_phases[0].from) == 700.0);
+    CHECK(s.mission.gcr_phi_at(s.mission.end) == 900.0);
+    expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_MV = -5"),
+           "plan.toml:7: mission.gcr_phi_MV: must be a modulation potential from 0 to 3000 MV");
+    expect(replace(phased, "from = 2032-01-08T00:00:00Z", "from = 2032-01-02T00:00:00Z"),
+           "mission.gcr_modulation.from: must be later than the previous entry's from");
+    expect(replace(phased, "from = 2032-01-04T00:00:00Z", "from = 2031-01-04T00:00:00Z"),
+           "plan.toml:9: mission.gcr_modulation.from: must lie inside the mission");
+    expect(replace(phased, "phi_MV = 700", "phi = 700"), "mission.gcr_modulation.phi: unknown key");
+    expect(replace(kBase, "directions = 16", "directions = 16\ngcr_directions = 2.5"),
+           "mission.gcr_directions: must be a whole number from 16 to 65536");
+}
