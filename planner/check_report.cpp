@@ -161,6 +161,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                       {"spe", totals_json(o.spe)},
                       {"recorded", totals_json(o.other)}}}};
             }
+            cj["budget"] = {{"binds", c.budget.binds},
+                            {"days_after_mission_end", c.budget.days},
+                            {"organ", c.budget.organ},
+                            {"window", c.budget.window},
+                            {"gcr_rate_mGyEq_per_day", c.budget.rate_mGyEq_per_day}};
             for (const auto& chk : c.checks) {
                 cj["limits"].push_back({{"organ", chk.limit.organ},
                                         {"window", chk.limit.window},
@@ -250,6 +255,17 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                                         ? ""
                                         : "; mostly " + lowest->top_contributor),
                         100, "    ");
+        }
+        if (c.budget.binds && c.budget.days > 0.0) {
+            out += wrap(fmt::format("  budget left: {} {} binds first, after about {} more days "
+                                    "of this timeline's activity mix ({} mGy-Eq/day of GCR; no "
+                                    "further events)",
+                                    organ_label(c.budget.organ), c.budget.window,
+                                    significant(c.budget.days, 3),
+                                    significant(c.budget.rate_mGyEq_per_day, 3)),
+                        100, "    ");
+        } else if (!c.budget.binds) {
+            out += "  budget left: no limit binds from the GCR background of this timeline alone\n";
         }
         out += fmt::format("  mission dose by source (mGy-Eq; dose equivalent in mSv)\n");
         out += fmt::format("  {:<6} {:>16} {:>16} {:>16}\n", "organ", "GCR", "SPE", "recorded");

@@ -85,6 +85,36 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
     return best;
 }
 
+Budget remaining_budget(const std::vector<LimitCheck>& checks,
+                        const std::vector<OrganResult>& organs, double mission_days) {
+    Budget best;
+    for (const auto& c : checks) {
+        const auto organ = std::find_if(organs.begin(), organs.end(), [&](const OrganResult& o) {
+            return o.organ == c.limit.organ;
+        });
+        if (organ == organs.end() || !(mission_days > 0.0)) {
+            continue;
+        }
+        const double rate = organ->gcr.mGyEq / mission_days;
+        double days = 0.0;
+        if (!c.exceeded) {
+            if (!(rate > 0.0)) {
+                continue;
+            }
+            days = c.margin / rate;
+            const double window_days =
+                c.limit.window == "30-day" ? 30.0 : (c.limit.window == "annual" ? 365.0 : 0.0);
+            if (window_days > 0.0 && days > window_days) {
+                continue; // the background alone never fills this window
+            }
+        }
+        if (!best.binds || days < best.days) {
+            best = {true, days, c.limit.organ, c.limit.window, rate};
+        }
+    }
+    return best;
+}
+
 LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     const Scenario& sc = study.scenario();
     LedgerResult out;
@@ -275,6 +305,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
         }
         std::sort(result.contributors.begin(), result.contributors.end(),
                   [](const auto& a, const auto& b) { return a.second > b.second; });
+        result.budget = remaining_budget(result.checks, result.organs,
+                                         hours(sc.mission.end - sc.mission.start) / 24.0);
         out.crew.push_back(std::move(result));
     }
     return out;

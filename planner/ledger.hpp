@@ -77,11 +77,25 @@ struct LimitCheck {
     std::string top_contributor;
 };
 
+/// What budget remains: continuing the timeline's mix of activities after the mission end at
+/// its average GCR rate (no further events), the days until the first planning limit binds.
+/// Conservative for the 30-day and annual windows: every dose already in the highest window is
+/// taken to stay in it; a window limit that even so is not reached within one window length
+/// never binds from the background alone.
+struct Budget {
+    bool binds = false;              ///< some limit binds
+    double days = 0.0;               ///< after the mission end (0 if a limit is exceeded)
+    std::string organ;               ///< of the limit that binds first
+    std::string window;              ///< its window
+    double rate_mGyEq_per_day = 0.0; ///< that organ's average GCR rate over the mission
+};
+
 struct CrewResult {
     std::string crew;
     std::string name;
     std::vector<OrganResult> organs;
     std::vector<LimitCheck> checks;
+    Budget budget;
     std::vector<DosePiece> pieces; ///< all pieces of the lowest-margin organ's ledger
     std::vector<std::pair<std::string, double>> contributors; ///< BFO mGy-Eq by activity x source
 };
@@ -99,6 +113,11 @@ struct LedgerResult {
     /// Per crew and organ, the pieces (for --series output).
     std::map<std::pair<std::string, std::string>, std::vector<DosePiece>> pieces;
 };
+
+/// The budget of one crew member from the checks and each organ's mission GCR dose over
+/// `mission_days`.
+[[nodiscard]] Budget remaining_budget(const std::vector<LimitCheck>& checks,
+                                      const std::vector<OrganResult>& organs, double mission_days);
 
 /// Builds the ledger of every crew member. Timeline gaps are InputError (at the crew entry's
 /// line) unless `options.allow_gaps`.

@@ -241,7 +241,7 @@ TEST_CASE("check: the lunar demo is within every evaluated limit", "[cli][check]
     std::replace(flat.begin(), flat.end(), '\n', ' ');
     CHECK(flat.find("uncertainty factor 1.50") != std::string::npos);
     // The GCR background: its model, its phi, its daily rates and its share of every total.
-    CHECK(flat.find("force-field modulated with phi = 450 MV") != std::string::npos);
+    CHECK(flat.find("force-field modulated with phi = 650 MV") != std::string::npos);
     CHECK(flat.find("no projectile fragments, target fragments or secondary neutrons") !=
           std::string::npos);
     CHECK(r.out.find("GCR dose rate at the mission start") != std::string::npos);
@@ -293,7 +293,7 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     CHECK(by["gcr"]["mGyEq"].get<double>() + by["spe"]["mGyEq"].get<double>() +
               by["recorded"]["mGyEq"].get<double>() ==
           Approx(bfo["mission_mGyEq"].get<double>()).epsilon(1e-12));
-    CHECK(doc["gcr"]["phi_MV"] == 450.0);
+    CHECK(doc["gcr"]["phi_MV"] == 650.0);
     const auto& rate = doc["gcr"]["daily_rates_at_start"]["storm-shelter"]["bfo"];
     CHECK(rate["without_removal"]["absorbed_mGy"].get<double>() >
           rate["with_removal"]["absorbed_mGy"].get<double>());

@@ -213,3 +213,40 @@ TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledge
     const auto& bfo = build_ledger(study).crew.at(0).organs.at(0);
     CHECK(bfo.gcr.mGyEq == Approx(1.5 * (20.0 * g400 + 40.0 * g900)).epsilon(1e-9));
 }
+
+TEST_CASE("budget left: days of the timeline's GCR rate until the first limit binds", "[ledger]") {
+    // By construction: 60 mGy-Eq of GCR to BFO over 60 days is 1 mGy-Eq/day.
+    OrganResult bfo;
+    bfo.organ = "bfo";
+    bfo.gcr.mGyEq = 60.0;
+    auto check = [](const std::string& window, double value, double dose) {
+        LimitCheck c;
+        c.limit.organ = "bfo";
+        c.limit.window = window;
+        c.limit.value = value;
+        c.dose = dose;
+        c.margin = value - dose;
+        c.exceeded = c.margin < 0.0;
+        return c;
+    };
+    // 30-day margin 20 (reached in 20 days, inside one window), career margin 500.
+    Budget b =
+        remaining_budget({check("30-day", 250, 230), check("career", 1000, 500)}, {bfo}, 60.0);
+    REQUIRE(b.binds);
+    CHECK(b.days == Approx(20.0).epsilon(1e-12));
+    CHECK(b.window == "30-day");
+    CHECK(b.rate_mGyEq_per_day == Approx(1.0).epsilon(1e-12));
+    // 30-day margin 40: 40 days at 1/day is longer than the window, which the background
+    // alone (30 mGy-Eq per 30 days) never fills; the career binds after 500 days.
+    b = remaining_budget({check("30-day", 250, 210), check("career", 1000, 500)}, {bfo}, 60.0);
+    REQUIRE(b.binds);
+    CHECK(b.days == Approx(500.0).epsilon(1e-12));
+    CHECK(b.window == "career");
+    // A limit already exceeded binds at once.
+    b = remaining_budget({check("annual", 500, 510), check("career", 1000, 500)}, {bfo}, 60.0);
+    CHECK(b.binds);
+    CHECK(b.days == 0.0);
+    // No GCR: nothing binds.
+    bfo.gcr.mGyEq = 0.0;
+    CHECK_FALSE(remaining_budget({check("career", 1000, 500)}, {bfo}, 60.0).binds);
+}
