@@ -210,7 +210,8 @@ TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledge
     const double g900 =
         1e3 * study.gcr_daily_dose("free", "bfo", 900.0).for_limits().rbe_weighted_GyEq;
     CHECK(g900 < 0.7 * g400); // more modulation, less GCR
-    const auto& bfo = build_ledger(study).crew.at(0).organs.at(0);
+    const LedgerResult ledger = build_ledger(study);
+    const auto& bfo = ledger.crew.at(0).organs.at(0);
     CHECK(bfo.gcr.mGyEq == Approx(1.5 * (20.0 * g400 + 40.0 * g900)).epsilon(1e-9));
 }
 
