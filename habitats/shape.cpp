@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <type_traits>
 
 namespace crewdose::habitats {
 namespace {
@@ -162,6 +163,26 @@ std::string shape_name(const Shape& shape) {
                                      return std::string("half-space");
                                  }},
                       shape);
+}
+
+std::optional<double> volume_m3(const Shape& shape) {
+    constexpr double kPi = 3.14159265358979323846;
+    return std::visit(
+        [&](const auto& s) -> std::optional<double> {
+            using T = std::decay_t<decltype(s)>;
+            if constexpr (std::is_same_v<T, Sphere>) {
+                return 4.0 / 3.0 * kPi * s.radius * s.radius * s.radius;
+            } else if constexpr (std::is_same_v<T, Cylinder>) {
+                return kPi * s.radius * s.radius * s.height;
+            } else if constexpr (std::is_same_v<T, Box>) {
+                return 8.0 * s.half_extent.x * s.half_extent.y * s.half_extent.z;
+            } else if constexpr (std::is_same_v<T, Dome>) {
+                return 2.0 / 3.0 * kPi * s.radius * s.radius * s.radius;
+            } else {
+                return std::nullopt;
+            }
+        },
+        shape);
 }
 
 } // namespace crewdose::habitats

@@ -69,6 +69,10 @@ struct Chord {
 /// moves in; a half-space's surface moves down.
 [[nodiscard]] std::optional<Shape> inset(const Shape& shape, double depth_m);
 
+/// Volume in m3 of a bounded shape (sphere, cylinder, box, dome); nullopt for a slab or a
+/// half-space.
+[[nodiscard]] std::optional<double> volume_m3(const Shape& shape);
+
 /// True if the point lies inside the shape (boundary included).
 [[nodiscard]] bool contains(const Shape& shape, Point3 p);
 

@@ -27,6 +27,7 @@ std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
         std::reverse(walls.begin(), walls.end());                // outermost first
         path.insert(path.end(), walls.begin(), walls.end());
     }
+    path.insert(path.end(), where.shell.begin(), where.shell.end());
     if (where.suit) {
         for (const auto& s : where.suit->all_around) {
             path.push_back({s.material_id, s.areal_density_g_cm2});

@@ -65,6 +65,9 @@ struct LocationGeometry {
     std::string atmosphere_material_id = "mars-atmosphere";
     std::optional<SuitModel> suit; ///< no suit when empty
     double heading_deg = 0.0;      ///< compass azimuth the person faces
+    /// A uniform shell around the dose point, the same in every direction that is not blocked,
+    /// inside the walls and outside the suit (shelter sizing adds one), outermost first.
+    std::vector<habitats::PathSegment> shell;
 };
 
 /// The response of one organ at a location, and what the directions saw.
@@ -93,7 +96,7 @@ quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& ma
                       const exposure::Particle& particle);
 
 /// The layer path of one direction, outermost first, before any tissue: atmosphere (slant
-/// column, when the site has one), the scene's walls from outside in, the suit.
+/// column, when the site has one), the scene's walls from outside in, any uniform shell, the suit.
 [[nodiscard]] std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
                                                                habitats::Vector3 direction);
 

@@ -4,6 +4,7 @@
 #include "depth_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
+#include "shelter.hpp"
 #include "shielding_report.hpp"
 #include "spectrum_spec.hpp"
 
@@ -145,6 +146,37 @@ int main(int argc, char** argv) {
     shielding->add_option("--event,-e", event_id, "event id: also show its organ doses there");
     shielding->add_option("--format,-f", format, "text or json")->capture_default_str();
 
+    std::vector<std::string> shelter_materials;
+    std::vector<std::string> shelter_targets;
+    std::string shelter_layer;
+    double shelter_max = 200.0;
+    auto* shelter = app.add_subcommand(
+        "shelter",
+        "Size a storm shelter: the least areal density of each material that keeps the design "
+        "event, received whole in the shelter, plus the crew's highest other 30-day dose within "
+        "every target (default: the 30-day planning limits; uncertainty factor and the removal "
+        "bracket applied; quick body model, a screening model). Without --layer a uniform shell "
+        "is added around the dose point; with --layer SOLID:LAYER the material is added directly "
+        "inside that layer of the solid and the added mass is given for its real geometry. "
+        "Prints the answer per material and a dose-thickness table around it; a target that no "
+        "thickness up to --max-g-cm2 meets is reported as not achievable.\nExample: crewdose "
+        "shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter "
+        "--material water --material polyethylene --target bfo=150");
+    shelter->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+    shelter->add_option("--event,-e", event_id, "the design event (an event id)")->required();
+    shelter->add_option("--location,-l", location_id, "the shelter's location id")->required();
+    shelter->add_option("--material,-m", shelter_materials,
+                        "material to add (repeat for several; default water)");
+    shelter->add_option("--target,-t", shelter_targets,
+                        "ORGAN=VALUE in mGy-Eq, e.g. bfo=250mGyEq (repeat; organs bfo, lens, "
+                        "skin; others keep their 30-day planning limit)");
+    shelter->add_option("--layer", shelter_layer,
+                        "SOLID:LAYER, the wall layer to back with the material (LAYER: its "
+                        "number, 1 = outermost, or its material)");
+    shelter->add_option("--max-g-cm2", shelter_max, "largest areal density to try")
+        ->capture_default_str();
+    shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+
     try {
         app.parse(argc, argv);
     } catch (const CLI::CallForHelp& e) {
@@ -180,6 +212,28 @@ int main(int argc, char** argv) {
                 study, location_id,
                 event_id.empty() ? std::nullopt : std::optional<std::string>(event_id),
                 fmt_choice));
+        } else if (shelter->parsed()) {
+            const planner::Study study(planner::load_scenario(scenario_path));
+            planner::ShelterRequest request;
+            request.event_id = event_id;
+            request.location_id = location_id;
+            if (!shelter_materials.empty()) {
+                request.materials = shelter_materials;
+            }
+            for (const auto& t : shelter_targets) {
+                planner::parse_shelter_target(t, request.targets);
+            }
+            if (!shelter_layer.empty()) {
+                planner::parse_shelter_layer(study, shelter_layer, request);
+            }
+            request.max_g_cm2 = shelter_max;
+            const auto report = planner::size_shelter(study, request);
+            write_stdout(planner::format_shelter_report(study, report, fmt_choice));
+            for (const auto& a : report.answers) {
+                if (!a.achievable) {
+                    return 1;
+                }
+            }
         } else if (validate->parsed()) {
             write_stdout(planner::format_validation(planner::load_scenario(scenario_path)));
         } else if (check->parsed()) {

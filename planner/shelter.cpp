@@ -1,0 +1,564 @@
+#include "shelter.hpp"
+
+#include "cautions.hpp"
+#include "ledger.hpp"
+#include "number_format.hpp"
+
+#include "exposure/material_library.hpp"
+#include "habitats/shape.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+
+namespace crewdose::planner {
+namespace {
+
+const SourceLocation kCommandLine{"command line", 0};
+
+const exposure::Material& material_of(const Study& study, const std::string& id,
+                                      const std::string& option) {
+    if (const auto* m = study.scenario().material(id)) {
+        return *m;
+    }
+    throw InputError(kCommandLine, option,
+                     fmt::format("unknown material '{}'; use a built-in material (crewdose "
+                                 "materials) or one the scenario defines",
+                                 id));
+}
+
+const EventSpec& event_of(const Study& study, const std::string& id) {
+    for (const auto& e : study.scenario().events) {
+        if (e.id == id) {
+            return e;
+        }
+    }
+    std::string known;
+    for (const auto& e : study.scenario().events) {
+        known += (known.empty() ? "" : ", ") + e.id;
+    }
+    throw InputError(kCommandLine, "--event",
+                     fmt::format("unknown event '{}'; the scenario defines: {}", id,
+                                 known.empty() ? "none" : known));
+}
+
+const LocationSpec& location_of(const Study& study, const std::string& id) {
+    for (const auto& l : study.scenario().locations) {
+        if (l.id == id) {
+            return l;
+        }
+    }
+    std::string known;
+    for (const auto& l : study.scenario().locations) {
+        known += (known.empty() ? "" : ", ") + l.id;
+    }
+    throw InputError(kCommandLine, "--location",
+                     fmt::format("unknown location '{}'; the scenario defines: {}", id, known));
+}
+
+// The location's solids with `thickness_m` of `material` inserted directly inside layer
+// `layer_index` of solid `solid_id`.
+std::vector<habitats::Solid> thickened(const Study& study, const LocationSpec& loc,
+                                       const std::string& solid_id, std::size_t layer_index,
+                                       const exposure::Material& material, double thickness_m) {
+    std::vector<habitats::Solid> around;
+    for (const auto& s : study.scenario().solids) {
+        if (std::find(loc.solids.begin(), loc.solids.end(), s.id) == loc.solids.end()) {
+            continue;
+        }
+        habitats::Solid copy = s;
+        if (s.id == solid_id && thickness_m > 0.0) {
+            copy.layers.insert(copy.layers.begin() + static_cast<std::ptrdiff_t>(layer_index) + 1,
+                               habitats::SolidLayer{material.id(), thickness_m,
+                                                    material.density_g_cm3()});
+        }
+        around.push_back(std::move(copy));
+    }
+    return around;
+}
+
+const habitats::Solid& solid_of(const Study& study, const LocationSpec& loc,
+                                const ShelterRequest& r) {
+    const std::string& id = *r.solid_id;
+    if (std::find(loc.solids.begin(), loc.solids.end(), id) == loc.solids.end()) {
+        throw InputError(kCommandLine, "--layer",
+                         fmt::format("solid '{}' is not around location '{}'; its solids: {}", id,
+                                     loc.id, fmt::join(loc.solids, ", ")));
+    }
+    for (const auto& s : study.scenario().solids) {
+        if (s.id == id) {
+            if (r.layer_index >= s.layers.size()) {
+                throw InputError(kCommandLine, "--layer",
+                                 fmt::format("solid '{}' has {} layers; give a layer number from "
+                                             "1 to {} (outermost first)",
+                                             id, s.layers.size(), s.layers.size()));
+            }
+            return s;
+        }
+    }
+    throw std::logic_error("solid listed by a location but not defined: " + id);
+}
+
+// Depth of the inner face of layer `index` below the solid's outer surface, m.
+double depth_below_layer(const habitats::Solid& s, std::size_t index) {
+    double d = 0.0;
+    for (std::size_t k = 0; k <= index; ++k) {
+        d += s.layers[k].thickness_m;
+    }
+    return d;
+}
+
+// The thickness a layer added below depth `d0` of `shape` can reach before the dose point
+// `point` would lie in it, m (bisection to a micrometre).
+double room_left_m(const habitats::Shape& shape, double d0, habitats::Point3 point) {
+    auto free_at = [&](double t) {
+        const auto inner = habitats::inset(shape, d0 + t);
+        return inner && habitats::contains(*inner, point);
+    };
+    if (!free_at(0.0)) {
+        return 0.0;
+    }
+    double lo = 0.0;
+    double hi = 1.0;
+    while (free_at(hi) && hi < 1e4) {
+        lo = hi;
+        hi *= 2.0;
+    }
+    while (hi - lo > 1e-6) {
+        const double mid = 0.5 * (lo + hi);
+        (free_at(mid) ? lo : hi) = mid;
+    }
+    return lo;
+}
+
+constexpr double kShortfall = 0.995; // the answer's dose is within 0.5 % below the target
+
+} // namespace
+
+namespace {
+
+std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRequest& r,
+                                             const std::string& material_id,
+                                             double areal_density_g_cm2,
+                                             exposure::TableLibrary& tables) {
+    const Scenario& sc = study.scenario();
+    const exposure::Material& material = material_of(study, material_id, "--material");
+    const LocationSpec& loc = location_of(study, r.location_id);
+    const EventSpec& ev = event_of(study, r.event_id);
+    LocationGeometry where = study.geometry(loc.id);
+    habitats::Scene scene;
+    if (r.solid_id) {
+        const double t_m = areal_density_g_cm2 / material.density_g_cm3() * 1e-2;
+        scene = habitats::Scene(thickened(study, loc, *r.solid_id, r.layer_index, material, t_m));
+        where.scene = &scene;
+    } else if (areal_density_g_cm2 > 0.0) {
+        where.shell.push_back({material.id(), areal_density_g_cm2});
+    }
+    const MaterialResolver materials = [&](const std::string& id) -> const exposure::Material& {
+        return material_of(study, id, "--material");
+    };
+    std::map<std::string, double> out;
+    for (const auto& o : quick_model_responses(tables, materials, where, study.directions(loc.id))) {
+        const auto fluences =
+            exposure::node_fluences(ev.spectrum, o.response.node_energies_MeV_per_n);
+        out[o.organ] = 1e3 * sc.limits.uncertainty_factor *
+                       exposure::fold(o.response, fluences).for_limits().rbe_weighted_GyEq;
+    }
+    return out;
+}
+
+} // namespace
+
+std::map<std::string, double> sheltered_event_dose(const Study& study, const ShelterRequest& r,
+                                                   const std::string& material_id,
+                                                   double areal_density_g_cm2) {
+    exposure::TableLibrary tables;
+    return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables);
+}
+
+void parse_shelter_target(const std::string& text, std::map<std::string, double>& targets) {
+    const auto eq = text.find('=');
+    const std::string allowed =
+        "write ORGAN=VALUE in mGy-Eq, for example bfo=250 or bfo=250mGyEq; organs: bfo, lens, "
+        "skin";
+    if (eq == std::string::npos || eq == 0) {
+        throw InputError(kCommandLine, "--target", fmt::format("'{}': {}", text, allowed));
+    }
+    const std::string organ = text.substr(0, eq);
+    std::string value = text.substr(eq + 1);
+    for (const std::string unit : {"mGyEq", "mGy-Eq"}) {
+        if (value.size() > unit.size() && value.ends_with(unit)) {
+            value.resize(value.size() - unit.size());
+        }
+    }
+    std::size_t used = 0;
+    double v = 0.0;
+    try {
+        v = std::stod(value, &used);
+    } catch (const std::exception&) {
+        used = 0;
+    }
+    if (used == 0 || used != value.size() || !std::isfinite(v)) {
+        throw InputError(kCommandLine, "--target", fmt::format("'{}': {}", text, allowed));
+    }
+    targets[organ] = v;
+}
+
+void parse_shelter_layer(const Study& study, const std::string& text, ShelterRequest& request) {
+    const auto colon = text.find(':');
+    if (colon == std::string::npos || colon == 0 || colon + 1 == text.size()) {
+        throw InputError(kCommandLine, "--layer",
+                         fmt::format("'{}': write SOLID:LAYER, LAYER being the layer's number "
+                                     "(1 = outermost) or its material",
+                                     text));
+    }
+    const std::string solid_id = text.substr(0, colon);
+    const std::string layer = text.substr(colon + 1);
+    const habitats::Solid* solid = nullptr;
+    for (const auto& s : study.scenario().solids) {
+        if (s.id == solid_id) {
+            solid = &s;
+        }
+    }
+    if (!solid) {
+        throw InputError(kCommandLine, "--layer", fmt::format("unknown solid '{}'", solid_id));
+    }
+    if (solid->layers.empty()) {
+        throw InputError(kCommandLine, "--layer",
+                         fmt::format("solid '{}' has no layers (it is one material); name a "
+                                     "layered solid or leave --layer out for a uniform shell",
+                                     solid_id));
+    }
+    std::size_t index = 0;
+    bool found = false;
+    if (std::all_of(layer.begin(), layer.end(), [](char c) { return c >= '0' && c <= '9'; })) {
+        const unsigned long n = std::stoul(layer);
+        if (n >= 1 && n <= solid->layers.size()) {
+            index = n - 1;
+            found = true;
+        }
+    } else {
+        int matches = 0;
+        for (std::size_t k = 0; k < solid->layers.size(); ++k) {
+            if (solid->layers[k].material_id == layer) {
+                index = k;
+                ++matches;
+            }
+        }
+        found = matches == 1;
+    }
+    if (!found) {
+        std::string list;
+        for (std::size_t k = 0; k < solid->layers.size(); ++k) {
+            list += fmt::format("{}{} = {}", k ? ", " : "", k + 1, solid->layers[k].material_id);
+        }
+        throw InputError(kCommandLine, "--layer",
+                         fmt::format("solid '{}' has no single layer '{}'; its layers, outermost "
+                                     "first: {}",
+                                     solid_id, layer, list));
+    }
+    request.solid_id = solid_id;
+    request.layer_index = index;
+}
+
+ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
+    const Scenario& sc = study.scenario();
+    ShelterReport rep;
+    rep.request = request;
+    const EventSpec& ev = event_of(study, request.event_id);
+    const LocationSpec& loc = location_of(study, request.location_id);
+    if (loc.shielding_table_file && request.solid_id) {
+        throw InputError(kCommandLine, "--layer",
+                         "location '" + loc.id +
+                             "' uses an imported shielding table; size a uniform shell (leave "
+                             "--layer out)");
+    }
+    const habitats::Solid* solid = request.solid_id ? &solid_of(study, loc, request) : nullptr;
+    if (!(request.max_g_cm2 > 0.0 && request.max_g_cm2 <= 2000.0)) {
+        throw InputError(kCommandLine, "--max-g-cm2", "must be a number > 0 and <= 2000");
+    }
+    // Targets: the 30-day planning limits, overridden per organ.
+    for (const auto& l : sc.limits.limits) {
+        if (l.window == "30-day" && l.organ != "effective") {
+            rep.target_mGyEq[l.organ] = l.value;
+        }
+    }
+    for (const auto& [organ, value] : request.targets) {
+        if (organ != "bfo" && organ != "lens" && organ != "skin") {
+            throw InputError(kCommandLine, "--target",
+                             fmt::format("unknown organ '{}'; allowed: bfo, lens, skin", organ));
+        }
+        if (!(value > 0.0)) {
+            throw InputError(kCommandLine, "--target",
+                             fmt::format("{}: the target must be a dose > 0 mGy-Eq", organ));
+        }
+        rep.target_mGyEq[organ] = value;
+    }
+    // The other dose sharing the 30-day window: every piece of the ledger but this event's.
+    LedgerOptions options;
+    options.allow_gaps = true; // the check reports gaps; sizing charges them as the check would
+    const LedgerResult ledger = build_ledger(study, options);
+    for (const auto& [organ, target] : rep.target_mGyEq) {
+        double worst = 0.0;
+        for (const auto& [key, pieces] : ledger.pieces) {
+            if (key.second != organ) {
+                continue;
+            }
+            std::vector<DosePiece> others;
+            for (const auto& p : pieces) {
+                if (p.event != &ev) {
+                    others.push_back(p);
+                }
+            }
+            const double d =
+                window_maximum(others, boost::posix_time::hours(24 * 30), options.profile_step)
+                    .dose_mGyEq;
+            if (d > worst) {
+                worst = d;
+                if (organ == "bfo") {
+                    rep.other_30d_crew = key.first;
+                }
+            }
+        }
+        rep.other_30d_mGyEq[organ] = worst;
+    }
+    const double room_m =
+        solid ? room_left_m(solid->shape, depth_below_layer(*solid, request.layer_index),
+                            loc.point_m)
+              : 0.0;
+    exposure::TableLibrary tables; // shared by every evaluation
+    for (const auto& material_id : request.materials) {
+        const exposure::Material& material = material_of(study, material_id, "--material");
+        ShelterAnswer a;
+        a.material = material.id();
+        a.density_g_cm3 = material.density_g_cm3();
+        // A named layer grows inwards: keep 1 mm of room around the dose point.
+        double max_x = request.max_g_cm2;
+        if (solid) {
+            const double room_g_cm2 = std::max(0.0, room_m - 1e-3) * 100.0 * a.density_g_cm3;
+            if (room_g_cm2 < max_x) {
+                max_x = room_g_cm2;
+                a.limited_by_room = true;
+            }
+        }
+        a.searched_to_g_cm2 = max_x;
+        // The worst ratio (event + other) / target over the organs, and its organ.
+        auto evaluate = [&](double x, std::string* organ, ShelterPoint* point) {
+            ++a.evaluations;
+            const auto doses = sheltered_dose(study, request, material_id, x, tables);
+            double worst = 0.0;
+            for (const auto& [o, target] : rep.target_mGyEq) {
+                const double ratio = (doses.at(o) + rep.other_30d_mGyEq.at(o)) / target;
+                if (ratio > worst) {
+                    worst = ratio;
+                    if (organ) {
+                        *organ = o;
+                    }
+                }
+            }
+            if (point) {
+                *point = {x, doses};
+            }
+            return worst;
+        };
+        std::string organ;
+        double lo = 0.0;
+        double f_lo = evaluate(lo, &organ, nullptr);
+        if (f_lo <= 1.0) {
+            a.achievable = true;
+            a.none_needed = true;
+            a.binding_organ = organ;
+        } else {
+            double hi = max_x;
+            double f_hi = max_x > 0.0 ? evaluate(hi, &organ, nullptr) : f_lo;
+            if (f_hi <= 1.0) {
+                a.achievable = true;
+                // Illinois regula falsi on ln(ratio), nearly linear in areal density (the dose
+                // falls about exponentially), kept bracketed: f(lo) > 1 >= f(hi).
+                double g_lo = std::log(f_lo);
+                double g_hi = std::log(f_hi);
+                int side = 0;
+                for (int it = 0; it < 60 && !(f_hi >= kShortfall); ++it) {
+                    double x = hi - g_hi * (hi - lo) / (g_hi - g_lo);
+                    if (!(x > lo && x < hi) || hi - lo < 1e-9 * max_x) {
+                        x = 0.5 * (lo + hi);
+                    }
+                    std::string o;
+                    const double f = evaluate(x, &o, nullptr);
+                    const double g = std::log(f);
+                    if (f <= 1.0) {
+                        hi = x;
+                        f_hi = f;
+                        g_hi = g;
+                        organ = o;
+                        if (side == 1) {
+                            g_lo *= 0.5;
+                        }
+                        side = 1;
+                    } else {
+                        lo = x;
+                        f_lo = f;
+                        g_lo = g;
+                        if (side == -1) {
+                            g_hi *= 0.5;
+                        }
+                        side = -1;
+                    }
+                }
+                a.areal_density_g_cm2 = hi;
+                a.binding_organ = organ;
+            } else {
+                a.binding_organ = organ;
+            }
+        }
+        if (a.achievable) {
+            a.thickness_cm = a.areal_density_g_cm2 / a.density_g_cm3;
+            a.mass_per_area_kg_m2 = 10.0 * a.areal_density_g_cm2;
+            if (solid) {
+                const double d0 = depth_below_layer(*solid, request.layer_index);
+                const auto outer = habitats::inset(solid->shape, d0);
+                const auto inner = habitats::inset(solid->shape, d0 + a.thickness_cm * 1e-2);
+                const auto v_outer = outer ? habitats::volume_m3(*outer) : std::nullopt;
+                const double v_inner =
+                    inner ? habitats::volume_m3(*inner).value_or(0.0) : 0.0;
+                if (v_outer) {
+                    a.added_mass_kg = (*v_outer - v_inner) * a.density_g_cm3 * 1e3;
+                }
+            }
+        }
+        // The curve around the answer (or up to the maximum when none is found).
+        const double centre =
+            a.achievable && !a.none_needed ? a.areal_density_g_cm2 : max_x / 2.0;
+        for (const double f : {0.0, 0.5, 0.75, 1.0, 1.25, 1.5, 2.0}) {
+            const double x = std::min(f * centre, max_x);
+            if (!a.curve.empty() && x <= a.curve.back().areal_density_g_cm2) {
+                continue;
+            }
+            ShelterPoint p;
+            (void)evaluate(x, nullptr, &p);
+            a.curve.push_back(p);
+        }
+        rep.answers.push_back(std::move(a));
+    }
+    return rep;
+}
+
+std::string format_shelter_report(const Study& study, const ShelterReport& rep,
+                                  OutputFormat format) {
+    const Scenario& sc = study.scenario();
+    const auto& r = rep.request;
+    const std::string where =
+        r.solid_id ? fmt::format("a layer added inside layer {} of solid '{}'", r.layer_index + 1,
+                                 *r.solid_id)
+                   : std::string("a uniform shell around the dose point, every direction");
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["cautions"] = caution_text();
+        j["event"] = r.event_id;
+        j["location"] = r.location_id;
+        j["added_as"] = where;
+        j["body_model"] = "quick (screening; the stylised phantom is not available yet)";
+        j["uncertainty_factor"] = sc.limits.uncertainty_factor;
+        j["max_g_cm2"] = r.max_g_cm2;
+        j["targets_mGyEq"] = rep.target_mGyEq;
+        j["other_30d_mGyEq"] = rep.other_30d_mGyEq;
+        j["answers"] = nlohmann::json::array();
+        for (const auto& a : rep.answers) {
+            nlohmann::json aj{{"material", a.material},
+                              {"density_g_cm3", a.density_g_cm3},
+                              {"achievable", a.achievable},
+                              {"none_needed", a.none_needed},
+                              {"binding_organ", a.binding_organ},
+                              {"searched_to_g_cm2", a.searched_to_g_cm2},
+                              {"limited_by_room", a.limited_by_room},
+                              {"evaluations", a.evaluations}};
+            if (a.achievable) {
+                aj["areal_density_g_cm2"] = a.areal_density_g_cm2;
+                aj["thickness_cm"] = a.thickness_cm;
+                aj["mass_per_area_kg_m2"] = a.mass_per_area_kg_m2;
+                if (a.added_mass_kg) {
+                    aj["added_mass_kg"] = *a.added_mass_kg;
+                }
+            }
+            for (const auto& p : a.curve) {
+                aj["curve"].push_back(
+                    {{"areal_density_g_cm2", p.areal_density_g_cm2}, {"event_mGyEq", p.event_mGyEq}});
+            }
+            j["answers"].push_back(aj);
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "material,areal_density_g_cm2,organ,event_mGyEq,other_30d_mGyEq,"
+                          "target_mGyEq\n";
+        for (const auto& a : rep.answers) {
+            for (const auto& p : a.curve) {
+                for (const auto& [organ, d] : p.event_mGyEq) {
+                    if (!rep.target_mGyEq.count(organ)) {
+                        continue;
+                    }
+                    out += fmt::format("{},{:.10g},{},{:.10g},{:.10g},{:.10g}\n", a.material,
+                                       p.areal_density_g_cm2, organ, d,
+                                       rep.other_30d_mGyEq.at(organ), rep.target_mGyEq.at(organ));
+                }
+            }
+        }
+        return out;
+    }
+    std::string out = fmt::format("crewdose shelter: event {} at location {} ({})\nscenario: {}\n\n",
+                                  r.event_id, r.location_id, where, sc.file);
+    out += caution_text() + "\n";
+    out += fmt::format(
+        "Sizing rule: the crew receive the whole event in the shelter; its dose (quick body model, "
+        "a screening model: the phantom is not available yet; the higher of with and without "
+        "nuclear removal; uncertainty factor {:.2f}) plus the highest 30-day dose any crew member "
+        "has from everything else must stay within each target. Searched from 0 to {} g/cm2; "
+        "the answer's dose is at or below its target and within 0.5 % of it.\n\n",
+        sc.limits.uncertainty_factor, significant(r.max_g_cm2, 3));
+    out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
+    for (const auto& [organ, target] : rep.target_mGyEq) {
+        out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ == "bfo" ? "BFO" : organ,
+                           significant(target, 3), significant(rep.other_30d_mGyEq.at(organ), 3));
+    }
+    out += "\n";
+    for (const auto& a : rep.answers) {
+        out += fmt::format("{} ({} g/cm3):\n", a.material, significant(a.density_g_cm3, 3));
+        if (a.none_needed) {
+            out += fmt::format("  no added material needed: every target is met as built "
+                               "(closest: {})\n",
+                               a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+        } else if (!a.achievable) {
+            out += fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its target\n",
+                               significant(a.searched_to_g_cm2, 3),
+                               a.limited_by_room ? " (as much as the room holds: the layer then "
+                                                   "reaches the dose point)"
+                                                 : "",
+                               a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+        } else {
+            out += fmt::format("  minimum {} g/cm2 = {} cm, {} kg/m2", significant(a.areal_density_g_cm2, 3),
+                               significant(a.thickness_cm, 3), significant(a.mass_per_area_kg_m2, 3));
+            if (a.added_mass_kg) {
+                out += fmt::format(", added mass {} kg", significant(*a.added_mass_kg, 3));
+            }
+            out += fmt::format("; set by {}\n", a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+        }
+        out += fmt::format("  {:>12}", "g/cm2");
+        for (const auto& [organ, target] : rep.target_mGyEq) {
+            out += fmt::format(" {:>14}", (organ == "bfo" ? std::string("BFO") : organ) + " event");
+        }
+        out += "   (mGy-Eq)\n";
+        for (const auto& p : a.curve) {
+            out += fmt::format("  {:>12}", significant(p.areal_density_g_cm2, 3));
+            for (const auto& [organ, target] : rep.target_mGyEq) {
+                out += fmt::format(" {:>14}", significant(p.event_mGyEq.at(organ), 3));
+            }
+            out += "\n";
+        }
+        out += "\n";
+    }
+    return out;
+}
+
+} // namespace crewdose::planner
