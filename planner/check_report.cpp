@@ -62,38 +62,6 @@ nlohmann::json dose_json(const exposure::DoseQuantities& d) {
             {"mGyEq", 1e3 * d.rbe_weighted_GyEq}};
 }
 
-// Wraps `text` at `width` columns, keeping its leading spaces on the first line and starting
-// continuation lines with `indent`.
-std::string wrap(const std::string& text, std::size_t width, const std::string& indent = "") {
-    const std::size_t lead = text.find_first_not_of(' ');
-    if (lead == std::string::npos) {
-        return text + "\n";
-    }
-    std::string out;
-    std::string line = text.substr(0, lead);
-    bool line_has_word = false;
-    std::size_t start = lead;
-    while (start < text.size()) {
-        auto space = text.find(' ', start);
-        if (space == std::string::npos) {
-            space = text.size();
-        }
-        const std::string word = text.substr(start, space - start);
-        start = space + 1;
-        if (word.empty()) {
-            continue;
-        }
-        if (line_has_word && line.size() + 1 + word.size() > width) {
-            out += line + "\n";
-            line = indent;
-            line_has_word = false;
-        }
-        line += (line_has_word ? " " : "") + word;
-        line_has_word = true;
-    }
-    return out + line + "\n";
-}
-
 nlohmann::json window_json(const WindowMax& w) {
     return {{"dose_mGyEq", w.dose_mGyEq},
             {"window_start", w.dose_mGyEq > 0 ? format_time(w.window_start) : ""},

@@ -21,4 +21,34 @@ std::string significant(double value, int digits) {
     return fmt::format("{:.{}f}", rounded, decimals);
 }
 
+std::string wrap(const std::string& text, std::size_t width, const std::string& indent) {
+    const std::size_t lead = text.find_first_not_of(' ');
+    if (lead == std::string::npos) {
+        return text + "\n";
+    }
+    std::string out;
+    std::string line = text.substr(0, lead);
+    bool line_has_word = false;
+    std::size_t start = lead;
+    while (start < text.size()) {
+        auto space = text.find(' ', start);
+        if (space == std::string::npos) {
+            space = text.size();
+        }
+        const std::string word = text.substr(start, space - start);
+        start = space + 1;
+        if (word.empty()) {
+            continue;
+        }
+        if (line_has_word && line.size() + 1 + word.size() > width) {
+            out += line + "\n";
+            line = indent;
+            line_has_word = false;
+        }
+        line += (line_has_word ? " " : "") + word;
+        line_has_word = true;
+    }
+    return out + line + "\n";
+}
+
 } // namespace crewdose::planner

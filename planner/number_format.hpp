@@ -7,4 +7,9 @@ namespace crewdose::planner {
 /// 999999 (trailing zeros kept, so every figure shown is significant), scientific outside.
 [[nodiscard]] std::string significant(double value, int digits);
 
+/// `text` wrapped at `width` columns, its leading spaces kept on the first line, continuation
+/// lines starting with `indent`; ends with a newline.
+[[nodiscard]] std::string wrap(const std::string& text, std::size_t width,
+                               const std::string& indent = "");
+
 } // namespace crewdose::planner

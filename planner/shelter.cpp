@@ -70,9 +70,9 @@ std::vector<habitats::Solid> thickened(const Study& study, const LocationSpec& l
         }
         habitats::Solid copy = s;
         if (s.id == solid_id && thickness_m > 0.0) {
-            copy.layers.insert(copy.layers.begin() + static_cast<std::ptrdiff_t>(layer_index) + 1,
-                               habitats::SolidLayer{material.id(), thickness_m,
-                                                    material.density_g_cm3()});
+            copy.layers.insert(
+                copy.layers.begin() + static_cast<std::ptrdiff_t>(layer_index) + 1,
+                habitats::SolidLayer{material.id(), thickness_m, material.density_g_cm3()});
         }
         around.push_back(std::move(copy));
     }
@@ -160,7 +160,8 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
         return material_of(study, id, "--material");
     };
     std::map<std::string, double> out;
-    for (const auto& o : quick_model_responses(tables, materials, where, study.directions(loc.id))) {
+    for (const auto& o :
+         quick_model_responses(tables, materials, where, study.directions(loc.id))) {
         const auto fluences =
             exposure::node_fluences(ev.spectrum, o.response.node_energies_MeV_per_n);
         out[o.organ] = 1e3 * sc.limits.uncertainty_factor *
@@ -325,9 +326,9 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         rep.other_30d_mGyEq[organ] = worst;
     }
     const double room_m =
-        solid ? room_left_m(solid->shape, depth_below_layer(*solid, request.layer_index),
-                            loc.point_m)
-              : 0.0;
+        solid
+            ? room_left_m(solid->shape, depth_below_layer(*solid, request.layer_index), loc.point_m)
+            : 0.0;
     exposure::TableLibrary tables; // shared by every evaluation
     for (const auto& material_id : request.materials) {
         const exposure::Material& material = material_of(study, material_id, "--material");
@@ -345,12 +346,18 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
         a.searched_to_g_cm2 = max_x;
         // The worst ratio (event + other) / target over the organs, and its organ.
-        auto evaluate = [&](double x, std::string* organ, ShelterPoint* point) {
-            ++a.evaluations;
-            const auto doses = sheltered_dose(study, request, material_id, x, tables);
+        // Dose evaluations, kept by areal density (the curve reuses them): the worst ratio
+        // (event + other) / target over the organs, and its organ.
+        std::map<double, std::map<std::string, double>> seen;
+        auto evaluate = [&](double x, std::string* organ) {
+            auto it = seen.find(x);
+            if (it == seen.end()) {
+                ++a.evaluations;
+                it = seen.emplace(x, sheltered_dose(study, request, material_id, x, tables)).first;
+            }
             double worst = 0.0;
             for (const auto& [o, target] : rep.target_mGyEq) {
-                const double ratio = (doses.at(o) + rep.other_30d_mGyEq.at(o)) / target;
+                const double ratio = (it->second.at(o) + rep.other_30d_mGyEq.at(o)) / target;
                 if (ratio > worst) {
                     worst = ratio;
                     if (organ) {
@@ -358,25 +365,29 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
                     }
                 }
             }
-            if (point) {
-                *point = {x, doses};
-            }
             return worst;
         };
         std::string organ;
         double lo = 0.0;
-        double f_lo = evaluate(lo, &organ, nullptr);
+        double f_lo = evaluate(lo, &organ);
         if (f_lo <= 1.0) {
             a.achievable = true;
             a.none_needed = true;
             a.binding_organ = organ;
-        } else {
-            double hi = max_x;
-            double f_hi = max_x > 0.0 ? evaluate(hi, &organ, nullptr) : f_lo;
+        } else if (max_x > 0.0) {
+            // Bracket: from 10 g/cm2 (or the maximum, if smaller) doubling up to the maximum.
+            double hi = std::min(10.0, max_x);
+            double f_hi = evaluate(hi, &organ);
+            while (f_hi > 1.0 && hi < max_x) {
+                lo = hi;
+                f_lo = f_hi;
+                hi = std::min(2.0 * hi, max_x);
+                f_hi = evaluate(hi, &organ);
+            }
             if (f_hi <= 1.0) {
                 a.achievable = true;
-                // Illinois regula falsi on ln(ratio), nearly linear in areal density (the dose
-                // falls about exponentially), kept bracketed: f(lo) > 1 >= f(hi).
+                // Illinois regula falsi on ln(ratio), nearly linear in areal density inside
+                // the bracket (the dose falls about exponentially): f(lo) > 1 >= f(hi).
                 double g_lo = std::log(f_lo);
                 double g_hi = std::log(f_hi);
                 int side = 0;
@@ -386,7 +397,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
                         x = 0.5 * (lo + hi);
                     }
                     std::string o;
-                    const double f = evaluate(x, &o, nullptr);
+                    const double f = evaluate(x, &o);
                     const double g = std::log(f);
                     if (f <= 1.0) {
                         hi = x;
@@ -408,10 +419,8 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
                     }
                 }
                 a.areal_density_g_cm2 = hi;
-                a.binding_organ = organ;
-            } else {
-                a.binding_organ = organ;
             }
+            a.binding_organ = organ;
         }
         if (a.achievable) {
             a.thickness_cm = a.areal_density_g_cm2 / a.density_g_cm3;
@@ -421,24 +430,21 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
                 const auto outer = habitats::inset(solid->shape, d0);
                 const auto inner = habitats::inset(solid->shape, d0 + a.thickness_cm * 1e-2);
                 const auto v_outer = outer ? habitats::volume_m3(*outer) : std::nullopt;
-                const double v_inner =
-                    inner ? habitats::volume_m3(*inner).value_or(0.0) : 0.0;
+                const double v_inner = inner ? habitats::volume_m3(*inner).value_or(0.0) : 0.0;
                 if (v_outer) {
                     a.added_mass_kg = (*v_outer - v_inner) * a.density_g_cm3 * 1e3;
                 }
             }
         }
         // The curve around the answer (or up to the maximum when none is found).
-        const double centre =
-            a.achievable && !a.none_needed ? a.areal_density_g_cm2 : max_x / 2.0;
-        for (const double f : {0.0, 0.5, 0.75, 1.0, 1.25, 1.5, 2.0}) {
+        const double centre = a.achievable && !a.none_needed ? a.areal_density_g_cm2 : max_x / 2.0;
+        for (const double f : {0.0, 0.5, 1.0, 1.5, 2.0}) {
             const double x = std::min(f * centre, max_x);
             if (!a.curve.empty() && x <= a.curve.back().areal_density_g_cm2) {
                 continue;
             }
-            ShelterPoint p;
-            (void)evaluate(x, nullptr, &p);
-            a.curve.push_back(p);
+            (void)evaluate(x, nullptr);
+            a.curve.push_back({x, seen.at(x)});
         }
         rep.answers.push_back(std::move(a));
     }
@@ -483,8 +489,8 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                 }
             }
             for (const auto& p : a.curve) {
-                aj["curve"].push_back(
-                    {{"areal_density_g_cm2", p.areal_density_g_cm2}, {"event_mGyEq", p.event_mGyEq}});
+                aj["curve"].push_back({{"areal_density_g_cm2", p.areal_density_g_cm2},
+                                       {"event_mGyEq", p.event_mGyEq}});
             }
             j["answers"].push_back(aj);
         }
@@ -507,16 +513,21 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         }
         return out;
     }
-    std::string out = fmt::format("crewdose shelter: event {} at location {} ({})\nscenario: {}\n\n",
-                                  r.event_id, r.location_id, where, sc.file);
+    std::string out = wrap(fmt::format("crewdose shelter: event {} at location {}, {}", r.event_id,
+                                       r.location_id, where),
+                           100, "  ") +
+                      fmt::format("scenario: {}\n\n", sc.file);
     out += caution_text() + "\n";
-    out += fmt::format(
-        "Sizing rule: the crew receive the whole event in the shelter; its dose (quick body model, "
-        "a screening model: the phantom is not available yet; the higher of with and without "
-        "nuclear removal; uncertainty factor {:.2f}) plus the highest 30-day dose any crew member "
-        "has from everything else must stay within each target. Searched from 0 to {} g/cm2; "
-        "the answer's dose is at or below its target and within 0.5 % of it.\n\n",
-        sc.limits.uncertainty_factor, significant(r.max_g_cm2, 3));
+    out += wrap(fmt::format(
+                    "Sizing rule: the crew receive the whole event in the shelter; its dose (quick "
+                    "body model, a screening model: the phantom is not available yet; the higher "
+                    "of with and without nuclear removal; uncertainty factor {:.2f}) plus the "
+                    "highest 30-day dose any crew member has from everything else must stay "
+                    "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
+                    "below its target and within 0.5 % of it.",
+                    sc.limits.uncertainty_factor, significant(r.max_g_cm2, 3)),
+                96) +
+           "\n";
     out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
     for (const auto& [organ, target] : rep.target_mGyEq) {
         out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ == "bfo" ? "BFO" : organ,
@@ -537,8 +548,9 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                                                  : "",
                                a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
         } else {
-            out += fmt::format("  minimum {} g/cm2 = {} cm, {} kg/m2", significant(a.areal_density_g_cm2, 3),
-                               significant(a.thickness_cm, 3), significant(a.mass_per_area_kg_m2, 3));
+            out += fmt::format(
+                "  minimum {} g/cm2 = {} cm, {} kg/m2", significant(a.areal_density_g_cm2, 3),
+                significant(a.thickness_cm, 3), significant(a.mass_per_area_kg_m2, 3));
             if (a.added_mass_kg) {
                 out += fmt::format(", added mass {} kg", significant(*a.added_mass_kg, 3));
             }

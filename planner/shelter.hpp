@@ -41,7 +41,7 @@ struct ShelterAnswer {
     double thickness_cm = 0.0;
     std::optional<double> added_mass_kg; ///< for a named solid layer of a bounded shape
     double mass_per_area_kg_m2 = 0.0;
-    std::string binding_organ; ///< the organ whose target sets the answer
+    std::string binding_organ;       ///< the organ whose target sets the answer
     std::vector<ShelterPoint> curve; ///< around the answer, increasing areal density
     int evaluations = 0;             ///< dose evaluations the root find used
     double searched_to_g_cm2 = 0.0;  ///< the largest areal density tried

@@ -362,3 +362,29 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("--location: no location 'attic'") != std::string::npos);
 }
+
+TEST_CASE("shelter: sizes per material, says when a target cannot be met, rejects bad options",
+          "[cli][shelter]") {
+    const std::string base = "shelter " + demo() + " --event design-spe --location storm-shelter";
+    const Run r = run(base + " --material water --material polyethylene --target bfo=40");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    CHECK(r.out.find("planning value") != std::string::npos);
+    CHECK(r.out.find("water (1.00 g/cm3):\n  minimum ") != std::string::npos);
+    CHECK(r.out.find("polyethylene (0.940 g/cm3):\n  minimum ") != std::string::npos);
+    const Run layer = run(base + " --layer shelter-tanks:water --target bfo=40 --format json");
+    CHECK(layer.exit_code == 0);
+    const auto doc = nlohmann::json::parse(layer.out);
+    CHECK(doc["answers"][0]["added_mass_kg"].get<double>() > 0.0);
+    const Run no = run(base + " --target bfo=1 --max-g-cm2 5");
+    CHECK(no.exit_code == 1);
+    CHECK(no.out.find("NOT ACHIEVABLE: 5.00 g/cm2") != std::string::npos);
+    const Run bad = run(base + " --target bfo:40");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("crewdose: command line: --target: 'bfo:40': write ORGAN=VALUE") !=
+          std::string::npos);
+    const Run bad_layer = run(base + " --layer hab-module:9");
+    CHECK(bad_layer.exit_code == 2);
+    CHECK(bad_layer.out.find("--layer: solid 'hab-module' has no single layer '9'") !=
+          std::string::npos);
+}

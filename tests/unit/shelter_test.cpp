@@ -1,0 +1,212 @@
+// Storm-shelter sizing: the answer put back into a plain study, materials compared, targets
+// that cannot be met, the added mass of a real layer, and the errors of the options.
+#include "planner/shelter.hpp"
+
+#include "exposure/material_library.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <cmath>
+#include <fmt/format.h>
+
+using namespace crewdose;
+using namespace crewdose::planner;
+
+namespace {
+
+// A hut: an aluminium spherical shell of 2 m radius around the dose point, in deep space (no
+// ground), 64 directions to keep the test quick. The event is invented.
+std::string plan(const std::string& extra_layer = "") {
+    return fmt::format(R"([mission]
+name = "shelter test"
+site = "deep-space"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+directions = 64
+gcr_directions = 16
+
+[[solid]]
+id = "hut"
+shape = "sphere"
+center_m = [0.0, 0.0, 0.0]
+radius_m = 2.0
+layers = [ {{ material = "aluminium", thickness_m = 0.01 }}{} ]
+
+[[location]]
+id = "inside"
+point_m = [0.0, 0.0, 0.0]
+solids = ["hut"]
+
+[[event]]
+id = "spe"
+flare_seen = 2032-01-05T00:00:00Z
+spectrum = "exp-energy:J0=3e9,E0_MeV=40"
+
+[[crew]]
+id = "a"
+
+[[activity]]
+crew = "a"
+kind = "stay"
+location = "inside"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+
+[limits]
+uncertainty_factor = 1.5
+)",
+                       extra_layer);
+}
+
+ShelterRequest request(std::vector<std::string> materials, double bfo_target) {
+    ShelterRequest r;
+    r.event_id = "spe";
+    r.location_id = "inside";
+    r.materials = std::move(materials);
+    r.targets["bfo"] = bfo_target;
+    return r;
+}
+
+std::string error_of(const std::function<void()>& f) {
+    try {
+        f();
+    } catch (const InputError& e) {
+        return e.what();
+    }
+    return "no error";
+}
+
+} // namespace
+
+TEST_CASE("shelter: the answer put back gives a dose at or below the target, within 0.5 %",
+          "[shelter]") {
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    const ShelterRequest r = request({"water"}, 60.0);
+    const ShelterReport rep = size_shelter(study, r);
+    REQUIRE(rep.answers.size() == 1);
+    const ShelterAnswer& a = rep.answers[0];
+    REQUIRE(a.achievable);
+    REQUIRE_FALSE(a.none_needed);
+    CHECK(a.binding_organ == "bfo");
+    const double other = rep.other_30d_mGyEq.at("bfo");
+    CHECK(other > 0.0); // the GCR of the stay shares the window
+    const double at_answer =
+        sheltered_event_dose(study, r, "water", a.areal_density_g_cm2).at("bfo") + other;
+    CHECK(at_answer <= 60.0);
+    CHECK(at_answer >= 0.995 * 60.0);
+    // A little less material breaks the target: the answer is the minimum.
+    CHECK(sheltered_event_dose(study, r, "water", 0.98 * a.areal_density_g_cm2).at("bfo") + other >
+          60.0);
+    // The uniform shell adds the same areal density in every direction: the report's
+    // thickness is areal density / density, its mass per area 10 x g/cm2.
+    CHECK(a.thickness_cm == Approx(a.areal_density_g_cm2 / 1.0).epsilon(1e-12));
+    CHECK(a.mass_per_area_kg_m2 == Approx(10.0 * a.areal_density_g_cm2).epsilon(1e-12));
+    CHECK_FALSE(a.added_mass_kg.has_value());
+}
+
+TEST_CASE("shelter: a named layer's answer, built into the scenario, meets the target in a plain "
+          "study",
+          "[shelter]") {
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    ShelterRequest r = request({"polyethylene"}, 60.0);
+    parse_shelter_layer(study, "hut:1", r);
+    CHECK(r.layer_index == 0);
+    const ShelterReport rep = size_shelter(study, r);
+    const ShelterAnswer& a = rep.answers.at(0);
+    REQUIRE(a.achievable);
+    // By construction: a polyethylene layer of the answer's thickness inside the aluminium.
+    const double t_m = a.thickness_cm * 1e-2;
+    const Study built(parse_scenario(
+        plan(fmt::format(", {{ material = \"polyethylene\", thickness_m = {:.17g} }}", t_m)),
+        "hut.toml"));
+    const auto& ev = built.scenario().events.at(0);
+    const double plain = 1.5e3 * built.event_dose("inside", "bfo", ev).rbe_weighted_GyEq +
+                         rep.other_30d_mGyEq.at("bfo");
+    CHECK(plain <= 60.0 * (1.0 + 1e-9));
+    CHECK(plain >= 0.995 * 60.0);
+    // Added mass of the spherical layer: (4/3) pi (r1^3 - r2^3) rho, r1 = 1.99 m inside the
+    // aluminium, r2 = r1 - t (by construction).
+    const double r1 = 1.99;
+    const double r2 = r1 - t_m;
+    REQUIRE(a.added_mass_kg.has_value());
+    CHECK(
+        *a.added_mass_kg ==
+        Approx(4.0 / 3.0 * 3.14159265358979 * (r1 * r1 * r1 - r2 * r2 * r2) * 940.0).epsilon(1e-9));
+}
+
+TEST_CASE("shelter: polyethylene needs less areal density than aluminium", "[shelter]") {
+    // Common practice: hydrogen-rich shields stop protons with less mass per area (more
+    // electrons per gram, fewer nuclear losses per gram).
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    const ShelterReport rep =
+        size_shelter(study, request({"polyethylene", "aluminium", "water"}, 60.0));
+    REQUIRE(rep.answers.size() == 3);
+    for (const auto& a : rep.answers) {
+        REQUIRE(a.achievable);
+    }
+    CHECK(rep.answers[0].areal_density_g_cm2 < rep.answers[1].areal_density_g_cm2);
+    CHECK(rep.answers[0].areal_density_g_cm2 < rep.answers[2].areal_density_g_cm2);
+    // The curve is ordered and falls with thickness.
+    const auto& curve = rep.answers[1].curve;
+    REQUIRE(curve.size() >= 5);
+    for (std::size_t i = 1; i < curve.size(); ++i) {
+        CHECK(curve[i].areal_density_g_cm2 > curve[i - 1].areal_density_g_cm2);
+        CHECK(curve[i].event_mGyEq.at("bfo") < curve[i - 1].event_mGyEq.at("bfo"));
+    }
+}
+
+TEST_CASE("shelter: unreachable and already-met targets are said so, not given a number",
+          "[shelter]") {
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    ShelterRequest r = request({"water"}, 1e-6);
+    r.max_g_cm2 = 20.0;
+    const ShelterReport no = size_shelter(study, r);
+    CHECK_FALSE(no.answers[0].achievable);
+    CHECK(no.answers[0].searched_to_g_cm2 == 20.0);
+    CHECK(format_shelter_report(study, no, OutputFormat::text).find("NOT ACHIEVABLE: 20.0 g/cm2") !=
+          std::string::npos);
+    ShelterRequest generous = request({"water"}, 1e6);
+    generous.targets["lens"] = 1e6; // organs not named keep their 30-day planning limits
+    generous.targets["skin"] = 1e6;
+    const ShelterReport yes = size_shelter(study, generous);
+    CHECK(yes.answers[0].achievable);
+    CHECK(yes.answers[0].none_needed);
+    CHECK(yes.answers[0].areal_density_g_cm2 == 0.0);
+}
+
+TEST_CASE("shelter: option errors name the option and what is allowed", "[shelter]") {
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    std::map<std::string, double> t;
+    parse_shelter_target("bfo=250mGyEq", t);
+    CHECK(t.at("bfo") == 250.0);
+    CHECK(error_of([&] {
+              parse_shelter_target("bfo:250", t);
+          }).find("command line: --target: 'bfo:250': write ORGAN=VALUE") != std::string::npos);
+    CHECK(error_of([&] { parse_shelter_target("bfo=lots", t); }).find("--target") !=
+          std::string::npos);
+    CHECK(error_of([&] {
+              (void)size_shelter(study, request({"water"}, -1.0));
+          }).find("--target: bfo: the target must be a dose > 0") != std::string::npos);
+    ShelterRequest bad_organ = request({"water"}, 50.0);
+    bad_organ.targets["liver"] = 10.0;
+    CHECK(error_of([&] {
+              (void)size_shelter(study, bad_organ);
+          }).find("unknown organ 'liver'; allowed: bfo, lens, skin") != std::string::npos);
+    CHECK(error_of([&] {
+              (void)size_shelter(study, request({"unobtainium"}, 50.0));
+          }).find("--material: unknown material 'unobtainium'") != std::string::npos);
+    ShelterRequest bad_event = request({"water"}, 50.0);
+    bad_event.event_id = "nope";
+    CHECK(error_of([&] {
+              (void)size_shelter(study, bad_event);
+          }).find("--event: unknown event 'nope'; the scenario defines: spe") != std::string::npos);
+    ShelterRequest layer = request({"water"}, 50.0);
+    CHECK(error_of([&] { parse_shelter_layer(study, "hut:3", layer); })
+              .find("solid 'hut' has no single layer '3'; its layers, outermost first: 1 = "
+                    "aluminium") != std::string::npos);
+    CHECK(error_of([&] {
+              parse_shelter_layer(study, "shed:1", layer);
+          }).find("unknown solid 'shed'") != std::string::npos);
+    parse_shelter_layer(study, "hut:aluminium", layer);
+    CHECK(layer.layer_index == 0);
+}
