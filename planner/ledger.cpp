@@ -32,12 +32,14 @@ double DosePiece::fraction_by(const Time& t) const {
     if (t >= end) {
         return 1.0;
     }
-    if (event) {
-        const Time arrival = event->arrival();
-        const double f0 = event->profile.fraction_by(hours(start - arrival));
-        const double f1 = event->profile.fraction_by(hours(end - arrival));
-        const double ft = event->profile.fraction_by(hours(t - arrival));
-        return f1 > f0 ? (ft - f0) / (f1 - f0) : 1.0;
+    if (event && timing) {
+        const double a = hours(start - event->flare_seen);
+        const double whole =
+            timing->fraction_between(a, hours(end - event->flare_seen), event->profile);
+        return whole > 0.0
+                   ? timing->fraction_between(a, hours(t - event->flare_seen), event->profile) /
+                         whole
+                   : 1.0;
     }
     return hours(t - start) / hours(end - start);
 }
@@ -85,6 +87,65 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
     return best;
 }
 
+std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew, bool allow_gaps,
+                                        std::vector<Gap>& gaps) {
+    std::vector<TimelineSpan> spans;
+    for (const auto& a : sc.activities) {
+        if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
+            spans.push_back(
+                {a.start, a.end, a.location,
+                 fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line),
+                 &a});
+        }
+    }
+    std::sort(spans.begin(), spans.end(),
+              [](const TimelineSpan& x, const TimelineSpan& y) { return x.start < y.start; });
+    if (spans.empty()) {
+        throw InputError(crew.where, "crew",
+                         fmt::format("crew member '{}' has no activities; "
+                                     "the timeline must cover the mission",
+                                     crew.id));
+    }
+    std::vector<TimelineSpan> filled;
+    Time cursor = sc.mission.start;
+    for (std::size_t i = 0; i <= spans.size(); ++i) {
+        const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
+        if (next > cursor) {
+            if (!allow_gaps) {
+                throw InputError(crew.where, "activity",
+                                 fmt::format("crew member '{}' has no activity from {} to {}; "
+                                             "cover the whole mission or run with "
+                                             "--allow-gaps",
+                                             crew.id, format_time(cursor), format_time(next)));
+            }
+            const std::string at = i > 0 ? spans[i - 1].location : spans[0].location;
+            gaps.push_back({crew.id, cursor, next, at});
+            filled.push_back({cursor, next, at, fmt::format("gap charged at {}", at), nullptr});
+        }
+        if (i < spans.size()) {
+            filled.push_back(spans[i]);
+            cursor = std::max(cursor, spans[i].end);
+        }
+    }
+    return filled;
+}
+
+double highest_30d_without(const LedgerResult& ledger, const std::string& crew,
+                           const std::string& organ, const EventSpec* excluded) {
+    const auto it = ledger.pieces.find({crew, organ});
+    if (it == ledger.pieces.end()) {
+        return 0.0;
+    }
+    std::vector<DosePiece> others;
+    for (const auto& p : it->second) {
+        if (!excluded || p.event == nullptr || p.event->id != excluded->id) {
+            others.push_back(p);
+        }
+    }
+    return window_maximum(others, boost::posix_time::hours(24 * 30), LedgerOptions{}.profile_step)
+        .dose_mGyEq;
+}
+
 Budget remaining_budget(const std::vector<LimitCheck>& checks,
                         const std::vector<OrganResult>& organs, double mission_days) {
     Budget best;
@@ -120,50 +181,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     LedgerResult out;
     const double uf = sc.limits.uncertainty_factor;
     for (const auto& crew : sc.crew) {
-        // The crew member's timeline, sorted, with gaps found (and filled if allowed).
-        struct Span {
-            Time start;
-            Time end;
-            std::string location;
-            std::string label;
-        };
-        std::vector<Span> spans;
-        for (const auto& a : sc.activities) {
-            if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
-                spans.push_back({a.start, a.end, a.location,
-                                 fmt::format("{} at {} (line {})", to_string(a.kind), a.location,
-                                             a.where.line)});
-            }
-        }
-        std::sort(spans.begin(), spans.end(),
-                  [](const Span& x, const Span& y) { return x.start < y.start; });
-        if (spans.empty()) {
-            throw InputError(crew.where, "crew",
-                             fmt::format("crew member '{}' has no activities; "
-                                         "the timeline must cover the mission",
-                                         crew.id));
-        }
-        std::vector<Span> filled;
-        Time cursor = sc.mission.start;
-        for (std::size_t i = 0; i <= spans.size(); ++i) {
-            const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
-            if (next > cursor) {
-                if (!options.allow_gaps) {
-                    throw InputError(crew.where, "activity",
-                                     fmt::format("crew member '{}' has no activity from {} to {}; "
-                                                 "cover the whole mission or run with "
-                                                 "--allow-gaps",
-                                                 crew.id, format_time(cursor), format_time(next)));
-                }
-                const std::string at = i > 0 ? spans[i - 1].location : spans[0].location;
-                out.gaps.push_back({crew.id, cursor, next, at});
-                filled.push_back({cursor, next, at, fmt::format("gap charged at {}", at)});
-            }
-            if (i < spans.size()) {
-                filled.push_back(spans[i]);
-                cursor = std::max(cursor, spans[i].end);
-            }
-        }
+        const std::vector<TimelineSpan> filled =
+            crew_timeline(sc, crew, options.allow_gaps, out.gaps);
 
         CrewResult result;
         result.crew = crew.id;
@@ -173,15 +192,16 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
             std::vector<DosePiece> pieces;
             for (const auto& span : filled) {
                 for (const auto& ev : sc.events) {
-                    const Time arrival = ev.arrival();
-                    const double f = ev.profile.fraction_by(hours(span.end - arrival)) -
-                                     ev.profile.fraction_by(hours(span.start - arrival));
+                    const ArrivalGroups& timing = study.event_timing(span.location, organ, ev);
+                    const double f =
+                        timing.fraction_between(hours(span.start - ev.flare_seen),
+                                                hours(span.end - ev.flare_seen), ev.profile);
                     if (f <= 0.0) {
                         continue;
                     }
                     const auto full = study.event_dose(span.location, organ, ev);
                     pieces.push_back({span.start, span.end, full.scaled(f * uf), &ev,
-                                      "SPE " + ev.id, span.label});
+                                      "SPE " + ev.id, span.label, &timing});
                 }
                 // GCR: the location's daily rate over the span, cut where phi changes.
                 std::vector<Time> cuts{span.start};

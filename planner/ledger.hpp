@@ -14,10 +14,11 @@ namespace crewdose::planner {
 struct DosePiece {
     Time start;
     Time end;
-    exposure::DoseQuantities dose;    ///< Gy, Sv, Gy-Eq, already times the uncertainty factor
-    const EventSpec* event = nullptr; ///< shape of the piece, if from an event
-    std::string source;               ///< "spe:ID", "prior", "recorded: ..."
-    std::string activity;             ///< "eva at rover-site (line 40)", ...
+    exposure::DoseQuantities dose;         ///< Gy, Sv, Gy-Eq, already times the uncertainty factor
+    const EventSpec* event = nullptr;      ///< shape of the piece, if from an event
+    std::string source;                    ///< "spe:ID", "prior", "recorded: ..."
+    std::string activity;                  ///< "eva at rover-site (line 40)", ...
+    const ArrivalGroups* timing = nullptr; ///< with `event`: how its dose arrives
 
     /// Part of the piece's dose delivered by time t (0 before start, all of it after end).
     [[nodiscard]] double fraction_by(const Time& t) const;
@@ -30,6 +31,21 @@ struct Gap {
     Time end;
     std::string charged_at; ///< location id
 };
+
+/// One stretch of a crew member's timeline: an activity, or a gap charged at a location.
+struct TimelineSpan {
+    Time start;
+    Time end;
+    std::string location;
+    std::string label;                      ///< "eva at eva-site (line 212)"
+    const ActivitySpec* activity = nullptr; ///< null for a gap
+};
+
+/// A crew member's timeline over the whole mission, sorted; gaps are InputError unless
+/// `allow_gaps`, when they are filled at the location of the activity before them and
+/// appended to `gaps`.
+[[nodiscard]] std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew,
+                                                      bool allow_gaps, std::vector<Gap>& gaps);
 
 /// The largest dose in a rolling window and where it lies.
 struct WindowMax {
@@ -113,6 +129,12 @@ struct LedgerResult {
     /// Per crew and organ, the pieces (for --series output).
     std::map<std::pair<std::string, std::string>, std::vector<DosePiece>> pieces;
 };
+
+/// The highest 30-day dose (mGy-Eq) of `crew`'s `organ` from every ledger piece except those of
+/// event `excluded`: the other dose that shares a window with a what-if event (conservative:
+/// wherever the window lies).
+[[nodiscard]] double highest_30d_without(const LedgerResult& ledger, const std::string& crew,
+                                         const std::string& organ, const EventSpec* excluded);
 
 /// The budget of one crew member from the checks and each organ's mission GCR dose over
 /// `mission_days`.

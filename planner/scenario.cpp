@@ -1,5 +1,7 @@
 #include "scenario.hpp"
 
+#include "exposure/arrival.hpp"
+
 #include "exposure/material_library.hpp"
 
 #include <cmath>
@@ -28,9 +30,34 @@ double EventProfile::fraction_by(double t) const {
     return std::min(1.0, part / (d - c));
 }
 
+double EventProfile::rate_per_h(double t) const {
+    if (t <= 0.0) {
+        return 0.0;
+    }
+    // d/dt of fraction_by: (e^{-t/d} - e^{-t/c}) / (d - c).
+    const double d = decay_h;
+    const double c = 1.0 / (1.0 / rise_h + 1.0 / decay_h);
+    return (std::exp(-t / d) - std::exp(-t / c)) / (d - c);
+}
+
+double EventSpec::delay_h(double energy_MeV) const {
+    if (fixed_arrival) {
+        return arrival_delay_h;
+    }
+    return exposure::scatter_free_delay_h(energy_MeV, path_length_AU, sun_distance_AU);
+}
+
 Time EventSpec::arrival() const {
-    return flare_seen + boost::posix_time::microseconds(
-                            static_cast<std::int64_t>(std::llround(arrival_delay_h * 3.6e9)));
+    const double h = delay_h(1000.0);
+    return flare_seen +
+           boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(h * 3.6e9)));
+}
+
+double EventSpec::fluence_scale(double exponent) const {
+    if (!spectrum_at_AU) {
+        return 1.0;
+    }
+    return std::pow(sun_distance_AU / *spectrum_at_AU, -exponent);
 }
 
 const exposure::Material* Scenario::material(const std::string& id) const {

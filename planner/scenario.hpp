@@ -44,6 +44,15 @@ struct Mission {
         double phi_MV;
     };
     std::vector<GcrPhase> gcr_phases;
+    /// Heliocentric distance of the site, AU (default 1 at the Moon and in deep space, 1.52 at
+    /// Mars, its mean distance), and the length of the field line the solar particles follow
+    /// (default: the Parker spiral at that distance for a 350 km/s wind, 1.2 AU at 1 AU). Both
+    /// set the scatter-free arrival of events without a fixed arrival_delay_h; both uncertain.
+    double sun_distance_AU = 1.0;
+    double sep_path_length_AU = 0.0;
+    /// Fluence of an event scales as (r / r_spectrum)^-exponent from the distance its spectrum
+    /// is given at to the site (default 2, inverse square: uncertain; observed values spread).
+    double sep_fluence_exponent = 2.0;
     /// Directions for the GCR responses (the GCR dose varies slowly with direction).
     std::size_t gcr_directions = kDefaultGcrDirections;
     /// phi at time t.
@@ -69,17 +78,32 @@ struct EventProfile {
     double decay_h = 12.0;
     /// Fraction of the event's fluence received by `hours` after arrival (0..1).
     [[nodiscard]] double fraction_by(double hours) const;
+    /// The intensity: d fraction_by / dt, per hour.
+    [[nodiscard]] double rate_per_h(double hours) const;
 };
 
 struct EventSpec {
     SourceLocation where;
     std::string id;
     Time flare_seen;
+    /// Fixed arrival: every energy arrives arrival_delay_h after flare_seen. Otherwise
+    /// (dispersed) each energy arrives scatter-free, L / v(E) - r / c after flare_seen.
+    bool fixed_arrival = false;
     double arrival_delay_h = 0.0;
     exposure::ProtonSpectrum spectrum;
     std::string spectrum_text;
     EventProfile profile;
+    /// Heliocentric distance the spectrum is given at, AU (default: the site's).
+    std::optional<double> spectrum_at_AU;
+    /// The mission's field-line length and site distance (copied here by the loader).
+    double path_length_AU = 1.2;
+    double sun_distance_AU = 1.0;
+    /// Hours from flare_seen until protons of energy E arrive (the fixed delay, or scatter-free).
+    [[nodiscard]] double delay_h(double energy_MeV) const;
+    /// The fixed arrival, or for a dispersed event the arrival of 1 GeV protons (the first).
     [[nodiscard]] Time arrival() const;
+    /// Factor on the spectrum's fluence for the site's distance (1 when given at the site).
+    [[nodiscard]] double fluence_scale(double exponent) const;
 };
 
 /// Organ doses as the scenario gives them for prior history and recorded periods, mGy-Eq for
@@ -112,6 +136,27 @@ struct ActivitySpec {
     std::string location;
     Time start;
     Time end;
+    /// EVAs and rover drives: minutes to get back under cover once a storm warning comes
+    /// (default: storm_response.eva_return_min), and where to (default: the shelter; a
+    /// pressurised rover may be nearer).
+    std::optional<double> return_min;
+    std::optional<std::string> refuge;
+};
+
+/// What the crew do when a storm warning comes ([storm_response]): the policy of the storm
+/// what-ifs. Times after the flare is seen at the site (t0).
+struct StormPolicy {
+    SourceLocation where;
+    bool given = false;  ///< the scenario has the section
+    std::string shelter; ///< location id
+    double warning_delay_min = 10.0;
+    double move_to_shelter_min = 15.0; ///< crew inside (not on EVA, not in transit)
+    double eva_return_min = 30.0;      ///< default for EVAs and rover drives
+    double all_clear_h = 24.0;         ///< fixed all-clear after t0 ...
+    /// ... or, when set, the all-clear comes once the omnidirectional-per-steradian flux above
+    /// all_clear_above_MeV has fallen below all_clear_flux_per_cm2_s_sr (after its peak).
+    std::optional<double> all_clear_above_MeV;
+    double all_clear_flux_per_cm2_s_sr = 1.0;
 };
 
 struct RecordedSpec {
@@ -148,6 +193,7 @@ struct Scenario {
     std::map<std::string, SourceLocation> solid_lines;
     std::vector<LocationSpec> locations;
     std::vector<EventSpec> events;
+    StormPolicy storm;
     std::vector<CrewSpec> crew;
     std::vector<ActivitySpec> activities;
     std::vector<RecordedSpec> recorded;

@@ -1,6 +1,8 @@
 // Reading a scenario file (TOML, toml++) into a validated Scenario. Every error names the
 // file, the line and the key, says what is wrong and what is allowed. Unknown keys are errors.
 #include "scenario.hpp"
+
+#include "exposure/arrival.hpp"
 #include "shielding_table_file.hpp"
 #include "spectrum_spec.hpp"
 #include "time_format.hpp"
@@ -295,7 +297,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     }
     const Section top(root, file, "scenario",
                       {"mission", "material", "solid", "location", "event", "crew", "activity",
-                       "recorded", "limits"});
+                       "recorded", "limits", "storm_response"});
     Scenario sc;
     sc.file = file;
 
@@ -304,7 +306,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section m(top.table("mission"), file, "mission",
                         {"name", "site", "start", "end", "directions", "terrain_mask",
                          "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
-                         "gcr_directions"});
+                         "gcr_directions", "sun_distance_AU", "sep_path_length_AU",
+                         "sep_fluence_exponent"});
         sc.mission.where = m.where();
         sc.mission.name = m.text("name");
         const std::string site = m.text("site");
@@ -355,6 +358,34 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (m.has("scale_height_km")) {
             sc.mission.scale_height_km = m.positive("scale_height_km");
+        }
+        if (sc.mission.site == SiteKind::mars) {
+            sc.mission.sun_distance_AU = 1.52;
+        }
+        if (m.has("sun_distance_AU")) {
+            const double r = m.number("sun_distance_AU");
+            if (!(r >= 0.1 && r <= 40.0)) {
+                m.fail("sun_distance_AU", "must be a heliocentric distance from 0.1 to 40 AU");
+            }
+            sc.mission.sun_distance_AU = r;
+        }
+        sc.mission.sep_path_length_AU =
+            exposure::parker_spiral_length_AU(sc.mission.sun_distance_AU);
+        if (m.has("sep_path_length_AU")) {
+            const double l = m.number("sep_path_length_AU");
+            if (!(l >= sc.mission.sun_distance_AU && l <= 100.0)) {
+                m.fail("sep_path_length_AU",
+                       "must be at least the site's distance from the Sun (sun_distance_AU) and "
+                       "at most 100 AU");
+            }
+            sc.mission.sep_path_length_AU = l;
+        }
+        if (m.has("sep_fluence_exponent")) {
+            const double x = m.number("sep_fluence_exponent");
+            if (!(x >= 0.0 && x <= 5.0)) {
+                m.fail("sep_fluence_exponent", "must be a number from 0 to 5");
+            }
+            sc.mission.sep_fluence_exponent = x;
         }
         auto phi_value = [](const Section& s, const std::string& key) {
             const double phi = s.number(key);
@@ -569,7 +600,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     std::set<std::string> event_ids;
     for (const auto* t : entries(root, "event", file)) {
         const Section s(*t, file, "event",
-                        {"id", "flare_seen", "arrival_delay_h", "spectrum", "rise_h", "decay_h"});
+                        {"id", "flare_seen", "arrival_delay_h", "spectrum", "rise_h", "decay_h",
+                         "spectrum_at_AU"});
         const std::string id = s.text("id");
         if (!event_ids.insert(id).second) {
             s.fail("id", "'" + id + "' is defined twice");
@@ -578,12 +610,24 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         EventSpec ev{s.where(),
                      id,
                      s.time("flare_seen"),
+                     false,
                      0.0,
                      parse_spectrum(text_spec, "event.spectrum", s.at(s.need("spectrum"))),
                      text_spec,
-                     EventProfile{}};
+                     EventProfile{},
+                     std::nullopt};
         if (s.has("arrival_delay_h")) {
+            ev.fixed_arrival = true;
             ev.arrival_delay_h = s.non_negative("arrival_delay_h");
+        }
+        ev.path_length_AU = sc.mission.sep_path_length_AU;
+        ev.sun_distance_AU = sc.mission.sun_distance_AU;
+        if (s.has("spectrum_at_AU")) {
+            const double r = s.number("spectrum_at_AU");
+            if (!(r >= 0.1 && r <= 40.0)) {
+                s.fail("spectrum_at_AU", "must be a heliocentric distance from 0.1 to 40 AU");
+            }
+            ev.spectrum_at_AU = r;
         }
         if (s.has("rise_h")) {
             ev.profile.rise_h = s.positive("rise_h");
@@ -637,7 +681,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
 
     // [[activity]]
     for (const auto* t : entries(root, "activity", file)) {
-        const Section s(*t, file, "activity", {"crew", "kind", "location", "start", "end"});
+        const Section s(*t, file, "activity",
+                        {"crew", "kind", "location", "start", "end", "return_min", "refuge"});
         ActivitySpec a;
         a.where = s.where();
         a.crew = s.strings("crew");
@@ -669,6 +714,21 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             s.fail(a.start < sc.mission.start ? "start" : "end",
                    "lies outside the mission (mission.start to mission.end)");
         }
+        const bool outside = a.kind == ActivityKind::eva || a.kind == ActivityKind::rover;
+        for (const std::string key : {"return_min", "refuge"}) {
+            if (s.has(key) && !outside) {
+                s.fail(key, "applies to kind = \"eva\" or \"rover\" only");
+            }
+        }
+        if (s.has("return_min")) {
+            a.return_min = s.non_negative("return_min");
+        }
+        if (s.has("refuge")) {
+            a.refuge = s.text("refuge");
+            if (!location_ids.count(*a.refuge)) {
+                s.fail("refuge", "unknown location '" + *a.refuge + "'");
+            }
+        }
         sc.activities.push_back(std::move(a));
     }
 
@@ -689,6 +749,49 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             r.replaces_model = s.boolean("replaces_model");
         }
         sc.recorded.push_back(std::move(r));
+    }
+
+    // [storm_response]
+    if (top.has("storm_response")) {
+        const Section s(top.table("storm_response"), file, "storm_response",
+                        {"shelter", "warning_delay_min", "move_to_shelter_min", "eva_return_min",
+                         "all_clear_h", "all_clear_above_MeV", "all_clear_flux_per_cm2_s_sr"});
+        StormPolicy& p = sc.storm;
+        p.where = s.where();
+        p.given = true;
+        p.shelter = s.text("shelter");
+        if (!location_ids.count(p.shelter)) {
+            s.fail("shelter", "unknown location '" + p.shelter + "'");
+        }
+        if (s.has("warning_delay_min")) {
+            p.warning_delay_min = s.non_negative("warning_delay_min");
+        }
+        if (s.has("move_to_shelter_min")) {
+            p.move_to_shelter_min = s.non_negative("move_to_shelter_min");
+        }
+        if (s.has("eva_return_min")) {
+            p.eva_return_min = s.non_negative("eva_return_min");
+        }
+        if (s.has("all_clear_h") && s.has("all_clear_above_MeV")) {
+            s.fail("all_clear_h", "give either all_clear_h (a fixed time) or "
+                                  "all_clear_above_MeV with all_clear_flux_per_cm2_s_sr, not both");
+        }
+        if (s.has("all_clear_h")) {
+            p.all_clear_h = s.positive("all_clear_h");
+        }
+        if (s.has("all_clear_above_MeV")) {
+            const double e = s.positive("all_clear_above_MeV");
+            if (!(e >= 1.0 && e <= 1000.0)) {
+                s.fail("all_clear_above_MeV", "must be an energy from 1 to 1000 MeV");
+            }
+            p.all_clear_above_MeV = e;
+        }
+        if (s.has("all_clear_flux_per_cm2_s_sr")) {
+            if (!p.all_clear_above_MeV) {
+                s.fail("all_clear_flux_per_cm2_s_sr", "needs all_clear_above_MeV");
+            }
+            p.all_clear_flux_per_cm2_s_sr = s.positive("all_clear_flux_per_cm2_s_sr");
+        }
     }
 
     // [limits]

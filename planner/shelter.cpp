@@ -303,23 +303,12 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
     const LedgerResult ledger = build_ledger(study, options);
     for (const auto& [organ, target] : rep.target_mGyEq) {
         double worst = 0.0;
-        for (const auto& [key, pieces] : ledger.pieces) {
-            if (key.second != organ) {
-                continue;
-            }
-            std::vector<DosePiece> others;
-            for (const auto& p : pieces) {
-                if (p.event != &ev) {
-                    others.push_back(p);
-                }
-            }
-            const double d =
-                window_maximum(others, boost::posix_time::hours(24 * 30), options.profile_step)
-                    .dose_mGyEq;
+        for (const auto& crew : sc.crew) {
+            const double d = highest_30d_without(ledger, crew.id, organ, &ev);
             if (d > worst) {
                 worst = d;
                 if (organ == "bfo") {
-                    rep.other_30d_crew = key.first;
+                    rep.other_30d_crew = crew.id;
                 }
             }
         }

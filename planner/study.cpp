@@ -94,13 +94,58 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     }
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
+        const double scale = ev.fluence_scale(sc_.mission.sep_fluence_exponent);
         for (const auto& [key, r] : responses_) {
-            const auto fluences =
+            auto fluences =
                 exposure::node_fluences(ev.spectrum, r.response.node_energies_MeV_per_n);
-            event_doses_[{key.first, key.second, ev.id}] =
-                exposure::fold(r.response, fluences).for_limits();
+            for (std::size_t j = 0; j < fluences.per_unit_log_energy_per_cm2.size(); ++j) {
+                fluences.per_unit_log_energy_per_cm2[j] *= scale;
+                fluences.extrapolated_per_cm2[j] *= scale;
+            }
+            const auto folded = exposure::fold(r.response, fluences);
+            event_doses_[{key.first, key.second, ev.id}] = folded.for_limits();
+            // Arrival groups, weighted by the removal case that gives the higher dose.
+            const bool with =
+                folded.with_removal.rbe_weighted_GyEq >= folded.without_removal.rbe_weighted_GyEq;
+            const auto& weights = with ? r.response.with_removal : r.response.without_removal;
+            std::vector<std::pair<double, double>> nodes; // (delay, dose share)
+            double total = 0.0;
+            for (std::size_t j = 0; j < weights.size(); ++j) {
+                const double d =
+                    weights[j].rbe_weighted_GyEq * fluences.per_unit_log_energy_per_cm2[j];
+                if (d > 0.0) {
+                    nodes.emplace_back(ev.delay_h(r.response.node_energies_MeV_per_n[j]), d);
+                    total += d;
+                }
+            }
+            std::sort(nodes.begin(), nodes.end());
+            ArrivalGroups g;
+            for (const auto& [delay, d] : nodes) {
+                const double width_h = std::max(1.0 / 60.0, 0.01 * delay);
+                if (g.delay_h.empty() || delay - g.delay_h.back() > width_h) {
+                    g.delay_h.push_back(delay);
+                    g.share.push_back(0.0);
+                }
+                // The group's delay is that of its first (fastest) node: never later than any
+                // member's own arrival.
+                g.share.back() += d / total;
+            }
+            event_timing_[{key.first, key.second, ev.id}] = std::move(g);
         }
     }
+}
+
+double ArrivalGroups::fraction_between(double a_h, double b_h, const EventProfile& p) const {
+    double f = 0.0;
+    for (std::size_t k = 0; k < delay_h.size(); ++k) {
+        f += share[k] * (p.fraction_by(b_h - delay_h[k]) - p.fraction_by(a_h - delay_h[k]));
+    }
+    return f;
+}
+
+const ArrivalGroups& Study::event_timing(const std::string& location, const std::string& organ,
+                                         const EventSpec& event) const {
+    return event_timing_.at({location, organ, event.id});
 }
 
 const exposure::BracketedDose&

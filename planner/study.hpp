@@ -21,6 +21,17 @@ inline constexpr std::size_t kGcrNodesPerDecade = 16;
 /// The energy grid of the GCR tables (10 keV/n to 100 GeV/n).
 [[nodiscard]] exposure::EnergyGridSpec gcr_grid();
 
+/// An event's dose at one location and organ split by arrival time: the grid nodes grouped by
+/// their arrival delay after flare_seen (groups one minute wide, or 1 % of the delay when that
+/// is wider), each with its share of the dose. A fixed-arrival event has one group. Each
+/// group's share follows the event's time profile from its own arrival.
+struct ArrivalGroups {
+    std::vector<double> delay_h;
+    std::vector<double> share; ///< sums to 1 (all zero when the event gives no dose here)
+    /// Share of the dose received between a_h and b_h hours after flare_seen.
+    [[nodiscard]] double fraction_between(double a_h, double b_h, const EventProfile& p) const;
+};
+
 /// Responses of every location and organ, shared by every crew member and activity.
 class Study {
   public:
@@ -34,6 +45,10 @@ class Study {
     /// once per run, at construction).
     [[nodiscard]] exposure::DoseQuantities
     event_dose(const std::string& location, const std::string& organ, const EventSpec& event) const;
+    /// How that dose arrives in time (energy-dependent arrival), by event id.
+    [[nodiscard]] const ArrivalGroups& event_timing(const std::string& location,
+                                                    const std::string& organ,
+                                                    const EventSpec& event) const;
     [[nodiscard]] const LocationSpec& location(const std::string& id) const;
     /// The geometry of a location and the directions its responses were computed over.
     [[nodiscard]] const LocationGeometry& geometry(const std::string& id) const;
@@ -59,6 +74,7 @@ class Study {
     std::map<std::string, LocationGeometry> geometries_;
     std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>
         event_doses_;
+    std::map<std::tuple<std::string, std::string, std::string>, ArrivalGroups> event_timing_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
     struct GcrRates {
