@@ -138,7 +138,8 @@ struct ActivitySpec {
     Time end;
     /// EVAs and rover drives: minutes to get back under cover once a storm warning comes
     /// (default: storm_response.eva_return_min), and where to (default: the shelter; a
-    /// pressurised rover may be nearer).
+    /// pressurised rover may be nearer). Transits: the vehicle's own shelter, reached in
+    /// storm_response.move_to_shelter_min (without one the plan goes on).
     std::optional<double> return_min;
     std::optional<std::string> refuge;
 };

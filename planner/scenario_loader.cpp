@@ -715,10 +715,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                    "lies outside the mission (mission.start to mission.end)");
         }
         const bool outside = a.kind == ActivityKind::eva || a.kind == ActivityKind::rover;
-        for (const std::string key : {"return_min", "refuge"}) {
-            if (s.has(key) && !outside) {
-                s.fail(key, "applies to kind = \"eva\" or \"rover\" only");
-            }
+        if (s.has("return_min") && !outside) {
+            s.fail("return_min", "applies to kind = \"eva\" or \"rover\" only");
+        }
+        if (s.has("refuge") && !outside && a.kind != ActivityKind::transit) {
+            s.fail("refuge", "applies to kind = \"eva\", \"rover\" or \"transit\" only");
         }
         if (s.has("return_min")) {
             a.return_min = s.non_negative("return_min");

@@ -1,0 +1,729 @@
+#include "storm.hpp"
+
+#include "cautions.hpp"
+#include "number_format.hpp"
+#include "time_format.hpp"
+
+#include <boost/date_time/gregorian/gregorian_types.hpp>
+#include <fmt/format.h>
+#include <toml++/toml.h>
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+#include <set>
+
+namespace crewdose::planner {
+namespace {
+
+using boost::posix_time::time_duration;
+
+time_duration minutes_d(double m) {
+    return boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(m * 6e7)));
+}
+
+const std::vector<std::string> kOrgans{"bfo", "lens", "skin"};
+
+bool outside(const TimelineSpan& s) {
+    return s.activity &&
+           (s.activity->kind == ActivityKind::eva || s.activity->kind == ActivityKind::rover);
+}
+
+bool in_transit(const TimelineSpan& s) {
+    return s.activity && s.activity->kind == ActivityKind::transit;
+}
+
+const TimelineSpan* span_at(const std::vector<TimelineSpan>& spans, Time t) {
+    for (const auto& s : spans) {
+        if (s.start <= t && t < s.end) {
+            return &s;
+        }
+    }
+    return nullptr;
+}
+
+} // namespace
+
+std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
+                                  const StormPolicy& policy, const StormTimes& t) {
+    if (!(t.all_clear > t.warning) || planned.empty()) {
+        return planned;
+    }
+    const TimelineSpan* at_warning = span_at(planned, t.warning);
+    if (!at_warning) {
+        return planned; // the warning comes after the timeline ends
+    }
+    // Where the crew member is once covered, and when.
+    std::string cover = policy.shelter;
+    time_duration delay = minutes_d(policy.move_to_shelter_min);
+    std::string cover_label = "storm response: in the shelter at " + policy.shelter;
+    if (outside(*at_warning)) {
+        const auto& a = *at_warning->activity;
+        cover = a.refuge.value_or(policy.shelter);
+        delay = minutes_d(a.return_min.value_or(policy.eva_return_min));
+        cover_label = "storm response: under cover at " + cover;
+    }
+    // In transit the crew can only use the vehicle's own shelter, if it has one.
+    const bool transit_refuge = in_transit(*at_warning) && at_warning->activity->refuge;
+    if (transit_refuge) {
+        cover = *at_warning->activity->refuge;
+        cover_label = "storm response: in the vehicle's shelter at " + cover;
+    }
+    const bool keeps_plan = in_transit(*at_warning) && !transit_refuge;
+    const Time covered = t.warning + delay;
+    // Boundaries where the location can change.
+    std::set<Time> cuts{t.warning, std::min(covered, t.all_clear), t.all_clear};
+    for (const auto& s : planned) {
+        cuts.insert(s.start);
+        cuts.insert(s.end);
+    }
+    // Outside activities interrupted or cancelled by the warning: their remaining time after
+    // the all-clear is spent where the response left the crew member.
+    auto cancelled = [&](const TimelineSpan& s) {
+        return outside(s) && s.start < t.all_clear && s.end > t.warning;
+    };
+    std::vector<TimelineSpan> out;
+    const Time end = planned.back().end;
+    for (auto it = cuts.begin(); it != cuts.end(); ++it) {
+        const Time a = *it;
+        const auto next = std::next(it);
+        if (next == cuts.end() || a >= end) {
+            break;
+        }
+        const Time b = *next;
+        const TimelineSpan* p = span_at(planned, a);
+        if (!p) {
+            continue;
+        }
+        TimelineSpan piece{a, b, p->location, p->label, p->activity};
+        if (a >= t.warning && a < t.all_clear) {
+            if (keeps_plan && in_transit(*p)) {
+                // In transit without a shelter on board: the plan goes on.
+            } else if (a < covered && !keeps_plan) {
+                piece.location = at_warning->location;
+                piece.label = outside(*at_warning)
+                                  ? "storm response: returning from " + at_warning->label
+                                  : "storm response: moving to the shelter from " +
+                                        at_warning->label;
+                piece.activity = at_warning->activity;
+            } else {
+                piece.location = cover;
+                piece.label = cover_label;
+                piece.activity = nullptr;
+            }
+        } else if (a >= t.all_clear && cancelled(*p)) {
+            piece.location = cover;
+            piece.label = "storm response: " + p->label + " cancelled, stays at " + cover;
+            piece.activity = nullptr;
+        }
+        if (!out.empty() && out.back().location == piece.location &&
+            out.back().label == piece.label && out.back().end == piece.start) {
+            out.back().end = piece.end;
+        } else {
+            out.push_back(piece);
+        }
+    }
+    return out;
+}
+
+Time all_clear_time(const StormPolicy& policy, const EventSpec& ev, Time onset,
+                    double fluence_exponent) {
+    const Time warning = onset + minutes_d(policy.warning_delay_min);
+    if (!policy.all_clear_above_MeV) {
+        return std::max(warning, onset + minutes_d(60.0 * policy.all_clear_h));
+    }
+    // Flux above E (per cm2 s sr of the omnidirectional fluence / 4 pi) at tau hours after
+    // t0: energy bins 64 per decade from E to 10 GeV, each following the profile from its own
+    // arrival.
+    const double e_min = *policy.all_clear_above_MeV;
+    const auto bins = static_cast<std::size_t>(std::ceil(64.0 * std::log10(1e4 / e_min)));
+    std::vector<double> fluence(bins);
+    std::vector<double> delay(bins);
+    const double scale = ev.fluence_scale(fluence_exponent);
+    for (std::size_t k = 0; k < bins; ++k) {
+        const double lo = e_min * std::pow(10.0, static_cast<double>(k) / 64.0);
+        const double hi = e_min * std::pow(10.0, static_cast<double>(k + 1) / 64.0);
+        fluence[k] = scale * (ev.spectrum.integral_fluence_per_cm2(lo) - ev.spectrum.integral_fluence_per_cm2(hi));
+        delay[k] = ev.delay_h(std::sqrt(lo * hi));
+    }
+    constexpr double kFourPi = 4.0 * 3.14159265358979323846;
+    auto flux = [&](double tau_h) {
+        double f = 0.0;
+        for (std::size_t k = 0; k < bins; ++k) {
+            f += fluence[k] * ev.profile.rate_per_h(tau_h - delay[k]);
+        }
+        return f / 3600.0 / kFourPi;
+    };
+    bool above = false;
+    for (int m = 1; m <= 10 * 24 * 60; ++m) {
+        const double tau = m / 60.0;
+        const bool now_above = flux(tau) >= policy.all_clear_flux_per_cm2_s_sr;
+        if (above && !now_above) {
+            return std::max(warning, onset + minutes_d(static_cast<double>(m)));
+        }
+        above = above || now_above;
+    }
+    return above ? onset + boost::posix_time::hours(240) : warning;
+}
+
+double StormCrew::worst_ratio() const {
+    double r = 0.0;
+    for (const auto& o : organs) {
+        r = std::max(r, o.ratio());
+    }
+    return r;
+}
+
+bool StormWhatIf::any_exceeded() const {
+    return std::any_of(crew.begin(), crew.end(), [](const StormCrew& c) { return c.exceeded(); });
+}
+
+bool StormSweep::any_exceeded() const {
+    return std::any_of(worst.begin(), worst.end(),
+                       [](const auto& w) { return w.second.exceeded(); });
+}
+
+StormContext::StormContext(const Study& study, const std::string& event_id, bool respond)
+    : study_(study), respond_(respond) {
+    const Scenario& sc = study.scenario();
+    for (const auto& e : sc.events) {
+        if (e.id == event_id) {
+            event_ = &e;
+        }
+    }
+    if (!event_) {
+        std::string known;
+        for (const auto& e : sc.events) {
+            known += (known.empty() ? "" : ", ") + e.id;
+        }
+        throw InputError({"command line", 0}, "--event",
+                         fmt::format("unknown event '{}'; the scenario defines: {}", event_id,
+                                     known.empty() ? "none" : known));
+    }
+    if (respond && !sc.storm.given) {
+        throw InputError({sc.file, 0}, "storm_response",
+                         "the scenario has no [storm_response] section, which the what-if needs "
+                         "(see scenarios/README.md); run with --no-response to see the event "
+                         "over the planned timeline");
+    }
+    std::vector<Gap> gaps;
+    LedgerOptions options;
+    options.allow_gaps = true;
+    const LedgerResult ledger = build_ledger(study, options);
+    for (const auto& c : sc.crew) {
+        planned_.push_back(crew_timeline(sc, c, true, gaps));
+        std::map<std::string, double> other;
+        for (const auto& organ : kOrgans) {
+            other[organ] = highest_30d_without(ledger, c.id, organ, event_);
+        }
+        other_.push_back(std::move(other));
+    }
+    for (const auto& organ : kOrgans) {
+        limits_30d_[organ] = 0.0;
+    }
+    for (const auto& l : sc.limits.limits) {
+        if (l.window == "30-day" && l.organ != "effective") {
+            limits_30d_[l.organ] = l.value;
+        }
+    }
+    for (const auto& [organ, limit] : limits_30d_) {
+        if (!(limit > 0.0)) {
+            throw std::logic_error("storm: every organ needs a 30-day planning limit");
+        }
+    }
+    const double uf = sc.limits.uncertainty_factor;
+    for (const auto& loc : sc.locations) {
+        auto& c = by_location_[loc.id];
+        for (std::size_t k = 0; k < kOrgans.size(); ++k) {
+            c[k] = {1e3 * uf * study.event_dose(loc.id, kOrgans[k], *event_).rbe_weighted_GyEq,
+                    &study.event_timing(loc.id, kOrgans[k], *event_)};
+        }
+    }
+    // Beyond the last group's arrival plus 40 decay times the profile has delivered all but
+    // e^-40 of the event.
+    double last = 0.0;
+    for (const auto& loc : sc.locations) {
+        for (const auto& organ : kOrgans) {
+            const auto& g = study.event_timing(loc.id, organ, *event_);
+            if (!g.delay_h.empty()) {
+                last = std::max(last, g.delay_h.back());
+            }
+        }
+    }
+    horizon_h_ = last + event_->profile.rise_h + 40.0 * event_->profile.decay_h;
+    // The event's time course relative to t0 does not depend on t0: one all-clear search.
+    if (respond_) {
+        all_clear_after_h_ = hours(all_clear_time(sc.storm, *event_, sc.mission.start,
+                                                  sc.mission.sep_fluence_exponent) -
+                                   sc.mission.start);
+    }
+}
+
+std::array<double, 3> StormContext::doses_over(const std::vector<TimelineSpan>& spans,
+                                               Time onset) const {
+    const Time stop = onset + minutes_d(60.0 * horizon_h_);
+    std::array<double, 3> d{0.0, 0.0, 0.0};
+    for (const auto& s : spans) {
+        if (s.end <= onset || s.start >= stop) {
+            continue;
+        }
+        const double a = hours(std::max(s.start, onset) - onset);
+        const double b = hours(std::min(s.end, stop) - onset);
+        const auto& c = by_location_.at(s.location);
+        for (std::size_t k = 0; k < 3; ++k) {
+            if (c[k].mGyEq > 0.0) {
+                d[k] += c[k].mGyEq * c[k].timing->fraction_between(a, b, event_->profile);
+            }
+        }
+    }
+    return d;
+}
+
+double StormContext::other(std::size_t crew, std::size_t k) const {
+    return other_.at(crew).at(kOrgans.at(k));
+}
+
+double StormContext::limit(std::size_t k) const {
+    return limits_30d_.at(kOrgans.at(k));
+}
+
+StormTimes StormContext::times_at(Time onset) const {
+    StormTimes t;
+    t.onset = onset;
+    t.warning = onset + minutes_d(study_.scenario().storm.warning_delay_min);
+    t.all_clear = respond_ ? onset + minutes_d(60.0 * all_clear_after_h_) : t.warning;
+    return t;
+}
+
+double StormContext::worst_ratio_at(Time onset, std::size_t i,
+                                    std::array<double, 3>* with_mGyEq) const {
+    const StormTimes t = times_at(onset);
+    const auto d = respond_ ? doses_over(respond(planned_[i], study_.scenario().storm, t), onset)
+                            : doses_over(planned_[i], onset);
+    double worst = 0.0;
+    for (std::size_t k = 0; k < 3; ++k) {
+        worst = std::max(worst, (d[k] + other_[i].at(kOrgans[k])) / limits_30d_.at(kOrgans[k]));
+    }
+    if (with_mGyEq) {
+        *with_mGyEq = d;
+    }
+    return worst;
+}
+
+StormWhatIf StormContext::at(Time onset) const {
+    const Scenario& sc = study_.scenario();
+    StormWhatIf w;
+    w.event_id = event_->id;
+    w.respond = respond_;
+    w.times = times_at(onset);
+    for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+        StormCrew c;
+        c.crew = sc.crew[i].id;
+        c.name = sc.crew[i].name;
+        const auto spans = respond_ ? respond(planned_[i], sc.storm, w.times) : planned_[i];
+        const auto without = doses_over(planned_[i], onset);
+        const auto with = doses_over(spans, onset);
+        for (std::size_t k = 0; k < 3; ++k) {
+            const std::string& organ = kOrgans[k];
+            c.organs.push_back(
+                {organ, without[k], with[k], other_[i].at(organ), limits_30d_.at(organ)});
+        }
+        const Time shown_until = std::max(w.times.all_clear, onset) + boost::posix_time::hours(12);
+        for (const auto& s : spans) {
+            if (s.end > onset && s.start < shown_until) {
+                c.responded.push_back(s);
+            }
+        }
+        w.crew.push_back(std::move(c));
+    }
+    return w;
+}
+
+StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duration step,
+                       const std::function<void(double)>& progress) {
+    const Scenario& sc = ctx.study().scenario();
+    const EventSpec& ev = ctx.event();
+    StormSweep out;
+    out.event_id = ev.id;
+    out.step = step;
+    out.from = from;
+    out.to = to;
+    std::set<Time> onsets;
+    for (Time t = from; t <= to; t += step) {
+        onsets.insert(t);
+    }
+    // Onsets where the policy changes: the warning, the first arrival or the all-clear meeting
+    // the start or end of an outside activity; each also one second earlier (the other side).
+    const time_duration warn = minutes_d(sc.storm.warning_delay_min);
+    const time_duration first = minutes_d(60.0 * ev.delay_h(1e4));
+    std::vector<time_duration> leads{time_duration(0, 0, 0), warn, first};
+    if (!sc.storm.all_clear_above_MeV) {
+        leads.push_back(minutes_d(60.0 * sc.storm.all_clear_h));
+    }
+    for (const auto& a : sc.activities) {
+        if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover) {
+            continue;
+        }
+        for (const Time edge : {a.start, a.end}) {
+            for (const auto& lead : leads) {
+                for (const Time o : {edge - lead, edge - lead - boost::posix_time::seconds(1)}) {
+                    if (o >= from && o <= to) {
+                        onsets.insert(o);
+                    }
+                }
+            }
+        }
+    }
+    out.onsets = onsets.size();
+    out.worst.resize(sc.crew.size());
+    std::vector<double> worst_ratio(sc.crew.size(), -1.0);
+    for (const auto& a : sc.activities) {
+        if (a.kind == ActivityKind::eva || a.kind == ActivityKind::rover) {
+            StormSweep::Eva e;
+            e.label = fmt::format("{} at {} (line {})", to_string(a.kind), a.location,
+                                  a.where.line);
+            e.start = a.start;
+            e.end = a.end;
+            e.ratio = -1.0;
+            out.evas.push_back(e);
+        }
+    }
+    const time_duration bin = boost::posix_time::hours(6);
+    std::map<Time, double> profile;
+    std::size_t done = 0;
+    std::vector<Time> worst_onset(sc.crew.size(), from);
+    std::vector<double> ratio(sc.crew.size());
+    std::vector<std::array<double, 3>> doses(sc.crew.size());
+    for (const Time& o : onsets) {
+        for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+            ratio[i] = ctx.worst_ratio_at(o, i, &doses[i]);
+            if (ratio[i] > worst_ratio[i]) {
+                worst_ratio[i] = ratio[i];
+                worst_onset[i] = o;
+            }
+            const Time b = from + bin * static_cast<int>((o - from).total_seconds() /
+                                                         bin.total_seconds());
+            profile[b] = std::max(profile[b], ratio[i]);
+        }
+        std::size_t k = 0;
+        for (const auto& a : sc.activities) {
+            if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover) {
+                continue;
+            }
+            auto& e = out.evas[k++];
+            if (o < a.start || o >= a.end) {
+                continue;
+            }
+            for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+                if (std::find(a.crew.begin(), a.crew.end(), sc.crew[i].id) == a.crew.end()) {
+                    continue;
+                }
+                if (ratio[i] > e.ratio) {
+                    e.ratio = ratio[i];
+                    e.worst_onset = o;
+                    e.crew = sc.crew[i].id;
+                    std::size_t worst_k = 0;
+                    double best = -1.0;
+                    for (std::size_t q = 0; q < 3; ++q) {
+                        const double rq = (doses[i][q] + ctx.other(i, q)) / ctx.limit(q);
+                        if (rq > best) {
+                            best = rq;
+                            worst_k = q;
+                        }
+                    }
+                    e.organ = kOrgans[worst_k];
+                }
+            }
+        }
+        ++done;
+        if (progress && done % 64 == 0) {
+            progress(static_cast<double>(done) / static_cast<double>(onsets.size()));
+        }
+    }
+    out.profile.assign(profile.begin(), profile.end());
+    // The worst onsets in full (with the doses without the response and the timeline).
+    for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+        out.worst[i] = {worst_onset[i], ctx.at(worst_onset[i]).crew[i]};
+    }
+    return out;
+}
+
+namespace {
+
+std::string organ_name(const std::string& o) {
+    return o == "bfo" ? "BFO" : o;
+}
+
+nlohmann::json crew_json(const StormCrew& c) {
+    nlohmann::json j{{"id", c.crew}, {"name", c.name}, {"worst_ratio", c.worst_ratio()}};
+    for (const auto& o : c.organs) {
+        j["organs"][o.organ] = {{"without_response_mGyEq", o.without_response_mGyEq},
+                                {"with_response_mGyEq", o.with_response_mGyEq},
+                                {"saved_mGyEq", o.without_response_mGyEq - o.with_response_mGyEq},
+                                {"other_30d_mGyEq", o.other_30d_mGyEq},
+                                {"limit_30d_mGyEq", o.limit_30d_mGyEq},
+                                {"margin_30d_mGyEq", o.margin()},
+                                {"exceeded", o.ratio() > 1.0}};
+    }
+    for (const auto& s : c.responded) {
+        j["timeline"].push_back({{"start", format_time(s.start)},
+                                 {"end", format_time(s.end)},
+                                 {"location", s.location},
+                                 {"what", s.label}});
+    }
+    return j;
+}
+
+std::string model_note(const StormContext& ctx) {
+    const Scenario& sc = ctx.study().scenario();
+    const EventSpec& ev = ctx.event();
+    std::string arrival =
+        ev.fixed_arrival
+            ? fmt::format("every energy arrives {} h after t0 (fixed arrival_delay_h)",
+                          significant(ev.arrival_delay_h, 3))
+            : fmt::format("scatter-free arrival, the earliest possible: 10, 100 and 1000 MeV "
+                          "protons {}, {} and {} min after t0 (field line {} AU, site {} AU from "
+                          "the Sun)",
+                          significant(60 * ev.delay_h(10), 3), significant(60 * ev.delay_h(100), 3),
+                          significant(60 * ev.delay_h(1000), 3),
+                          significant(ev.path_length_AU, 3), significant(ev.sun_distance_AU, 3));
+    return fmt::format(
+        "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
+        "factor {:.2f}, the higher of with and without nuclear removal, quick body model) plus "
+        "the crew member's highest 30-day dose from everything else, wherever it lies "
+        "(conservative: as if both fell in one window).",
+        arrival, sc.limits.uncertainty_factor);
+}
+
+std::string policy_text(const StormPolicy& p) {
+    return fmt::format(
+        "Response: warning {} min after t0; crew inside reach {} within {} min; crew on EVA or "
+        "driving return in their activity's return_min (default {} min) to its refuge (default "
+        "the shelter); no EVA starts before the all-clear, {}; the rest of the timeline is "
+        "unchanged.",
+        significant(p.warning_delay_min, 3), p.shelter, significant(p.move_to_shelter_min, 3),
+        significant(p.eva_return_min, 3),
+        p.all_clear_above_MeV
+            ? fmt::format("which comes when the flux above {} MeV falls below {} /(cm2 s sr)",
+                          significant(*p.all_clear_above_MeV, 3),
+                          significant(p.all_clear_flux_per_cm2_s_sr, 3))
+            : fmt::format("which comes {} h after t0", significant(p.all_clear_h, 3)));
+}
+
+} // namespace
+
+Time parse_command_time(const std::string& text, const std::string& option) {
+    const std::string allowed =
+        fmt::format("'{}' is not an RFC 3339 date-time with its offset; write for example "
+                    "2032-03-11T10:30:00Z",
+                    text);
+    toml::table t;
+    try {
+        t = toml::parse("t = " + text);
+    } catch (const toml::parse_error&) {
+        throw InputError({"command line", 0}, option, allowed);
+    }
+    const auto* dt = t["t"].as_date_time();
+    if (!dt || !dt->get().offset) {
+        throw InputError({"command line", 0}, option, allowed);
+    }
+    const toml::date_time v = dt->get();
+    const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
+    return Time(day, boost::posix_time::hours(v.time.hour) +
+                         boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
+                         boost::posix_time::seconds(v.time.second));
+}
+
+time_duration parse_duration(const std::string& text, const std::string& option) {
+    static const std::vector<std::pair<std::string, double>> kUnits{
+        {"min", 60.0}, {"s", 1.0}, {"h", 3600.0}, {"d", 86400.0}};
+    for (const auto& [unit, seconds] : kUnits) {
+        if (text.size() > unit.size() && text.ends_with(unit)) {
+            const std::string number = text.substr(0, text.size() - unit.size());
+            std::size_t used = 0;
+            double v = 0.0;
+            try {
+                v = std::stod(number, &used);
+            } catch (const std::exception&) {
+                used = 0;
+            }
+            if (used == number.size() && v > 0.0 && v * seconds >= 1.0 && v * seconds <= 864000) {
+                return boost::posix_time::seconds(static_cast<long>(std::llround(v * seconds)));
+            }
+            break;
+        }
+    }
+    throw InputError({"command line", 0}, option,
+                     fmt::format("'{}': write a duration from 1 s to 10 days with its unit, for "
+                                 "example 10min, 1min, 30s, 2h, 1d",
+                                 text));
+}
+
+std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
+                                OutputFormat format) {
+    const Scenario& sc = ctx.study().scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j{{"cautions", caution_text()},
+                         {"event", w.event_id},
+                         {"onset", format_time(w.times.onset)},
+                         {"warning", format_time(w.times.warning)},
+                         {"all_clear", format_time(w.times.all_clear)},
+                         {"respond", w.respond},
+                         {"model", model_note(ctx)},
+                         {"any_limit_exceeded", w.any_exceeded()}};
+        for (const auto& c : w.crew) {
+            j["crew"].push_back(crew_json(c));
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "crew,organ,without_response_mGyEq,with_response_mGyEq,saved_mGyEq,"
+                          "other_30d_mGyEq,limit_30d_mGyEq,margin_30d_mGyEq,exceeded\n";
+        for (const auto& c : w.crew) {
+            for (const auto& o : c.organs) {
+                out += fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
+                                   c.crew, o.organ, o.without_response_mGyEq,
+                                   o.with_response_mGyEq,
+                                   o.without_response_mGyEq - o.with_response_mGyEq,
+                                   o.other_30d_mGyEq, o.limit_30d_mGyEq, o.margin(),
+                                   o.ratio() > 1.0 ? "yes" : "no");
+            }
+        }
+        return out;
+    }
+    std::string out = fmt::format("crewdose storm: event {} with t0 at {}\nscenario: {}\n\n",
+                                  w.event_id, format_time(w.times.onset), sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_note(ctx), 96);
+    if (w.respond) {
+        out += wrap(policy_text(sc.storm), 96);
+        out += fmt::format("Warning {}, all-clear {}.\n", format_time(w.times.warning),
+                           format_time(w.times.all_clear));
+    } else {
+        out += "No response: the crew keep to the planned timeline.\n";
+    }
+    out += "\n";
+    for (const auto& c : w.crew) {
+        out += fmt::format("{} ({})\n", c.name, c.crew);
+        out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}\n", "organ",
+                           "no response", "response", "saved", "other 30d", "limit", "margin");
+        for (const auto& o : c.organs) {
+            out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}{}\n",
+                               organ_name(o.organ), significant(o.without_response_mGyEq, 3),
+                               significant(o.with_response_mGyEq, 3),
+                               significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
+                               significant(o.other_30d_mGyEq, 3),
+                               significant(o.limit_30d_mGyEq, 3), significant(o.margin(), 3),
+                               o.ratio() > 1.0 ? "  EXCEEDED" : "");
+        }
+        out += "  where (from t0):\n";
+        for (const auto& s : c.responded) {
+            out += wrap(fmt::format("    {} to {}  {}", format_time(std::max(s.start, w.times.onset)),
+                                    format_time(s.end), s.label),
+                        100, "      ");
+        }
+        out += "\n";
+    }
+    out += w.any_exceeded()
+               ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if.\n"
+               : "Every 30-day planning limit is met in this what-if.\n";
+    return out;
+}
+
+std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
+                               OutputFormat format) {
+    const Scenario& sc = ctx.study().scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j{{"cautions", caution_text()},
+                         {"event", s.event_id},
+                         {"from", format_time(s.from)},
+                         {"to", format_time(s.to)},
+                         {"step_s", s.step.total_seconds()},
+                         {"onsets", s.onsets},
+                         {"model", model_note(ctx)},
+                         {"any_limit_exceeded", s.any_exceeded()}};
+        for (const auto& [onset, c] : s.worst) {
+            auto cj = crew_json(c);
+            cj["worst_onset"] = format_time(onset);
+            j["worst"].push_back(cj);
+        }
+        for (const auto& e : s.evas) {
+            j["evas"].push_back({{"activity", e.label},
+                                 {"start", format_time(e.start)},
+                                 {"end", format_time(e.end)},
+                                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
+                                 {"crew", e.crew},
+                                 {"organ", e.organ},
+                                 {"ratio_to_30d_limit", e.ratio},
+                                 {"go", e.go()}});
+        }
+        for (const auto& [t, r] : s.profile) {
+            j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
+        }
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
+        for (const auto& e : s.evas) {
+            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label,
+                               format_time(e.start), format_time(e.end),
+                               e.ratio >= 0 ? format_time(e.worst_onset) : "", e.crew, e.organ,
+                               e.ratio, e.go() ? "go" : "no-go");
+        }
+        return out;
+    }
+    std::string out = fmt::format(
+        "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} policy "
+        "breakpoints\nscenario: {}\n\n",
+        s.event_id, format_time(s.from), format_time(s.to), s.step.total_seconds() / 60,
+        s.onsets - static_cast<std::size_t>((s.to - s.from).total_seconds() /
+                                            s.step.total_seconds()) -
+            1,
+        sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_note(ctx), 96);
+    out += wrap(policy_text(sc.storm), 96) + "\n";
+    out += "Worst onset per crew member (30-day dose with the response, mGy-Eq):\n";
+    for (const auto& [onset, c] : s.worst) {
+        const StormOrgan* worst = nullptr;
+        for (const auto& o : c.organs) {
+            if (!worst || o.ratio() > worst->ratio()) {
+                worst = &o;
+            }
+        }
+        if (!worst) {
+            continue;
+        }
+        out += wrap(fmt::format("  {} ({}): t0 {}; {} {} = {} event + {} other of {} ({:.0f} %){}",
+                                c.name, c.crew, format_time(onset), organ_name(worst->organ),
+                                significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
+                                significant(worst->with_response_mGyEq, 3),
+                                significant(worst->other_30d_mGyEq, 3),
+                                significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
+                                worst->ratio() > 1.0 ? "  EXCEEDED" : ""),
+                    100, "      ");
+    }
+    out += "\n" + wrap("Go/no-go per EVA and rover drive (the design event starting at the worst "
+                      "moment of it, with the planned response):",
+                      100);
+    for (const auto& e : s.evas) {
+        out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
+                                "30-day limit",
+                                e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
+                                e.label, e.ratio >= 0 ? format_time(e.worst_onset) : "-", e.crew,
+                                organ_name(e.organ), 100.0 * std::max(0.0, e.ratio)),
+                    100, "        ");
+    }
+    out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset "
+           "(each # is 5 %):\n";
+    for (const auto& [t, r] : s.profile) {
+        const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
+        out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r, std::string(static_cast<std::size_t>(n), '#'));
+    }
+    out += "\n";
+    out += s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.\n"
+                            : "Every 30-day planning limit is met at every onset tried.\n";
+    return out;
+}
+
+} // namespace crewdose::planner

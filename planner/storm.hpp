@@ -1,0 +1,154 @@
+#pragma once
+// Storm what-ifs: a design event starting at a chosen moment (its flare seen at the site at
+// t0 = onset), the crew responding by the scenario's [storm_response] policy, the doses with
+// and without the response against the 30-day limits; and the onset swept over the timeline.
+#include "ledger.hpp"
+#include "physics_tables.hpp"
+
+#include <array>
+#include <functional>
+#include <unordered_map>
+#include <map>
+#include <optional>
+#include <string>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// The response's times for one onset.
+struct StormTimes {
+    Time onset;     ///< t0: the flare is seen at the site
+    Time warning;   ///< t0 + warning delay
+    Time all_clear; ///< the end of the response
+};
+
+/// Where a crew member is during a what-if: the planned timeline changed by the response.
+/// Exposed for tests and reports.
+[[nodiscard]] std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
+                                                const StormPolicy& policy, const StormTimes& t);
+
+/// The all-clear for an event whose flare is seen at `onset`: fixed, or when the flux above
+/// the policy's energy falls below its threshold after the peak (searched minute by minute up
+/// to 10 days after the onset).
+[[nodiscard]] Time all_clear_time(const StormPolicy& policy, const EventSpec& event, Time onset,
+                                 double fluence_exponent);
+
+struct StormOrgan {
+    std::string organ;
+    double without_response_mGyEq = 0.0; ///< the event over the planned timeline
+    double with_response_mGyEq = 0.0;    ///< the event over the responded timeline
+    double other_30d_mGyEq = 0.0;        ///< highest 30-day dose from everything else
+    double limit_30d_mGyEq = 0.0;
+    /// limit - (with response + other): conservative, as if both fell in one window.
+    [[nodiscard]] double margin() const {
+        return limit_30d_mGyEq - with_response_mGyEq - other_30d_mGyEq;
+    }
+    [[nodiscard]] double ratio() const {
+        return (with_response_mGyEq + other_30d_mGyEq) / limit_30d_mGyEq;
+    }
+};
+
+struct StormCrew {
+    std::string crew;
+    std::string name;
+    std::vector<StormOrgan> organs;
+    std::vector<TimelineSpan> responded; ///< the spans that overlap the event
+    [[nodiscard]] double worst_ratio() const;
+    [[nodiscard]] bool exceeded() const { return worst_ratio() > 1.0; }
+};
+
+struct StormWhatIf {
+    std::string event_id;
+    StormTimes times;
+    bool respond = true;
+    std::vector<StormCrew> crew;
+    [[nodiscard]] bool any_exceeded() const;
+};
+
+/// Everything a what-if needs that does not depend on the onset, computed once.
+class StormContext {
+  public:
+    /// InputError if the event is unknown, or `respond` is asked without a [storm_response].
+    StormContext(const Study& study, const std::string& event_id, bool respond);
+
+    [[nodiscard]] StormWhatIf at(Time onset) const;
+    /// The fast path of the sweep: crew member `crew`'s highest (event with response + other) /
+    /// limit over the organs at `onset`; the same numbers as at(onset), fewer of them.
+    [[nodiscard]] double worst_ratio_at(Time onset, std::size_t crew,
+                                        std::array<double, 3>* with_mGyEq = nullptr) const;
+
+    [[nodiscard]] const Study& study() const noexcept { return study_; }
+    [[nodiscard]] const EventSpec& event() const noexcept { return *event_; }
+    [[nodiscard]] const std::vector<TimelineSpan>& planned(std::size_t crew) const {
+        return planned_.at(crew);
+    }
+    /// Crew member `crew`'s other 30-day dose and the 30-day limit of organ k (bfo, lens, skin).
+    [[nodiscard]] double other(std::size_t crew, std::size_t k) const;
+    [[nodiscard]] double limit(std::size_t k) const;
+
+  private:
+    /// The event's dose (uncertainty factor applied, mGy-Eq) for bfo, lens, skin over `spans`.
+    [[nodiscard]] std::array<double, 3> doses_over(const std::vector<TimelineSpan>& spans,
+                                                   Time onset) const;
+    StormTimes times_at(Time onset) const;
+
+    struct Cached {
+        double mGyEq = 0.0;                  ///< the whole event there, factor applied
+        const ArrivalGroups* timing = nullptr;
+    };
+    std::unordered_map<std::string, std::array<Cached, 3>> by_location_;
+    const Study& study_;
+    const EventSpec* event_ = nullptr;
+    bool respond_ = true;
+    std::vector<std::vector<TimelineSpan>> planned_;   ///< per crew member
+    std::vector<std::map<std::string, double>> other_; ///< per crew member, per organ
+    std::map<std::string, double> limits_30d_;
+    double horizon_h_ = 0.0; ///< after the onset, beyond which the event gives nothing
+    double all_clear_after_h_ = 0.0; ///< all-clear - onset: the same for every onset
+};
+
+/// One onset per `step` from `from` to `to`, plus the onsets at which the policy changes (the
+/// warning or the first arrival meeting an EVA's or rover drive's start or end, the all-clear
+/// meeting one), so the worst case is not missed between steps.
+struct StormSweep {
+    std::string event_id;
+    boost::posix_time::time_duration step;
+    Time from;
+    Time to;
+    std::size_t onsets = 0;
+    /// Per crew member: the worst onset and its what-if.
+    std::vector<std::pair<Time, StormCrew>> worst;
+    /// Per EVA (and rover drive): the worst onset inside it, its worst crew ratio, go/no-go.
+    struct Eva {
+        std::string label;
+        Time start;
+        Time end;
+        Time worst_onset;
+        std::string crew;
+        std::string organ;
+        double ratio = 0.0; ///< (event with response + other) / 30-day limit
+        [[nodiscard]] bool go() const { return ratio <= 1.0; }
+    };
+    std::vector<Eva> evas;
+    /// Coarse profile: per onset bin (6 hours), the highest ratio over the crew.
+    std::vector<std::pair<Time, double>> profile;
+    [[nodiscard]] bool any_exceeded() const;
+};
+
+[[nodiscard]] StormSweep
+sweep_storm(const StormContext& context, Time from, Time to, boost::posix_time::time_duration step,
+            const std::function<void(double)>& progress = {});
+
+/// A command-line date-time, RFC 3339 with its offset ("2032-03-11T10:30:00Z"); InputError
+/// naming `option` otherwise.
+[[nodiscard]] Time parse_command_time(const std::string& text, const std::string& option);
+/// A duration such as "10min", "1min", "30s", "2h" or "1d" (a positive number and a unit).
+[[nodiscard]] boost::posix_time::time_duration parse_duration(const std::string& text,
+                                                              const std::string& option);
+
+[[nodiscard]] std::string format_storm_whatif(const StormContext& context, const StormWhatIf& w,
+                                              OutputFormat format);
+[[nodiscard]] std::string format_storm_sweep(const StormContext& context, const StormSweep& s,
+                                             OutputFormat format);
+
+} // namespace crewdose::planner
