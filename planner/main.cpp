@@ -5,10 +5,10 @@
 #include "input_error.hpp"
 #include "physics_tables.hpp"
 #include "shelter.hpp"
-#include "storm.hpp"
-#include "time_format.hpp"
 #include "shielding_report.hpp"
 #include "spectrum_spec.hpp"
+#include "storm.hpp"
+#include "time_format.hpp"
 
 #include "exposure/parameter_error.hpp"
 #include "exposure/range_table.hpp"
@@ -295,8 +295,9 @@ int main(int argc, char** argv) {
                 return w.any_exceeded() ? 1 : 0;
             }
             const auto step = planner::parse_duration(storm_step, "--step");
-            const auto from =
-                storm_from.empty() ? mission.start : planner::parse_command_time(storm_from, "--from");
+            const auto from = storm_from.empty()
+                                  ? mission.start
+                                  : planner::parse_command_time(storm_from, "--from");
             const auto to =
                 storm_to.empty() ? mission.end : planner::parse_command_time(storm_to, "--to");
             if (!(to > from)) {

@@ -6,8 +6,8 @@
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <fmt/format.h>
-#include <toml++/toml.h>
 #include <nlohmann/json.hpp>
+#include <toml++/toml.h>
 
 #include <algorithm>
 #include <cmath>
@@ -101,10 +101,10 @@ std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
                 // In transit without a shelter on board: the plan goes on.
             } else if (a < covered && !keeps_plan) {
                 piece.location = at_warning->location;
-                piece.label = outside(*at_warning)
-                                  ? "storm response: returning from " + at_warning->label
-                                  : "storm response: moving to the shelter from " +
-                                        at_warning->label;
+                piece.label =
+                    outside(*at_warning)
+                        ? "storm response: returning from " + at_warning->label
+                        : "storm response: moving to the shelter from " + at_warning->label;
                 piece.activity = at_warning->activity;
             } else {
                 piece.location = cover;
@@ -143,7 +143,8 @@ Time all_clear_time(const StormPolicy& policy, const EventSpec& ev, Time onset,
     for (std::size_t k = 0; k < bins; ++k) {
         const double lo = e_min * std::pow(10.0, static_cast<double>(k) / 64.0);
         const double hi = e_min * std::pow(10.0, static_cast<double>(k + 1) / 64.0);
-        fluence[k] = scale * (ev.spectrum.integral_fluence_per_cm2(lo) - ev.spectrum.integral_fluence_per_cm2(hi));
+        fluence[k] = scale * (ev.spectrum.integral_fluence_per_cm2(lo) -
+                              ev.spectrum.integral_fluence_per_cm2(hi));
         delay[k] = ev.delay_h(std::sqrt(lo * hi));
     }
     constexpr double kFourPi = 4.0 * 3.14159265358979323846;
@@ -253,9 +254,9 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     horizon_h_ = last + event_->profile.rise_h + 40.0 * event_->profile.decay_h;
     // The event's time course relative to t0 does not depend on t0: one all-clear search.
     if (respond_) {
-        all_clear_after_h_ = hours(all_clear_time(sc.storm, *event_, sc.mission.start,
-                                                  sc.mission.sep_fluence_exponent) -
-                                   sc.mission.start);
+        all_clear_after_h_ = hours(
+            all_clear_time(sc.storm, *event_, sc.mission.start, sc.mission.sep_fluence_exponent) -
+            sc.mission.start);
     }
 }
 
@@ -380,8 +381,8 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     for (const auto& a : sc.activities) {
         if (a.kind == ActivityKind::eva || a.kind == ActivityKind::rover) {
             StormSweep::Eva e;
-            e.label = fmt::format("{} at {} (line {})", to_string(a.kind), a.location,
-                                  a.where.line);
+            e.label =
+                fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line);
             e.start = a.start;
             e.end = a.end;
             e.ratio = -1.0;
@@ -401,8 +402,8 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
                 worst_ratio[i] = ratio[i];
                 worst_onset[i] = o;
             }
-            const Time b = from + bin * static_cast<int>((o - from).total_seconds() /
-                                                         bin.total_seconds());
+            const Time b =
+                from + bin * static_cast<int>((o - from).total_seconds() / bin.total_seconds());
             profile[b] = std::max(profile[b], ratio[i]);
         }
         std::size_t k = 0;
@@ -485,8 +486,8 @@ std::string model_note(const StormContext& ctx) {
                           "protons {}, {} and {} min after t0 (field line {} AU, site {} AU from "
                           "the Sun)",
                           significant(60 * ev.delay_h(10), 3), significant(60 * ev.delay_h(100), 3),
-                          significant(60 * ev.delay_h(1000), 3),
-                          significant(ev.path_length_AU, 3), significant(ev.sun_distance_AU, 3));
+                          significant(60 * ev.delay_h(1000), 3), significant(ev.path_length_AU, 3),
+                          significant(ev.sun_distance_AU, 3));
     return fmt::format(
         "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
         "factor {:.2f}, the higher of with and without nuclear removal, quick body model) plus "
@@ -581,12 +582,11 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
                           "other_30d_mGyEq,limit_30d_mGyEq,margin_30d_mGyEq,exceeded\n";
         for (const auto& c : w.crew) {
             for (const auto& o : c.organs) {
-                out += fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
-                                   c.crew, o.organ, o.without_response_mGyEq,
-                                   o.with_response_mGyEq,
-                                   o.without_response_mGyEq - o.with_response_mGyEq,
-                                   o.other_30d_mGyEq, o.limit_30d_mGyEq, o.margin(),
-                                   o.ratio() > 1.0 ? "yes" : "no");
+                out +=
+                    fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
+                                c.crew, o.organ, o.without_response_mGyEq, o.with_response_mGyEq,
+                                o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
+                                o.limit_30d_mGyEq, o.margin(), o.ratio() > 1.0 ? "yes" : "no");
             }
         }
         return out;
@@ -612,36 +612,31 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
                                organ_name(o.organ), significant(o.without_response_mGyEq, 3),
                                significant(o.with_response_mGyEq, 3),
                                significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
-                               significant(o.other_30d_mGyEq, 3),
-                               significant(o.limit_30d_mGyEq, 3), significant(o.margin(), 3),
-                               o.ratio() > 1.0 ? "  EXCEEDED" : "");
+                               significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
+                               significant(o.margin(), 3), o.ratio() > 1.0 ? "  EXCEEDED" : "");
         }
         out += "  where (from t0):\n";
         for (const auto& s : c.responded) {
-            out += wrap(fmt::format("    {} to {}  {}", format_time(std::max(s.start, w.times.onset)),
-                                    format_time(s.end), s.label),
-                        100, "      ");
+            out +=
+                wrap(fmt::format("    {} to {}  {}", format_time(std::max(s.start, w.times.onset)),
+                                 format_time(s.end), s.label),
+                     100, "      ");
         }
         out += "\n";
     }
-    out += w.any_exceeded()
-               ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if.\n"
-               : "Every 30-day planning limit is met in this what-if.\n";
+    out += w.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if.\n"
+                            : "Every 30-day planning limit is met in this what-if.\n";
     return out;
 }
 
-std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
-                               OutputFormat format) {
+std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format) {
     const Scenario& sc = ctx.study().scenario();
     if (format == OutputFormat::json) {
-        nlohmann::json j{{"cautions", caution_text()},
-                         {"event", s.event_id},
-                         {"from", format_time(s.from)},
-                         {"to", format_time(s.to)},
-                         {"step_s", s.step.total_seconds()},
-                         {"onsets", s.onsets},
-                         {"model", model_note(ctx)},
-                         {"any_limit_exceeded", s.any_exceeded()}};
+        nlohmann::json j{
+            {"cautions", caution_text()},       {"event", s.event_id},
+            {"from", format_time(s.from)},      {"to", format_time(s.to)},
+            {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
+            {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()}};
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
             cj["worst_onset"] = format_time(onset);
@@ -665,10 +660,9 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
     if (format == OutputFormat::csv) {
         std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
         for (const auto& e : s.evas) {
-            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label,
-                               format_time(e.start), format_time(e.end),
-                               e.ratio >= 0 ? format_time(e.worst_onset) : "", e.crew, e.organ,
-                               e.ratio, e.go() ? "go" : "no-go");
+            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
+                               format_time(e.end), e.ratio >= 0 ? format_time(e.worst_onset) : "",
+                               e.crew, e.organ, e.ratio, e.go() ? "go" : "no-go");
         }
         return out;
     }
@@ -676,9 +670,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
         "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} policy "
         "breakpoints\nscenario: {}\n\n",
         s.event_id, format_time(s.from), format_time(s.to), s.step.total_seconds() / 60,
-        s.onsets - static_cast<std::size_t>((s.to - s.from).total_seconds() /
-                                            s.step.total_seconds()) -
-            1,
+        s.onsets -
+            static_cast<std::size_t>((s.to - s.from).total_seconds() / s.step.total_seconds()) - 1,
         sc.file);
     out += caution_text() + "\n";
     out += wrap(model_note(ctx), 96);
@@ -704,8 +697,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
                     100, "      ");
     }
     out += "\n" + wrap("Go/no-go per EVA and rover drive (the design event starting at the worst "
-                      "moment of it, with the planned response):",
-                      100);
+                       "moment of it, with the planned response):",
+                       100);
     for (const auto& e : s.evas) {
         out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
                                 "30-day limit",
@@ -718,7 +711,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s,
            "(each # is 5 %):\n";
     for (const auto& [t, r] : s.profile) {
         const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
-        out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r, std::string(static_cast<std::size_t>(n), '#'));
+        out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r,
+                           std::string(static_cast<std::size_t>(n), '#'));
     }
     out += "\n";
     out += s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.\n"

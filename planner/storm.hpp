@@ -7,10 +7,10 @@
 
 #include <array>
 #include <functional>
-#include <unordered_map>
 #include <map>
 #include <optional>
 #include <string>
+#include <unordered_map>
 #include <vector>
 
 namespace crewdose::planner {
@@ -31,7 +31,7 @@ struct StormTimes {
 /// the policy's energy falls below its threshold after the peak (searched minute by minute up
 /// to 10 days after the onset).
 [[nodiscard]] Time all_clear_time(const StormPolicy& policy, const EventSpec& event, Time onset,
-                                 double fluence_exponent);
+                                  double fluence_exponent);
 
 struct StormOrgan {
     std::string organ;
@@ -93,7 +93,7 @@ class StormContext {
     StormTimes times_at(Time onset) const;
 
     struct Cached {
-        double mGyEq = 0.0;                  ///< the whole event there, factor applied
+        double mGyEq = 0.0; ///< the whole event there, factor applied
         const ArrivalGroups* timing = nullptr;
     };
     std::unordered_map<std::string, std::array<Cached, 3>> by_location_;
@@ -103,7 +103,7 @@ class StormContext {
     std::vector<std::vector<TimelineSpan>> planned_;   ///< per crew member
     std::vector<std::map<std::string, double>> other_; ///< per crew member, per organ
     std::map<std::string, double> limits_30d_;
-    double horizon_h_ = 0.0; ///< after the onset, beyond which the event gives nothing
+    double horizon_h_ = 0.0;         ///< after the onset, beyond which the event gives nothing
     double all_clear_after_h_ = 0.0; ///< all-clear - onset: the same for every onset
 };
 
@@ -135,9 +135,9 @@ struct StormSweep {
     [[nodiscard]] bool any_exceeded() const;
 };
 
-[[nodiscard]] StormSweep
-sweep_storm(const StormContext& context, Time from, Time to, boost::posix_time::time_duration step,
-            const std::function<void(double)>& progress = {});
+[[nodiscard]] StormSweep sweep_storm(const StormContext& context, Time from, Time to,
+                                     boost::posix_time::time_duration step,
+                                     const std::function<void(double)>& progress = {});
 
 /// A command-line date-time, RFC 3339 with its offset ("2032-03-11T10:30:00Z"); InputError
 /// naming `option` otherwise.

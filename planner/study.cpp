@@ -1,10 +1,14 @@
 #include "study.hpp"
 
+#include <exception>
+#include <thread>
+
 #include "shielding_table_file.hpp"
 
 #include "habitats/direction_set.hpp"
 
 #include <algorithm>
+#include <cstdlib>
 #include <filesystem>
 #include <stdexcept>
 
@@ -26,7 +30,6 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     };
     const auto dirs = habitats::fibonacci_directions(directions_);
     const auto gcr_dirs = habitats::fibonacci_directions(sc_.mission.gcr_directions);
-    exposure::TableLibrary gcr_tables(gcr_grid());
     std::vector<double> phis{sc_.mission.gcr_phi_MV};
     for (const auto& phase : sc_.mission.gcr_phases) {
         phis.push_back(phase.phi_MV);
@@ -70,9 +73,17 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             const std::string organ = r.organ;
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
         }
-        // GCR: per nucleus, the organ responses over the GCR direction set, folded at once
-        // with every phi of the mission (the responses themselves are not kept).
-        const auto& g_dirs = where.imported ? loc_dirs : gcr_dirs;
+    }
+    // GCR: per location and nucleus, the organ responses over the GCR direction set, folded at
+    // once with every phi of the mission (the responses themselves are not kept). The
+    // locations are independent: they are shared among threads, each with its own tables, and
+    // merged in location order, so the result does not depend on the thread count.
+    std::vector<std::map<std::pair<std::string, double>, GcrRates>> per_location(
+        sc_.locations.size());
+    auto gcr_location = [&](std::size_t i, exposure::TableLibrary& gcr_tables) {
+        const auto& loc = sc_.locations[i];
+        const LocationGeometry& where = geometries_.at(loc.id);
+        const auto& g_dirs = where.imported ? location_directions_.at(loc.id) : gcr_dirs;
         for (const auto& particle : exposure::particles()) {
             if (!exposure::gcr_nucleus_included(particle.Z)) {
                 continue;
@@ -80,7 +91,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             for (const auto& r :
                  quick_model_responses(gcr_tables, materials, where, g_dirs, particle)) {
                 for (const double phi : phis) {
-                    auto& rates = gcr_rates_[{loc.id, r.organ, phi}];
+                    auto& rates = per_location[i][{r.organ, phi}];
                     rates.by_nucleus.resize(exposure::particles().size());
                     const auto d = exposure::fold(
                         r.response, exposure::gcr_node_fluences(
@@ -90,6 +101,44 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                     rates.total.without_removal += d.without_removal;
                 }
             }
+        }
+    };
+    // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
+    std::size_t wanted = std::thread::hardware_concurrency();
+    if (const char* env = std::getenv("CREWDOSE_THREADS")) {
+        wanted = static_cast<std::size_t>(std::max(1L, std::strtol(env, nullptr, 10)));
+    }
+    const std::size_t threads =
+        std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, per_location.size()));
+    std::vector<std::exception_ptr> failures(threads);
+    auto worker = [&](std::size_t t) {
+        try {
+            exposure::TableLibrary gcr_tables(gcr_grid());
+            for (std::size_t i = t; i < per_location.size(); i += threads) {
+                gcr_location(i, gcr_tables);
+            }
+        } catch (...) {
+            failures[t] = std::current_exception();
+        }
+    };
+    {
+        std::vector<std::thread> pool;
+        for (std::size_t t = 1; t < threads; ++t) {
+            pool.emplace_back(worker, t);
+        }
+        worker(0);
+        for (auto& th : pool) {
+            th.join();
+        }
+    }
+    for (const auto& f : failures) {
+        if (f) {
+            std::rethrow_exception(f);
+        }
+    }
+    for (std::size_t i = 0; i < per_location.size(); ++i) {
+        for (auto& [key, rates] : per_location[i]) {
+            gcr_rates_[{sc_.locations[i].id, key.first, key.second}] = std::move(rates);
         }
     }
     // Every event folded once with every response: the ledger asks for these per activity.

@@ -1,8 +1,10 @@
 // Planner benchmarks on the lunar demo: the whole check (main-job issue: under 1 s with the
 // responses; here the Study is built per iteration) and shelter sizing for one material
-// (storm and shelter issue: under 0.5 s, the Study already built).
+// (storm and shelter issue: under 0.5 s, the Study already built), and the storm sweep at one
+// onset per minute over the whole timeline, four crew (under 0.3 s once responses exist).
 #include "planner/ledger.hpp"
 #include "planner/shelter.hpp"
+#include "planner/storm.hpp"
 
 #include <benchmark/benchmark.h>
 
@@ -39,5 +41,19 @@ static void BM_ShelterOneMaterial(benchmark::State& state) {
     state.counters["evaluations"] = evaluations;
 }
 BENCHMARK(BM_ShelterOneMaterial)->Unit(benchmark::kMillisecond);
+
+static void BM_StormSweepOneMinute(benchmark::State& state) {
+    const planner::Study study(planner::load_scenario(kDemo));
+    const planner::StormContext ctx(study, "design-spe", true);
+    const auto& m = study.scenario().mission;
+    std::size_t onsets = 0;
+    for (auto _ : state) {
+        const auto s = planner::sweep_storm(ctx, m.start, m.end, boost::posix_time::minutes(1));
+        onsets = s.onsets;
+        benchmark::DoNotOptimize(s);
+    }
+    state.counters["onsets"] = static_cast<double>(onsets);
+}
+BENCHMARK(BM_StormSweepOneMinute)->Unit(benchmark::kMillisecond);
 
 BENCHMARK_MAIN();

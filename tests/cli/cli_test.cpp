@@ -17,8 +17,9 @@ struct Run {
     std::string out; // stdout and stderr together
 };
 
-Run run(const std::string& args) {
-    const std::string cmd = std::string(CREWDOSE_BINARY) + " " + args + " 2>&1";
+// Runs the binary with `args`; `env` is prefixed to the shell command ("NAME=value ").
+Run run(const std::string& args, const std::string& env = "") {
+    const std::string cmd = env + std::string(CREWDOSE_BINARY) + " " + args + " 2>&1";
     Run r{-1, {}};
     FILE* pipe = popen(cmd.c_str(), "r");
     REQUIRE(pipe != nullptr);
@@ -387,4 +388,53 @@ TEST_CASE("shelter: sizes per material, says when a target cannot be met, reject
     CHECK(bad_layer.exit_code == 2);
     CHECK(bad_layer.out.find("--layer: solid 'hab-module' has no single layer '9'") !=
           std::string::npos);
+}
+
+TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
+    const std::string base = "storm " + demo() + " --event design-spe";
+    const Run one = run(base + " --onset 2032-03-09T13:00:00Z");
+    INFO(one.out);
+    CHECK(one.exit_code == 0);
+    CHECK(one.out.find("planning value") != std::string::npos);
+    CHECK(one.out.find("no response") != std::string::npos);
+    CHECK(one.out.find("storm response: returning from eva at eva-site") != std::string::npos);
+    const Run none = run(base + " --onset 2032-03-09T13:00:00Z --no-response --format json");
+    CHECK(none.exit_code == 0);
+    const auto doc = nlohmann::json::parse(none.out);
+    const auto& bfo = doc["crew"][0]["organs"]["bfo"];
+    CHECK(bfo["with_response_mGyEq"].get<double>() ==
+          Approx(bfo["without_response_mGyEq"].get<double>()).epsilon(1e-15));
+    const Run sweep = run(base + " --sweep --step 30min --format json");
+    CHECK(sweep.exit_code == 0);
+    const auto s = nlohmann::json::parse(sweep.out);
+    CHECK(s["evas"].size() == 13);
+    CHECK(s["worst"].size() == 4);
+    const Run csv = run(base + " --sweep --step 2h --format csv");
+    CHECK(csv.out.rfind("activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n", 0) ==
+          0);
+    const Run neither = run(base);
+    CHECK(neither.exit_code == 2);
+    CHECK(neither.out.find("give --onset TIME for one what-if or --sweep") != std::string::npos);
+    const Run bad_step = run(base + " --sweep --step 10");
+    CHECK(bad_step.exit_code == 2);
+    CHECK(bad_step.out.find("--step: '10': write a duration") != std::string::npos);
+    const Run outside = run(base + " --onset 2040-01-01T00:00:00Z");
+    CHECK(outside.exit_code == 2);
+    CHECK(outside.out.find("--onset: lies outside the mission") != std::string::npos);
+    const Run no_policy = run("storm " + std::string(CREWDOSE_SOURCE_DIR) +
+                              "/scenarios/mars-demo.toml --event arcadia-spe --onset "
+                              "2035-06-18T10:00:00Z");
+    CHECK(no_policy.exit_code == 2);
+    CHECK(no_policy.out.find("storm_response: the scenario has no [storm_response] section") !=
+          std::string::npos);
+}
+
+TEST_CASE("check: the same numbers, bit for bit, whatever the thread count", "[cli][check]") {
+    // The GCR responses are shared among threads by location (DESIGN.md: deterministic).
+    const Run one = run("check " + demo() + " --format json", "CREWDOSE_THREADS=1 ");
+    const Run two = run("check " + demo() + " --format json", "CREWDOSE_THREADS=2 ");
+    const Run three = run("check " + demo() + " --format json", "CREWDOSE_THREADS=3 ");
+    REQUIRE(one.exit_code == 0);
+    CHECK(one.out == two.out);
+    CHECK(one.out == three.out);
 }
