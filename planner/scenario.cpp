@@ -4,6 +4,8 @@
 
 #include "exposure/material_library.hpp"
 
+#include <fmt/format.h>
+
 #include <cmath>
 
 namespace crewdose::planner {
@@ -67,6 +69,34 @@ const exposure::Material* Scenario::material(const std::string& id) const {
         }
     }
     return exposure::find_builtin_material(id);
+}
+
+namespace {
+
+template <class T>
+const T& named(const std::vector<T>& items, const std::string& id, const std::string& option,
+               const char* what) {
+    std::string known;
+    for (const auto& x : items) {
+        if (x.id == id) {
+            return x;
+        }
+        known += (known.empty() ? "" : ", ") + x.id;
+    }
+    throw InputError({"command line", 0}, option,
+                     fmt::format("unknown {} '{}'; the scenario defines: {}", what, id,
+                                 known.empty() ? "none" : known));
+}
+
+} // namespace
+
+const EventSpec& Scenario::event_named(const std::string& id, const std::string& option) const {
+    return named(events, id, option, "event");
+}
+
+const LocationSpec& Scenario::location_named(const std::string& id,
+                                             const std::string& option) const {
+    return named(locations, id, option, "location");
 }
 
 std::vector<Limit> default_limits() {

@@ -202,6 +202,12 @@ struct Scenario {
 
     /// A material by id: the scenario's own first, then the built-in library; nullptr if none.
     [[nodiscard]] const exposure::Material* material(const std::string& id) const;
+    /// The event or location a command-line option names; InputError naming `option` and the
+    /// ids the scenario defines otherwise.
+    [[nodiscard]] const EventSpec& event_named(const std::string& id,
+                                               const std::string& option) const;
+    [[nodiscard]] const LocationSpec& location_named(const std::string& id,
+                                                     const std::string& option) const;
 };
 
 /// Planning-default limits (each labelled with its basis; never official).

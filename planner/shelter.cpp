@@ -30,32 +30,11 @@ const exposure::Material& material_of(const Study& study, const std::string& id,
 }
 
 const EventSpec& event_of(const Study& study, const std::string& id) {
-    for (const auto& e : study.scenario().events) {
-        if (e.id == id) {
-            return e;
-        }
-    }
-    std::string known;
-    for (const auto& e : study.scenario().events) {
-        known += (known.empty() ? "" : ", ") + e.id;
-    }
-    throw InputError(kCommandLine, "--event",
-                     fmt::format("unknown event '{}'; the scenario defines: {}", id,
-                                 known.empty() ? "none" : known));
+    return study.scenario().event_named(id, "--event");
 }
 
 const LocationSpec& location_of(const Study& study, const std::string& id) {
-    for (const auto& l : study.scenario().locations) {
-        if (l.id == id) {
-            return l;
-        }
-    }
-    std::string known;
-    for (const auto& l : study.scenario().locations) {
-        known += (known.empty() ? "" : ", ") + l.id;
-    }
-    throw InputError(kCommandLine, "--location",
-                     fmt::format("unknown location '{}'; the scenario defines: {}", id, known));
+    return study.scenario().location_named(id, "--location");
 }
 
 // The location's solids with `thickness_m` of `material` inserted directly inside layer

@@ -27,26 +27,8 @@ double percentile(const std::vector<double>& sorted, double p) {
 std::string format_shielding_report(const Study& study, const std::string& location,
                                     const std::optional<std::string>& event, OutputFormat format) {
     const Scenario& sc = study.scenario();
-    bool known = false;
-    for (const auto& l : sc.locations) {
-        known = known || l.id == location;
-    }
-    if (!known) {
-        throw InputError({"command line", 0}, "--location",
-                         "no location '" + location + "' in " + sc.file);
-    }
-    const EventSpec* ev = nullptr;
-    if (event) {
-        for (const auto& e : sc.events) {
-            if (e.id == *event) {
-                ev = &e;
-            }
-        }
-        if (!ev) {
-            throw InputError({"command line", 0}, "--event",
-                             "no event '" + *event + "' in " + sc.file);
-        }
-    }
+    (void)sc.location_named(location, "--location");
+    const EventSpec* ev = event ? &sc.event_named(*event, "--event") : nullptr;
     const LocationGeometry& where = study.geometry(location);
     std::vector<double> external;
     std::size_t blocked = 0;

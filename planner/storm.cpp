@@ -187,20 +187,7 @@ bool StormSweep::any_exceeded() const {
 StormContext::StormContext(const Study& study, const std::string& event_id, bool respond)
     : study_(study), respond_(respond) {
     const Scenario& sc = study.scenario();
-    for (const auto& e : sc.events) {
-        if (e.id == event_id) {
-            event_ = &e;
-        }
-    }
-    if (!event_) {
-        std::string known;
-        for (const auto& e : sc.events) {
-            known += (known.empty() ? "" : ", ") + e.id;
-        }
-        throw InputError({"command line", 0}, "--event",
-                         fmt::format("unknown event '{}'; the scenario defines: {}", event_id,
-                                     known.empty() ? "none" : known));
-    }
+    event_ = &sc.event_named(event_id, "--event");
     if (respond && !sc.storm.given) {
         throw InputError({sc.file, 0}, "storm_response",
                          "the scenario has no [storm_response] section, which the what-if needs "

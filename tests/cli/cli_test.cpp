@@ -361,7 +361,8 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     CHECK(ext["p05"].get<double>() > 20.0);
     const Run bad = run("shielding " + demo() + " --location attic");
     CHECK(bad.exit_code == 2);
-    CHECK(bad.out.find("--location: no location 'attic'") != std::string::npos);
+    CHECK(bad.out.find("--location: unknown location 'attic'; the scenario defines: hab-deck") !=
+          std::string::npos);
 }
 
 TEST_CASE("shelter: sizes per material, says when a target cannot be met, rejects bad options",
