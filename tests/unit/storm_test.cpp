@@ -34,11 +34,6 @@ TEST_CASE("scatter-free arrival after the flare is seen", "[storm][reference]") 
 
 namespace {
 
-const Time kT0(boost::gregorian::date(2032, 1, 1));
-Time at_h(double h) {
-    return kT0 + boost::posix_time::seconds(static_cast<long>(std::llround(h * 3600.0)));
-}
-
 // Deep space, two locations: a thin cabin and a heavily shielded shelter; one crew member on a
 // spacewalk (kind eva) from day 2 08:00 to 14:00, else in the cabin. The event arrives
 // energy by energy (no arrival_delay_h). Invented values.
