@@ -300,6 +300,14 @@ int main(int argc, char** argv) {
                                   : planner::parse_command_time(storm_from, "--from");
             const auto to =
                 storm_to.empty() ? mission.end : planner::parse_command_time(storm_to, "--to");
+            for (const auto& [t, name] : {std::pair{from, "--from"}, std::pair{to, "--to"}}) {
+                if (t < mission.start || t > mission.end) {
+                    throw InputError({"command line", 0}, name,
+                                     "lies outside the mission (" +
+                                         planner::format_time(mission.start) + " to " +
+                                         planner::format_time(mission.end) + ")");
+                }
+            }
             if (!(to > from)) {
                 throw InputError({"command line", 0}, "--to", "must be after --from");
             }

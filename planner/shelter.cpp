@@ -89,25 +89,37 @@ double depth_below_layer(const habitats::Solid& s, std::size_t index) {
     return d;
 }
 
-// The thickness a layer added below depth `d0` of `shape` can reach before the dose point
-// `point` would lie in it, m (bisection to a micrometre).
-double room_left_m(const habitats::Shape& shape, double d0, habitats::Point3 point) {
-    auto free_at = [&](double t) {
-        const auto inner = habitats::inset(shape, d0 + t);
-        return inner && habitats::contains(*inner, point);
+// Whether `thickness_m` of `material` added inside the named layer leaves a valid geometry:
+// the dose point outside every wall and no solids overlapping along any direction traced.
+bool geometry_allows(const Study& study, const LocationSpec& loc, const ShelterRequest& r,
+                     const exposure::Material& material, double thickness_m) {
+    try {
+        const habitats::Scene scene(
+            thickened(study, loc, *r.solid_id, r.layer_index, material, thickness_m));
+        for (const auto& d : study.directions(loc.id)) {
+            (void)scene.trace(loc.point_m, d);
+        }
+        return true;
+    } catch (const habitats::GeometryError&) {
+        return false;
+    }
+}
+
+// The largest areal density of `material` (up to `max_g_cm2`) the geometry takes in the named
+// layer, g/cm2: bisection to 1e-4 of the maximum on geometry_allows.
+double largest_allowed_g_cm2(const Study& study, const LocationSpec& loc, const ShelterRequest& r,
+                             const exposure::Material& material, double max_g_cm2) {
+    auto ok = [&](double x) {
+        return geometry_allows(study, loc, r, material, x / material.density_g_cm3() * 1e-2);
     };
-    if (!free_at(0.0)) {
-        return 0.0;
+    if (ok(max_g_cm2)) {
+        return max_g_cm2;
     }
     double lo = 0.0;
-    double hi = 1.0;
-    while (free_at(hi) && hi < 1e4) {
-        lo = hi;
-        hi *= 2.0;
-    }
-    while (hi - lo > 1e-6) {
+    double hi = max_g_cm2;
+    while (hi - lo > 1e-4 * max_g_cm2) {
         const double mid = 0.5 * (lo + hi);
-        (free_at(mid) ? lo : hi) = mid;
+        (ok(mid) ? lo : hi) = mid;
     }
     return lo;
 }
@@ -141,8 +153,8 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
     std::map<std::string, double> out;
     for (const auto& o :
          quick_model_responses(tables, materials, where, study.directions(loc.id))) {
-        const auto fluences =
-            exposure::node_fluences(ev.spectrum, o.response.node_energies_MeV_per_n);
+        const auto fluences = event_node_fluences(ev, sc.mission.sep_fluence_exponent,
+                                                  o.response.node_energies_MeV_per_n);
         out[o.organ] = 1e3 * sc.limits.uncertainty_factor *
                        exposure::fold(o.response, fluences).for_limits().rbe_weighted_GyEq;
     }
@@ -214,7 +226,7 @@ void parse_shelter_layer(const Study& study, const std::string& text, ShelterReq
     std::size_t index = 0;
     bool found = false;
     if (std::all_of(layer.begin(), layer.end(), [](char c) { return c >= '0' && c <= '9'; })) {
-        const unsigned long n = std::stoul(layer);
+        const unsigned long n = layer.size() <= 6 ? std::stoul(layer) : 0UL;
         if (n >= 1 && n <= solid->layers.size()) {
             index = n - 1;
             found = true;
@@ -293,22 +305,20 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
         rep.other_30d_mGyEq[organ] = worst;
     }
-    const double room_m =
-        solid
-            ? room_left_m(solid->shape, depth_below_layer(*solid, request.layer_index), loc.point_m)
-            : 0.0;
     exposure::TableLibrary tables; // shared by every evaluation
     for (const auto& material_id : request.materials) {
         const exposure::Material& material = material_of(study, material_id, "--material");
         ShelterAnswer a;
         a.material = material.id();
         a.density_g_cm3 = material.density_g_cm3();
-        // A named layer grows inwards: keep 1 mm of room around the dose point.
+        // A named layer grows inwards, pushing the layers inside it: it may grow only while the
+        // dose point stays outside every wall and no solids come to overlap.
         double max_x = request.max_g_cm2;
         if (solid) {
-            const double room_g_cm2 = std::max(0.0, room_m - 1e-3) * 100.0 * a.density_g_cm3;
-            if (room_g_cm2 < max_x) {
-                max_x = room_g_cm2;
+            const double allowed =
+                largest_allowed_g_cm2(study, loc, request, material, request.max_g_cm2);
+            if (allowed < max_x) {
+                max_x = allowed;
                 a.limited_by_room = true;
             }
         }
@@ -338,6 +348,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         std::string organ;
         double lo = 0.0;
         double f_lo = evaluate(lo, &organ);
+        a.binding_organ = organ;
         if (f_lo <= 1.0) {
             a.achievable = true;
             a.none_needed = true;
@@ -509,12 +520,15 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                                "(closest: {})\n",
                                a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
         } else if (!a.achievable) {
-            out += fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its target\n",
-                               significant(a.searched_to_g_cm2, 3),
-                               a.limited_by_room ? " (as much as the room holds: the layer then "
-                                                   "reaches the dose point)"
-                                                 : "",
-                               a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+            out += wrap(fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its "
+                                    "target",
+                                    significant(a.searched_to_g_cm2, 3),
+                                    a.limited_by_room ? " (as much as the geometry takes: more "
+                                                        "would reach the dose point or another "
+                                                        "solid)"
+                                                      : "",
+                                    a.binding_organ == "bfo" ? "BFO" : a.binding_organ),
+                        100, "    ");
         } else {
             out += fmt::format(
                 "  minimum {} g/cm2 = {} cm, {} kg/m2", significant(a.areal_density_g_cm2, 3),

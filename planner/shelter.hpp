@@ -45,7 +45,8 @@ struct ShelterAnswer {
     std::vector<ShelterPoint> curve; ///< around the answer, increasing areal density
     int evaluations = 0;             ///< dose evaluations the root find used
     double searched_to_g_cm2 = 0.0;  ///< the largest areal density tried
-    bool limited_by_room = false; ///< a named layer can grow only until it reaches the dose point
+    /// A named layer can grow only until it reaches the dose point or another solid.
+    bool limited_by_room = false;
 };
 
 struct ShelterReport {

@@ -71,8 +71,16 @@ std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
     }
     const bool keeps_plan = in_transit(*at_warning) && !transit_refuge;
     const Time covered = t.warning + delay;
+    // A transit without a shelter on board that ends during the storm: from its end the crew
+    // take move_to_shelter_min to reach the shelter.
+    const Time landed = keeps_plan ? at_warning->end : t.warning;
+    const Time landed_covered = landed + minutes_d(policy.move_to_shelter_min);
     // Boundaries where the location can change.
     std::set<Time> cuts{t.warning, std::min(covered, t.all_clear), t.all_clear};
+    if (keeps_plan && landed < t.all_clear) {
+        cuts.insert(landed);
+        cuts.insert(std::min(landed_covered, t.all_clear));
+    }
     for (const auto& s : planned) {
         cuts.insert(s.start);
         cuts.insert(s.end);
@@ -99,6 +107,8 @@ std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
         if (a >= t.warning && a < t.all_clear) {
             if (keeps_plan && in_transit(*p)) {
                 // In transit without a shelter on board: the plan goes on.
+            } else if (keeps_plan && a < landed_covered) {
+                piece.label = "storm response: moving to the shelter after " + at_warning->label;
             } else if (a < covered && !keeps_plan) {
                 piece.location = at_warning->location;
                 piece.label =
@@ -344,12 +354,11 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     // the start or end of an outside activity; each also one second earlier (the other side).
     const time_duration warn = minutes_d(sc.storm.warning_delay_min);
     const time_duration first = minutes_d(60.0 * ev.delay_h(1e4));
-    std::vector<time_duration> leads{time_duration(0, 0, 0), warn, first};
-    if (!sc.storm.all_clear_above_MeV) {
-        leads.push_back(minutes_d(60.0 * sc.storm.all_clear_h));
-    }
+    std::vector<time_duration> leads{time_duration(0, 0, 0), warn, first,
+                                     minutes_d(60.0 * ctx.all_clear_after_h())};
     for (const auto& a : sc.activities) {
-        if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover) {
+        if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover &&
+            a.kind != ActivityKind::transit) {
             continue;
         }
         for (const Time edge : {a.start, a.end}) {
@@ -516,10 +525,15 @@ Time parse_command_time(const std::string& text, const std::string& option) {
         throw InputError({"command line", 0}, option, allowed);
     }
     const toml::date_time v = dt->get();
-    const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
-    return Time(day, boost::posix_time::hours(v.time.hour) +
-                         boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
-                         boost::posix_time::seconds(v.time.second));
+    try {
+        const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
+        return Time(day, boost::posix_time::hours(v.time.hour) +
+                             boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
+                             boost::posix_time::seconds(v.time.second));
+    } catch (const std::exception&) {
+        throw InputError({"command line", 0}, option,
+                         fmt::format("'{}': the year must lie from 1400 to 9999", text));
+    }
 }
 
 time_duration parse_duration(const std::string& text, const std::string& option) {
@@ -637,6 +651,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                                  {"crew", e.crew},
                                  {"organ", e.organ},
                                  {"ratio_to_30d_limit", e.ratio},
+                                 {"swept", e.swept()},
                                  {"go", e.go()}});
         }
         for (const auto& [t, r] : s.profile) {
@@ -649,7 +664,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         for (const auto& e : s.evas) {
             out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
                                format_time(e.end), e.ratio >= 0 ? format_time(e.worst_onset) : "",
-                               e.crew, e.organ, e.ratio, e.go() ? "go" : "no-go");
+                               e.crew, e.organ, e.ratio,
+                               !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
         }
         return out;
     }
@@ -687,11 +703,18 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                        "moment of it, with the planned response):",
                        100);
     for (const auto& e : s.evas) {
+        if (!e.swept()) {
+            out += wrap(fmt::format("  NOT SWEPT {} to {}, {}: no onset of the sweep falls inside "
+                                    "it (widen --from/--to)",
+                                    format_time(e.start), format_time(e.end), e.label),
+                        100, "        ");
+            continue;
+        }
         out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
                                 "30-day limit",
                                 e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
-                                e.label, e.ratio >= 0 ? format_time(e.worst_onset) : "-", e.crew,
-                                organ_name(e.organ), 100.0 * std::max(0.0, e.ratio)),
+                                e.label, format_time(e.worst_onset), e.crew, organ_name(e.organ),
+                                100.0 * e.ratio),
                     100, "        ");
     }
     out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset "

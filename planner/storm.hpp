@@ -82,6 +82,8 @@ class StormContext {
     [[nodiscard]] const std::vector<TimelineSpan>& planned(std::size_t crew) const {
         return planned_.at(crew);
     }
+    /// Hours from t0 to the all-clear (the same for every onset).
+    [[nodiscard]] double all_clear_after_h() const noexcept { return all_clear_after_h_; }
     /// Crew member `crew`'s other 30-day dose and the 30-day limit of organ k (bfo, lens, skin).
     [[nodiscard]] double other(std::size_t crew, std::size_t k) const;
     [[nodiscard]] double limit(std::size_t k) const;
@@ -126,8 +128,9 @@ struct StormSweep {
         Time worst_onset;
         std::string crew;
         std::string organ;
-        double ratio = 0.0; ///< (event with response + other) / 30-day limit
-        [[nodiscard]] bool go() const { return ratio <= 1.0; }
+        double ratio = -1.0; ///< (event with response + other) / 30-day limit; < 0 not swept
+        [[nodiscard]] bool swept() const { return ratio >= 0.0; }
+        [[nodiscard]] bool go() const { return swept() && ratio <= 1.0; }
     };
     std::vector<Eva> evas;
     /// Coarse profile: per onset bin (6 hours), the highest ratio over the crew.

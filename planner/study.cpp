@@ -1,6 +1,7 @@
 #include "study.hpp"
 
 #include <exception>
+#include <system_error>
 #include <thread>
 
 #include "shielding_table_file.hpp"
@@ -123,10 +124,19 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     };
     {
         std::vector<std::thread> pool;
-        for (std::size_t t = 1; t < threads; ++t) {
-            pool.emplace_back(worker, t);
+        std::size_t started = 1;
+        try {
+            for (std::size_t t = 1; t < threads; ++t) {
+                pool.emplace_back(worker, t);
+                ++started;
+            }
+        } catch (const std::system_error&) {
+            // No more threads to be had: the locations of the missing workers run here.
         }
         worker(0);
+        for (std::size_t t = started; t < threads; ++t) {
+            worker(t);
+        }
         for (auto& th : pool) {
             th.join();
         }
@@ -143,14 +153,9 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     }
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
-        const double scale = ev.fluence_scale(sc_.mission.sep_fluence_exponent);
         for (const auto& [key, r] : responses_) {
-            auto fluences =
-                exposure::node_fluences(ev.spectrum, r.response.node_energies_MeV_per_n);
-            for (std::size_t j = 0; j < fluences.per_unit_log_energy_per_cm2.size(); ++j) {
-                fluences.per_unit_log_energy_per_cm2[j] *= scale;
-                fluences.extrapolated_per_cm2[j] *= scale;
-            }
+            const auto fluences = event_node_fluences(ev, sc_.mission.sep_fluence_exponent,
+                                                      r.response.node_energies_MeV_per_n);
             const auto folded = exposure::fold(r.response, fluences);
             event_doses_[{key.first, key.second, ev.id}] = folded.for_limits();
             // Arrival groups, weighted by the removal case that gives the higher dose.
@@ -182,6 +187,17 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             event_timing_[{key.first, key.second, ev.id}] = std::move(g);
         }
     }
+}
+
+exposure::NodeFluences event_node_fluences(const EventSpec& ev, double exponent,
+                                           std::span<const double> nodes) {
+    auto f = exposure::node_fluences(ev.spectrum, nodes);
+    const double scale = ev.fluence_scale(exponent);
+    for (std::size_t j = 0; j < f.per_unit_log_energy_per_cm2.size(); ++j) {
+        f.per_unit_log_energy_per_cm2[j] *= scale;
+        f.extrapolated_per_cm2[j] *= scale;
+    }
+    return f;
 }
 
 double ArrivalGroups::fraction_between(double a_h, double b_h, const EventProfile& p) const {

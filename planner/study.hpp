@@ -32,6 +32,11 @@ struct ArrivalGroups {
     [[nodiscard]] double fraction_between(double a_h, double b_h, const EventProfile& p) const;
 };
 
+/// An event's node fluences for a response's nodes, scaled from the distance its spectrum is
+/// given at to the site (EventSpec::fluence_scale).
+[[nodiscard]] exposure::NodeFluences event_node_fluences(const EventSpec& event, double exponent,
+                                                         std::span<const double> nodes_MeV);
+
 /// Responses of every location and organ, shared by every crew member and activity.
 class Study {
   public:

@@ -419,6 +419,9 @@ TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
     const Run bad_step = run(base + " --sweep --step 10");
     CHECK(bad_step.exit_code == 2);
     CHECK(bad_step.out.find("--step: '10': write a duration") != std::string::npos);
+    const Run early = run(base + " --sweep --from 2032-02-29T23:40:00Z");
+    CHECK(early.exit_code == 2);
+    CHECK(early.out.find("--from: lies outside the mission") != std::string::npos);
     const Run outside = run(base + " --onset 2040-01-01T00:00:00Z");
     CHECK(outside.exit_code == 2);
     CHECK(outside.out.find("--onset: lies outside the mission") != std::string::npos);

@@ -210,3 +210,36 @@ TEST_CASE("shelter: option errors name the option and what is allowed", "[shelte
     parse_shelter_layer(study, "hut:aluminium", layer);
     CHECK(layer.layer_index == 0);
 }
+
+TEST_CASE("shelter: a named layer grows only as far as the geometry takes", "[shelter]") {
+    // The hut's inner radius is 1.99 m: at most 199 g/cm2 of water fits around the dose point
+    // (by construction); asking for more is limited there, not a crash.
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    ShelterRequest r = request({"water"}, 1e-6);
+    parse_shelter_layer(study, "hut:1", r);
+    r.max_g_cm2 = 400.0;
+    const ShelterReport rep = size_shelter(study, r);
+    const ShelterAnswer& a = rep.answers.at(0);
+    CHECK_FALSE(a.achievable);
+    CHECK(a.limited_by_room);
+    CHECK(a.searched_to_g_cm2 == Approx(199.0).epsilon(1e-3));
+    CHECK(a.searched_to_g_cm2 < 199.0);
+    CHECK(a.binding_organ == "bfo");
+}
+
+TEST_CASE("shelter: an event given at another distance is scaled as the check scales it",
+          "[shelter]") {
+    // By construction: spectrum at 0.5 AU, site at 1 AU, exponent 2: a quarter of the fluence.
+    std::string text = plan();
+    text.replace(text.find("spectrum = "), 0, "spectrum_at_AU = 0.5\n");
+    const Study near(parse_scenario(text, "hut.toml"));
+    const Study here(parse_scenario(plan(), "hut.toml"));
+    const ShelterRequest r = request({"water"}, 60.0);
+    const double scaled = sheltered_event_dose(near, r, "water", 5.0).at("bfo");
+    const double plain = sheltered_event_dose(here, r, "water", 5.0).at("bfo");
+    CHECK(scaled == Approx(0.25 * plain).epsilon(1e-12));
+    // The check's own event dose agrees.
+    const auto& ev = near.scenario().events[0];
+    CHECK(1.5e3 * near.event_dose("inside", "bfo", ev).rbe_weighted_GyEq ==
+          Approx(sheltered_event_dose(near, r, "water", 0.0).at("bfo")).epsilon(1e-12));
+}

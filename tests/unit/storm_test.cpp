@@ -323,3 +323,22 @@ TEST_CASE("storm: command-line times and durations", "[storm]") {
               std::string::npos);
     }
 }
+
+TEST_CASE("storm: an EVA outside the swept onsets is not called GO", "[storm]") {
+    const Study study(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    const auto s =
+        sweep_storm(ctx, parse_command_time("2032-01-01T00:00:00Z", "x"),
+                    parse_command_time("2032-01-01T06:00:00Z", "x"), boost::posix_time::hours(1));
+    REQUIRE(s.evas.size() == 1);
+    CHECK_FALSE(s.evas[0].swept());
+    CHECK_FALSE(s.evas[0].go());
+    CHECK(format_storm_sweep(ctx, s, OutputFormat::text).find("NOT SWEPT") != std::string::npos);
+    try {
+        (void)parse_command_time("1000-01-01T00:00:00Z", "--onset");
+        FAIL("accepted the year 1000");
+    } catch (const InputError& e) {
+        CHECK(std::string(e.what()).find("--onset: '1000-01-01T00:00:00Z': the year must lie") !=
+              std::string::npos);
+    }
+}
