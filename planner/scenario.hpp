@@ -142,6 +142,9 @@ struct ActivitySpec {
     /// storm_response.move_to_shelter_min (without one the plan goes on).
     std::optional<double> return_min;
     std::optional<std::string> refuge;
+    /// Or: how far from cover the EVA goes, km; the return time is then distance / the policy's
+    /// traverse speed.
+    std::optional<double> distance_km;
 };
 
 /// What the crew do when a storm warning comes ([storm_response]): the policy of the storm
@@ -153,6 +156,8 @@ struct StormPolicy {
     double warning_delay_min = 10.0;
     double move_to_shelter_min = 15.0; ///< crew inside (not on EVA, not in transit)
     double eva_return_min = 30.0;      ///< default for EVAs and rover drives
+    double walk_speed_km_h = 3.0;      ///< for EVAs that give distance_km
+    double drive_speed_km_h = 10.0;    ///< for rover drives that give distance_km
     double all_clear_h = 24.0;         ///< fixed all-clear after t0 ...
     /// ... or, when set, the all-clear comes once the omnidirectional-per-steradian flux above
     /// all_clear_above_MeV has fallen below all_clear_flux_per_cm2_s_sr (after its peak).

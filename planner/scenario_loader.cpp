@@ -681,8 +681,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
 
     // [[activity]]
     for (const auto* t : entries(root, "activity", file)) {
-        const Section s(*t, file, "activity",
-                        {"crew", "kind", "location", "start", "end", "return_min", "refuge"});
+        const Section s(
+            *t, file, "activity",
+            {"crew", "kind", "location", "start", "end", "return_min", "refuge", "distance_km"});
         ActivitySpec a;
         a.where = s.where();
         a.crew = s.strings("crew");
@@ -715,8 +716,16 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                    "lies outside the mission (mission.start to mission.end)");
         }
         const bool outside = a.kind == ActivityKind::eva || a.kind == ActivityKind::rover;
-        if (s.has("return_min") && !outside) {
-            s.fail("return_min", "applies to kind = \"eva\" or \"rover\" only");
+        for (const std::string key : {"return_min", "distance_km"}) {
+            if (s.has(key) && !outside) {
+                s.fail(key, "applies to kind = \"eva\" or \"rover\" only");
+            }
+        }
+        if (s.has("return_min") && s.has("distance_km")) {
+            s.fail("distance_km", "give return_min or distance_km, not both");
+        }
+        if (s.has("distance_km")) {
+            a.distance_km = s.non_negative("distance_km");
         }
         if (s.has("refuge") && !outside && a.kind != ActivityKind::transit) {
             s.fail("refuge", "applies to kind = \"eva\", \"rover\" or \"transit\" only");
@@ -756,7 +765,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     if (top.has("storm_response")) {
         const Section s(top.table("storm_response"), file, "storm_response",
                         {"shelter", "warning_delay_min", "move_to_shelter_min", "eva_return_min",
-                         "all_clear_h", "all_clear_above_MeV", "all_clear_flux_per_cm2_s_sr"});
+                         "walk_speed_km_h", "drive_speed_km_h", "all_clear_h",
+                         "all_clear_above_MeV", "all_clear_flux_per_cm2_s_sr"});
         StormPolicy& p = sc.storm;
         p.where = s.where();
         p.given = true;
@@ -772,6 +782,12 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (s.has("eva_return_min")) {
             p.eva_return_min = s.non_negative("eva_return_min");
+        }
+        if (s.has("walk_speed_km_h")) {
+            p.walk_speed_km_h = s.positive("walk_speed_km_h");
+        }
+        if (s.has("drive_speed_km_h")) {
+            p.drive_speed_km_h = s.positive("drive_speed_km_h");
         }
         if (s.has("all_clear_h") && s.has("all_clear_above_MeV")) {
             s.fail("all_clear_h", "give either all_clear_h (a fixed time) or "

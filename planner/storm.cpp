@@ -60,7 +60,13 @@ std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
     if (outside(*at_warning)) {
         const auto& a = *at_warning->activity;
         cover = a.refuge.value_or(policy.shelter);
-        delay = minutes_d(a.return_min.value_or(policy.eva_return_min));
+        double minutes = a.return_min.value_or(policy.eva_return_min);
+        if (a.distance_km) {
+            const double speed =
+                a.kind == ActivityKind::rover ? policy.drive_speed_km_h : policy.walk_speed_km_h;
+            minutes = 60.0 * *a.distance_km / speed;
+        }
+        delay = minutes_d(minutes);
         cover_label = "storm response: under cover at " + cover;
     }
     // In transit the crew can only use the vehicle's own shelter, if it has one.

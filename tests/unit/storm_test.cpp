@@ -342,3 +342,29 @@ TEST_CASE("storm: an EVA outside the swept onsets is not called GO", "[storm]") 
               std::string::npos);
     }
 }
+
+TEST_CASE("storm: an EVA's return time from its distance and the walking speed", "[storm]") {
+    // By construction: 2 km at 3 km/h is the 40 minutes the plain timeline gives.
+    std::string timeline = kTimeline;
+    timeline.replace(timeline.find("return_min = 40"), 15, "distance_km = 2.0");
+    const Study by_distance(parse_scenario(plan(timeline, kPolicy), "storm.toml"));
+    const Study by_time(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const Time onset = parse_command_time("2032-01-03T10:00:00Z", "x");
+    const auto a = StormContext(by_distance, "spe", true).at(onset);
+    const auto b = StormContext(by_time, "spe", true).at(onset);
+    REQUIRE(a.crew[0].responded.size() == b.crew[0].responded.size());
+    for (std::size_t i = 0; i < a.crew[0].responded.size(); ++i) {
+        CHECK(a.crew[0].responded[i].end == b.crew[0].responded[i].end);
+    }
+    CHECK(a.crew[0].organs[0].with_response_mGyEq ==
+          Approx(b.crew[0].organs[0].with_response_mGyEq).epsilon(1e-12));
+    std::string both = timeline;
+    both.replace(both.find("distance_km = 2.0"), 17, "distance_km = 2.0\nreturn_min = 5");
+    try {
+        (void)parse_scenario(plan(both, kPolicy), "storm.toml");
+        FAIL("accepted return_min with distance_km");
+    } catch (const InputError& e) {
+        CHECK(std::string(e.what()).find("activity.distance_km: give return_min or distance_km, "
+                                         "not both") != std::string::npos);
+    }
+}
