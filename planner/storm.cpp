@@ -44,22 +44,47 @@ const TimelineSpan* span_at(const std::vector<TimelineSpan>& spans, Time t) {
 
 } // namespace
 
-std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
-                                  const StormPolicy& policy, const StormTimes& t) {
+namespace {
+
+// What a piece of a responded timeline is.
+enum class Piece { planned, returning, moving, covered, moving_after_transit, cancelled };
+
+// The response's decisions for one crew member and one onset, made once.
+struct Response {
+    const TimelineSpan* at_warning = nullptr;
+    std::string cover; // location id under cover
+    Time covered;      // when the crew member is under cover (or, in transit, unused)
+    bool keeps_plan = false;
+    Time landed;         // keeps_plan: the end of the transit
+    Time landed_covered; // ... plus move_to_shelter_min
+};
+
+// Calls emit(a, b, location, kind, planned span) for the responded timeline in time order,
+// without building it: the planned spans outside the storm window pass through unchanged.
+template <class Emit>
+void respond_each(const std::vector<TimelineSpan>& planned, const StormPolicy& policy,
+                  const StormTimes& t, Emit&& emit) {
+    auto pass_through = [&] {
+        for (const auto& s : planned) {
+            emit(s.start, s.end, s.location, Piece::planned, s);
+        }
+    };
     if (!(t.all_clear > t.warning) || planned.empty()) {
-        return planned;
+        pass_through();
+        return;
     }
     const TimelineSpan* at_warning = span_at(planned, t.warning);
     if (!at_warning) {
-        return planned; // the warning comes after the timeline ends
+        pass_through(); // the warning comes after the timeline ends
+        return;
     }
-    // Where the crew member is once covered, and when.
-    std::string cover = policy.shelter;
+    Response r;
+    r.at_warning = at_warning;
+    r.cover = policy.shelter;
     time_duration delay = minutes_d(policy.move_to_shelter_min);
-    std::string cover_label = "storm response: in the shelter at " + policy.shelter;
     if (outside(*at_warning)) {
         const auto& a = *at_warning->activity;
-        cover = a.refuge.value_or(policy.shelter);
+        r.cover = a.refuge.value_or(policy.shelter);
         double minutes = a.return_min.value_or(policy.eva_return_min);
         if (a.distance_km) {
             const double speed =
@@ -67,78 +92,146 @@ std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
             minutes = 60.0 * *a.distance_km / speed;
         }
         delay = minutes_d(minutes);
-        cover_label = "storm response: under cover at " + cover;
     }
     // In transit the crew can only use the vehicle's own shelter, if it has one.
     const bool transit_refuge = in_transit(*at_warning) && at_warning->activity->refuge;
     if (transit_refuge) {
-        cover = *at_warning->activity->refuge;
-        cover_label = "storm response: in the vehicle's shelter at " + cover;
+        r.cover = *at_warning->activity->refuge;
     }
-    const bool keeps_plan = in_transit(*at_warning) && !transit_refuge;
-    const Time covered = t.warning + delay;
+    r.keeps_plan = in_transit(*at_warning) && !transit_refuge;
+    r.covered = t.warning + delay;
     // A transit without a shelter on board that ends during the storm: from its end the crew
     // take move_to_shelter_min to reach the shelter.
-    const Time landed = keeps_plan ? at_warning->end : t.warning;
-    const Time landed_covered = landed + minutes_d(policy.move_to_shelter_min);
-    // Boundaries where the location can change.
-    std::set<Time> cuts{t.warning, std::min(covered, t.all_clear), t.all_clear};
-    if (keeps_plan && landed < t.all_clear) {
-        cuts.insert(landed);
-        cuts.insert(std::min(landed_covered, t.all_clear));
-    }
-    for (const auto& s : planned) {
-        cuts.insert(s.start);
-        cuts.insert(s.end);
-    }
+    r.landed = r.keeps_plan ? at_warning->end : t.warning;
+    r.landed_covered = r.landed + minutes_d(policy.move_to_shelter_min);
     // Outside activities interrupted or cancelled by the warning: their remaining time after
     // the all-clear is spent where the response left the crew member.
     auto cancelled = [&](const TimelineSpan& s) {
         return outside(s) && s.start < t.all_clear && s.end > t.warning;
     };
-    std::vector<TimelineSpan> out;
-    const Time end = planned.back().end;
-    for (auto it = cuts.begin(); it != cuts.end(); ++it) {
-        const Time a = *it;
-        const auto next = std::next(it);
-        if (next == cuts.end() || a >= end) {
-            break;
-        }
-        const Time b = *next;
-        const TimelineSpan* p = span_at(planned, a);
-        if (!p) {
-            continue;
-        }
-        TimelineSpan piece{a, b, p->location, p->label, p->activity};
-        if (a >= t.warning && a < t.all_clear) {
-            if (keeps_plan && in_transit(*p)) {
-                // In transit without a shelter on board: the plan goes on.
-            } else if (keeps_plan && a < landed_covered) {
-                piece.label = "storm response: moving to the shelter after " + at_warning->label;
-            } else if (a < covered && !keeps_plan) {
-                piece.location = at_warning->location;
-                piece.label =
-                    outside(*at_warning)
-                        ? "storm response: returning from " + at_warning->label
-                        : "storm response: moving to the shelter from " + at_warning->label;
-                piece.activity = at_warning->activity;
-            } else {
-                piece.location = cover;
-                piece.label = cover_label;
-                piece.activity = nullptr;
-            }
-        } else if (a >= t.all_clear && cancelled(*p)) {
-            piece.location = cover;
-            piece.label = "storm response: " + p->label + " cancelled, stays at " + cover;
-            piece.activity = nullptr;
-        }
-        if (!out.empty() && out.back().location == piece.location &&
-            out.back().label == piece.label && out.back().end == piece.start) {
-            out.back().end = piece.end;
-        } else {
-            out.push_back(piece);
+    // The storm window: from the warning to the all-clear or the end of the last cancelled
+    // activity; cut where the location can change.
+    Time window_end = t.all_clear;
+    for (const auto& s : planned) {
+        if (cancelled(s)) {
+            window_end = std::max(window_end, s.end);
         }
     }
+    window_end = std::min(window_end, planned.back().end);
+    std::vector<Time> cuts{t.warning, std::min(r.covered, t.all_clear), t.all_clear, window_end};
+    if (r.keeps_plan && r.landed < t.all_clear) {
+        cuts.push_back(r.landed);
+        cuts.push_back(std::min(r.landed_covered, t.all_clear));
+    }
+    for (const auto& s : planned) {
+        for (const Time x : {s.start, s.end}) {
+            if (x > t.warning && x < window_end) {
+                cuts.push_back(x);
+            }
+        }
+    }
+    std::sort(cuts.begin(), cuts.end());
+    cuts.erase(std::unique(cuts.begin(), cuts.end()), cuts.end());
+    std::size_t k = 0; // the planned span at the current time
+    // Before the warning: the plan.
+    for (; k < planned.size() && planned[k].start < t.warning; ++k) {
+        const auto& s = planned[k];
+        emit(s.start, std::min(s.end, t.warning), s.location, Piece::planned, s);
+        if (s.end > t.warning) {
+            break;
+        }
+    }
+    // The window.
+    for (std::size_t c = 0; c + 1 < cuts.size(); ++c) {
+        const Time a = cuts[c];
+        const Time b = cuts[c + 1];
+        if (a < t.warning || a >= window_end) {
+            continue;
+        }
+        while (k < planned.size() && planned[k].end <= a) {
+            ++k;
+        }
+        if (k == planned.size()) {
+            break;
+        }
+        const TimelineSpan& p = planned[k];
+        if (p.start > a) {
+            continue; // a gap in the plan (not possible after crew_timeline)
+        }
+        if (a < t.all_clear) {
+            if (r.keeps_plan && in_transit(p)) {
+                emit(a, b, p.location, Piece::planned, p); // no shelter on board: plan goes on
+            } else if (r.keeps_plan && a < r.landed_covered) {
+                emit(a, b, p.location, Piece::moving_after_transit, p);
+            } else if (a < r.covered && !r.keeps_plan) {
+                emit(a, b, at_warning->location,
+                     outside(*at_warning) ? Piece::returning : Piece::moving, *at_warning);
+            } else {
+                emit(a, b, r.cover, Piece::covered, p);
+            }
+        } else if (cancelled(p)) {
+            emit(a, b, r.cover, Piece::cancelled, p);
+        } else {
+            emit(a, b, p.location, Piece::planned, p);
+        }
+    }
+    // After the window: the plan.
+    for (; k < planned.size(); ++k) {
+        const auto& s = planned[k];
+        if (s.end <= window_end) {
+            continue;
+        }
+        emit(std::max(s.start, window_end), s.end, s.location, Piece::planned, s);
+    }
+}
+
+} // namespace
+
+std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
+                                  const StormPolicy& policy, const StormTimes& t) {
+    std::vector<TimelineSpan> out;
+    const TimelineSpan* at_warning = span_at(planned, t.warning);
+    respond_each(
+        planned, policy, t,
+        [&](Time a, Time b, const std::string& location, Piece kind, const TimelineSpan& p) {
+            if (!(b > a)) {
+                return;
+            }
+            TimelineSpan piece{a, b, location, p.label, p.activity};
+            switch (kind) {
+            case Piece::planned:
+                break;
+            case Piece::returning:
+                piece.label = "storm response: returning from " + p.label;
+                break;
+            case Piece::moving:
+                piece.label = "storm response: moving to the shelter from " + p.label;
+                break;
+            case Piece::moving_after_transit:
+                piece.label = "storm response: moving to the shelter after " +
+                              (at_warning ? at_warning->label : p.label);
+                break;
+            case Piece::covered:
+                piece.label = (at_warning && in_transit(*at_warning)
+                                   ? "storm response: in the vehicle's shelter at "
+                                   : (at_warning && outside(*at_warning)
+                                          ? "storm response: under cover at "
+                                          : "storm response: in the shelter at ")) +
+                              location;
+                piece.activity = nullptr;
+                break;
+            case Piece::cancelled:
+                piece.label = "storm response: " + p.label + " cancelled, stays at " + location;
+                piece.activity = nullptr;
+                break;
+            }
+            if (!out.empty() && out.back().location == piece.location &&
+                out.back().label == piece.label && out.back().end == piece.start) {
+                out.back().end = piece.end;
+            } else {
+                out.push_back(std::move(piece));
+            }
+        });
     return out;
 }
 
@@ -263,6 +356,18 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     }
 }
 
+void StormContext::add_piece(std::array<double, 3>& d, Time from, Time to,
+                             const std::string& location, Time onset) const {
+    const double a = hours(from - onset);
+    const double b = hours(to - onset);
+    const auto& c = by_location_.at(location);
+    for (std::size_t k = 0; k < 3; ++k) {
+        if (c[k].mGyEq > 0.0) {
+            d[k] += c[k].mGyEq * c[k].timing->fraction_between(a, b, event_->profile);
+        }
+    }
+}
+
 std::array<double, 3> StormContext::doses_over(const std::vector<TimelineSpan>& spans,
                                                Time onset) const {
     const Time stop = onset + minutes_d(60.0 * horizon_h_);
@@ -271,14 +376,7 @@ std::array<double, 3> StormContext::doses_over(const std::vector<TimelineSpan>& 
         if (s.end <= onset || s.start >= stop) {
             continue;
         }
-        const double a = hours(std::max(s.start, onset) - onset);
-        const double b = hours(std::min(s.end, stop) - onset);
-        const auto& c = by_location_.at(s.location);
-        for (std::size_t k = 0; k < 3; ++k) {
-            if (c[k].mGyEq > 0.0) {
-                d[k] += c[k].mGyEq * c[k].timing->fraction_between(a, b, event_->profile);
-            }
-        }
+        add_piece(d, std::max(s.start, onset), std::min(s.end, stop), s.location, onset);
     }
     return d;
 }
@@ -302,8 +400,19 @@ StormTimes StormContext::times_at(Time onset) const {
 double StormContext::worst_ratio_at(Time onset, std::size_t i,
                                     std::array<double, 3>* with_mGyEq) const {
     const StormTimes t = times_at(onset);
-    const auto d = respond_ ? doses_over(respond(planned_[i], study_.scenario().storm, t), onset)
-                            : doses_over(planned_[i], onset);
+    std::array<double, 3> d{0.0, 0.0, 0.0};
+    if (respond_) {
+        const Time stop = onset + minutes_d(60.0 * horizon_h_);
+        respond_each(planned_[i], study_.scenario().storm, t,
+                     [&](Time a, Time b, const std::string& location, Piece, const TimelineSpan&) {
+                         if (b <= onset || a >= stop) {
+                             return;
+                         }
+                         add_piece(d, std::max(a, onset), std::min(b, stop), location, onset);
+                     });
+    } else {
+        d = doses_over(planned_[i], onset);
+    }
     double worst = 0.0;
     for (std::size_t k = 0; k < 3; ++k) {
         worst = std::max(worst, (d[k] + other_[i].at(kOrgans[k])) / limits_30d_.at(kOrgans[k]));

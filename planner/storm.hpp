@@ -93,6 +93,9 @@ class StormContext {
     [[nodiscard]] std::array<double, 3> doses_over(const std::vector<TimelineSpan>& spans,
                                                    Time onset) const;
     StormTimes times_at(Time onset) const;
+    /// Adds the event's dose between `from` and `to` at `location` to `d`.
+    void add_piece(std::array<double, 3>& d, Time from, Time to, const std::string& location,
+                   Time onset) const;
 
     struct Cached {
         double mGyEq = 0.0; ///< the whole event there, factor applied
