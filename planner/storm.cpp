@@ -46,6 +46,17 @@ const TimelineSpan* span_at(const std::vector<TimelineSpan>& spans, Time t) {
 
 namespace {
 
+// How long crew on an EVA or drive take to reach cover once warned.
+time_duration return_time(const ActivitySpec& a, const StormPolicy& policy) {
+    double minutes = a.return_min.value_or(policy.eva_return_min);
+    if (a.distance_km) {
+        const double speed =
+            a.kind == ActivityKind::rover ? policy.drive_speed_km_h : policy.walk_speed_km_h;
+        minutes = 60.0 * *a.distance_km / speed;
+    }
+    return minutes_d(minutes);
+}
+
 // What a piece of a responded timeline is.
 enum class Piece { planned, returning, moving, covered, moving_after_transit, cancelled };
 
@@ -85,13 +96,7 @@ void respond_each(const std::vector<TimelineSpan>& planned, const StormPolicy& p
     if (outside(*at_warning)) {
         const auto& a = *at_warning->activity;
         r.cover = a.refuge.value_or(policy.shelter);
-        double minutes = a.return_min.value_or(policy.eva_return_min);
-        if (a.distance_km) {
-            const double speed =
-                a.kind == ActivityKind::rover ? policy.drive_speed_km_h : policy.walk_speed_km_h;
-            minutes = 60.0 * *a.distance_km / speed;
-        }
-        delay = minutes_d(minutes);
+        delay = return_time(a, policy);
     }
     // In transit the crew can only use the vehicle's own shelter, if it has one.
     const bool transit_refuge = in_transit(*at_warning) && at_warning->activity->refuge;
@@ -100,6 +105,11 @@ void respond_each(const std::vector<TimelineSpan>& planned, const StormPolicy& p
     }
     r.keeps_plan = in_transit(*at_warning) && !transit_refuge;
     r.covered = t.warning + delay;
+    if (outside(*at_warning)) {
+        // The plan already brings the crew back by the activity's end: the response never keeps
+        // them out longer than planned.
+        r.covered = std::min(r.covered, at_warning->end);
+    }
     // A transit without a shelter on board that ends during the storm: from its end the crew
     // take move_to_shelter_min to reach the shelter.
     r.landed = r.keeps_plan ? at_warning->end : t.warning;
@@ -475,6 +485,17 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover &&
             a.kind != ActivityKind::transit) {
             continue;
+        }
+        // The warning plus the return time meeting the activity's end: from there on the
+        // response keeps the crew out as long as the plan does.
+        if (a.kind != ActivityKind::transit) {
+            for (const Time o :
+                 {a.end - warn - return_time(a, sc.storm),
+                  a.end - warn - return_time(a, sc.storm) - boost::posix_time::seconds(1)}) {
+                if (o >= from && o <= to) {
+                    onsets.insert(o);
+                }
+            }
         }
         for (const Time edge : {a.start, a.end}) {
             for (const auto& lead : leads) {

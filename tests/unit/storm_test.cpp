@@ -368,3 +368,23 @@ TEST_CASE("storm: an EVA's return time from its distance and the walking speed",
                                          "not both") != std::string::npos);
     }
 }
+
+TEST_CASE("storm: the response never keeps the crew out longer than the plan does", "[storm]") {
+    const Study study(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    // Warned at 13:50, 40 minutes from cover, but the EVA was planned to end at 14:00 (by
+    // construction the crew are then back): outside until 14:00 only.
+    const auto late = ctx.at(parse_command_time("2032-01-03T13:40:00Z", "x"));
+    REQUIRE(late.crew[0].responded.size() >= 3);
+    CHECK(late.crew[0].responded[1].location == "outside");
+    CHECK(late.crew[0].responded[1].end == parse_command_time("2032-01-03T14:00:00Z", "x"));
+    CHECK(late.crew[0].responded[2].location == "shelter");
+    // Over a day of onsets around the EVA, the response never adds dose.
+    for (int m = 0; m <= 24 * 60; m += 20) {
+        const auto w =
+            ctx.at(parse_command_time("2032-01-03T00:00:00Z", "x") + boost::posix_time::minutes(m));
+        for (const auto& o : w.crew[0].organs) {
+            CHECK(o.with_response_mGyEq <= o.without_response_mGyEq * (1.0 + 1e-12));
+        }
+    }
+}
