@@ -13,8 +13,6 @@ namespace {
 
 using boost::posix_time::time_duration;
 
-const std::vector<std::string> kOrgans{"bfo", "lens", "skin"};
-
 double cumulative(const std::vector<DosePiece>& pieces, const Time& t) {
     double sum = 0.0;
     for (const auto& p : pieces) {
@@ -188,7 +186,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
         result.crew = crew.id;
         result.name = crew.name;
         double lowest_margin = 1e300;
-        for (const auto& organ : kOrgans) {
+        for (const auto& organ : limited_organs()) {
             std::vector<DosePiece> pieces;
             for (const auto& span : filled) {
                 for (const auto& ev : sc.events) {

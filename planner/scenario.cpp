@@ -99,6 +99,11 @@ const LocationSpec& Scenario::location_named(const std::string& id,
     return named(locations, id, option, "location");
 }
 
+const std::vector<std::string>& limited_organs() {
+    static const std::vector<std::string> organs{"bfo", "lens", "skin"};
+    return organs;
+}
+
 std::vector<Limit> default_limits() {
     // Planning defaults, never official limits. NCRP Report 132 (2000) for BFO, lens and skin
     // (from memory); career effective dose 600 mSv from the 2022 revision of NASA-STD-3001

@@ -218,6 +218,9 @@ struct Scenario {
 /// Planning-default limits (each labelled with its basis; never official).
 [[nodiscard]] std::vector<Limit> default_limits();
 
+/// The organs with organ-dose limits (bfo, lens, skin), in the order reports list them.
+[[nodiscard]] const std::vector<std::string>& limited_organs();
+
 /// Reads and validates a scenario file; InputError with file:line: key on any problem.
 [[nodiscard]] Scenario load_scenario(const std::string& path);
 /// The same from text (tests), with `file_name` used in messages.

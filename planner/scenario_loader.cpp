@@ -209,11 +209,9 @@ std::vector<const toml::table*> entries(const toml::table& root, const std::stri
     return out;
 }
 
-const std::set<std::string> kOrgans{"bfo", "lens", "skin"};
-
 OrganDoses read_doses(const Section& s) {
     OrganDoses d;
-    for (const auto& organ : kOrgans) {
+    for (const auto& organ : limited_organs()) {
         if (s.has(organ + "_mGyEq")) {
             d.mGyEq[organ] = s.non_negative(organ + "_mGyEq");
         }
@@ -225,7 +223,7 @@ OrganDoses read_doses(const Section& s) {
 }
 
 std::set<std::string> with_dose_keys(std::set<std::string> keys) {
-    for (const auto& organ : kOrgans) {
+    for (const auto& organ : limited_organs()) {
         keys.insert(organ + "_mGyEq");
     }
     keys.insert("effective_mSv");

@@ -278,7 +278,8 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
     }
     for (const auto& [organ, value] : request.targets) {
-        if (organ != "bfo" && organ != "lens" && organ != "skin") {
+        const auto& organs = limited_organs();
+        if (std::find(organs.begin(), organs.end(), organ) == organs.end()) {
             throw InputError(kCommandLine, "--target",
                              fmt::format("unknown organ '{}'; allowed: bfo, lens, skin", organ));
         }

@@ -22,7 +22,7 @@ time_duration minutes_d(double m) {
     return boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(m * 6e7)));
 }
 
-const std::vector<std::string> kOrgans{"bfo", "lens", "skin"};
+const std::vector<std::string>& kOrgans = limited_organs();
 
 bool outside(const TimelineSpan& s) {
     return s.activity &&
