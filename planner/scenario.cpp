@@ -1,4 +1,5 @@
 #include "scenario.hpp"
+#include "time_format.hpp"
 
 #include "exposure/arrival.hpp"
 
@@ -50,9 +51,7 @@ double EventSpec::delay_h(double energy_MeV) const {
 }
 
 Time EventSpec::arrival() const {
-    const double h = delay_h(1000.0);
-    return flare_seen +
-           boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(h * 3.6e9)));
+    return flare_seen + duration_from_hours(delay_h(1000.0));
 }
 
 double EventSpec::fluence_scale(double exponent) const {

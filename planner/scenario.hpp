@@ -221,6 +221,10 @@ struct Scenario {
 /// The organs with organ-dose limits (bfo, lens, skin), in the order reports list them.
 [[nodiscard]] const std::vector<std::string>& limited_organs();
 
+/// An RFC 3339 date-time with its offset ("2032-03-11T10:30:00Z"), read as TOML reads it; nullopt
+/// when the text is not one, or its year lies outside 1400..9999 (then `bad_year` is set).
+[[nodiscard]] std::optional<Time> parse_rfc3339(const std::string& text, bool* bad_year = nullptr);
+
 /// Reads and validates a scenario file; InputError with file:line: key on any problem.
 [[nodiscard]] Scenario load_scenario(const std::string& path);
 /// The same from text (tests), with `file_name` used in messages.

@@ -27,6 +27,20 @@ namespace crewdose::planner {
 namespace {
 
 // One TOML table being read: knows its file, its name for messages, and which keys it allows.
+
+// A TOML date-time with its offset as a UTC time; nullopt outside the years Boost takes.
+std::optional<Time> from_toml(const toml::date_time& v) {
+    try {
+        const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
+        return Time(day, boost::posix_time::hours(v.time.hour) +
+                             boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
+                             boost::posix_time::seconds(v.time.second) +
+                             boost::posix_time::microseconds(v.time.nanosecond / 1000));
+    } catch (const std::exception&) {
+        return std::nullopt;
+    }
+}
+
 class Section {
   public:
     Section(const toml::table& t, std::string file, std::string name, std::set<std::string> allowed)
@@ -113,13 +127,11 @@ class Section {
             fail(key, "must be an RFC 3339 date-time with its UTC offset, e.g. "
                       "2031-05-01T06:00:00Z");
         }
-        const toml::date_time v = dt->get();
-        const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
-        const auto tod = boost::posix_time::hours(v.time.hour) +
-                         boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
-                         boost::posix_time::seconds(v.time.second) +
-                         boost::posix_time::microseconds(v.time.nanosecond / 1000);
-        return Time(day, tod);
+        const auto t = from_toml(dt->get());
+        if (!t) {
+            fail(key, "the year must lie from 1400 to 9999");
+        }
+        return *t;
     }
 
     [[nodiscard]] std::vector<double> numbers(const std::string& key, std::size_t count) const {
@@ -284,6 +296,24 @@ std::vector<SuitLayer> read_suit_layers(const Section& s, const std::string& key
 }
 
 } // namespace
+
+std::optional<Time> parse_rfc3339(const std::string& text, bool* bad_year) {
+    toml::table t;
+    try {
+        t = toml::parse("t = " + text);
+    } catch (const toml::parse_error&) {
+        return std::nullopt;
+    }
+    const auto* dt = t["t"].as_date_time();
+    if (!dt || !dt->get().offset || t.size() != 1) {
+        return std::nullopt;
+    }
+    const auto time = from_toml(dt->get());
+    if (bad_year) {
+        *bad_year = !time;
+    }
+    return time;
+}
 
 Scenario parse_scenario(const std::string& text, const std::string& file) {
     toml::table root;

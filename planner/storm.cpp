@@ -4,10 +4,8 @@
 #include "number_format.hpp"
 #include "time_format.hpp"
 
-#include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
-#include <toml++/toml.h>
 
 #include <algorithm>
 #include <cmath>
@@ -19,7 +17,7 @@ namespace {
 using boost::posix_time::time_duration;
 
 time_duration minutes_d(double m) {
-    return boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(m * 6e7)));
+    return duration_from_hours(m / 60.0);
 }
 
 const std::vector<std::string>& kOrgans = limited_organs();
@@ -646,30 +644,15 @@ std::string policy_text(const StormPolicy& p) {
 } // namespace
 
 Time parse_command_time(const std::string& text, const std::string& option) {
-    const std::string allowed =
-        fmt::format("'{}' is not an RFC 3339 date-time with its offset; write for example "
-                    "2032-03-11T10:30:00Z",
-                    text);
-    toml::table t;
-    try {
-        t = toml::parse("t = " + text);
-    } catch (const toml::parse_error&) {
-        throw InputError({"command line", 0}, option, allowed);
+    bool bad_year = false;
+    if (const auto t = parse_rfc3339(text, &bad_year)) {
+        return *t;
     }
-    const auto* dt = t["t"].as_date_time();
-    if (!dt || !dt->get().offset) {
-        throw InputError({"command line", 0}, option, allowed);
-    }
-    const toml::date_time v = dt->get();
-    try {
-        const boost::gregorian::date day(v.date.year, v.date.month, v.date.day);
-        return Time(day, boost::posix_time::hours(v.time.hour) +
-                             boost::posix_time::minutes(v.time.minute - v.offset->minutes) +
-                             boost::posix_time::seconds(v.time.second));
-    } catch (const std::exception&) {
-        throw InputError({"command line", 0}, option,
-                         fmt::format("'{}': the year must lie from 1400 to 9999", text));
-    }
+    throw InputError({"command line", 0}, option,
+                     bad_year ? fmt::format("'{}': the year must lie from 1400 to 9999", text)
+                              : fmt::format("'{}' is not an RFC 3339 date-time with its offset; "
+                                            "write for example 2032-03-11T10:30:00Z",
+                                            text));
 }
 
 time_duration parse_duration(const std::string& text, const std::string& option) {

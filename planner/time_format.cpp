@@ -1,5 +1,8 @@
 #include "time_format.hpp"
 
+#include <cmath>
+#include <cstdint>
+
 namespace crewdose::planner {
 
 std::string format_time(const boost::posix_time::ptime& t) {
@@ -16,6 +19,10 @@ std::string format_time(const boost::posix_time::ptime& t) {
 
 double hours(const boost::posix_time::time_duration& d) {
     return static_cast<double>(d.total_microseconds()) / 3.6e9;
+}
+
+boost::posix_time::time_duration duration_from_hours(double h) {
+    return boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(h * 3.6e9)));
 }
 
 } // namespace crewdose::planner

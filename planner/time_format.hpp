@@ -12,6 +12,8 @@ namespace crewdose::planner {
 [[nodiscard]] std::string format_time(const boost::posix_time::ptime& t);
 /// A duration in hours, for reports.
 [[nodiscard]] double hours(const boost::posix_time::time_duration& d);
+/// The duration of `h` hours, to the microsecond.
+[[nodiscard]] boost::posix_time::time_duration duration_from_hours(double h);
 
 } // namespace crewdose::planner
 
