@@ -61,13 +61,22 @@ double rigidity_of(const Particle& p, double T_MeV_per_n) {
     return static_cast<double>(p.A) / static_cast<double>(p.Z) * std::sqrt(T * (T + 2.0 * Tr));
 }
 
-// Force-field factor J / J_LIS at T for the shape in the particle's rigidity.
-double modulation_factor(const Particle& p, double T, double phi_MV) {
-    const double Phi = static_cast<double>(p.Z) / static_cast<double>(p.A) * phi_MV;
+// Force field (Gleeson & Axford 1968): the energy per nucleon outside the heliosphere, T + Phi
+// with Phi = (Z/A) phi, and the factor J(T) / J_LIS(T + Phi) = T (T + 2 T_r) / (Ts (Ts + 2 T_r)).
+double shifted_energy(const Particle& p, double T, double phi_MV) {
+    return T + static_cast<double>(p.Z) / static_cast<double>(p.A) * phi_MV;
+}
+
+double force_field_factor(const Particle& p, double T, double Ts) {
     const double Tr = p.mass_per_nucleon_MeV();
-    const double Ts = T + Phi;
-    return burger_lis_shape(rigidity_of(p, Ts)) / burger_lis_shape(rigidity_of(p, T)) * T *
-           (T + 2.0 * Tr) / (Ts * (Ts + 2.0 * Tr));
+    return T * (T + 2.0 * Tr) / (Ts * (Ts + 2.0 * Tr));
+}
+
+// J / J_LIS at T for the shape in the particle's rigidity.
+double modulation_factor(const Particle& p, double T, double phi_MV) {
+    const double Ts = shifted_energy(p, T, phi_MV);
+    return burger_lis_shape(rigidity_of(p, Ts)) / burger_lis_shape(rigidity_of(p, T)) *
+           force_field_factor(p, T, Ts);
 }
 
 // Scale c_Z of the LIS of nucleus Z: J_LIS(T) = c_Z burger_lis_shape(P_Z(T)) per GeV/n.
@@ -133,10 +142,8 @@ double gcr_modulated(const Particle& particle, double T, double phi_MV) {
     if (!(phi_MV >= 0.0)) {
         throw std::logic_error("gcr_modulated: the modulation potential must be >= 0");
     }
-    const double Phi = static_cast<double>(particle.Z) / static_cast<double>(particle.A) * phi_MV;
-    const double Tr = particle.mass_per_nucleon_MeV();
-    const double Ts = T + Phi;
-    return gcr_lis(particle, Ts) * T * (T + 2.0 * Tr) / (Ts * (Ts + 2.0 * Tr));
+    const double Ts = shifted_energy(particle, T, phi_MV);
+    return gcr_lis(particle, Ts) * force_field_factor(particle, T, Ts);
 }
 
 double gcr_omnidirectional_per_cm2_day_MeV_n(const Particle& particle, double T, double phi_MV) {

@@ -296,13 +296,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
     for (const auto& [organ, target] : rep.target_mGyEq) {
         double worst = 0.0;
         for (const auto& crew : sc.crew) {
-            const double d = highest_30d_without(ledger, crew.id, organ, &ev);
-            if (d > worst) {
-                worst = d;
-                if (organ == "bfo") {
-                    rep.other_30d_crew = crew.id;
-                }
-            }
+            worst = std::max(worst, highest_30d_without(ledger, crew.id, organ, &ev));
         }
         rep.other_30d_mGyEq[organ] = worst;
     }

@@ -55,7 +55,6 @@ struct ShelterReport {
     /// (the other dose that shares the window; the highest crew member, wherever it lies).
     std::map<std::string, double> target_mGyEq;
     std::map<std::string, double> other_30d_mGyEq;
-    std::string other_30d_crew; ///< whose other dose is highest (BFO)
     std::vector<ShelterAnswer> answers;
 };
 

@@ -79,7 +79,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     // once with every phi of the mission (the responses themselves are not kept). The
     // locations are independent: they are shared among threads, each with its own tables, and
     // merged in location order, so the result does not depend on the thread count.
-    std::vector<std::map<std::pair<std::string, double>, GcrRates>> per_location(
+    std::vector<std::map<std::pair<std::string, double>, exposure::BracketedDose>> per_location(
         sc_.locations.size());
     auto gcr_location = [&](std::size_t i, exposure::TableLibrary& gcr_tables) {
         const auto& loc = sc_.locations[i];
@@ -93,13 +93,11 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                  quick_model_responses(gcr_tables, materials, where, g_dirs, particle)) {
                 for (const double phi : phis) {
                     auto& rates = per_location[i][{r.organ, phi}];
-                    rates.by_nucleus.resize(exposure::particles().size());
                     const auto d = exposure::fold(
                         r.response, exposure::gcr_node_fluences(
                                         particle, phi, r.response.node_energies_MeV_per_n));
-                    rates.by_nucleus[static_cast<std::size_t>(particle.Z - 1)] = d;
-                    rates.total.with_removal += d.with_removal;
-                    rates.total.without_removal += d.without_removal;
+                    rates.with_removal += d.with_removal;
+                    rates.without_removal += d.without_removal;
                 }
             }
         }
@@ -215,13 +213,7 @@ const ArrivalGroups& Study::event_timing(const std::string& location, const std:
 
 const exposure::BracketedDose&
 Study::gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const {
-    return gcr_rates_.at({location, organ, phi_MV}).total;
-}
-
-const std::vector<exposure::BracketedDose>&
-Study::gcr_daily_dose_by_nucleus(const std::string& location, const std::string& organ,
-                                 double phi_MV) const {
-    return gcr_rates_.at({location, organ, phi_MV}).by_nucleus;
+    return gcr_rates_.at({location, organ, phi_MV});
 }
 
 const OrganResponse& Study::response(const std::string& location, const std::string& organ) const {

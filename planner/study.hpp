@@ -65,10 +65,6 @@ class Study {
     /// cases, summed over the nuclei Z = 1..28.
     [[nodiscard]] const exposure::BracketedDose&
     gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const;
-    /// The same per nucleus (index Z - 1), for reports.
-    [[nodiscard]] const std::vector<exposure::BracketedDose>&
-    gcr_daily_dose_by_nucleus(const std::string& location, const std::string& organ,
-                              double phi_MV) const;
 
   private:
     Scenario sc_;
@@ -82,11 +78,7 @@ class Study {
     std::map<std::tuple<std::string, std::string, std::string>, ArrivalGroups> event_timing_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
-    struct GcrRates {
-        exposure::BracketedDose total;
-        std::vector<exposure::BracketedDose> by_nucleus;
-    };
-    std::map<std::tuple<std::string, std::string, double>, GcrRates> gcr_rates_;
+    std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
 };
 
 } // namespace crewdose::planner
