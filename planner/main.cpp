@@ -282,32 +282,29 @@ int main(int argc, char** argv) {
             const planner::Study study(planner::load_scenario(scenario_path));
             const planner::StormContext context(study, event_id, !no_response);
             const auto& mission = study.scenario().mission;
-            if (!storm_onset.empty()) {
-                const auto onset = planner::parse_command_time(storm_onset, "--onset");
-                if (onset < mission.start || onset > mission.end) {
-                    throw InputError({"command line", 0}, "--onset",
+            // A time option inside the mission, or its default.
+            auto mission_time = [&](const std::string& text, const char* option,
+                                    planner::Time fallback) {
+                if (text.empty()) {
+                    return fallback;
+                }
+                const auto t = planner::parse_command_time(text, option);
+                if (t < mission.start || t > mission.end) {
+                    throw InputError({"command line", 0}, option,
                                      "lies outside the mission (" +
                                          planner::format_time(mission.start) + " to " +
                                          planner::format_time(mission.end) + ")");
                 }
-                const auto w = context.at(onset);
+                return t;
+            };
+            if (!storm_onset.empty()) {
+                const auto w = context.at(mission_time(storm_onset, "--onset", mission.start));
                 write_stdout(planner::format_storm_whatif(context, w, fmt_choice));
                 return w.any_exceeded() ? 1 : 0;
             }
             const auto step = planner::parse_duration(storm_step, "--step");
-            const auto from = storm_from.empty()
-                                  ? mission.start
-                                  : planner::parse_command_time(storm_from, "--from");
-            const auto to =
-                storm_to.empty() ? mission.end : planner::parse_command_time(storm_to, "--to");
-            for (const auto& [t, name] : {std::pair{from, "--from"}, std::pair{to, "--to"}}) {
-                if (t < mission.start || t > mission.end) {
-                    throw InputError({"command line", 0}, name,
-                                     "lies outside the mission (" +
-                                         planner::format_time(mission.start) + " to " +
-                                         planner::format_time(mission.end) + ")");
-                }
-            }
+            const auto from = mission_time(storm_from, "--from", mission.start);
+            const auto to = mission_time(storm_to, "--to", mission.end);
             if (!(to > from)) {
                 throw InputError({"command line", 0}, "--to", "must be after --from");
             }

@@ -479,46 +479,47 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     const time_duration first = minutes_d(60.0 * ev.delay_h(1e4));
     std::vector<time_duration> leads{time_duration(0, 0, 0), warn, first,
                                      minutes_d(60.0 * ctx.all_clear_after_h())};
+    auto add = [&](Time o) {
+        for (const Time x : {o, o - boost::posix_time::seconds(1)}) {
+            if (x >= from && x <= to) {
+                onsets.insert(x);
+            }
+        }
+    };
+    // The outside activities (EVAs and drives), each with its crew members' indices.
+    std::vector<std::pair<const ActivitySpec*, std::vector<std::size_t>>> outside_activities;
     for (const auto& a : sc.activities) {
-        if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover &&
-            a.kind != ActivityKind::transit) {
+        const bool out_of_doors = a.kind == ActivityKind::eva || a.kind == ActivityKind::rover;
+        if (!out_of_doors && a.kind != ActivityKind::transit) {
+            continue;
+        }
+        for (const Time edge : {a.start, a.end}) {
+            for (const auto& lead : leads) {
+                add(edge - lead);
+            }
+        }
+        if (!out_of_doors) {
             continue;
         }
         // The warning plus the return time meeting the activity's end: from there on the
         // response keeps the crew out as long as the plan does.
-        if (a.kind != ActivityKind::transit) {
-            for (const Time o :
-                 {a.end - warn - return_time(a, sc.storm),
-                  a.end - warn - return_time(a, sc.storm) - boost::posix_time::seconds(1)}) {
-                if (o >= from && o <= to) {
-                    onsets.insert(o);
-                }
+        add(a.end - warn - return_time(a, sc.storm));
+        std::vector<std::size_t> members;
+        for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+            if (std::find(a.crew.begin(), a.crew.end(), sc.crew[i].id) != a.crew.end()) {
+                members.push_back(i);
             }
         }
-        for (const Time edge : {a.start, a.end}) {
-            for (const auto& lead : leads) {
-                for (const Time o : {edge - lead, edge - lead - boost::posix_time::seconds(1)}) {
-                    if (o >= from && o <= to) {
-                        onsets.insert(o);
-                    }
-                }
-            }
-        }
+        outside_activities.emplace_back(&a, std::move(members));
+        StormSweep::Eva e;
+        e.label = fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line);
+        e.start = a.start;
+        e.end = a.end;
+        out.evas.push_back(e);
     }
     out.onsets = onsets.size();
     out.worst.resize(sc.crew.size());
     std::vector<double> worst_ratio(sc.crew.size(), -1.0);
-    for (const auto& a : sc.activities) {
-        if (a.kind == ActivityKind::eva || a.kind == ActivityKind::rover) {
-            StormSweep::Eva e;
-            e.label =
-                fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line);
-            e.start = a.start;
-            e.end = a.end;
-            e.ratio = -1.0;
-            out.evas.push_back(e);
-        }
-    }
     const time_duration bin = boost::posix_time::hours(6);
     std::map<Time, double> profile;
     std::size_t done = 0;
@@ -536,34 +537,27 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
                 from + bin * static_cast<int>((o - from).total_seconds() / bin.total_seconds());
             profile[b] = std::max(profile[b], ratio[i]);
         }
-        std::size_t k = 0;
-        for (const auto& a : sc.activities) {
-            if (a.kind != ActivityKind::eva && a.kind != ActivityKind::rover) {
+        for (std::size_t k = 0; k < outside_activities.size(); ++k) {
+            const auto& [a, members] = outside_activities[k];
+            auto& e = out.evas[k];
+            if (o < a->start || o >= a->end) {
                 continue;
             }
-            auto& e = out.evas[k++];
-            if (o < a.start || o >= a.end) {
-                continue;
-            }
-            for (std::size_t i = 0; i < sc.crew.size(); ++i) {
-                if (std::find(a.crew.begin(), a.crew.end(), sc.crew[i].id) == a.crew.end()) {
+            for (const std::size_t i : members) {
+                if (ratio[i] <= e.ratio) {
                     continue;
                 }
-                if (ratio[i] > e.ratio) {
-                    e.ratio = ratio[i];
-                    e.worst_onset = o;
-                    e.crew = sc.crew[i].id;
-                    std::size_t worst_k = 0;
-                    double best = -1.0;
-                    for (std::size_t q = 0; q < 3; ++q) {
-                        const double rq = (doses[i][q] + ctx.other(i, q)) / ctx.limit(q);
-                        if (rq > best) {
-                            best = rq;
-                            worst_k = q;
-                        }
+                e.ratio = ratio[i];
+                e.worst_onset = o;
+                e.crew = sc.crew[i].id;
+                std::size_t worst_k = 0;
+                for (std::size_t q = 1; q < 3; ++q) {
+                    if ((doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
+                        (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
+                        worst_k = q;
                     }
-                    e.organ = kOrgans[worst_k];
                 }
+                e.organ = kOrgans[worst_k];
             }
         }
         ++done;
