@@ -164,4 +164,19 @@ NodeFluences gcr_node_fluences(const Particle& particle, double phi_MV,
     return f;
 }
 
+IonField gcr_free_space_field(const FragmentTransport& march, double phi_MV) {
+    IonField field = march.empty_field();
+    const auto& E = march.energies();
+    for (const auto& p : particles()) {
+        if (p.Z > FragmentTransport::kMaxZ || !gcr_nucleus_included(p.Z)) {
+            continue;
+        }
+        auto& psi = field.psi[static_cast<std::size_t>(p.Z - 1)];
+        for (std::size_t m = 0; m < E.size(); ++m) {
+            psi[m] = E[m] * gcr_omnidirectional_per_cm2_day_MeV_n(p, E[m], phi_MV);
+        }
+    }
+    return field;
+}
+
 } // namespace crewdose::exposure

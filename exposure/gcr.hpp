@@ -1,6 +1,7 @@
 #pragma once
 // The galactic cosmic ray background (DESIGN.md physics item 8): nuclei Z = 1 to 28 from a
 // local interstellar spectrum (LIS) modulated by the force-field approximation.
+#include "fragment_transport.hpp"
 #include "particle.hpp"
 #include "response.hpp"
 
@@ -47,6 +48,11 @@ namespace crewdose::exposure {
 /// day per unit ln E (nothing is marked extrapolated).
 [[nodiscard]] NodeFluences gcr_node_fluences(const Particle& particle, double phi_MV,
                                              std::span<const double> nodes_MeV_per_n);
+
+/// The free-space field of every included nucleus for the fragmentation march, on its nodes:
+/// psi = E phi(E), omnidirectional, per cm2 per day per unit ln E (lithium and anything not
+/// included start at zero; the march makes them).
+[[nodiscard]] IonField gcr_free_space_field(const FragmentTransport& march, double phi_MV);
 
 /// Example modulation potentials for this LIS (planning examples, not forecasts).
 inline constexpr double kExampleSolarMinimumPhi_MV = 400.0;

@@ -102,6 +102,8 @@ class RangeTable {
     }
     /// Stopping power at grid node i, MeV cm2/g (no interpolation).
     [[nodiscard]] double stopping_at_node(std::size_t i) const { return S_nodes_.at(i); }
+    /// CSDA range at grid node i, g/cm2 (no interpolation).
+    [[nodiscard]] double range_at_node(std::size_t i) const { return R_nodes_.at(i); }
     /// Energy per nucleon of grid node i, MeV/n.
     [[nodiscard]] double energy_at_node(std::size_t i) const { return E_nodes_.at(i); }
     /// ln of the largest range on the table.

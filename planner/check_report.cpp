@@ -38,11 +38,12 @@ std::string model_text(const Study& study) {
         "cm; a conservative screening model); {} directions per location for SPEs, {} for GCR; "
         "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium left "
         "out) from the Burger et al. 2000 local interstellar spectrum, force-field modulated with "
-        "{}, carried by the same transport with nucleus-nucleus removal (Sihver et al. 1993); "
-        "every dose is the higher of with and without nuclear removal, because secondaries are "
-        "not modelled: no projectile fragments, target fragments or secondary neutrons. Without "
-        "them the GCR absorbed dose behind thick shielding is too low, and the heavy ions keep "
-        "their high quality factor (GCR dose equivalent high). RBE-weighted dose with NCRP 132 "
+        "{}, marched straight ahead through the same range tables with nucleus-nucleus removal "
+        "(Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the charge they "
+        "lack leaves as protons at the same velocity); SPE doses are the higher of with and "
+        "without nuclear removal. Not modelled: target fragments, secondary neutrons and, for "
+        "SPEs, every secondary; the GCR absorbed dose behind thick shielding is therefore low "
+        "and its mean quality factor behind thin shielding high. RBE-weighted dose with NCRP 132 "
         "values; uncertainty factor {:.2f} applied to every dose. Not modelled yet: the stylised "
         "phantom, circulatory, CNS and effective-dose limits. Window maxima are exact at "
         "activity and event boundaries and sampled every 10 minutes inside event profiles.",
@@ -89,6 +90,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
                              {"phi_given", sc.mission.gcr_phi_given},
                              {"composition", std::string(exposure::gcr_composition_source())},
+                             {"transport",
+                              "straight-ahead depth march with projectile fragmentation (EPAX "
+                              "3.1 remnants, protons for the missing charge); not modelled: "
+                              "target fragments, secondary neutrons"},
                              {"directions", sc.mission.gcr_directions},
                              {"phases", nlohmann::json::array()},
                              {"daily_rates_at_start", nlohmann::json::object()}};
@@ -99,9 +104,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             for (const auto& loc : sc.locations) {
                 for (const auto& q : quick_body_model()) {
                     const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-                    g["daily_rates_at_start"][loc.id][q.name] = {
-                        {"with_removal", dose_json(d.with_removal)},
-                        {"without_removal", dose_json(d.without_removal)}};
+                    g["daily_rates_at_start"][loc.id][q.name] = dose_json(d);
                 }
             }
             j["gcr"] = g;
@@ -176,16 +179,16 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     format_time(sc.mission.end), sc.file);
     out += caution_text() + "\n";
     out += wrap(model_text(study), 96) + "\n";
-    out += "GCR dose rate at the mission start, per day (removal on / off; the higher is used):\n";
-    out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
+    out += "GCR dose rate at the mission start, per day (primaries and projectile fragments):\n";
+    out += fmt::format("  {:<20} {:<6} {:>10} {:>10} {:>10}\n", "location", "organ", "mGy",
+                       "mGy-Eq", "mSv");
     for (const auto& loc : sc.locations) {
         for (const auto& q : quick_body_model()) {
             const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-            out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", loc.id, organ_label(q.name),
-                               significant(1e3 * d.with_removal.rbe_weighted_GyEq, 3) + " / " +
-                                   significant(1e3 * d.without_removal.rbe_weighted_GyEq, 3),
-                               significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
-                                   significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
+            out += fmt::format("  {:<20} {:<6} {:>10} {:>10} {:>10}\n", loc.id, organ_label(q.name),
+                               significant(1e3 * d.absorbed_Gy, 3),
+                               significant(1e3 * d.rbe_weighted_GyEq, 3),
+                               significant(1e3 * d.dose_equivalent_Sv, 3));
         }
     }
     out += "\n";

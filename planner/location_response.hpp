@@ -4,6 +4,7 @@
 // (atmosphere, scene walls, suit, tissue). DESIGN.md items 5 and 7: the fields are isotropic,
 // every direction receives the full omnidirectional fluence, and directions blocked by the
 // ground count as zero.
+#include "exposure/fragment_transport.hpp"
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "habitats/directional_shielding.hpp"
@@ -11,7 +12,9 @@
 #include "habitats/surroundings.hpp"
 
 #include <functional>
+#include <map>
 #include <optional>
+#include <span>
 #include <string>
 #include <vector>
 
@@ -94,6 +97,17 @@ quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& ma
                       const LocationGeometry& where,
                       const std::vector<habitats::Vector3>& directions,
                       const exposure::Particle& particle);
+
+/// GCR dose rates per day of the quick body model's organs at a location, per modulation
+/// potential: the whole ion field (exposure::gcr_free_space_field) marched with projectile
+/// fragmentation through each direction's combined path, the organs scored one after the other
+/// along the tissue (so the external path is crossed once per direction and phi), the
+/// equal-weight mean over `directions` with blocked ones as zero. Keyed by (organ, phi).
+[[nodiscard]] std::map<std::pair<std::string, double>, exposure::DoseQuantities>
+gcr_quick_model_doses(exposure::FragmentTransport& march, const MaterialResolver& materials,
+                      const LocationGeometry& where,
+                      const std::vector<habitats::Vector3>& directions,
+                      std::span<const double> phis_MV);
 
 /// The layer path of one direction, outermost first, before any tissue: atmosphere (slant
 /// column, when the site has one), the scene's walls from outside in, any uniform shell, the suit.

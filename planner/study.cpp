@@ -75,32 +75,19 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
         }
     }
-    // GCR: per location and nucleus, the organ responses over the GCR direction set, folded at
-    // once with every phi of the mission (the responses themselves are not kept). The
-    // locations are independent: they are shared among threads, each with its own tables, and
-    // merged in location order, so the result does not depend on the thread count.
-    std::vector<std::map<std::pair<std::string, double>, exposure::BracketedDose>> per_location(
+    // GCR: per location, the whole ion field marched with fragmentation along every direction,
+    // once per phi of the mission (location_response.hpp). The locations are independent:
+    // they are shared among threads, each with its own tables and march, and merged in
+    // location order, so the result does not depend on the thread count.
+    std::sort(phis.begin(), phis.end());
+    phis.erase(std::unique(phis.begin(), phis.end()), phis.end());
+    std::vector<std::map<std::pair<std::string, double>, exposure::DoseQuantities>> per_location(
         sc_.locations.size());
-    auto gcr_location = [&](std::size_t i, exposure::TableLibrary& gcr_tables) {
+    auto gcr_location = [&](std::size_t i, exposure::FragmentTransport& march) {
         const auto& loc = sc_.locations[i];
         const LocationGeometry& where = geometries_.at(loc.id);
         const auto& g_dirs = where.imported ? location_directions_.at(loc.id) : gcr_dirs;
-        for (const auto& particle : exposure::particles()) {
-            if (!exposure::gcr_nucleus_included(particle.Z)) {
-                continue;
-            }
-            for (const auto& r :
-                 quick_model_responses(gcr_tables, materials, where, g_dirs, particle)) {
-                for (const double phi : phis) {
-                    auto& rates = per_location[i][{r.organ, phi}];
-                    const auto d = exposure::fold(
-                        r.response, exposure::gcr_node_fluences(
-                                        particle, phi, r.response.node_energies_MeV_per_n));
-                    rates.with_removal += d.with_removal;
-                    rates.without_removal += d.without_removal;
-                }
-            }
-        }
+        per_location[i] = gcr_quick_model_doses(march, materials, where, g_dirs, phis);
     };
     // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
     std::size_t wanted = std::thread::hardware_concurrency();
@@ -113,8 +100,9 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     auto worker = [&](std::size_t t) {
         try {
             exposure::TableLibrary gcr_tables(gcr_grid());
+            exposure::FragmentTransport march(gcr_tables);
             for (std::size_t i = t; i < per_location.size(); i += threads) {
-                gcr_location(i, gcr_tables);
+                gcr_location(i, march);
             }
         } catch (...) {
             failures[t] = std::current_exception();
@@ -211,7 +199,7 @@ const ArrivalGroups& Study::event_timing(const std::string& location, const std:
     return event_timing_.at({location, organ, event.id});
 }
 
-const exposure::BracketedDose&
+const exposure::DoseQuantities&
 Study::gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const {
     return gcr_rates_.at({location, organ, phi_MV});
 }

@@ -243,8 +243,8 @@ TEST_CASE("check: the lunar demo is within every evaluated limit", "[cli][check]
     CHECK(flat.find("uncertainty factor 1.50") != std::string::npos);
     // The GCR background: its model, its phi, its daily rates and its share of every total.
     CHECK(flat.find("force-field modulated with phi = 650 MV") != std::string::npos);
-    CHECK(flat.find("no projectile fragments, target fragments or secondary neutrons") !=
-          std::string::npos);
+    CHECK(flat.find("projectile fragmentation (EPAX 3.1 remnants") != std::string::npos);
+    CHECK(flat.find("Not modelled: target fragments, secondary neutrons") != std::string::npos);
     CHECK(r.out.find("GCR dose rate at the mission start") != std::string::npos);
     CHECK(r.out.find("mission dose by source") != std::string::npos);
     CHECK(r.out.find("\033[") == std::string::npos); // no colour into a pipe
@@ -296,8 +296,9 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
           Approx(bfo["mission_mGyEq"].get<double>()).epsilon(1e-12));
     CHECK(doc["gcr"]["phi_MV"] == 650.0);
     const auto& rate = doc["gcr"]["daily_rates_at_start"]["storm-shelter"]["bfo"];
-    CHECK(rate["without_removal"]["absorbed_mGy"].get<double>() >
-          rate["with_removal"]["absorbed_mGy"].get<double>());
+    CHECK(rate["absorbed_mGy"].get<double>() > 0.0);
+    CHECK(rate["dose_equivalent_mSv"].get<double>() > rate["absorbed_mGy"].get<double>());
+    CHECK(doc["gcr"]["transport"].get<std::string>().find("fragmentation") != std::string::npos);
     const Run c = run("check " + demo() + " --format csv");
     CHECK(c.out.rfind("crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n", 0) == 0);
 }
