@@ -36,8 +36,8 @@ std::string model_text(const Study& study) {
     return fmt::format(
         "Model: quick body model (tissue depth in every direction: skin 0.07 mm, lens 3 mm, BFO 5 "
         "cm; a conservative screening model); {} directions per location for SPEs, {} for GCR; "
-        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium left "
-        "out) from the Burger et al. 2000 local interstellar spectrum, force-field modulated with "
+        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium only as a "
+        "fragment) from the Burger et al. 2000 local interstellar spectrum, force-field modulated with "
         "{}, marched straight ahead through the same range tables with nucleus-nucleus removal "
         "(Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the charge they "
         "lack leaves as protons at the same velocity); SPE doses are the higher of with and "
