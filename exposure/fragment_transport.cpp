@@ -320,6 +320,16 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
 
 DoseQuantities FragmentTransport::dose(const IonField& field, const Material& medium,
                                        const Material& water, const RbeModel& rbe) {
+    DoseQuantities total;
+    for (const auto& d : dose_by_nucleus(field, medium, water, rbe)) {
+        total += d;
+    }
+    return total;
+}
+
+std::array<DoseQuantities, FragmentTransport::kMaxZ>
+FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium,
+                                   const Material& water, const RbeModel& rbe) {
     const MaterialData& md = data(medium);
     auto& cache = const_cast<MaterialData&>(md).doses;
     const std::string key = water.id() + "|" + std::to_string(rbe.proton_above_2MeV) + "|" +
@@ -340,14 +350,14 @@ DoseQuantities FragmentTransport::dose(const IonField& field, const Material& me
     }
     const std::size_t n = energies_.size();
     const double step = n > 1 ? std::log(energies_[1] / energies_[0]) : 0.0;
-    DoseQuantities total;
+    std::array<DoseQuantities, kSpecies> out{};
     for (std::size_t j = 0; j < kSpecies; ++j) {
         for (std::size_t m = 0; m < n; ++m) {
             const double w = (m == 0 || m + 1 == n ? 0.5 : 1.0) * step * field.psi[j][m];
-            total += it->second[j][m].scaled(w);
+            out[j] += it->second[j][m].scaled(w);
         }
     }
-    return total;
+    return out;
 }
 
 double FragmentTransport::charge_at(const IonField& field, std::size_t m) {

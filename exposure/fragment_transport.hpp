@@ -72,6 +72,12 @@ class FragmentTransport {
     /// ln E of psi times the dose per fluence, trapezoidal on the nodes, summed over nuclei.
     [[nodiscard]] DoseQuantities dose(const IonField& field, const Material& medium,
                                       const Material& water, const RbeModel& rbe = {});
+    /// dose() nucleus by nucleus: element Z - 1 is the dose of charge Z (primaries and
+    /// fragments alike); their sum is dose().
+    [[nodiscard]] std::array<DoseQuantities, kMaxZ> dose_by_nucleus(const IonField& field,
+                                                                    const Material& medium,
+                                                                    const Material& water,
+                                                                    const RbeModel& rbe = {});
 
     /// Total charge per unit ln E at node m: sum_Z Z psi_Z(m) (a conservation check).
     [[nodiscard]] static double charge_at(const IonField& field, std::size_t m);

@@ -2,6 +2,7 @@
 #include "atomic_file.hpp"
 #include "check_report.hpp"
 #include "depth_report.hpp"
+#include "gcr_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
 #include "shelter.hpp"
@@ -102,6 +103,36 @@ int main(int argc, char** argv) {
                      "number of g/cm2 of tissue; the named depths are the quick screening model")
         ->capture_default_str();
     depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
+        ->capture_default_str();
+
+    std::string gcr_phi = "400";
+    std::string gcr_depths = "0,1,2,5,10,20,50,100";
+    bool per_year = false;
+    auto* gcr = app.add_subcommand(
+        "gcr", "Galactic cosmic-ray (GCR) dose rate at a tissue depth behind a uniform shield (the "
+               "dose at the centre of a spherical shell in free space), per shield areal density: "
+               "absorbed dose, dose equivalent, RBE-weighted dose, the mean quality factor, and "
+               "each charge group's share of the dose equivalent. The model of 'check': nuclei "
+               "Z = 1-28 with their projectile fragments; target fragments and neutrons are not "
+               "modelled.\n"
+               "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
+               "--tissue-depth bfo --per-year");
+    gcr->add_option("--phi,-p", gcr_phi,
+                    "modulation potential in MV, 0 to 3000, for the Burger et al. 2000 "
+                    "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
+                    "maximum; a phi derived with another spectrum is not interchangeable)")
+        ->capture_default_str();
+    gcr->add_option("--material,-m", shield, "shield material id (see 'crewdose materials')")
+        ->capture_default_str();
+    gcr->add_option("--depths,-d", gcr_depths,
+                    "shield areal densities in g/cm2, comma-separated, 0 to 1000")
+        ->capture_default_str();
+    gcr->add_option("--tissue-depth,-t", tissue_depth,
+                    "where the dose is scored: skin (0.07 mm), lens (3 mm), bfo (5 cm) or a "
+                    "number of g/cm2 of tissue; the named depths are the quick screening model")
+        ->capture_default_str();
+    gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");
+    gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
     std::string scenario_path;
@@ -246,6 +277,14 @@ int main(int argc, char** argv) {
             const auto list = planner::parse_depth_list(depths, "--depths");
             write_stdout(planner::format_depth_report(
                 spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list), fmt_choice));
+        } else if (gcr->parsed()) {
+            const double phi = planner::parse_phi(gcr_phi, "--phi");
+            const auto& mat = planner::material_by_id(shield);
+            const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
+            const auto list = planner::parse_depth_list(gcr_depths, "--depths");
+            write_stdout(planner::format_gcr_depth_report(
+                phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list), fmt_choice,
+                per_year));
         } else if (shielding->parsed()) {
             const planner::Study study(planner::load_scenario(scenario_path));
             write_stdout(planner::format_shielding_report(

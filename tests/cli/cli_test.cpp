@@ -119,6 +119,15 @@ TEST_CASE("help teaches the commands", "[cli]") {
     const Run rr = run("range --help");
     CHECK(rr.exit_code == 0);
     CHECK(rr.out.find("MeV/n") != std::string::npos);
+    for (const char* command :
+         {"depth", "gcr", "check", "validate", "shielding", "shelter", "storm"}) {
+        INFO(command);
+        CHECK(r.out.find(std::string("  ") + command + " ") != std::string::npos);
+    }
+    const Run g = run("gcr --help");
+    CHECK(g.exit_code == 0);
+    CHECK(g.out.find("Burger et al. 2000") != std::string::npos);
+    CHECK(g.out.find("Example: crewdose gcr") != std::string::npos);
 }
 
 TEST_CASE("depth prints doses that fall with shielding and carries the cautions", "[cli]") {
@@ -153,6 +162,66 @@ TEST_CASE("depth prints doses that fall with shielding and carries the cautions"
     const double shown = std::stod(t.out.substr(row + 12, 16));
     CHECK(shown == Approx(mGy).epsilon(5e-3));
     CHECK(shown != Approx(mGy).epsilon(1e-9)); // it is rounded, not the full value
+}
+
+TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input", "[cli]") {
+    const Run r = run("gcr --phi 400 --material polyethylene --depths 20,0,5 --tissue-depth bfo "
+                      "--format json");
+    INFO(r.out);
+    REQUIRE(r.exit_code == 0);
+    const auto doc = nlohmann::json::parse(r.out);
+    REQUIRE(doc["rows"].size() == 3);
+    // Rows in the order asked for; dose equivalent falls with the shield (by construction of
+    // the model: fragments carry less charge squared than their parents).
+    CHECK(doc["rows"][0]["shield_g_cm2"] == 20.0);
+    CHECK(doc["rows"][1]["shield_g_cm2"] == 0.0);
+    const double h0 = doc["rows"][1]["dose"]["dose_equivalent_mSv"].get<double>();
+    const double h5 = doc["rows"][2]["dose"]["dose_equivalent_mSv"].get<double>();
+    const double h20 = doc["rows"][0]["dose"]["dose_equivalent_mSv"].get<double>();
+    CHECK(h0 > h5);
+    CHECK(h5 > h20);
+    for (const auto& row : doc["rows"]) {
+        const auto& d = row["dose"];
+        CHECK(row["mean_quality_factor"].get<double>() ==
+              Approx(d["dose_equivalent_mSv"].get<double>() / d["absorbed_mGy"].get<double>())
+                  .epsilon(1e-12));
+        double a = 0.0;
+        double e = 0.0;
+        for (const auto& [k, v] : row["absorbed_share"].items()) {
+            a += v.get<double>();
+        }
+        for (const auto& [k, v] : row["dose_equivalent_share"].items()) {
+            e += v.get<double>();
+        }
+        CHECK(a == Approx(1.0).epsilon(1e-12));
+        CHECK(e == Approx(1.0).epsilon(1e-12));
+    }
+    // Shielding shifts the dose equivalent from heavy ions to protons.
+    CHECK(doc["rows"][0]["dose_equivalent_share"]["Z=1"].get<double>() >
+          doc["rows"][1]["dose_equivalent_share"]["Z=1"].get<double>());
+    CHECK(doc["cautions"].get<std::string>().find("responsible agency") != std::string::npos);
+    // Per year is per day times 365.25.
+    const Run y = run("gcr --phi 400 -m polyethylene -d 5 -f json --per-year");
+    REQUIRE(y.exit_code == 0);
+    CHECK(nlohmann::json::parse(y.out)["rows"][0]["dose"]["dose_equivalent_mSv"].get<double>() ==
+          Approx(365.25 * h5).epsilon(1e-12));
+    const Run t = run("gcr -d 10");
+    CHECK(t.exit_code == 0);
+    CHECK(t.out.find("planning value") != std::string::npos);
+    CHECK(t.out.find("projectile fragmentation") != std::string::npos);
+    // Bad input: exit 2, the option named and what is allowed said, no report.
+    for (const auto& [args, must_say] :
+         {std::pair{"gcr --phi -5", "--phi: '-5' is not a modulation potential; allowed"},
+          std::pair{"gcr --phi solar-max", "--phi: 'solar-max'"},
+          std::pair{"gcr --depths 1,x", "--depths: 'x' is not a shield areal density; allowed"},
+          std::pair{"gcr --material cheese", "--material: no built-in material 'cheese'"},
+          std::pair{"gcr --tissue-depth liver", "--tissue-depth: 'liver' is not a tissue depth"}}) {
+        const Run bad = run(args);
+        INFO(args << "\n" << bad.out);
+        CHECK(bad.exit_code == 2);
+        CHECK(bad.out.find(must_say) != std::string::npos);
+        CHECK(bad.out.find("GCR dose rate behind") == std::string::npos);
+    }
 }
 
 TEST_CASE("every spectrum form has a spelling", "[cli]") {

@@ -1,0 +1,187 @@
+#include "gcr_report.hpp"
+
+#include "cautions.hpp"
+#include "input_error.hpp"
+#include "number_format.hpp"
+#include "number_parse.hpp"
+#include "study.hpp"
+
+#include "exposure/fragment_transport.hpp"
+#include "exposure/gcr.hpp"
+#include "exposure/material_library.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <numeric>
+
+namespace crewdose::planner {
+namespace {
+
+const SourceLocation kCommandLine{"command line", 0};
+constexpr double kDaysPerYear = 365.25;
+
+nlohmann::json dose_json(const exposure::DoseQuantities& d, double scale) {
+    return {{"absorbed_mGy", 1e3 * scale * d.absorbed_Gy},
+            {"dose_equivalent_mSv", 1e3 * scale * d.dose_equivalent_Sv},
+            {"rbe_weighted_mGyEq", 1e3 * scale * d.rbe_weighted_GyEq}};
+}
+
+double mean_q(const exposure::DoseQuantities& d) {
+    return d.absorbed_Gy > 0.0 ? d.dose_equivalent_Sv / d.absorbed_Gy : 0.0;
+}
+
+const char* kModelText =
+    "Model: the GCR nuclei Z = 1-28 (Burger et al. 2000 interstellar spectrum, HEAO-3 "
+    "abundances, force field) marched straight ahead through the shield and the tissue with "
+    "nuclear removal (Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the "
+    "charge they lack leaves as protons at the same velocity). Not modelled: target fragments, "
+    "secondary neutrons, the secondary nucleons of proton reactions; so behind thick shielding "
+    "the absorbed dose is low, and behind thin shielding the mean quality factor is high. Dose "
+    "equivalent with ICRP 60 Q(L); RBE-weighted dose with NCRP 132 values. Tissue: ICRU "
+    "four-component soft tissue. phi belongs to the Burger et al. 2000 spectrum: about 400 MV "
+    "near solar minimum, 1000 MV or more near maximum (planning examples).";
+
+} // namespace
+
+double parse_phi(std::string_view text, std::string_view field) {
+    const auto v = parse_finite(text);
+    if (!v || *v < 0.0 || *v > 3000.0) {
+        throw InputError(kCommandLine, std::string(field),
+                         fmt::format("'{}' is not a modulation potential; allowed: a number of "
+                                     "MV from 0 to 3000 (about 400 near solar minimum, 1000 or "
+                                     "more near maximum)",
+                                     text));
+    }
+    return *v;
+}
+
+std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material& shield,
+                                        const TissueDepth& tissue,
+                                        const std::vector<double>& depths_g_cm2) {
+    exposure::TableLibrary tables(gcr_grid());
+    exposure::FragmentTransport march(tables);
+    const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
+    const exposure::Material& water = *exposure::find_builtin_material("water");
+    // March through the shield once, thinnest first, and score a copy behind each thickness.
+    std::vector<std::size_t> order(depths_g_cm2.size());
+    std::iota(order.begin(), order.end(), 0);
+    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
+        return depths_g_cm2[a] < depths_g_cm2[b];
+    });
+    std::vector<GcrDepthRow> rows(depths_g_cm2.size());
+    exposure::IonField field = exposure::gcr_free_space_field(march, phi_MV);
+    double reached = 0.0;
+    for (const std::size_t i : order) {
+        march.cross(field, shield, depths_g_cm2[i] - reached);
+        reached = depths_g_cm2[i];
+        exposure::IonField behind = field;
+        march.cross(behind, soft, tissue.g_cm2);
+        const auto by = march.dose_by_nucleus(behind, soft, water);
+        GcrDepthRow& r = rows[i];
+        r.shield_g_cm2 = depths_g_cm2[i];
+        for (const auto& d : by) {
+            r.per_day += d;
+        }
+        for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
+            double absorbed = 0.0;
+            double equivalent = 0.0;
+            for (int Z = kChargeGroups[g].z_min; Z <= kChargeGroups[g].z_max; ++Z) {
+                absorbed += by[static_cast<std::size_t>(Z - 1)].absorbed_Gy;
+                equivalent += by[static_cast<std::size_t>(Z - 1)].dose_equivalent_Sv;
+            }
+            r.absorbed_share[g] =
+                r.per_day.absorbed_Gy > 0.0 ? absorbed / r.per_day.absorbed_Gy : 0.0;
+            r.equivalent_share[g] = r.per_day.dose_equivalent_Sv > 0.0
+                                        ? equivalent / r.per_day.dose_equivalent_Sv
+                                        : 0.0;
+        }
+    }
+    return rows;
+}
+
+std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
+                                    const TissueDepth& tissue, const std::vector<GcrDepthRow>& rows,
+                                    OutputFormat format, bool per_year) {
+    const double scale = per_year ? kDaysPerYear : 1.0;
+    const std::string per = per_year ? "year" : "day";
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["phi_MV"] = phi_MV;
+        j["shield_material"] = shield.id();
+        j["tissue_depth_g_cm2"] = tissue.g_cm2;
+        j["tissue"] = "soft-tissue";
+        j["per"] = per;
+        j["geometry"] = "shell-equivalent: every direction sees the shield, then the tissue; "
+                        "free space (no planet below)";
+        j["model"] = kModelText;
+        j["rows"] = nlohmann::json::array();
+        for (const auto& r : rows) {
+            nlohmann::json row{{"shield_g_cm2", r.shield_g_cm2},
+                               {"dose", dose_json(r.per_day, scale)},
+                               {"mean_quality_factor", mean_q(r.per_day)},
+                               {"absorbed_share", nlohmann::json::object()},
+                               {"dose_equivalent_share", nlohmann::json::object()}};
+            for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
+                const std::string label(kChargeGroups[g].label);
+                row["absorbed_share"][label] = r.absorbed_share[g];
+                row["dose_equivalent_share"][label] = r.equivalent_share[g];
+            }
+            j["rows"].push_back(row);
+        }
+        j["cautions"] = caution_text();
+        return j.dump(2) + "\n";
+    }
+    if (format == OutputFormat::csv) {
+        std::string out =
+            fmt::format("shield_g_cm2,absorbed_mGy_per_{0},dose_equivalent_mSv_per_{0},"
+                        "rbe_weighted_mGyEq_per_{0},mean_quality_factor",
+                        per);
+        for (const auto& g : kChargeGroups) {
+            out += fmt::format(",equivalent_share_{}", g.label);
+        }
+        out += "\n";
+        for (const auto& r : rows) {
+            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.6g}", r.shield_g_cm2,
+                               1e3 * scale * r.per_day.absorbed_Gy,
+                               1e3 * scale * r.per_day.dose_equivalent_Sv,
+                               1e3 * scale * r.per_day.rbe_weighted_GyEq, mean_q(r.per_day));
+            for (const double s : r.equivalent_share) {
+                out += fmt::format(",{:.6g}", s);
+            }
+            out += "\n";
+        }
+        return out;
+    }
+    std::string out = fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV\n",
+                                  shield.id(), shield.name(), tissue.label, phi_MV);
+    out += "geometry: shell-equivalent (the isotropic field through the same thickness in every\n"
+           "direction: the dose at the centre of a spherical shell, in free space)\n\n";
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}   {}\n", "shield", "absorbed",
+                       "dose equiv.", "RBE-weighted", "mean", "share of dose equivalent, %");
+    std::string groups;
+    for (const auto& g : kChargeGroups) {
+        groups += fmt::format(" {:>7}", g.label);
+    }
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {}\n", "g/cm2",
+                       fmt::format("mGy/{}", per == "day" ? "d" : "yr"),
+                       fmt::format("mSv/{}", per == "day" ? "d" : "yr"),
+                       fmt::format("mGy-Eq/{}", per == "day" ? "d" : "yr"), "Q", groups);
+    for (const auto& r : rows) {
+        std::string shares;
+        for (const double s : r.equivalent_share) {
+            shares += fmt::format(" {:>7.1f}", 100.0 * s);
+        }
+        out += fmt::format("  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>6.2f}  {}\n", r.shield_g_cm2,
+                           significant(1e3 * scale * r.per_day.absorbed_Gy, 3),
+                           significant(1e3 * scale * r.per_day.dose_equivalent_Sv, 3),
+                           significant(1e3 * scale * r.per_day.rbe_weighted_GyEq, 3),
+                           mean_q(r.per_day), shares);
+    }
+    out += "\n" + wrap(kModelText, 92) + "\n";
+    out += caution_text();
+    return out;
+}
+
+} // namespace crewdose::planner

@@ -1,0 +1,51 @@
+#pragma once
+// The `gcr` command: the galactic cosmic-ray dose rate at a tissue depth behind a uniform
+// (shell-equivalent) shield, per shield areal density: the design curve of a habitat wall.
+#include "depth_report.hpp"
+#include "physics_tables.hpp"
+
+#include "exposure/dosimetry.hpp"
+#include "exposure/material.hpp"
+
+#include <array>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// The charge groups the report splits the dose into.
+struct ChargeGroup {
+    int z_min;
+    int z_max;
+    std::string_view label;
+};
+inline constexpr std::array<ChargeGroup, 5> kChargeGroups{
+    {{1, 1, "Z=1"}, {2, 2, "Z=2"}, {3, 10, "Z=3-10"}, {11, 20, "Z=11-20"}, {21, 28, "Z=21-28"}}};
+
+/// One row: the daily dose behind one shield thickness, and each charge group's share of it
+/// (primaries and fragments of that charge together), 0..1.
+struct GcrDepthRow {
+    double shield_g_cm2 = 0.0;
+    exposure::DoseQuantities per_day;
+    std::array<double, kChargeGroups.size()> absorbed_share{};
+    std::array<double, kChargeGroups.size()> equivalent_share{};
+};
+
+/// The modulation potential from the command line: a number of MV from 0 to 3000; InputError
+/// naming `field` otherwise.
+[[nodiscard]] double parse_phi(std::string_view text, std::string_view field);
+
+/// Computes the rows with the fragmentation march (the model of `check`), in the order given.
+[[nodiscard]] std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV,
+                                                      const exposure::Material& shield,
+                                                      const TissueDepth& tissue,
+                                                      const std::vector<double>& depths_g_cm2);
+
+/// The report in the chosen format; `per_year` scales the rates to 365.25 days.
+[[nodiscard]] std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
+                                                  const TissueDepth& tissue,
+                                                  const std::vector<GcrDepthRow>& rows,
+                                                  OutputFormat format, bool per_year);
+
+} // namespace crewdose::planner
