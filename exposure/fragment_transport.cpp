@@ -106,8 +106,13 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             md->removal[j][m] = removal_cm2_g(material, species(j), energies_[m]);
         }
     }
+    if (!options_.removal) {
+        for (auto& r : md->removal) {
+            std::fill(r.begin(), r.end(), 0.0);
+        }
+    }
     md->proton_charge_loss = md->removal[0];
-    if (options_.fragmentation) {
+    if (options_.fragmentation && options_.removal) {
         // Channels are energy-independent: once per (projectile, element); the removal cross
         // section of that element carries the energy dependence.
         for (const auto& share : material.composition()) {
@@ -180,8 +185,8 @@ FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, d
                     x < 1e-2 ? table.log_range_nodes()[i] +
                                    x * (1.0 - x * (0.5 - x * (1.0 / 3.0 - 0.25 * x)))
                              : std::log(R + h);
-                const double lambda_i =
-                    table.has_optical_depth() ? table.optical_depth_nodes()[i] : 0.0;
+                const bool reactions = options_.removal && table.has_optical_depth();
+                const double lambda_i = reactions ? table.optical_depth_nodes()[i] : 0.0;
                 if (log_R_foot >= table.log_max_range()) {
                     // Beyond the tables (the top nodes, where a step changes the energy by a
                     // few parts in 1e4): the foot from the local stopping power.
@@ -194,9 +199,10 @@ FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, d
                 } else {
                     const RangeTable::Cursor c = table.cursor_at_log_range(log_R_foot, hint);
                     // g = (E_i / E_foot) (S_foot / S_i) exp(-(Lambda_foot - Lambda_i)), one exp.
-                    const double log_g = table.grid().log_node(i) - c.log_E +
-                                         table.log_stopping(c) - table.log_stopping_nodes()[i] -
-                                         (table.optical_depth(c, R + h) - lambda_i);
+                    const double log_g =
+                        table.grid().log_node(i) - c.log_E + table.log_stopping(c) -
+                        table.log_stopping_nodes()[i] -
+                        (reactions ? table.optical_depth(c, R + h) - lambda_i : 0.0);
                     g = std::fabs(log_g) < 1e-2
                             ? 1.0 +
                                   log_g * (1.0 + log_g * (0.5 + log_g * (1.0 / 6.0 + log_g / 24.0)))
@@ -310,6 +316,11 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
             }
         }
     };
+    if (!(options_.fragmentation && options_.removal) && !options_.tallies) {
+        // Nothing is made, so the characteristics are exact across the whole layer: one step.
+        substep(t);
+        return;
+    }
     if (rest > 1e-9 * h_max) {
         substep(rest);
     }

@@ -39,6 +39,11 @@ struct MarchOptions {
     bool fragmentation = true;
     /// Off: no energy loss (a test mode, in which charge is conserved exactly).
     bool stopping = true;
+    /// Off: no nuclear reactions at all, neither removal nor fragments (implies no
+    /// fragmentation): every nucleus keeps its charge through any shield. The upper value of
+    /// the GCR bracket while secondary nucleons, target fragments and neutrons are not
+    /// modelled (behind thick shielding they carry most of the dose).
+    bool removal = true;
     /// Keep the charge-lost and neutron tallies of IonField (for conservation checks; off
     /// saves a tenth of the time).
     bool tallies = false;

@@ -36,14 +36,18 @@ std::string model_text(const Study& study) {
     return fmt::format(
         "Model: quick body model (tissue depth in every direction: skin 0.07 mm, lens 3 mm, BFO 5 "
         "cm; a conservative screening model); {} directions per location for SPEs, {} for GCR; "
-        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium only as a "
-        "fragment) from the Burger et al. 2000 local interstellar spectrum, force-field modulated with "
+        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium only "
+        "as a "
+        "fragment) from the Burger et al. 2000 local interstellar spectrum, force-field modulated "
+        "with "
         "{}, marched straight ahead through the same range tables with nucleus-nucleus removal "
         "(Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the charge they "
-        "lack leaves as protons at the same velocity); SPE doses are the higher of with and "
-        "without nuclear removal. Not modelled: target fragments, secondary neutrons and, for "
-        "SPEs, every secondary; the GCR absorbed dose behind thick shielding is therefore low "
-        "and its mean quality factor behind thin shielding high. RBE-weighted dose with NCRP 132 "
+        "lack leaves as protons at the same velocity), and again without any nuclear reaction; "
+        "as for the SPE protons, every dose is the higher of the two. Not modelled: the "
+        "secondary nucleons of proton reactions, target fragments and secondary neutrons, which "
+        "carry most of the dose behind thick shielding: there the march with reactions is low, "
+        "and the higher value stands in for the missing secondaries. RBE-weighted dose with NCRP "
+        "132 "
         "values; uncertainty factor {:.2f} applied to every dose. Not modelled yet: the stylised "
         "phantom, circulatory, CNS and effective-dose limits. Window maxima are exact at "
         "activity and event boundaries and sampled every 10 minutes inside event profiles.",
@@ -91,9 +95,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                              {"phi_given", sc.mission.gcr_phi_given},
                              {"composition", std::string(exposure::gcr_composition_source())},
                              {"transport",
-                              "straight-ahead depth march with projectile fragmentation (EPAX "
-                              "3.1 remnants, protons for the missing charge); not modelled: "
-                              "target fragments, secondary neutrons"},
+                              "straight-ahead depth march with nuclear reactions (removal, "
+                              "projectile fragmentation with EPAX 3.1 remnants, protons for the "
+                              "missing charge) and without any; limits use the higher; not "
+                              "modelled: secondary nucleons of proton reactions, target "
+                              "fragments, secondary neutrons"},
                              {"directions", sc.mission.gcr_directions},
                              {"phases", nlohmann::json::array()},
                              {"daily_rates_at_start", nlohmann::json::object()}};
@@ -104,7 +110,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             for (const auto& loc : sc.locations) {
                 for (const auto& q : quick_body_model()) {
                     const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-                    g["daily_rates_at_start"][loc.id][q.name] = dose_json(d);
+                    g["daily_rates_at_start"][loc.id][q.name] = {
+                        {"with_reactions", dose_json(d.with_removal)},
+                        {"without_reactions", dose_json(d.without_removal)},
+                        {"for_limits", dose_json(d.for_limits())}};
                 }
             }
             j["gcr"] = g;
@@ -179,16 +188,17 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     format_time(sc.mission.end), sc.file);
     out += caution_text() + "\n";
     out += wrap(model_text(study), 96) + "\n";
-    out += "GCR dose rate at the mission start, per day (primaries and projectile fragments):\n";
-    out += fmt::format("  {:<20} {:<6} {:>10} {:>10} {:>10}\n", "location", "organ", "mGy",
-                       "mGy-Eq", "mSv");
+    out += "GCR dose rate at the mission start, per day, with nuclear reactions (removal and "
+           "projectile\nfragments) / without any (the higher is used for limits):\n";
+    out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
     for (const auto& loc : sc.locations) {
         for (const auto& q : quick_body_model()) {
             const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-            out += fmt::format("  {:<20} {:<6} {:>10} {:>10} {:>10}\n", loc.id, organ_label(q.name),
-                               significant(1e3 * d.absorbed_Gy, 3),
-                               significant(1e3 * d.rbe_weighted_GyEq, 3),
-                               significant(1e3 * d.dose_equivalent_Sv, 3));
+            out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", loc.id, organ_label(q.name),
+                               significant(1e3 * d.with_removal.rbe_weighted_GyEq, 3) + " / " +
+                                   significant(1e3 * d.without_removal.rbe_weighted_GyEq, 3),
+                               significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
+                                   significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
         }
     }
     out += "\n";

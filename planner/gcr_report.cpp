@@ -38,7 +38,9 @@ const char* kModelText =
     "nuclear removal (Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the "
     "charge they lack leaves as protons at the same velocity). Not modelled: target fragments, "
     "secondary neutrons, the secondary nucleons of proton reactions; so behind thick shielding "
-    "the absorbed dose is low, and behind thin shielding the mean quality factor is high. Dose "
+    "the dose with reactions is low, and behind thin shielding the mean quality factor is high. "
+    "'no react.' is the dose equivalent with no nuclear reaction at all (every nucleus keeps "
+    "its charge): the higher of the two is what crewdose check uses for limits. Dose "
     "equivalent with ICRP 60 Q(L); RBE-weighted dose with NCRP 132 values. Tissue: ICRU "
     "four-component soft tissue. phi belongs to the Burger et al. 2000 spectrum: about 400 MV "
     "near solar minimum, 1000 MV or more near maximum (planning examples).";
@@ -62,6 +64,9 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
                                         const std::vector<double>& depths_g_cm2) {
     exposure::TableLibrary tables(gcr_grid());
     exposure::FragmentTransport march(tables);
+    exposure::MarchOptions none;
+    none.removal = false;
+    exposure::FragmentTransport unreacted(tables, none);
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
     // March through the shield once, thinnest first, and score a copy behind each thickness.
@@ -72,12 +77,17 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     });
     std::vector<GcrDepthRow> rows(depths_g_cm2.size());
     exposure::IonField field = exposure::gcr_free_space_field(march, phi_MV);
+    exposure::IonField plain = field;
     double reached = 0.0;
     for (const std::size_t i : order) {
         march.cross(field, shield, depths_g_cm2[i] - reached);
+        unreacted.cross(plain, shield, depths_g_cm2[i] - reached);
         reached = depths_g_cm2[i];
         exposure::IonField behind = field;
         march.cross(behind, soft, tissue.g_cm2);
+        exposure::IonField plain_behind = plain;
+        unreacted.cross(plain_behind, soft, tissue.g_cm2);
+        rows[i].per_day_without_reactions = unreacted.dose(plain_behind, soft, water);
         const auto by = march.dose_by_nucleus(behind, soft, water);
         GcrDepthRow& r = rows[i];
         r.shield_g_cm2 = depths_g_cm2[i];
@@ -118,11 +128,13 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         j["model"] = kModelText;
         j["rows"] = nlohmann::json::array();
         for (const auto& r : rows) {
-            nlohmann::json row{{"shield_g_cm2", r.shield_g_cm2},
-                               {"dose", dose_json(r.per_day, scale)},
-                               {"mean_quality_factor", mean_q(r.per_day)},
-                               {"absorbed_share", nlohmann::json::object()},
-                               {"dose_equivalent_share", nlohmann::json::object()}};
+            nlohmann::json row{
+                {"shield_g_cm2", r.shield_g_cm2},
+                {"dose", dose_json(r.per_day, scale)},
+                {"dose_without_reactions", dose_json(r.per_day_without_reactions, scale)},
+                {"mean_quality_factor", mean_q(r.per_day)},
+                {"absorbed_share", nlohmann::json::object()},
+                {"dose_equivalent_share", nlohmann::json::object()}};
             for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
                 const std::string label(kChargeGroups[g].label);
                 row["absorbed_share"][label] = r.absorbed_share[g];
@@ -136,7 +148,8 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
     if (format == OutputFormat::csv) {
         std::string out =
             fmt::format("shield_g_cm2,absorbed_mGy_per_{0},dose_equivalent_mSv_per_{0},"
-                        "rbe_weighted_mGyEq_per_{0},mean_quality_factor",
+                        "rbe_weighted_mGyEq_per_{0},mean_quality_factor,"
+                        "dose_equivalent_without_reactions_mSv_per_{0}",
                         per);
         for (const auto& g : kChargeGroups) {
             out += fmt::format(",equivalent_share_{}", g.label);
@@ -147,6 +160,8 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
                                1e3 * scale * r.per_day.absorbed_Gy,
                                1e3 * scale * r.per_day.dose_equivalent_Sv,
                                1e3 * scale * r.per_day.rbe_weighted_GyEq, mean_q(r.per_day));
+            out += fmt::format(",{:.10g}",
+                               1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv);
             for (const double s : r.equivalent_share) {
                 out += fmt::format(",{:.6g}", s);
             }
@@ -158,26 +173,28 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
                                   shield.id(), shield.name(), tissue.label, phi_MV);
     out += "geometry: shell-equivalent (the isotropic field through the same thickness in every\n"
            "direction: the dose at the centre of a spherical shell, in free space)\n\n";
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}   {}\n", "shield", "absorbed",
-                       "dose equiv.", "RBE-weighted", "mean", "share of dose equivalent, %");
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {:>11}   {}\n", "shield",
+                       "absorbed", "dose equiv.", "RBE-weighted", "mean", "dose equiv.",
+                       "share of dose equivalent, %");
     std::string groups;
     for (const auto& g : kChargeGroups) {
         groups += fmt::format(" {:>7}", g.label);
     }
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {}\n", "g/cm2",
-                       fmt::format("mGy/{}", per == "day" ? "d" : "yr"),
-                       fmt::format("mSv/{}", per == "day" ? "d" : "yr"),
-                       fmt::format("mGy-Eq/{}", per == "day" ? "d" : "yr"), "Q", groups);
+    const char* unit = per == "day" ? "d" : "yr";
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {:>11}  {}\n", "g/cm2",
+                       fmt::format("mGy/{}", unit), fmt::format("mSv/{}", unit),
+                       fmt::format("mGy-Eq/{}", unit), "Q", "no react.", groups);
     for (const auto& r : rows) {
         std::string shares;
         for (const double s : r.equivalent_share) {
             shares += fmt::format(" {:>7.1f}", 100.0 * s);
         }
-        out += fmt::format("  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>6.2f}  {}\n", r.shield_g_cm2,
-                           significant(1e3 * scale * r.per_day.absorbed_Gy, 3),
-                           significant(1e3 * scale * r.per_day.dose_equivalent_Sv, 3),
-                           significant(1e3 * scale * r.per_day.rbe_weighted_GyEq, 3),
-                           mean_q(r.per_day), shares);
+        out += fmt::format(
+            "  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>6.2f}  {:>11}  {}\n", r.shield_g_cm2,
+            significant(1e3 * scale * r.per_day.absorbed_Gy, 3),
+            significant(1e3 * scale * r.per_day.dose_equivalent_Sv, 3),
+            significant(1e3 * scale * r.per_day.rbe_weighted_GyEq, 3), mean_q(r.per_day),
+            significant(1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv, 3), shares);
     }
     out += "\n" + wrap(kModelText, 92) + "\n";
     out += caution_text();

@@ -24,10 +24,13 @@ inline constexpr std::array<ChargeGroup, 5> kChargeGroups{
     {{1, 1, "Z=1"}, {2, 2, "Z=2"}, {3, 10, "Z=3-10"}, {11, 20, "Z=11-20"}, {21, 28, "Z=21-28"}}};
 
 /// One row: the daily dose behind one shield thickness, and each charge group's share of it
-/// (primaries and fragments of that charge together), 0..1.
+/// (primaries and fragments of that charge together, with reactions), 0..1.
 struct GcrDepthRow {
     double shield_g_cm2 = 0.0;
-    exposure::DoseQuantities per_day;
+    exposure::DoseQuantities per_day; ///< with nuclear reactions (removal and fragments)
+    /// Without any nuclear reaction: the upper value of the bracket while secondary nucleons,
+    /// target fragments and neutrons are not modelled.
+    exposure::DoseQuantities per_day_without_reactions;
     std::array<double, kChargeGroups.size()> absorbed_share{};
     std::array<double, kChargeGroups.size()> equivalent_share{};
 };

@@ -213,7 +213,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     const double phi = sc.mission.gcr_phi_at(cuts[c]);
                     const double days =
                         static_cast<double>((cuts[c + 1] - cuts[c]).total_seconds()) / 86400.0;
-                    const auto rate = study.gcr_daily_dose(span.location, organ, phi);
+                    const auto rate = study.gcr_daily_dose(span.location, organ, phi).for_limits();
                     pieces.push_back({cuts[c], cuts[c + 1], rate.scaled(days * uf), nullptr,
                                       kGcrSource, span.label});
                 }

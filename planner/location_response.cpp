@@ -111,44 +111,50 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
     return out;
 }
 
-std::map<std::pair<std::string, double>, exposure::DoseQuantities>
-gcr_quick_model_doses(exposure::FragmentTransport& march, const MaterialResolver& materials,
-                      const LocationGeometry& where,
-                      const std::vector<habitats::Vector3>& directions,
-                      std::span<const double> phis_MV) {
+std::map<std::pair<std::string, double>, exposure::BracketedDose> gcr_quick_model_doses(
+    const GcrMarches& marches, const MaterialResolver& materials, const LocationGeometry& where,
+    const std::vector<habitats::Vector3>& directions, std::span<const double> phis_MV) {
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
     auto organs = quick_body_model();
     std::sort(organs.begin(), organs.end(), [](const QuickOrgan& a, const QuickOrgan& b) {
         return a.depth_g_cm2 < b.depth_g_cm2;
     });
-    std::map<std::pair<std::string, double>, exposure::DoseQuantities> out;
+    std::map<std::pair<std::string, double>, exposure::BracketedDose> out;
+    // Both marches share one energy grid (the library's), so one free-space field serves both.
     std::vector<exposure::IonField> free_space;
     for (const double phi : phis_MV) {
-        free_space.push_back(exposure::gcr_free_space_field(march, phi));
+        free_space.push_back(exposure::gcr_free_space_field(marches.with_reactions, phi));
         for (const auto& o : organs) {
             out[{o.name, phi}] = {};
         }
     }
     const double weight = 1.0 / static_cast<double>(directions.size());
+    std::vector<std::pair<const exposure::Material*, double>> path;
     for (const auto& d : directions) {
         if (where.surroundings.blocked(d)) {
             continue; // fully shielded: zero in the equal-weight mean
         }
-        std::vector<std::pair<const exposure::Material*, double>> path;
+        path.clear();
         for (const auto& seg : external_path(where, d)) {
             path.emplace_back(&materials(seg.material_id), seg.areal_density_g_cm2);
         }
         for (std::size_t k = 0; k < phis_MV.size(); ++k) {
-            exposure::IonField field = free_space[k];
-            for (const auto& [m, t] : path) {
-                march.cross(field, *m, t);
-            }
-            double depth = 0.0;
-            for (const auto& o : organs) {
-                march.cross(field, tissue, o.depth_g_cm2 - depth);
-                depth = o.depth_g_cm2;
-                out[{o.name, phis_MV[k]}] += march.dose(field, tissue, water).scaled(weight);
+            for (const bool reactions : {true, false}) {
+                exposure::FragmentTransport& march =
+                    reactions ? marches.with_reactions : marches.without_reactions;
+                exposure::IonField field = free_space[k];
+                for (const auto& [m, t] : path) {
+                    march.cross(field, *m, t);
+                }
+                double depth = 0.0;
+                for (const auto& o : organs) {
+                    march.cross(field, tissue, o.depth_g_cm2 - depth);
+                    depth = o.depth_g_cm2;
+                    auto& slot = out[{o.name, phis_MV[k]}];
+                    (reactions ? slot.with_removal : slot.without_removal) +=
+                        march.dose(field, tissue, water).scaled(weight);
+                }
             }
         }
     }

@@ -98,13 +98,23 @@ quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& ma
                       const std::vector<habitats::Vector3>& directions,
                       const exposure::Particle& particle);
 
+/// The two marches of the GCR bracket: with nuclear reactions (removal and projectile
+/// fragments: the modelled physics) and without any (every nucleus keeps its charge). While
+/// secondary nucleons, target fragments and neutrons are missing, the first is low behind thick
+/// shielding and limits use the higher of the two.
+struct GcrMarches {
+    exposure::FragmentTransport& with_reactions;
+    exposure::FragmentTransport& without_reactions;
+};
+
 /// GCR dose rates per day of the quick body model's organs at a location, per modulation
-/// potential: the whole ion field (exposure::gcr_free_space_field) marched with projectile
-/// fragmentation through each direction's combined path, the organs scored one after the other
-/// along the tissue (so the external path is crossed once per direction and phi), the
-/// equal-weight mean over `directions` with blocked ones as zero. Keyed by (organ, phi).
-[[nodiscard]] std::map<std::pair<std::string, double>, exposure::DoseQuantities>
-gcr_quick_model_doses(exposure::FragmentTransport& march, const MaterialResolver& materials,
+/// potential: the whole ion field (exposure::gcr_free_space_field) marched through each
+/// direction's combined path, the organs scored one after the other along the tissue (so the
+/// external path is crossed once per direction, phi and march), the equal-weight mean over
+/// `directions` with blocked ones as zero. Keyed by (organ, phi); with_removal is the march
+/// with reactions, without_removal the one without.
+[[nodiscard]] std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_quick_model_doses(const GcrMarches& marches, const MaterialResolver& materials,
                       const LocationGeometry& where,
                       const std::vector<habitats::Vector3>& directions,
                       std::span<const double> phis_MV);

@@ -1,5 +1,6 @@
 #include "study.hpp"
 
+#include <atomic>
 #include <exception>
 #include <system_error>
 #include <thread>
@@ -75,15 +76,15 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
         }
     }
-    // GCR: per location, the whole ion field marched with fragmentation along every direction,
-    // once per phi of the mission (location_response.hpp). The locations are independent:
-    // they are shared among threads, each with its own tables and march, and merged in
+    // GCR: per location, the whole ion field marched along every direction with nuclear
+    // reactions and without, once per phi of the mission (location_response.hpp). The locations are
+    // independent: they are shared among threads, each with its own tables and march, and merged in
     // location order, so the result does not depend on the thread count.
     std::sort(phis.begin(), phis.end());
     phis.erase(std::unique(phis.begin(), phis.end()), phis.end());
-    std::vector<std::map<std::pair<std::string, double>, exposure::DoseQuantities>> per_location(
+    std::vector<std::map<std::pair<std::string, double>, exposure::BracketedDose>> per_location(
         sc_.locations.size());
-    auto gcr_location = [&](std::size_t i, exposure::FragmentTransport& march) {
+    auto gcr_location = [&](std::size_t i, const GcrMarches& march) {
         const auto& loc = sc_.locations[i];
         const LocationGeometry& where = geometries_.at(loc.id);
         const auto& g_dirs = where.imported ? location_directions_.at(loc.id) : gcr_dirs;
@@ -97,12 +98,19 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     const std::size_t threads =
         std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, per_location.size()));
     std::vector<std::exception_ptr> failures(threads);
+    // Locations differ in cost by an order of magnitude (a thin EVA site against a shelter
+    // under regolith): each worker takes the next location not yet taken.
+    std::atomic<std::size_t> next_location{0};
     auto worker = [&](std::size_t t) {
         try {
             exposure::TableLibrary gcr_tables(gcr_grid());
-            exposure::FragmentTransport march(gcr_tables);
-            for (std::size_t i = t; i < per_location.size(); i += threads) {
-                gcr_location(i, march);
+            exposure::FragmentTransport with_reactions(gcr_tables);
+            exposure::MarchOptions none;
+            none.removal = false;
+            exposure::FragmentTransport without_reactions(gcr_tables, none);
+            const GcrMarches marches{with_reactions, without_reactions};
+            for (std::size_t i = next_location++; i < per_location.size(); i = next_location++) {
+                gcr_location(i, marches);
             }
         } catch (...) {
             failures[t] = std::current_exception();
@@ -117,7 +125,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                 ++started;
             }
         } catch (const std::system_error&) {
-            // No more threads to be had: the locations of the missing workers run here.
+            // No more threads to be had: the workers started take every location.
         }
         worker(0);
         for (std::size_t t = started; t < threads; ++t) {
@@ -199,7 +207,7 @@ const ArrivalGroups& Study::event_timing(const std::string& location, const std:
     return event_timing_.at({location, organ, event.id});
 }
 
-const exposure::DoseQuantities&
+const exposure::BracketedDose&
 Study::gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const {
     return gcr_rates_.at({location, organ, phi_MV});
 }

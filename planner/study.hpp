@@ -61,9 +61,10 @@ class Study {
     [[nodiscard]] std::size_t direction_count() const noexcept { return directions_; }
 
     /// GCR dose rate at a location and organ for modulation potential phi (one of the values
-    /// the mission uses: every such value is computed at construction), per day: primaries
-    /// Z = 1..28 and their projectile fragments (exposure/fragment_transport.hpp).
-    [[nodiscard]] const exposure::DoseQuantities&
+    /// the mission uses: every such value is computed at construction), per day, nuclei
+    /// Z = 1..28: with_removal is the march with nuclear reactions (removal and projectile
+    /// fragments), without_removal the march without any; limits use for_limits(), the higher.
+    [[nodiscard]] const exposure::BracketedDose&
     gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const;
 
   private:
@@ -78,7 +79,7 @@ class Study {
     std::map<std::tuple<std::string, std::string, std::string>, ArrivalGroups> event_timing_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
     std::size_t directions_ = 0;
-    std::map<std::tuple<std::string, std::string, double>, exposure::DoseQuantities> gcr_rates_;
+    std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
 };
 
 } // namespace crewdose::planner

@@ -77,11 +77,15 @@ BENCHMARK(BM_QuickModelLocation)->Arg(256)->Arg(1024)->Unit(benchmark::kMillisec
 // What the study does per location for the GCR: for each of the 27 nuclei the organ responses
 // over the GCR direction set on the GCR energy grid, folded with one modulation potential.
 static void BM_GcrLocation(benchmark::State& state) {
-    // What the study does per location: the whole ion field marched with fragmentation along
-    // every direction, three organs, one phi.
+    // What the study does per location: the whole ion field marched along every direction
+    // with nuclear reactions and without, three organs, one phi.
     const habitats::Scene scene = twenty_solids();
     exposure::TableLibrary tables(planner::gcr_grid());
-    exposure::FragmentTransport march(tables);
+    exposure::FragmentTransport with_reactions(tables);
+    exposure::MarchOptions none;
+    none.removal = false;
+    exposure::FragmentTransport without_reactions(tables, none);
+    const planner::GcrMarches march{with_reactions, without_reactions};
     const planner::LocationGeometry where = module_deck(scene);
     const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
     const std::vector<double> phis{400.0};
@@ -89,7 +93,7 @@ static void BM_GcrLocation(benchmark::State& state) {
         double total = 0.0;
         for (const auto& [key, d] :
              planner::gcr_quick_model_doses(march, materials, where, dirs, phis)) {
-            total += d.absorbed_Gy;
+            total += d.for_limits().absorbed_Gy;
         }
         return total;
     };

@@ -116,9 +116,12 @@ TEST_CASE("a small timeline checked against a hand computation", "[ledger]") {
     // The GCR background adds its daily rate G (the same at both locations, both free space)
     // over the 60 days of the mission (1 January to 1 March 2032), times the factor 1.5; the
     // best 30-day window holds the prior total, the event and 30 days of GCR.
-    const double G = 1e3 * study.gcr_daily_dose("free", "bfo", 400.0).rbe_weighted_GyEq;
-    REQUIRE(G == Approx(1e3 * study.gcr_daily_dose("free-too", "bfo", 400.0).rbe_weighted_GyEq)
-                     .epsilon(1e-12));
+    const double G =
+        1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
+    REQUIRE(
+        G ==
+        Approx(1e3 * study.gcr_daily_dose("free-too", "bfo", 400.0).for_limits().rbe_weighted_GyEq)
+            .epsilon(1e-12));
     REQUIRE(G > 0.0);
     const LedgerResult ledger = build_ledger(study);
     const auto& crew = ledger.crew.at(0);
@@ -156,7 +159,8 @@ TEST_CASE("recorded doses replace the modelled dose of their period, and only it
     const double c = 1.0 / (1.0 / r + 1.0 / d);
     const double F2 = (d * (1 - std::exp(-2.0 / d)) - c * (1 - std::exp(-2.0 / c))) / (d - c);
     // The GCR of those 3 hours (rate G per day, times 1.5) is replaced as well.
-    const double G = 1.5e3 * plain.gcr_daily_dose("free", "bfo", 400.0).rbe_weighted_GyEq;
+    const double G =
+        1.5e3 * plain.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
     const double base = build_ledger(plain).crew[0].organs[0].mission_mGyEq;
     const double replaced = build_ledger(with).crew[0].organs[0].mission_mGyEq;
     CHECK(replaced == Approx(base - D * F2 - G * 3.0 / 24.0 + 2.0).epsilon(1e-9));
@@ -201,8 +205,10 @@ TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledge
                  "directions = 16\ngcr_phi_MV = 400\n[[mission.gcr_modulation]]\n"
                  "from = 2032-01-21T00:00:00Z\nphi_MV = 900");
     const Study study(parse_scenario(plan, "hand.toml"));
-    const double g400 = 1e3 * study.gcr_daily_dose("free", "bfo", 400.0).rbe_weighted_GyEq;
-    const double g900 = 1e3 * study.gcr_daily_dose("free", "bfo", 900.0).rbe_weighted_GyEq;
+    const double g400 =
+        1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
+    const double g900 =
+        1e3 * study.gcr_daily_dose("free", "bfo", 900.0).for_limits().rbe_weighted_GyEq;
     CHECK(g900 < 0.7 * g400); // more modulation, less GCR
     const LedgerResult ledger = build_ledger(study);
     const auto& bfo = ledger.crew.at(0).organs.at(0);
@@ -220,8 +226,9 @@ TEST_CASE("a modulation phase that repeats phi counts its rate once", "[ledger][
                      "from = 2032-01-21T00:00:00Z\nphi_MV = 400");
     const Study one(parse_scenario(plan, "hand.toml"));
     const Study twice(parse_scenario(repeated, "hand.toml"));
-    CHECK(twice.gcr_daily_dose("free", "bfo", 400.0).rbe_weighted_GyEq ==
-          Approx(one.gcr_daily_dose("free", "bfo", 400.0).rbe_weighted_GyEq).epsilon(1e-12));
+    CHECK(twice.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq ==
+          Approx(one.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq)
+              .epsilon(1e-12));
     CHECK(build_ledger(twice).crew.at(0).organs.at(0).gcr.mGyEq ==
           Approx(build_ledger(one).crew.at(0).organs.at(0).gcr.mGyEq).epsilon(1e-9));
 }
