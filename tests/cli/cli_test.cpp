@@ -377,7 +377,7 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     CHECK(c.out.rfind("crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n", 0) == 0);
 }
 
-TEST_CASE("check: --out and --series are written atomically; bad input writes nothing",
+TEST_CASE("check: --out and --series are written atomically, and bad input writes nothing",
           "[cli][check]") {
     const std::string dir = temp_dir();
     const Run r =
@@ -389,14 +389,17 @@ TEST_CASE("check: --out and --series are written atomically; bad input writes no
     CHECK(series.find("halvorsen,bfo,") != std::string::npos);
     // A broken scenario: exit 2, the old report stays as it was, no temporary file is left.
     std::string text = read_file(demo());
-    text.replace(text.find("radius_m = 2.5"), 14, "radius_m = -2.5");
+    const auto at = text.find("radius_m = 2.5");
+    REQUIRE(at != std::string::npos);
+    const auto line = 1 + std::count(text.begin(), text.begin() + static_cast<long>(at), '\n');
+    text.replace(at, 14, "radius_m = -2.5");
     write_file(dir + "/broken.toml", text);
     const std::string before = read_file(dir + "/report.txt");
     const Run bad = run("check " + dir + "/broken.toml --out " + dir + "/report.txt");
     INFO(bad.out);
     CHECK(bad.exit_code == 2);
-    CHECK(bad.out.find("broken.toml:28: solid.radius_m: must be a number > 0") !=
-          std::string::npos);
+    CHECK(bad.out.find("broken.toml:" + std::to_string(line) +
+                       ": solid.radius_m: must be a number > 0") != std::string::npos);
     CHECK(read_file(dir + "/report.txt") == before);
     CHECK(read_file(dir + "/report.txt.crewdose-tmp").empty());
 }

@@ -123,7 +123,7 @@ TEST_CASE("a dome on the ground: wall overhead, open floor", "[geometry]") {
     CHECK(dome.trace({0, 0, 0.01}, {0, 0, -1}).empty());
 }
 
-TEST_CASE("open ground blocks half the sky; a terrain mask blocks more", "[geometry]") {
+TEST_CASE("open ground blocks half the sky, and a terrain mask blocks more", "[geometry]") {
     Surroundings site;
     site.ground = true;
     const std::size_t n = 4000;
