@@ -8,6 +8,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <cstdio>
 #include <stdexcept>
 
 namespace crewdose::exposure {
@@ -150,6 +151,20 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             }
         }
     }
+    // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
+    // (at the default 2 g/cm2 step h/2 self is at most 0.09, in liquid hydrogen).
+    double self_max = 0.0;
+    for (const auto& v : md->self) {
+        for (const double x : v) {
+            self_max = std::max(self_max, x);
+        }
+    }
+    if (0.5 * options_.max_step_g_cm2 * self_max >= 0.5) {
+        throw std::invalid_argument(
+            "FragmentTransport: max_step_g_cm2 = " + std::to_string(options_.max_step_g_cm2) +
+            " is too long for " + material.id() + " (at most " + std::to_string(1.0 / self_max) +
+            ")");
+    }
     return *materials_.emplace(material.id(), std::move(md)).first->second;
 }
 
@@ -241,7 +256,11 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
 }
 
 void FragmentTransport::cross(IonField& field, const Material& material, double t) {
-    if (!(t > 0.0)) {
+    if (!std::isfinite(t) || t < 0.0) {
+        throw std::invalid_argument("FragmentTransport::cross: thickness of " + material.id() +
+                                    " must be finite and >= 0");
+    }
+    if (t == 0.0) {
         return;
     }
     const MaterialData& md = data(material);
@@ -343,9 +362,12 @@ FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium
                                    const Material& water, const RbeModel& rbe) {
     const MaterialData& md = data(medium);
     auto& cache = const_cast<MaterialData&>(md).doses;
-    const std::string key = water.id() + "|" + std::to_string(rbe.proton_above_2MeV) + "|" +
-                            std::to_string(rbe.proton_below_2MeV) + "|" +
-                            std::to_string(rbe.heavy_ion);
+    // Exact values in the key (hexadecimal floating point): RBE models that differ anywhere
+    // get their own entry.
+    char exact[128];
+    std::snprintf(exact, sizeof exact, "|%a|%a|%a", rbe.proton_above_2MeV, rbe.proton_below_2MeV,
+                  rbe.heavy_ion);
+    const std::string key = water.id() + exact;
     auto it = cache.find(key);
     if (it == cache.end()) {
         std::array<std::vector<DoseQuantities>, kSpecies> per;

@@ -17,8 +17,9 @@ namespace crewdose::exposure {
 ///   0.01399 Ap),
 /// steepened for A/Ap > 0.75, times a charge dispersion about the most probable charge
 /// Z_prob(A) with width R(A) and different exponents on the neutron-rich and proton-rich sides.
-/// The parameterization was fitted to projectiles from about argon upwards; crewdose also uses
-/// it for the lighter GCR nuclei (a stated extrapolation). Returns 0 for A >= Ap or A < 1.
+/// The parameterization was fitted to projectiles from about argon upwards on nuclear targets;
+/// crewdose also uses it for the lighter GCR nuclei and for hydrogen targets (At = 1), both
+/// stated extrapolations. Returns 0 for A >= Ap or A < 1.
 [[nodiscard]] double epax3_cross_section_b(double Ap, double Zp, double At, double A, double Z);
 
 /// One way a reaction of a projectile ends: its heaviest remnant, of charge `Z` (3 <= Z <= Zp;
@@ -35,8 +36,9 @@ struct FragmentChannel {
 /// per reaction (the total is the removal cross section of nuclear.hpp):
 ///  - heavy remnants Z >= 3: the EPAX 3.1 cross sections summed over the isotopes that the
 ///    nucleon budget allows (A <= Ap - (Zp - Z)), as fractions of the removal cross section;
-///    scaled down when their sum would exceed it (EPAX's own normalisation differs from the
-///    Sihver / Letaw removal cross sections by up to about 10 %);
+///    scaled down when their sum would exceed it, never up: on carbon and aluminium EPAX's sum
+///    for Z >= 10 projectiles is only 0.62-0.69 of the Sihver removal cross section, so about a
+///    third of those reactions end as breakup;
 ///  - the rest of the reactions leave no remnant heavier than helium ("breakup");
 ///  - charge balance (this project's closure rule, not EPAX): the charge the remnant lacks,
 ///    Zp - Z (all of Zp in a breakup), leaves as protons moving with the projectile's velocity;

@@ -13,9 +13,6 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
-#include <algorithm>
-#include <numeric>
-
 namespace crewdose::planner {
 namespace {
 
@@ -69,23 +66,15 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     exposure::FragmentTransport unreacted(tables, none);
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
-    // March through the shield once, thinnest first, and score a copy behind each thickness.
-    std::vector<std::size_t> order(depths_g_cm2.size());
-    std::iota(order.begin(), order.end(), 0);
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
-        return depths_g_cm2[a] < depths_g_cm2[b];
-    });
+    // Each row is marched from the surface: a row's numbers do not depend on the other rows.
     std::vector<GcrDepthRow> rows(depths_g_cm2.size());
-    exposure::IonField field = exposure::gcr_free_space_field(march, phi_MV);
-    exposure::IonField plain = field;
-    double reached = 0.0;
-    for (const std::size_t i : order) {
-        march.cross(field, shield, depths_g_cm2[i] - reached);
-        unreacted.cross(plain, shield, depths_g_cm2[i] - reached);
-        reached = depths_g_cm2[i];
-        exposure::IonField behind = field;
+    const exposure::IonField free_space = exposure::gcr_free_space_field(march, phi_MV);
+    for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
+        exposure::IonField behind = free_space;
+        march.cross(behind, shield, depths_g_cm2[i]);
         march.cross(behind, soft, tissue.g_cm2);
-        exposure::IonField plain_behind = plain;
+        exposure::IonField plain_behind = free_space;
+        unreacted.cross(plain_behind, shield, depths_g_cm2[i]);
         unreacted.cross(plain_behind, soft, tissue.g_cm2);
         rows[i].per_day_without_reactions = unreacted.dose(plain_behind, soft, water);
         const auto by = march.dose_by_nucleus(behind, soft, water);

@@ -113,7 +113,11 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
 
 std::map<std::pair<std::string, double>, exposure::BracketedDose> gcr_quick_model_doses(
     const GcrMarches& marches, const MaterialResolver& materials, const LocationGeometry& where,
-    const std::vector<habitats::Vector3>& directions, std::span<const double> phis_MV) {
+    const std::vector<habitats::Vector3>& directions, std::span<const double> phis_given) {
+    // Each distinct phi once (a repeated one would be summed twice).
+    std::vector<double> phis_MV(phis_given.begin(), phis_given.end());
+    std::sort(phis_MV.begin(), phis_MV.end());
+    phis_MV.erase(std::unique(phis_MV.begin(), phis_MV.end()), phis_MV.end());
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
     auto organs = quick_body_model();
