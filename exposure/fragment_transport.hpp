@@ -30,7 +30,7 @@ struct IonField {
 /// tests/unit/fragment_transport_test.cpp.
 struct MarchOptions {
     /// Largest depth step, g/cm2; each layer is cut into equal steps no larger than this.
-    double max_step_g_cm2 = 2.0;
+    double max_step_g_cm2 = 4.0;
     /// Lowest energy of the march, MeV/n: ions slowing below it have stopped (the dose they
     /// would still deposit is below 0.1 % of the total in the checks).
     double min_energy_MeV_per_n = 0.1;

@@ -133,8 +133,8 @@ TEST_CASE("the march conserves charge when nothing slows down", "[fragmentation]
     // By construction: with stopping off every nucleus keeps its energy per nucleon, so at each
     // energy the charge in the field plus the charge removed with reacting protons (target
     // fragments are not followed) stays what it was. The march's trapezoid in depth is second
-    // order, not exactly conservative: at the default 2 g/cm2 step the worst node is off by
-    // 9.4e-5 in polyethylene and 3.4e-5 in aluminium (measured), falling as the step squared.
+    // order, not exactly conservative: at the default 4 g/cm2 step the worst node is off by
+    // 3.4e-4 in polyethylene (measured; 9.4e-5 at 2 g/cm2, 5.9e-6 at 0.5: the step squared).
     TableLibrary tables(crewdose::planner::gcr_grid());
     MarchOptions o;
     o.stopping = false;
@@ -148,7 +148,7 @@ TEST_CASE("the march conserves charge when nothing slows down", "[fragmentation]
             const double before = FragmentTransport::charge_at(start, m);
             const double after = FragmentTransport::charge_at(field, m) + field.charge_lost[m];
             INFO(id << " at " << march.energies()[m] << " MeV/n");
-            CHECK(after == Approx(before).epsilon(2e-4));
+            CHECK(after == Approx(before).epsilon(5e-4));
         }
         // Reactions really happened: heavy primaries are down, fragments and neutrons up.
         const std::size_t m = march.energies().size() / 2;
