@@ -9,6 +9,11 @@
 #include "exposure/fragment_transport.hpp"
 #include "exposure/gcr.hpp"
 #include "exposure/material_library.hpp"
+#include "habitats/direction_set.hpp"
+#include "habitats/surroundings.hpp"
+
+#include <algorithm>
+#include <cmath>
 
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -56,9 +61,35 @@ double parse_phi(std::string_view text, std::string_view field) {
     return *v;
 }
 
+double parse_surface_pressure(std::string_view text, std::string_view field) {
+    const auto v = parse_finite(text);
+    if (!v || *v < 100.0 || *v > 2000.0) {
+        throw InputError(kCommandLine, std::string(field),
+                         fmt::format("'{}' is not a Martian surface pressure; allowed: a number "
+                                     "of Pa from 100 to 2000",
+                                     text));
+    }
+    return *v;
+}
+
+GcrSite parse_site(std::string_view text, std::string_view field) {
+    if (text == "free-space") {
+        return GcrSite::free_space;
+    }
+    if (text == "moon") {
+        return GcrSite::moon;
+    }
+    if (text == "mars") {
+        return GcrSite::mars;
+    }
+    throw InputError(kCommandLine, std::string(field),
+                     fmt::format("'{}' is not a site; allowed: free-space, moon, mars", text));
+}
+
 std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material& shield,
                                         const TissueDepth& tissue,
-                                        const std::vector<double>& depths_g_cm2) {
+                                        const std::vector<double>& depths_g_cm2,
+                                        const GcrSiteSpec& site) {
     exposure::TableLibrary tables(gcr_grid());
     exposure::FragmentTransport march(tables);
     exposure::MarchOptions none;
@@ -66,29 +97,66 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     exposure::FragmentTransport unreacted(tables, none);
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
-    // Each row is marched from the surface: a row's numbers do not depend on the other rows.
+    const exposure::Material& air = *exposure::find_builtin_material("mars-atmosphere");
+    // Free space: the shell is the same in every direction, one path is the whole answer. On a
+    // surface: the ground blocks every direction below the horizon (zero in the equal-weight
+    // mean over the direction set), and on Mars the atmosphere's slant column comes first.
+    std::vector<habitats::Vector3> directions{{0.0, 0.0, 1.0}};
+    habitats::Surroundings around;
+    if (site.kind != GcrSite::free_space) {
+        directions = habitats::fibonacci_directions(site.directions);
+        around.ground = true;
+        if (site.kind == GcrSite::mars) {
+            around.atmosphere =
+                habitats::mars_atmosphere(site.surface_pressure_Pa, site.scale_height_km);
+        }
+    }
+    const double weight = 1.0 / static_cast<double>(directions.size());
     std::vector<GcrDepthRow> rows(depths_g_cm2.size());
+    std::vector<std::array<exposure::DoseQuantities, exposure::FragmentTransport::kMaxZ>> by(
+        depths_g_cm2.size());
     const exposure::IonField free_space = exposure::gcr_free_space_field(march, phi_MV);
+    for (const auto& d : directions) {
+        if (around.blocked(d)) {
+            continue;
+        }
+        exposure::IonField above = free_space;
+        exposure::IonField plain_above = free_space;
+        if (around.atmosphere) {
+            const double zenith_deg =
+                std::acos(std::clamp(d.z, -1.0, 1.0)) * 180.0 / 3.14159265358979323846;
+            const double column = habitats::slant_column_g_cm2(*around.atmosphere, zenith_deg);
+            march.cross(above, air, column);
+            unreacted.cross(plain_above, air, column);
+        }
+        // Each row from the top of the shield: a row's numbers do not depend on the others.
+        for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
+            exposure::IonField behind = above;
+            march.cross(behind, shield, depths_g_cm2[i]);
+            march.cross(behind, soft, tissue.g_cm2);
+            exposure::IonField plain_behind = plain_above;
+            unreacted.cross(plain_behind, shield, depths_g_cm2[i]);
+            unreacted.cross(plain_behind, soft, tissue.g_cm2);
+            rows[i].per_day_without_reactions +=
+                unreacted.dose(plain_behind, soft, water).scaled(weight);
+            const auto nuclei = march.dose_by_nucleus(behind, soft, water);
+            for (std::size_t z = 0; z < nuclei.size(); ++z) {
+                by[i][z] += nuclei[z].scaled(weight);
+            }
+        }
+    }
     for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
-        exposure::IonField behind = free_space;
-        march.cross(behind, shield, depths_g_cm2[i]);
-        march.cross(behind, soft, tissue.g_cm2);
-        exposure::IonField plain_behind = free_space;
-        unreacted.cross(plain_behind, shield, depths_g_cm2[i]);
-        unreacted.cross(plain_behind, soft, tissue.g_cm2);
-        rows[i].per_day_without_reactions = unreacted.dose(plain_behind, soft, water);
-        const auto by = march.dose_by_nucleus(behind, soft, water);
         GcrDepthRow& r = rows[i];
         r.shield_g_cm2 = depths_g_cm2[i];
-        for (const auto& d : by) {
+        for (const auto& d : by[i]) {
             r.per_day += d;
         }
         for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
             double absorbed = 0.0;
             double equivalent = 0.0;
             for (int Z = kChargeGroups[g].z_min; Z <= kChargeGroups[g].z_max; ++Z) {
-                absorbed += by[static_cast<std::size_t>(Z - 1)].absorbed_Gy;
-                equivalent += by[static_cast<std::size_t>(Z - 1)].dose_equivalent_Sv;
+                absorbed += by[i][static_cast<std::size_t>(Z - 1)].absorbed_Gy;
+                equivalent += by[i][static_cast<std::size_t>(Z - 1)].dose_equivalent_Sv;
             }
             r.absorbed_share[g] =
                 r.per_day.absorbed_Gy > 0.0 ? absorbed / r.per_day.absorbed_Gy : 0.0;
@@ -100,9 +168,26 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     return rows;
 }
 
+std::string site_text(const GcrSiteSpec& site) {
+    switch (site.kind) {
+    case GcrSite::moon:
+        return fmt::format("on the lunar surface: the ground blocks the lower half of the sky "
+                           "({} directions)",
+                           site.directions);
+    case GcrSite::mars:
+        return fmt::format("on the Martian surface: the ground blocks the lower half of the sky, "
+                           "the atmosphere ({:g} Pa, scale height {:g} km) lies along every "
+                           "slant path above ({} directions)",
+                           site.surface_pressure_Pa, site.scale_height_km, site.directions);
+    case GcrSite::free_space:
+        break;
+    }
+    return "in free space";
+}
+
 std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
                                     const TissueDepth& tissue, const std::vector<GcrDepthRow>& rows,
-                                    OutputFormat format, bool per_year) {
+                                    OutputFormat format, bool per_year, const GcrSiteSpec& site) {
     const double scale = per_year ? kDaysPerYear : 1.0;
     const std::string per = per_year ? "year" : "day";
     if (format == OutputFormat::json) {
@@ -112,8 +197,15 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         j["tissue_depth_g_cm2"] = tissue.g_cm2;
         j["tissue"] = "soft-tissue";
         j["per"] = per;
-        j["geometry"] = "shell-equivalent: every direction sees the shield, then the tissue; "
-                        "free space (no planet below)";
+        j["site"] = site.kind == GcrSite::free_space ? "free-space"
+                    : site.kind == GcrSite::moon     ? "moon"
+                                                     : "mars";
+        if (site.kind == GcrSite::mars) {
+            j["surface_pressure_Pa"] = site.surface_pressure_Pa;
+        }
+        j["geometry"] = "shell-equivalent: every open direction sees the shield, then the "
+                        "tissue; " +
+                        site_text(site);
         j["model"] = kModelText;
         j["rows"] = nlohmann::json::array();
         for (const auto& r : rows) {
@@ -160,8 +252,11 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
     }
     std::string out = fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV\n",
                                   shield.id(), shield.name(), tissue.label, phi_MV);
-    out += "geometry: shell-equivalent (the isotropic field through the same thickness in every\n"
-           "direction: the dose at the centre of a spherical shell, in free space)\n\n";
+    out += wrap("geometry: shell-equivalent (the isotropic field through the same thickness in "
+                "every open direction: the dose at the centre of a spherical shell), " +
+                    site_text(site),
+                92) +
+           "\n";
     out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {:>11}   {}\n", "shield",
                        "absorbed", "dose equiv.", "RBE-weighted", "mean", "dose equiv.",
                        "share of dose equivalent, %");

@@ -35,20 +35,38 @@ struct GcrDepthRow {
     std::array<double, kChargeGroups.size()> equivalent_share{};
 };
 
+/// Where the shield stands.
+enum class GcrSite { free_space, moon, mars };
+struct GcrSiteSpec {
+    GcrSite kind = GcrSite::free_space;
+    double surface_pressure_Pa = 750.0; ///< Mars only
+    double scale_height_km = 11.1;      ///< Mars only (the scenario default)
+    std::size_t directions = 256;       ///< on a surface: the direction set's size
+};
+/// "free-space", "moon" or "mars"; InputError naming `field` otherwise.
+[[nodiscard]] GcrSite parse_site(std::string_view text, std::string_view field);
+
+/// The Martian surface pressure from the command line: 100 to 2000 Pa; InputError naming
+/// `field` otherwise.
+[[nodiscard]] double parse_surface_pressure(std::string_view text, std::string_view field);
+
 /// The modulation potential from the command line: a number of MV from 0 to 3000; InputError
 /// naming `field` otherwise.
 [[nodiscard]] double parse_phi(std::string_view text, std::string_view field);
 
-/// Computes the rows with the fragmentation march (the model of `check`), in the order given.
-[[nodiscard]] std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV,
-                                                      const exposure::Material& shield,
-                                                      const TissueDepth& tissue,
-                                                      const std::vector<double>& depths_g_cm2);
+/// Computes the rows with the marches of `check` (with and without nuclear reactions), in the
+/// order given, at `site`: free space (one path: the shell is the same everywhere) or a
+/// planetary surface (the mean over a direction set, the ground below the horizon as zero,
+/// on Mars the slant column of atmosphere before the shield).
+[[nodiscard]] std::vector<GcrDepthRow>
+gcr_depth_rows(double phi_MV, const exposure::Material& shield, const TissueDepth& tissue,
+               const std::vector<double>& depths_g_cm2, const GcrSiteSpec& site = {});
 
 /// The report in the chosen format; `per_year` scales the rates to 365.25 days.
 [[nodiscard]] std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
                                                   const TissueDepth& tissue,
                                                   const std::vector<GcrDepthRow>& rows,
-                                                  OutputFormat format, bool per_year);
+                                                  OutputFormat format, bool per_year,
+                                                  const GcrSiteSpec& site = {});
 
 } // namespace crewdose::planner

@@ -108,6 +108,8 @@ int main(int argc, char** argv) {
     std::string gcr_phi = "400";
     std::string gcr_depths = "0,1,2,5,10,20,50,100";
     bool per_year = false;
+    std::string gcr_site = "free-space";
+    std::string gcr_pressure = "750";
     auto* gcr = app.add_subcommand(
         "gcr", "Galactic cosmic-ray (GCR) dose rate at a tissue depth behind a uniform shield (the "
                "dose at the centre of a spherical shell in free space), per shield areal density: "
@@ -132,6 +134,15 @@ int main(int argc, char** argv) {
                     "number of g/cm2 of tissue; the named depths are the quick screening model")
         ->capture_default_str();
     gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");
+    gcr->add_option("--site", gcr_site,
+                    "free-space (the shield all round), moon (the ground blocks the lower half "
+                    "of the sky) or mars (ground, and the atmosphere's slant column above the "
+                    "shield); on a surface the mean over 256 directions")
+        ->capture_default_str();
+    gcr->add_option("--surface-pressure-Pa", gcr_pressure,
+                    "Mars only: surface pressure, 100 to 2000 Pa (about 600 at the mean datum, "
+                    "750 to 900 in low-lying sites such as Gale crater)")
+        ->capture_default_str();
     gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
@@ -282,9 +293,13 @@ int main(int argc, char** argv) {
             const auto& mat = planner::material_by_id(shield);
             const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
             const auto list = planner::parse_depth_list(gcr_depths, "--depths");
+            planner::GcrSiteSpec site;
+            site.kind = planner::parse_site(gcr_site, "--site");
+            site.surface_pressure_Pa =
+                planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
             write_stdout(planner::format_gcr_depth_report(
-                phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list), fmt_choice,
-                per_year));
+                phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list, site), fmt_choice,
+                per_year, site));
         } else if (shielding->parsed()) {
             const planner::Study study(planner::load_scenario(scenario_path));
             write_stdout(planner::format_shielding_report(

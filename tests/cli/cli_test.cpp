@@ -205,6 +205,20 @@ TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input",
     REQUIRE(y.exit_code == 0);
     CHECK(nlohmann::json::parse(y.out)["rows"][0]["dose"]["dose_equivalent_mSv"].get<double>() ==
           Approx(365.25 * h5).epsilon(1e-12));
+    // On the Moon the ground takes half the sky: half the free-space rate behind the same
+    // shell (by construction; the direction set is symmetric about the horizon). On Mars the
+    // atmosphere adds its slant column on top: less again, and more with more pressure.
+    auto rate = [](const std::string& args) {
+        const Run g = run("gcr -d 2 -t lens -f json " + args);
+        REQUIRE(g.exit_code == 0);
+        return nlohmann::json::parse(g.out)["rows"][0]["dose"]["dose_equivalent_mSv"].get<double>();
+    };
+    const double free_space = rate("");
+    const double moon = rate("--site moon");
+    CHECK(moon == Approx(0.5 * free_space).epsilon(1e-9));
+    const double mars = rate("--site mars");
+    CHECK(mars < moon);
+    CHECK(rate("--site mars --surface-pressure-Pa 1200") < mars);
     const Run t = run("gcr -d 10");
     CHECK(t.exit_code == 0);
     CHECK(t.out.find("planning value") != std::string::npos);
@@ -215,7 +229,10 @@ TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input",
           std::pair{"gcr --phi solar-max", "--phi: 'solar-max'"},
           std::pair{"gcr --depths 1,x", "--depths: 'x' is not a shield areal density; allowed"},
           std::pair{"gcr --material cheese", "--material: no built-in material 'cheese'"},
-          std::pair{"gcr --tissue-depth liver", "--tissue-depth: 'liver' is not a tissue depth"}}) {
+          std::pair{"gcr --tissue-depth liver", "--tissue-depth: 'liver' is not a tissue depth"},
+          std::pair{"gcr --site venus", "--site: 'venus' is not a site; allowed"},
+          std::pair{"gcr --site mars --surface-pressure-Pa 5",
+                    "--surface-pressure-Pa: '5' is not a Martian surface pressure; allowed"}}) {
         const Run bad = run(args);
         INFO(args << "\n" << bad.out);
         CHECK(bad.exit_code == 2);
