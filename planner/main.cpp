@@ -183,7 +183,8 @@ int main(int argc, char** argv) {
     auto* shielding = app.add_subcommand(
         "shielding", "What a location's shielding looks like: the areal-density distribution "
                      "over directions, the sky blocked by the ground, per organ for the body "
-                     "model, and with --event the organ doses of that event there.\nExample: "
+                     "model with its GCR dose rate (with / without nuclear reactions), and with "
+                     "--event the organ doses of that event there.\nExample: "
                      "crewdose shielding scenarios/lunar-demo.toml --location storm-shelter "
                      "--event design-spe");
     shielding->add_option("scenario", scenario_path, "scenario file (TOML)")->required();

@@ -64,8 +64,19 @@ std::string format_shielding_report(const Study& study, const std::string& locat
                                {"p50", percentile(external, 0.5)},
                                {"p75", percentile(external, 0.75)},
                                {"p95", percentile(external, 0.95)}};
+        j["gcr_phi_MV"] = sc.mission.gcr_phi_MV;
         for (const auto& organ : quick_body_model()) {
             j["organs"][organ.name]["tissue_g_cm2"] = organ.depth_g_cm2;
+            const auto& g = study.gcr_daily_dose(location, organ.name, sc.mission.gcr_phi_MV);
+            j["organs"][organ.name]["gcr_per_day"] = {
+                {"with_reactions",
+                 {{"absorbed_Gy", g.with_removal.absorbed_Gy},
+                  {"dose_equivalent_Sv", g.with_removal.dose_equivalent_Sv},
+                  {"rbe_weighted_GyEq", g.with_removal.rbe_weighted_GyEq}}},
+                {"without_reactions",
+                 {{"absorbed_Gy", g.without_removal.absorbed_Gy},
+                  {"dose_equivalent_Sv", g.without_removal.dose_equivalent_Sv},
+                  {"rbe_weighted_GyEq", g.without_removal.rbe_weighted_GyEq}}}};
             if (ev) {
                 const auto d = study.event_dose(location, organ.name, *ev);
                 j["organs"][organ.name]["event"] = {{"absorbed_Gy", d.absorbed_Gy},
@@ -88,9 +99,13 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     }
     out += "\n  per organ (quick body model: the tissue depth is added in every direction):\n";
     for (const auto& organ : quick_body_model()) {
-        out += fmt::format("    {:<5} tissue {} g/cm2, median total {} g/cm2", organ.name,
-                           significant(organ.depth_g_cm2, 3),
-                           significant(percentile(external, 0.5) + organ.depth_g_cm2, 3));
+        const auto& g = study.gcr_daily_dose(location, organ.name, sc.mission.gcr_phi_MV);
+        out += fmt::format("    {:<5} tissue {} g/cm2, median total {} g/cm2; GCR {} / {} mSv per "
+                           "day",
+                           organ.name, significant(organ.depth_g_cm2, 3),
+                           significant(percentile(external, 0.5) + organ.depth_g_cm2, 3),
+                           significant(1e3 * g.with_removal.dose_equivalent_Sv, 3),
+                           significant(1e3 * g.without_removal.dose_equivalent_Sv, 3));
         if (ev) {
             const auto d = study.event_dose(location, organ.name, *ev);
             out += fmt::format("; {}: {} mGy, {} mSv, {} mGy-Eq", ev->id,
@@ -100,6 +115,9 @@ std::string format_shielding_report(const Study& study, const std::string& locat
         }
         out += "\n";
     }
+    out += fmt::format("  (GCR at the mission start, phi = {:g} MV, with / without nuclear "
+                       "reactions; no uncertainty factor)\n",
+                       sc.mission.gcr_phi_MV);
     if (ev) {
         out += "  (event doses: the whole event at this location, no uncertainty factor, the "
                "higher of the removal bracket)\n";

@@ -454,6 +454,20 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     CHECK(doc["blocked_by_ground_share"].get<double>() >= 0.5);
     // The shelter's water walls: every open direction sees at least the 20 cm of tanks.
     CHECK(ext["p05"].get<double>() > 20.0);
+    // The location's GCR rates are the ones check reports for it (one study, two views).
+    const Run c = run("check " + demo() + " --format json");
+    const auto rates = nlohmann::json::parse(c.out)["gcr"]["daily_rates_at_start"]["storm-shelter"];
+    for (const char* organ : {"skin", "lens", "bfo"}) {
+        INFO(organ);
+        const auto& g = doc["organs"][organ]["gcr_per_day"];
+        CHECK(1e3 * g["with_reactions"]["dose_equivalent_Sv"].get<double>() ==
+              Approx(rates[organ]["with_reactions"]["dose_equivalent_mSv"].get<double>())
+                  .epsilon(1e-12));
+        CHECK(
+            1e3 * g["without_reactions"]["absorbed_Gy"].get<double>() ==
+            Approx(rates[organ]["without_reactions"]["absorbed_mGy"].get<double>()).epsilon(1e-12));
+    }
+    CHECK(r.out.find("GCR at the mission start, phi = 650 MV") != std::string::npos);
     const Run bad = run("shielding " + demo() + " --location attic");
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("--location: unknown location 'attic'; the scenario defines: hab-deck") !=
