@@ -112,11 +112,13 @@ int main(int argc, char** argv) {
     std::string gcr_pressure = "750";
     auto* gcr = app.add_subcommand(
         "gcr", "Galactic cosmic-ray (GCR) dose rate at a tissue depth behind a uniform shield (the "
-               "dose at the centre of a spherical shell in free space), per shield areal density: "
-               "absorbed dose, dose equivalent, RBE-weighted dose, the mean quality factor, and "
-               "each charge group's share of the dose equivalent. The model of 'check': nuclei "
-               "Z = 1-28 with their projectile fragments; target fragments and neutrons are not "
-               "modelled.\n"
+               "dose at the centre of a spherical shell, in free space or, with --site, on the "
+               "Moon or Mars), per shield areal density: absorbed dose, dose equivalent, "
+               "RBE-weighted dose and the mean quality factor with nuclear reactions (removal "
+               "and projectile fragments), the dose equivalent without any reaction (the higher "
+               "of the two is what 'check' uses for limits, because secondary nucleons, target "
+               "fragments and neutrons are not modelled), and each charge group's share of the "
+               "dose equivalent.\n"
                "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
                "--tissue-depth bfo --per-year");
     gcr->add_option("--phi,-p", gcr_phi,
