@@ -9,6 +9,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <set>
 #include <stdexcept>
 
 namespace crewdose::exposure {
@@ -46,12 +47,13 @@ struct FragmentTransport::MaterialData {
     std::array<std::vector<std::size_t>, kSpecies> producers;
     std::vector<double> proton_charge_loss;             ///< protons' removal per node
     std::array<std::vector<double>, kSpecies> neutrons; ///< neutrons made per g/cm2 per node
-    std::map<double, StepMap> maps;                     ///< by step length
+    std::map<double, StepMap> maps;                     ///< by step length, reused ones
+    std::set<double> seen;                              ///< step lengths asked for once
     std::map<std::string, std::array<std::vector<DoseQuantities>, kSpecies>> doses;
 };
 
 FragmentTransport::FragmentTransport(TableLibrary& tables, MarchOptions options)
-    : tables_(tables), options_(options) {
+    : tables_(tables), options_(options), scratch_(std::make_unique<StepMap>()) {
     if (!(options_.max_step_g_cm2 > 0.0)) {
         throw std::invalid_argument("FragmentTransport: max_step_g_cm2 must be > 0");
     }
@@ -242,17 +244,27 @@ FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, d
 
 const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const MaterialData& md,
                                                                      double h) {
-    auto& maps = const_cast<MaterialData&>(md).maps;
-    auto it = maps.find(h);
-    if (it != maps.end()) {
+    auto& data = const_cast<MaterialData&>(md);
+    auto it = data.maps.find(h);
+    if (it != data.maps.end()) {
         return it->second;
     }
-    if (maps.size() >= 64) { // layers of many different thicknesses: keep the full step only
-        for (auto m = maps.begin(); m != maps.end();) {
-            m = m->first == options_.max_step_g_cm2 ? std::next(m) : maps.erase(m);
+    // Most layers are crossed once at their own slant thickness: a map is kept only when its
+    // step comes back (the full step, tissue depths, suit layers), so memory stays with the
+    // maps that are reused (about 108 kB each).
+    if (data.seen.insert(h).second) {
+        if (data.seen.size() > 4096) {
+            data.seen.clear();
+        }
+        *scratch_ = step_map(md, h);
+        return *scratch_;
+    }
+    if (data.maps.size() >= 64) { // many repeated lengths: keep the full step only
+        for (auto m = data.maps.begin(); m != data.maps.end();) {
+            m = m->first == options_.max_step_g_cm2 ? std::next(m) : data.maps.erase(m);
         }
     }
-    return maps.emplace(h, step_map(md, h)).first->second;
+    return data.maps.emplace(h, step_map(md, h)).first->second;
 }
 
 void FragmentTransport::cross(IonField& field, const Material& material, double t) {

@@ -99,6 +99,7 @@ class FragmentTransport {
     std::size_t first_node_ = 0; ///< table node of march node 0
     std::vector<double> energies_;
     std::map<std::string, std::unique_ptr<MaterialData>> materials_;
+    std::unique_ptr<StepMap> scratch_; ///< the map of a step length met for the first time
 };
 
 } // namespace crewdose::exposure
