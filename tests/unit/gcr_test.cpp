@@ -72,6 +72,67 @@ TEST_CASE("composition at 10.6 GeV/n against the published relative abundances",
     CHECK(He / O == Approx(26.0).epsilon(0.25));
 }
 
+namespace {
+
+// Sum over included nuclei Z_min..Z_max of the modulated intensity, per (m2 sr s MeV/n):
+// averaged over [a, b] MeV/n (mean = true) or integrated above a (per m2 sr s).
+double heavy_intensity(int z_min, int z_max, double a, double b, double phi, bool mean) {
+    const int n = 2000;
+    const double la = std::log(a);
+    const double lb = std::log(b);
+    const double h = (lb - la) / n;
+    double sum = 0.0;
+    for (int i = 0; i <= n; ++i) {
+        const double E = std::exp(la + i * h);
+        const double w = (i == 0 || i == n) ? 0.5 : 1.0;
+        for (const auto& p : particles()) {
+            if (p.Z >= z_min && p.Z <= z_max && gcr_nucleus_included(p.Z)) {
+                sum += w * h * E * gcr_modulated(p, E, phi);
+            }
+        }
+    }
+    return mean ? sum / (b - a) : sum;
+}
+
+} // namespace
+
+TEST_CASE("heavy-nucleus intensities against emulsion measurements of the 1960s minimum",
+          "[gcr][reference]") {
+    // References (abstracts; the stored abstracts do not name the authors):
+    //  - "Charge and Energy Spectrum of Heavy Nuclei during the Solar Minimum, 1965": emulsion
+    //    stack at 2.7 g/cm2 over Fort Churchill, 30 June 1965: Z >= 10 nuclei 0.0045 +- 0.0010
+    //    at 300-500 MeV/n and 0.0049 +- 0.0008 at 500-800 MeV/n; Z >= 20: 0.0013 +- 0.0006 and
+    //    0.0011 +- 0.0004, per (m2 sr s MeV/n).
+    //  - "Very Heavy Nuclei in the Primary Cosmic Radiation. I. Observations on the Energy
+    //    Spectrum": stacks over Fort Churchill, Texas and India (1964-66): Z >= 20 integral
+    //    intensities above 0.225, 1.58 and 7.1 GeV/n of 1.50 +- 0.06, 0.403 +- 0.023 and
+    //    0.090 +- 0.006 per (m2 sr s).
+    // Model at phi = 400 MV (our estimate of that minimum for this LIS). As measured when this
+    // test was written: the model is 13 % low above 7.1 GeV/n, where the HEAO-3 normalisation
+    // holds, but 1.3-2.2 times the measurements from 0.3 to 2 GeV/n: the heavy-ion spectra are
+    // too rich exactly where they carry most dose equivalent (the known mean-Q bias of
+    // DEVELOPERS.md). The gate is a factor of 2.5 either way: it catches a normalisation slip,
+    // not this bias.
+    struct Case {
+        int z_min;
+        double a, b;
+        bool mean;
+        double measured;
+    };
+    for (const Case& c : {Case{10, 300, 500, true, 0.0045}, Case{10, 500, 800, true, 0.0049},
+                          Case{20, 300, 500, true, 0.0013}, Case{20, 500, 800, true, 0.0011},
+                          Case{20, 225, 1e5, false, 1.50}, Case{20, 1580, 1e5, false, 0.403},
+                          Case{20, 7100, 1e5, false, 0.090}}) {
+        const double model = heavy_intensity(c.z_min, 28, c.a, c.b, 400.0, c.mean);
+        INFO("Z >= " << c.z_min << ", " << c.a << " MeV/n: model " << model << ", measured "
+                     << c.measured);
+        CHECK(model / c.measured > 1.0 / 2.5);
+        CHECK(model / c.measured < 2.5);
+    }
+    // The high-energy point is where the model is trustworthy: within 25 %.
+    CHECK(heavy_intensity(20, 28, 7100, 1e5, 400.0, false) == Approx(0.090).epsilon(0.25));
+}
+
 TEST_CASE("nucleus-nucleus reaction cross sections against measurements", "[gcr][reference]") {
     // Sihver et al. 1993 is energy independent, meant for high energies. Reference: measured
     // 12C + 12C total reaction / interaction cross sections near 850-870 mb between 200 MeV/n
