@@ -154,7 +154,7 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
         }
     }
     // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
-    // (at the default 2 g/cm2 step h/2 self is at most 0.09, in liquid hydrogen).
+    // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
     double self_max = 0.0;
     for (const auto& v : md->self) {
         for (const double x : v) {
