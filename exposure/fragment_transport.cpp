@@ -45,7 +45,6 @@ struct FragmentTransport::MaterialData {
     std::array<std::vector<std::vector<double>>, kSpecies> prod;
     /// producers[f]: the projectiles p > f whose production of f is not zero everywhere.
     std::array<std::vector<std::size_t>, kSpecies> producers;
-    std::vector<double> proton_charge_loss;             ///< protons' removal per node
     std::array<std::vector<double>, kSpecies> neutrons; ///< neutrons made per g/cm2 per node
     std::map<double, StepMap> maps;                     ///< by step length, reused ones
     std::set<double> seen;                              ///< step lengths asked for once
@@ -114,7 +113,6 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             std::fill(r.begin(), r.end(), 0.0);
         }
     }
-    md->proton_charge_loss = md->removal[0];
     if (options_.fragmentation && options_.removal) {
         // Channels are energy-independent: once per (projectile, element); the removal cross
         // section of that element carries the energy dependence.
@@ -309,7 +307,7 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     };
     auto tally_rates = [&](std::vector<double>& lost, std::vector<double>& neut) {
         for (std::size_t m = 0; m < n; ++m) {
-            lost[m] = md.proton_charge_loss[m] * field.psi[0][m];
+            lost[m] = md.removal[0][m] * field.psi[0][m]; // protons' charge leaves
             double s = 0.0;
             for (std::size_t p = 1; p < kSpecies; ++p) {
                 s += md.neutrons[p][m] * field.psi[p][m];
