@@ -2,6 +2,7 @@
 
 #include "cautions.hpp"
 #include "input_error.hpp"
+#include "location_response.hpp"
 #include "number_format.hpp"
 #include "number_parse.hpp"
 #include "study.hpp"
@@ -10,10 +11,6 @@
 #include "exposure/gcr.hpp"
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
-#include "habitats/surroundings.hpp"
-
-#include <algorithm>
-#include <cmath>
 
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -97,17 +94,17 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     exposure::FragmentTransport unreacted(tables, none);
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
-    const exposure::Material& air = *exposure::find_builtin_material("mars-atmosphere");
     // Free space: the shell is the same in every direction, one path is the whole answer. On a
     // surface: the ground blocks every direction below the horizon (zero in the equal-weight
     // mean over the direction set), and on Mars the atmosphere's slant column comes first.
+    // The site is an empty location: external_path() gives each direction's atmosphere.
     std::vector<habitats::Vector3> directions{{0.0, 0.0, 1.0}};
-    habitats::Surroundings around;
+    LocationGeometry where;
     if (site.kind != GcrSite::free_space) {
         directions = habitats::fibonacci_directions(site.directions);
-        around.ground = true;
+        where.surroundings.ground = true;
         if (site.kind == GcrSite::mars) {
-            around.atmosphere =
+            where.surroundings.atmosphere =
                 habitats::mars_atmosphere(site.surface_pressure_Pa, site.scale_height_km);
         }
     }
@@ -117,17 +114,15 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
         depths_g_cm2.size());
     const exposure::IonField free_space = exposure::gcr_free_space_field(march, phi_MV);
     for (const auto& d : directions) {
-        if (around.blocked(d)) {
+        if (where.surroundings.blocked(d)) {
             continue;
         }
         exposure::IonField above = free_space;
         exposure::IonField plain_above = free_space;
-        if (around.atmosphere) {
-            const double zenith_deg =
-                std::acos(std::clamp(d.z, -1.0, 1.0)) * 180.0 / 3.14159265358979323846;
-            const double column = habitats::slant_column_g_cm2(*around.atmosphere, zenith_deg);
-            march.cross(above, air, column);
-            unreacted.cross(plain_above, air, column);
+        for (const auto& seg : external_path(where, d)) {
+            const exposure::Material& m = *exposure::find_builtin_material(seg.material_id);
+            march.cross(above, m, seg.areal_density_g_cm2);
+            unreacted.cross(plain_above, m, seg.areal_density_g_cm2);
         }
         // Each row from the top of the shield: a row's numbers do not depend on the others.
         for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
