@@ -19,13 +19,13 @@ namespace {
 
 const SourceLocation kCommandLine{"command line", 0};
 
-nlohmann::json to_json(const exposure::DoseQuantities& d) {
+} // namespace
+
+nlohmann::json dose_si_json(const exposure::DoseQuantities& d) {
     return {{"absorbed_Gy", d.absorbed_Gy},
             {"dose_equivalent_Sv", d.dose_equivalent_Sv},
             {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}};
 }
-
-} // namespace
 
 TissueDepth parse_tissue_depth(std::string_view text, std::string_view field) {
     // Quick-model depths, common practice in space radiation protection: skin 0.07 mm, eye
@@ -93,9 +93,9 @@ std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
         j["rows"] = nlohmann::json::array();
         for (const auto& r : rows) {
             j["rows"].push_back({{"shield_g_cm2", r.shield_g_cm2},
-                                 {"for_limits", to_json(r.dose.for_limits())},
-                                 {"with_removal", to_json(r.dose.with_removal)},
-                                 {"without_removal", to_json(r.dose.without_removal)},
+                                 {"for_limits", dose_si_json(r.dose.for_limits())},
+                                 {"with_removal", dose_si_json(r.dose.with_removal)},
+                                 {"without_removal", dose_si_json(r.dose.without_removal)},
                                  {"extrapolated_share", r.dose.extrapolated_share}});
         }
         j["cautions"] = caution_text();

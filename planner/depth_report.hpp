@@ -5,11 +5,17 @@
 #include "exposure/dosimetry.hpp"
 #include "exposure/spectrum.hpp"
 
+#include <nlohmann/json.hpp>
+
 #include <string>
 #include <string_view>
 #include <vector>
 
 namespace crewdose::planner {
+
+/// Dose quantities in SI units for JSON reports: absorbed_Gy, dose_equivalent_Sv,
+/// rbe_weighted_GyEq (full precision).
+[[nodiscard]] nlohmann::json dose_si_json(const exposure::DoseQuantities& d);
 
 /// A tissue depth as given on the command line: g/cm2, or a quick-model name.
 struct TissueDepth {

@@ -1,6 +1,7 @@
 #include "shielding_report.hpp"
 
 #include "cautions.hpp"
+#include "depth_report.hpp"
 #include "number_format.hpp"
 
 #include <fmt/format.h>
@@ -69,19 +70,11 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             j["organs"][organ.name]["tissue_g_cm2"] = organ.depth_g_cm2;
             const auto& g = study.gcr_daily_dose(location, organ.name, sc.mission.gcr_phi_MV);
             j["organs"][organ.name]["gcr_per_day"] = {
-                {"with_reactions",
-                 {{"absorbed_Gy", g.with_removal.absorbed_Gy},
-                  {"dose_equivalent_Sv", g.with_removal.dose_equivalent_Sv},
-                  {"rbe_weighted_GyEq", g.with_removal.rbe_weighted_GyEq}}},
-                {"without_reactions",
-                 {{"absorbed_Gy", g.without_removal.absorbed_Gy},
-                  {"dose_equivalent_Sv", g.without_removal.dose_equivalent_Sv},
-                  {"rbe_weighted_GyEq", g.without_removal.rbe_weighted_GyEq}}}};
+                {"with_reactions", dose_si_json(g.with_removal)},
+                {"without_reactions", dose_si_json(g.without_removal)}};
             if (ev) {
                 const auto d = study.event_dose(location, organ.name, *ev);
-                j["organs"][organ.name]["event"] = {{"absorbed_Gy", d.absorbed_Gy},
-                                                    {"dose_equivalent_Sv", d.dose_equivalent_Sv},
-                                                    {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}};
+                j["organs"][organ.name]["event"] = dose_si_json(d);
             }
         }
         j["cautions"] = caution_text();
