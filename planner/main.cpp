@@ -91,17 +91,20 @@ int main(int argc, char** argv) {
                  "--depths 0.5,1,2,5,10,20,50 --tissue-depth bfo\n\n" +
                      planner::spectrum_help());
     depth->add_option("--spectrum,-s", spectrum, "the SPE proton spectrum (see above)")->required();
-    depth->add_option("--material,-m", shield, "shield material id (see 'crewdose materials')")
-        ->capture_default_str();
-    depth
-        ->add_option("--depths,-d", depths,
-                     "shield areal densities in g/cm2, comma-separated, 0 to 1000")
-        ->capture_default_str();
-    depth
-        ->add_option("--tissue-depth,-t", tissue_depth,
-                     "where the dose is scored: skin (0.07 mm), lens (3 mm), bfo (5 cm) or a "
-                     "number of g/cm2 of tissue; the named depths are the quick screening model")
-        ->capture_default_str();
+    // The uniform-shield options that depth and gcr share.
+    auto add_shield_options = [&](CLI::App* sub, std::string& depth_list) {
+        sub->add_option("--material,-m", shield, "shield material id (see 'crewdose materials')")
+            ->capture_default_str();
+        sub->add_option("--depths,-d", depth_list,
+                        "shield areal densities in g/cm2, comma-separated, 0 to 1000")
+            ->capture_default_str();
+        sub->add_option("--tissue-depth,-t", tissue_depth,
+                        "where the dose is scored: skin (0.07 mm), lens (3 mm), bfo (5 cm) or a "
+                        "number of g/cm2 of tissue; the named depths are the quick screening "
+                        "model")
+            ->capture_default_str();
+    };
+    add_shield_options(depth, depths);
     depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
@@ -126,15 +129,7 @@ int main(int argc, char** argv) {
                     "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
                     "maximum; a phi derived with another spectrum is not interchangeable)")
         ->capture_default_str();
-    gcr->add_option("--material,-m", shield, "shield material id (see 'crewdose materials')")
-        ->capture_default_str();
-    gcr->add_option("--depths,-d", gcr_depths,
-                    "shield areal densities in g/cm2, comma-separated, 0 to 1000")
-        ->capture_default_str();
-    gcr->add_option("--tissue-depth,-t", tissue_depth,
-                    "where the dose is scored: skin (0.07 mm), lens (3 mm), bfo (5 cm) or a "
-                    "number of g/cm2 of tissue; the named depths are the quick screening model")
-        ->capture_default_str();
+    add_shield_options(gcr, gcr_depths);
     gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");
     gcr->add_option("--site", gcr_site,
                     "free-space (the shield all round), moon (the ground blocks the lower half "
