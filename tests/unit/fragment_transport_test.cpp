@@ -7,10 +7,11 @@
 #include "exposure/nuclear.hpp"
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
-#include "exposure/units.hpp"
 #include "habitats/direction_set.hpp"
 #include "planner/location_response.hpp"
 #include "planner/study.hpp"
+
+#include "free_space_dose.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -232,25 +233,7 @@ TEST_CASE("the march behind nothing is the free-space dose", "[fragmentation]") 
     FragmentTransport march(tables);
     const Material& water = builtin("water");
     const DoseQuantities d = march_dose(march, {}, water);
-    double direct = 0.0;
-    for (const auto& p : particles()) {
-        if (!gcr_nucleus_included(p.Z)) {
-            continue;
-        }
-        const RangeTable& t = tables.table(water, p);
-        const int n = 4000;
-        const double a = std::log(0.1);
-        const double b = std::log(0.99e5);
-        const double step = (b - a) / n;
-        double sum = 0.0;
-        for (int i = 0; i <= n; ++i) {
-            const double E = std::exp(a + i * step);
-            const double w = (i == 0 || i == n) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-            sum += w * E * gcr_omnidirectional_per_cm2_day_MeV_n(p, E, 400.0) * kGy_per_MeV_per_g *
-                   t.stopping_MeV_cm2_g(E);
-        }
-        direct += sum * step / 3.0;
-    }
+    const double direct = crewdose::test::free_space_dose_Gy_per_day(tables, water, 400.0, 0.1);
     CHECK(d.absorbed_Gy == Approx(direct).epsilon(2e-3));
 }
 

@@ -9,6 +9,8 @@
 #include "exposure/units.hpp"
 #include "planner/study.hpp"
 
+#include "free_space_dose.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <cmath>
@@ -151,31 +153,6 @@ TEST_CASE("nucleus-nucleus reaction cross sections against measurements", "[gcr]
 
 namespace {
 
-// Direct free-space integral of D = sum over nuclei of integral phi(E) S(E) dE, Simpson's rule
-// in ln E over 1 MeV/n .. 99 GeV/n, without the response machinery.
-double free_space_dose_Gy_per_day(TableLibrary& tables, const Material& medium, double phi) {
-    double D = 0.0;
-    for (const auto& p : particles()) {
-        if (!gcr_nucleus_included(p.Z)) {
-            continue;
-        }
-        const RangeTable& t = tables.table(medium, p);
-        const int n = 4000;
-        const double a = std::log(1.0);
-        const double b = std::log(0.99e5);
-        const double h = (b - a) / n;
-        double sum = 0.0;
-        for (int i = 0; i <= n; ++i) {
-            const double E = std::exp(a + i * h);
-            const double w = (i == 0 || i == n) ? 1.0 : (i % 2 ? 4.0 : 2.0);
-            sum += w * E * gcr_omnidirectional_per_cm2_day_MeV_n(p, E, phi) * kGy_per_MeV_per_g *
-                   t.stopping_MeV_cm2_g(E);
-        }
-        D += sum * h / 3.0;
-    }
-    return D;
-}
-
 BracketedDose gcr_dose_per_day(TableLibrary& tables,
                                const std::vector<std::pair<const Material*, double>>& layers,
                                const Material& medium, double phi) {
@@ -207,7 +184,7 @@ TEST_CASE("GCR dose behind 0 g/cm2 equals the free-space integral", "[gcr]") {
     TableLibrary tables;
     const Material& water = *find_builtin_material("water");
     const BracketedDose folded = gcr_dose_per_day(tables, {}, water, 400.0);
-    const double direct = free_space_dose_Gy_per_day(tables, water, 400.0);
+    const double direct = crewdose::test::free_space_dose_Gy_per_day(tables, water, 400.0, 1.0);
     CHECK(folded.with_removal.absorbed_Gy == Approx(direct).epsilon(2e-3));
     CHECK(folded.without_removal.absorbed_Gy == Approx(direct).epsilon(2e-3));
 }
