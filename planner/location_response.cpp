@@ -2,8 +2,12 @@
 
 #include "exposure/gcr.hpp"
 
+#include <fmt/format.h>
+
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
+#include <string>
 
 namespace crewdose::planner {
 
@@ -54,25 +58,72 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
     return quick_model_responses(tables, materials, where, directions, exposure::proton());
 }
 
+BodyDepths quick_body_depths() {
+    BodyDepths b;
+    b.model = "quick";
+    for (const auto& o : quick_body_model()) {
+        b.organs.push_back(o.name);
+        b.grid_g_cm2.push_back(o.depth_g_cm2);
+    }
+    std::sort(b.grid_g_cm2.begin(), b.grid_g_cm2.end());
+    b.weights.assign(b.organs.size() * b.grid_g_cm2.size(), 0.0);
+    const auto organs = quick_body_model();
+    for (std::size_t k = 0; k < organs.size(); ++k) {
+        const auto at = std::find(b.grid_g_cm2.begin(), b.grid_g_cm2.end(), organs[k].depth_g_cm2);
+        b.weights[k * b.grid_g_cm2.size() + static_cast<std::size_t>(at - b.grid_g_cm2.begin())] =
+            1.0;
+    }
+    return b;
+}
+
 std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
                                                  const MaterialResolver& materials,
                                                  const LocationGeometry& where,
                                                  const std::vector<habitats::Vector3>& directions,
                                                  const exposure::Particle& p) {
+    return body_responses(tables, materials, where, directions, quick_body_depths(), p);
+}
+
+namespace {
+
+void check_body(const BodyDepths& body, std::size_t directions) {
+    if (body.directions != 0 && body.directions != directions) {
+        throw std::logic_error(fmt::format("body depths built for {} directions, used with {}",
+                                           body.directions, directions));
+    }
+}
+
+} // namespace
+
+std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
+                                          const MaterialResolver& materials,
+                                          const LocationGeometry& where,
+                                          const std::vector<habitats::Vector3>& directions,
+                                          const BodyDepths& body, const exposure::Particle& p) {
+    check_body(body, directions.size());
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
     const exposure::DoseMedium medium{&tables.table(tissue, p), &tables.table(water, p)};
-    const auto organs = quick_body_model();
-    std::vector<OrganResponse> out;
-    for (const auto& organ : organs) {
-        OrganResponse r;
-        r.organ = organ.name;
-        out.push_back(std::move(r));
+    const std::size_t n_organs = body.organs.size();
+    const std::size_t n_grid = body.grid_g_cm2.size();
+    const std::size_t n_nodes = medium.medium->grid().size();
+    std::vector<OrganResponse> out(n_organs);
+    for (std::size_t o = 0; o < n_organs; ++o) {
+        out[o].organ = body.organs[o];
+        auto& acc = out[o].response;
+        acc.node_energies_MeV_per_n.resize(n_nodes);
+        for (std::size_t j = 0; j < n_nodes; ++j) {
+            acc.node_energies_MeV_per_n[j] = medium.medium->energy_at_node(j);
+        }
+        acc.with_removal.assign(n_nodes, {});
+        acc.without_removal.assign(n_nodes, {});
     }
     std::size_t blocked = 0;
     const double weight = 1.0 / static_cast<double>(directions.size());
     const exposure::NodeDoses doses = exposure::node_doses(medium, p, exposure::RbeModel{});
-    for (const auto& d : directions) {
+    std::vector<double> node_weight(n_grid);
+    for (std::size_t k = 0; k < directions.size(); ++k) {
+        const auto& d = directions[k];
         if (where.surroundings.blocked(d)) {
             ++blocked; // fully shielded: contributes zero to the equal-weight mean
             continue;
@@ -82,31 +133,35 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
             path.push_back({&tables.table(materials(seg.material_id), p), seg.areal_density_g_cm2});
         }
         path.push_back({medium.medium, 0.0});
-        for (std::size_t k = 0; k < organs.size(); ++k) {
-            path.back().areal_density_g_cm2 = organs[k].depth_g_cm2;
-            const auto r = exposure::path_response(path, doses);
-            auto& acc = out[k].response;
-            if (acc.node_energies_MeV_per_n.empty()) {
-                acc.node_energies_MeV_per_n = r.node_energies_MeV_per_n;
-                acc.with_removal.assign(r.with_removal.size(), {});
-                acc.without_removal.assign(r.without_removal.size(), {});
+        // Which grid depths some organ needs along this direction.
+        std::fill(node_weight.begin(), node_weight.end(), 0.0);
+        for (std::size_t o = 0; o < n_organs; ++o) {
+            const auto w = body.of(k, o);
+            for (std::size_t g = 0; g < n_grid; ++g) {
+                node_weight[g] += w[g];
             }
-            for (std::size_t j = 0; j < r.with_removal.size(); ++j) {
-                acc.with_removal[j] += r.with_removal[j].scaled(weight);
-                acc.without_removal[j] += r.without_removal[j].scaled(weight);
+        }
+        for (std::size_t g = 0; g < n_grid; ++g) {
+            if (node_weight[g] == 0.0) {
+                continue;
+            }
+            path.back().areal_density_g_cm2 = body.grid_g_cm2[g];
+            const auto r = exposure::path_response(path, doses);
+            for (std::size_t o = 0; o < n_organs; ++o) {
+                const double f = weight * body.of(k, o)[g];
+                if (f == 0.0) {
+                    continue;
+                }
+                auto& acc = out[o].response;
+                for (std::size_t j = 0; j < n_nodes; ++j) {
+                    acc.with_removal[j] += r.with_removal[j].scaled(f);
+                    acc.without_removal[j] += r.without_removal[j].scaled(f);
+                }
             }
         }
     }
     for (auto& o : out) {
         o.blocked_fraction = static_cast<double>(blocked) * weight;
-        if (o.response.node_energies_MeV_per_n.empty()) { // every direction blocked
-            o.response.node_energies_MeV_per_n.assign(medium.medium->grid().size(), 0.0);
-            for (std::size_t j = 0; j < o.response.node_energies_MeV_per_n.size(); ++j) {
-                o.response.node_energies_MeV_per_n[j] = std::exp(medium.medium->grid().log_node(j));
-            }
-            o.response.with_removal.assign(o.response.node_energies_MeV_per_n.size(), {});
-            o.response.without_removal.assign(o.response.node_energies_MeV_per_n.size(), {});
-        }
     }
     return out;
 }
@@ -114,28 +169,35 @@ std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
 std::map<std::pair<std::string, double>, exposure::BracketedDose> gcr_quick_model_doses(
     const GcrMarches& marches, const MaterialResolver& materials, const LocationGeometry& where,
     const std::vector<habitats::Vector3>& directions, std::span<const double> phis_given) {
+    return gcr_body_doses(marches, materials, where, directions, quick_body_depths(), phis_given);
+}
+
+std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, std::span<const double> phis_given) {
+    check_body(body, directions.size());
     // Each distinct phi once (a repeated one would be summed twice).
     std::vector<double> phis_MV(phis_given.begin(), phis_given.end());
     std::sort(phis_MV.begin(), phis_MV.end());
     phis_MV.erase(std::unique(phis_MV.begin(), phis_MV.end()), phis_MV.end());
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
-    auto organs = quick_body_model();
-    std::sort(organs.begin(), organs.end(), [](const QuickOrgan& a, const QuickOrgan& b) {
-        return a.depth_g_cm2 < b.depth_g_cm2;
-    });
-    std::map<std::pair<std::string, double>, exposure::BracketedDose> out;
+    const std::size_t n_organs = body.organs.size();
+    const std::size_t n_grid = body.grid_g_cm2.size();
+    // Per (phi, organ) accumulators, both marches.
+    std::vector<exposure::BracketedDose> acc(phis_MV.size() * n_organs);
     // Both marches share one energy grid (the library's), so one free-space field serves both.
     std::vector<exposure::IonField> free_space;
     for (const double phi : phis_MV) {
         free_space.push_back(exposure::gcr_free_space_field(marches.with_reactions, phi));
-        for (const auto& o : organs) {
-            out[{o.name, phi}] = {};
-        }
     }
     const double weight = 1.0 / static_cast<double>(directions.size());
     std::vector<std::pair<const exposure::Material*, double>> path;
-    for (const auto& d : directions) {
+    std::vector<double> node_weight(n_grid);
+    std::vector<exposure::DoseQuantities> at_node(n_grid);
+    for (std::size_t k = 0; k < directions.size(); ++k) {
+        const auto& d = directions[k];
         if (where.surroundings.blocked(d)) {
             continue; // fully shielded: zero in the equal-weight mean
         }
@@ -143,23 +205,47 @@ std::map<std::pair<std::string, double>, exposure::BracketedDose> gcr_quick_mode
         for (const auto& seg : external_path(where, d)) {
             path.emplace_back(&materials(seg.material_id), seg.areal_density_g_cm2);
         }
-        for (std::size_t k = 0; k < phis_MV.size(); ++k) {
+        std::fill(node_weight.begin(), node_weight.end(), 0.0);
+        for (std::size_t o = 0; o < n_organs; ++o) {
+            const auto w = body.of(k, o);
+            for (std::size_t g = 0; g < n_grid; ++g) {
+                node_weight[g] += w[g];
+            }
+        }
+        for (std::size_t i = 0; i < phis_MV.size(); ++i) {
             for (const bool reactions : {true, false}) {
                 exposure::FragmentTransport& march =
                     reactions ? marches.with_reactions : marches.without_reactions;
-                exposure::IonField field = free_space[k];
+                exposure::IonField field = free_space[i];
                 for (const auto& [m, t] : path) {
                     march.cross(field, *m, t);
                 }
                 double depth = 0.0;
-                for (const auto& o : organs) {
-                    march.cross(field, tissue, o.depth_g_cm2 - depth);
-                    depth = o.depth_g_cm2;
-                    auto& slot = out[{o.name, phis_MV[k]}];
-                    (reactions ? slot.with_removal : slot.without_removal) +=
-                        march.dose(field, tissue, water).scaled(weight);
+                for (std::size_t g = 0; g < n_grid; ++g) {
+                    if (node_weight[g] == 0.0) {
+                        continue;
+                    }
+                    march.cross(field, tissue, body.grid_g_cm2[g] - depth);
+                    depth = body.grid_g_cm2[g];
+                    at_node[g] = march.dose(field, tissue, water);
+                }
+                for (std::size_t o = 0; o < n_organs; ++o) {
+                    const auto w = body.of(k, o);
+                    auto& slot = acc[i * n_organs + o];
+                    auto& q = reactions ? slot.with_removal : slot.without_removal;
+                    for (std::size_t g = 0; g < n_grid; ++g) {
+                        if (w[g] != 0.0) {
+                            q += at_node[g].scaled(weight * w[g]);
+                        }
+                    }
                 }
             }
+        }
+    }
+    std::map<std::pair<std::string, double>, exposure::BracketedDose> out;
+    for (std::size_t i = 0; i < phis_MV.size(); ++i) {
+        for (std::size_t o = 0; o < n_organs; ++o) {
+            out[{body.organs[o], phis_MV[i]}] = acc[i * n_organs + o];
         }
     }
     return out;

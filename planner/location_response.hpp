@@ -28,6 +28,31 @@ struct QuickOrgan {
 };
 [[nodiscard]] std::vector<QuickOrgan> quick_body_model();
 
+/// How a body model puts tissue in front of its organs: a grid of tissue areal densities shared
+/// by every organ and, per direction and organ, weights on that grid that sum to 1 (the tissue
+/// depths of the organ's sample points along the direction, each split between its two
+/// neighbouring nodes in proportion to its distance from them). The dose of an organ along a
+/// direction is then the weighted sum of the doses at the grid depths. The quick model has one
+/// node per organ and the same weights in every direction; the phantom's depend on direction.
+struct BodyDepths {
+    std::string model;               ///< "quick" or "phantom"
+    std::vector<std::string> organs; ///< organ ids, in output order
+    std::vector<double> grid_g_cm2;  ///< increasing tissue areal densities
+    std::size_t directions = 0;      ///< 0: one block of weights for every direction
+    /// Row-major [direction][organ][grid node] (only [organ][node] when `directions` is 0).
+    std::vector<double> weights;
+
+    /// The weights of one organ along direction `k` (grid-sized).
+    [[nodiscard]] std::span<const double> of(std::size_t k, std::size_t organ) const {
+        const std::size_t block = organs.size() * grid_g_cm2.size();
+        const std::size_t base = (directions == 0 ? 0 : k * block) + organ * grid_g_cm2.size();
+        return {weights.data() + base, grid_g_cm2.size()};
+    }
+};
+
+/// The quick model as BodyDepths: skin, lens and BFO each at its one depth.
+[[nodiscard]] BodyDepths quick_body_depths();
+
 /// One layer of an EVA suit, in areal density.
 struct SuitLayer {
     std::string material_id;
@@ -98,6 +123,14 @@ quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& ma
                       const std::vector<habitats::Vector3>& directions,
                       const exposure::Particle& particle);
 
+/// Responses of a body model's organs at a location: per direction, one path response for each
+/// grid depth some organ needs, combined with the organs' weights (BodyDepths). `body` must
+/// have been built for `directions` (or be direction-independent).
+[[nodiscard]] std::vector<OrganResponse>
+body_responses(exposure::TableLibrary& tables, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, const exposure::Particle& particle = exposure::proton());
+
 /// The two marches of the GCR bracket: with nuclear reactions (removal and projectile
 /// fragments: the modelled physics) and without any (every nucleus keeps its charge). While
 /// secondary nucleons, target fragments and neutrons are missing, the first is low behind thick
@@ -118,6 +151,14 @@ gcr_quick_model_doses(const GcrMarches& marches, const MaterialResolver& materia
                       const LocationGeometry& where,
                       const std::vector<habitats::Vector3>& directions,
                       std::span<const double> phis_MV);
+
+/// The same for any body model: along each direction the field is marched through the tissue
+/// grid depths the organs need, in increasing order, and each organ takes its weights of the
+/// doses there.
+[[nodiscard]] std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, std::span<const double> phis_MV);
 
 /// The layer path of one direction, outermost first, before any tissue: atmosphere (slant
 /// column, when the site has one), the scene's walls from outside in, any uniform shell, the suit.
