@@ -96,14 +96,116 @@ PathResponse path_response(std::span<const Layer> path, const DoseMedium& medium
     return path_response(path, node_doses(medium, particle, rbe));
 }
 
-PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses) {
-    const RangeTable& table = *doses.grid_table;
+namespace {
+
+void check_grid(std::span<const Layer> path, const RangeTable& table) {
     for (const auto& layer : path) {
         if (layer.table->grid().size() != table.grid().size() ||
             layer.table->grid().front() != table.grid().front()) {
             throw std::logic_error("path_response: every table must share one energy grid");
         }
     }
+}
+
+// The response from the backward transport of every exit node (sweep[j] for node j; nodes
+// beyond the sweep's end are unreachable).
+PathResponse assemble(const std::vector<BackwardResult>& sweep, const NodeDoses& doses);
+
+} // namespace
+
+PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses) {
+    const RangeTable& table = *doses.grid_table;
+    check_grid(path, table);
+    const LogGrid& g = table.grid();
+    std::vector<double> log_exits(g.size());
+    for (std::size_t j = 0; j < g.size(); ++j) {
+        log_exits[j] = g.log_node(j);
+    }
+    return assemble(transport_backward_sweep(path, log_exits, Removal::with), doses);
+}
+
+std::vector<PathResponse> depth_responses(std::span<const Layer> external, const RangeTable& tissue,
+                                          std::span<const double> depths_g_cm2,
+                                          const NodeDoses& doses) {
+    const RangeTable& table = *doses.grid_table;
+    check_grid(external, table);
+    const Layer tissue_layer{&tissue, 0.0};
+    check_grid(std::span<const Layer>(&tissue_layer, 1), table);
+    const LogGrid& g = table.grid();
+    const std::size_t n = g.size();
+    std::vector<double> log_nodes(n);
+    for (std::size_t j = 0; j < n; ++j) {
+        log_nodes[j] = g.log_node(j);
+    }
+    // The external map on the nodes: entering the tissue at node energy e_i.
+    const std::vector<BackwardResult> ext =
+        transport_backward_sweep(external, log_nodes, Removal::with);
+    const std::size_t m_ext = ext.size(); // nodes whose incident energy is within the tables
+    std::vector<double> ext_log_E0(m_ext);
+    std::vector<double> ext_log_jac(m_ext);
+    std::vector<double> ext_od(m_ext);
+    for (std::size_t i = 0; i < m_ext; ++i) {
+        ext_log_E0[i] = ext[i].log_incident;
+        ext_log_jac[i] = std::log(ext[i].jacobian);
+        ext_od[i] = -std::log(ext[i].survival);
+    }
+    const double h = g.log_step();
+    const double log0 = log_nodes[0];
+    std::vector<PathResponse> out;
+    out.reserve(depths_g_cm2.size());
+    std::vector<BackwardResult> sweep;
+    // The tissue layer, from each exit node (a grid node: its range, stopping and optical
+    // depth are the table's node values) back to the tissue entrance, as in
+    // transport_backward_sweep() but in logs throughout.
+    const double top = tissue.log_max_range();
+    const std::vector<double>& log_S = tissue.log_stopping_nodes();
+    const std::vector<double>& tau = tissue.optical_depth_nodes();
+    for (const double depth : depths_g_cm2) {
+        sweep.clear();
+        std::size_t hint = 0;
+        for (std::size_t j = 0; j < n; ++j) {
+            const double R_out = tissue.range_at_node(j);
+            const double R_in = R_out + depth;
+            const double log_R_in = std::log(R_in);
+            if (log_R_in > top) {
+                break; // incident energies increase with exit energy: the rest are out too
+            }
+            const RangeTable::Cursor c_in = tissue.cursor_at_log_range(log_R_in, hint);
+            const double log_jac_t = tissue.log_stopping(c_in) - log_S[j];
+            const double od_t = tau.empty() ? 0.0 : tissue.optical_depth(c_in, R_in) - tau[j];
+            // Where the tissue-entrance energy falls among the nodes the external map knows.
+            const double x = (c_in.log_E - log0) / h;
+            if (m_ext < 4 || x > static_cast<double>(m_ext - 1)) {
+                break; // beyond the tables once through the external layers too
+            }
+            const auto i0 = static_cast<std::size_t>(
+                std::clamp(std::floor(x) - 1.0, 0.0, static_cast<double>(m_ext - 4)));
+            const double u = x - static_cast<double>(i0);
+            // 4-point Lagrange weights at u for nodes i0 .. i0+3 (offsets 0..3).
+            const double w0 = -(u - 1) * (u - 2) * (u - 3) / 6.0;
+            const double w1 = u * (u - 2) * (u - 3) / 2.0;
+            const double w2 = -u * (u - 1) * (u - 3) / 2.0;
+            const double w3 = u * (u - 1) * (u - 2) / 6.0;
+            auto lagrange = [&](const std::vector<double>& f) {
+                return w0 * f[i0] + w1 * f[i0 + 1] + w2 * f[i0 + 2] + w3 * f[i0 + 3];
+            };
+            BackwardResult r;
+            r.reachable = true;
+            r.log_incident = lagrange(ext_log_E0);
+            r.incident_MeV_per_n = std::exp(r.log_incident);
+            r.jacobian = std::exp(log_jac_t + lagrange(ext_log_jac));
+            r.survival = std::exp(-(od_t + std::max(0.0, lagrange(ext_od))));
+            sweep.push_back(r);
+        }
+        out.push_back(assemble(sweep, doses));
+    }
+    return out;
+}
+
+namespace {
+
+PathResponse assemble(const std::vector<BackwardResult>& sweep, const NodeDoses& doses) {
+    const RangeTable& table = *doses.grid_table;
     const LogGrid& g = table.grid();
     const std::size_t n = g.size();
     std::vector<double> node(n);
@@ -119,12 +221,6 @@ PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses) 
     cum.log_incident.reserve(n);
     cum.G0.reserve(n);
     cum.G1.reserve(n);
-    std::vector<double> log_exits(n);
-    for (std::size_t j = 0; j < n; ++j) {
-        log_exits[j] = g.log_node(j);
-    }
-    const std::vector<BackwardResult> sweep =
-        transport_backward_sweep(path, log_exits, Removal::with);
     Pair w_prev;
     double inv_prev = 0.0; // 1 / E0 of the previous node
     double log_prev = 0.0; // ln E0 of the previous node
@@ -192,6 +288,8 @@ PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses) 
     }
     return r;
 }
+
+} // namespace
 
 NodeFluences node_fluences(const ProtonSpectrum& spectrum, std::span<const double> nodes) {
     NodeFluences f;

@@ -43,6 +43,17 @@ struct NodeDoses {
 /// path_response() with the node doses computed once; identical results.
 [[nodiscard]] PathResponse path_response(std::span<const Layer> path, const NodeDoses& doses);
 
+/// path_response() of external + tissue(t) for many tissue depths t behind one external path
+/// (a body model's depth grid): the external layers' backward map (ln E0, ln dE0/dE, optical
+/// depth as functions of the energy entering the tissue) is computed once on the grid nodes and
+/// interpolated with 4-point Lagrange polynomials in ln E at each depth's tissue-entrance
+/// energies. The fast path; path_response() is the reference it is tested against
+/// (tests/unit/response_test). `tissue` is the tissue's table (usually doses' medium).
+[[nodiscard]] std::vector<PathResponse> depth_responses(std::span<const Layer> external,
+                                                        const RangeTable& tissue,
+                                                        std::span<const double> depths_g_cm2,
+                                                        const NodeDoses& doses);
+
 /// A spectrum's fluence per unit ln E at the nodes, psi = E phi(E), and the part of it outside
 /// the spectrum's fit range, particles/cm2.
 struct NodeFluences {

@@ -6,6 +6,7 @@
 #include "time_format.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <nlohmann/json.hpp>
 
 #include <set>
@@ -18,6 +19,36 @@ std::string organ_label(const std::string& organ) {
         return "BFO";
     }
     return organ;
+}
+
+// The unit of an organ's ledger: the effective dose is in mSv, every organ dose in mGy-Eq.
+const char* unit_of(const std::string& organ) {
+    return organ == "effective" ? "mSv" : "mGy-Eq";
+}
+
+std::string body_text(const Study& study) {
+    const Scenario& sc = study.scenario();
+    std::vector<std::string> quick;
+    std::vector<std::string> phantom;
+    for (const auto& loc : sc.locations) {
+        (loc.body == BodyModelKind::phantom ? phantom : quick).push_back(loc.id);
+    }
+    std::string t;
+    if (!phantom.empty()) {
+        t += fmt::format(
+            "stylised adult phantom (MIRD-type hermaphrodite after MIRD Pamphlet 5, organ "
+            "tissue depths per direction from {} points per organ region, {} directions for "
+            "SPEs; skin and lens at 0.07 mm and 3 mm; BFO = active marrow; effective dose with "
+            "ICRP 103 weights, oesophagus, salivary glands and bone surface by named proxies) "
+            "at {}",
+            kPhantomPointsPerDirection, sc.mission.phantom_directions, fmt::join(phantom, ", "));
+    }
+    if (!quick.empty()) {
+        t += fmt::format("{}quick screening model (skin 0.07 mm, lens 3 mm, BFO 5 cm of tissue in "
+                         "every direction; no heart, brain or effective dose) at {}",
+                         t.empty() ? "" : "; ", fmt::join(quick, ", "));
+    }
+    return t;
 }
 
 std::string phi_text(const Mission& m) {
@@ -34,8 +65,7 @@ std::string phi_text(const Mission& m) {
 std::string model_text(const Study& study) {
     const Scenario& sc = study.scenario();
     return fmt::format(
-        "Model: quick body model (tissue depth in every direction: skin 0.07 mm, lens 3 mm, BFO 5 "
-        "cm; a conservative screening model); {} directions per location for SPEs, {} for GCR; "
+        "Model: body: {}; {} directions per quick-model location for SPEs, {} for GCR; "
         "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium only "
         "as a "
         "fragment) from the Burger et al. 2000 local interstellar spectrum, force-field modulated "
@@ -48,10 +78,9 @@ std::string model_text(const Study& study) {
         "carry most of the dose behind thick shielding: there the march with reactions is low, "
         "and the higher value stands in for the missing secondaries. RBE-weighted dose with NCRP "
         "132 "
-        "values; uncertainty factor {:.2f} applied to every dose. Not modelled yet: the stylised "
-        "phantom, circulatory, CNS and effective-dose limits. Window maxima are exact at "
+        "values; uncertainty factor {:.2f} applied to every dose. Window maxima are exact at "
         "activity and event boundaries and sampled every 10 minutes inside event profiles.",
-        study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
+        body_text(study), study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
         sc.limits.uncertainty_factor);
 }
 
@@ -108,9 +137,9 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     {{"from", format_time(phase.from)}, {"phi_MV", phase.phi_MV}});
             }
             for (const auto& loc : sc.locations) {
-                for (const auto& q : quick_body_model()) {
-                    const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-                    g["daily_rates_at_start"][loc.id][q.name] = {
+                for (const auto& organ : study.body(loc.id).organs) {
+                    const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+                    g["daily_rates_at_start"][loc.id][organ] = {
                         {"with_reactions", dose_json(d.with_removal)},
                         {"without_reactions", dose_json(d.without_removal)},
                         {"for_limits", dose_json(d.for_limits())}};
@@ -128,6 +157,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         j["crew"] = nlohmann::json::array();
         for (const auto& c : ledger.crew) {
             nlohmann::json cj{{"id", c.crew}, {"name", c.name}};
+            cj["not_evaluated"] = nlohmann::json::object();
+            for (const auto& [organ, where] : c.not_evaluated) {
+                cj["not_evaluated"][organ] = where;
+            }
             for (const auto& o : c.organs) {
                 cj["organs"][o.organ] = {
                     {"max_30d", window_json(o.max_30d)},
@@ -148,6 +181,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                             {"gcr_rate_mGyEq_per_day", c.budget.rate_mGyEq_per_day}};
             for (const auto& chk : c.checks) {
                 cj["limits"].push_back({{"organ", chk.limit.organ},
+                                        {"unit", unit_of(chk.limit.organ)},
                                         {"window", chk.limit.window},
                                         {"limit", chk.limit.value},
                                         {"basis", chk.limit.basis},
@@ -190,11 +224,18 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += wrap(model_text(study), 96) + "\n";
     out += "GCR dose rate at the mission start, per day, with nuclear reactions (removal and "
            "projectile\nfragments) / without any (the higher is used for limits):\n";
-    out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
+    out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
     for (const auto& loc : sc.locations) {
-        for (const auto& q : quick_body_model()) {
-            const auto& d = study.gcr_daily_dose(loc.id, q.name, sc.mission.gcr_phi_MV);
-            out += fmt::format("  {:<20} {:<6} {:>22} {:>22}\n", loc.id, organ_label(q.name),
+        for (const auto& organ : study.body(loc.id).organs) {
+            if (organ == "effective") {
+                const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+                out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", loc.id, organ, "-",
+                                   significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
+                                       significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
+                continue;
+            }
+            const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+            out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", loc.id, organ_label(organ),
                                significant(1e3 * d.with_removal.rbe_weighted_GyEq, 3) + " / " +
                                    significant(1e3 * d.without_removal.rbe_weighted_GyEq, 3),
                                significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
@@ -215,18 +256,31 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += "\n";
     for (const auto& c : ledger.crew) {
         out += fmt::format("{} ({})\n", c.name, c.crew);
-        out += fmt::format("  {:<6} {:<8} {:>12} {:>10} {:>10}  {}\n", "organ", "window", "mGy-Eq",
-                           "limit", "margin", "where the window lies");
+        out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {:>10}  {}\n", "organ", "window",
+                           "dose", "unit", "limit", "margin", "where the window lies");
         const LimitCheck* lowest = nullptr;
         for (const auto& chk : c.checks) {
             if (!lowest || chk.margin / chk.limit.value < lowest->margin / lowest->limit.value) {
                 lowest = &chk;
             }
-            out += fmt::format(
-                "  {:<6} {:<8} {:>12} {:>10} {}{:>10}{}  {}\n", organ_label(chk.limit.organ),
-                chk.limit.window, significant(chk.dose, 3), significant(chk.limit.value, 3),
-                chk.exceeded ? red : "", significant(chk.margin, 3), chk.exceeded ? reset : "",
-                chk.window_text.empty() ? "-" : chk.window_text);
+            out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {}{:>10}{}  {}\n",
+                               organ_label(chk.limit.organ), chk.limit.window,
+                               significant(chk.dose, 3), unit_of(chk.limit.organ),
+                               significant(chk.limit.value, 3), chk.exceeded ? red : "",
+                               significant(chk.margin, 3), chk.exceeded ? reset : "",
+                               chk.window_text.empty() ? "-" : chk.window_text);
+        }
+        if (!c.not_evaluated.empty()) {
+            std::vector<std::string> organs;
+            std::set<std::string> where;
+            for (const auto& [organ, locs] : c.not_evaluated) {
+                organs.push_back(organ_label(organ));
+                where.insert(locs.begin(), locs.end());
+            }
+            out += wrap(fmt::format("  not evaluated: {} (they need body = \"phantom\"; the quick "
+                                    "model is used at {})",
+                                    fmt::join(organs, ", "), fmt::join(where, ", ")),
+                        100, "    ");
         }
         if (lowest) {
             out += wrap(fmt::format("  smallest margin: {} {} ({:.0f} % of the limit left){}",
@@ -239,23 +293,29 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         }
         if (c.budget.binds && c.budget.days > 0.0) {
             out += wrap(fmt::format("  budget left: {} {} binds first, after about {} more days "
-                                    "of this timeline's activity mix ({} mGy-Eq/day of GCR; no "
+                                    "of this timeline's activity mix ({} {}/day of GCR; no "
                                     "further events)",
                                     organ_label(c.budget.organ), c.budget.window,
                                     significant(c.budget.days, 3),
-                                    significant(c.budget.rate_mGyEq_per_day, 3)),
+                                    significant(c.budget.rate_mGyEq_per_day, 3),
+                                    unit_of(c.budget.organ)),
                         100, "    ");
         } else if (!c.budget.binds) {
             out += "  budget left: no limit binds from the GCR background of this timeline alone\n";
         }
-        out += fmt::format("  mission dose by source (mGy-Eq; dose equivalent in mSv)\n");
-        out += fmt::format("  {:<6} {:>16} {:>16} {:>16}\n", "organ", "GCR", "SPE", "recorded");
+        out += fmt::format("  mission dose by source (mGy-Eq; dose equivalent in mSv; effective "
+                           "dose in mSv)\n");
+        out += fmt::format("  {:<9} {:>16} {:>16} {:>16}\n", "organ", "GCR", "SPE", "recorded");
         for (const auto& o : c.organs) {
-            auto cell = [](const DoseTotals& t) {
+            const bool effective = o.organ == "effective";
+            auto cell = [effective](const DoseTotals& t) {
+                if (effective) {
+                    return significant(t.dose_equivalent_mSv, 3);
+                }
                 return fmt::format("{} ({})", significant(t.mGyEq, 3),
                                    significant(t.dose_equivalent_mSv, 3));
             };
-            out += fmt::format("  {:<6} {:>16} {:>16} {:>16}\n", organ_label(o.organ), cell(o.gcr),
+            out += fmt::format("  {:<9} {:>16} {:>16} {:>16}\n", organ_label(o.organ), cell(o.gcr),
                                cell(o.spe), cell(o.other));
         }
         out += "  largest BFO contributors:\n";
@@ -273,9 +333,8 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += "Limits (planning values, not official; basis):\n";
     std::set<std::string> bases;
     for (const auto& l : sc.limits.limits) {
-        out += wrap(fmt::format("  {} {}: {} {} ({}){}", organ_label(l.organ), l.window,
-                                significant(l.value, 3), l.organ == "effective" ? "mSv" : "mGy-Eq",
-                                l.basis, l.organ == "effective" ? " - not evaluated yet" : ""),
+        out += wrap(fmt::format("  {} {}: {} {} ({})", organ_label(l.organ), l.window,
+                                significant(l.value, 3), unit_of(l.organ), l.basis),
                     100, "    ");
     }
     for (const auto& g : ledger.gaps) {
@@ -287,12 +346,13 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         for (const auto& c : ledger.crew) {
             for (const auto& chk : c.checks) {
                 if (chk.exceeded) {
-                    out += fmt::format(
-                        "{}PLANNING LIMIT EXCEEDED{}: {} ({}), {} {} limit, {} of {} "
-                        "mGy-Eq{}\n",
-                        red, reset, c.name, c.crew, organ_label(chk.limit.organ), chk.limit.window,
-                        significant(chk.dose, 3), significant(chk.limit.value, 3),
-                        chk.window_text.empty() ? "" : ", window " + chk.window_text);
+                    out +=
+                        fmt::format("{}PLANNING LIMIT EXCEEDED{}: {} ({}), {} {} limit, {} of {} "
+                                    "{}{}\n",
+                                    red, reset, c.name, c.crew, organ_label(chk.limit.organ),
+                                    chk.limit.window, significant(chk.dose, 3),
+                                    significant(chk.limit.value, 3), unit_of(chk.limit.organ),
+                                    chk.window_text.empty() ? "" : ", window " + chk.window_text);
                 }
             }
         }

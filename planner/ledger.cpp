@@ -174,6 +174,21 @@ Budget remaining_budget(const std::vector<LimitCheck>& checks,
     return best;
 }
 
+namespace {
+
+// A dose given in the scenario for an organ (mGy-Eq) or, for "effective", in mSv.
+std::optional<double> stated_dose(const OrganDoses& d, const std::string& organ) {
+    if (organ == "effective") {
+        return d.effective_mSv;
+    }
+    if (const auto it = d.mGyEq.find(organ); it != d.mGyEq.end()) {
+        return it->second;
+    }
+    return std::nullopt;
+}
+
+} // namespace
+
 LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     const Scenario& sc = study.scenario();
     LedgerResult out;
@@ -186,7 +201,28 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
         result.crew = crew.id;
         result.name = crew.name;
         double lowest_margin = 1e300;
-        for (const auto& organ : limited_organs()) {
+        for (const auto& organ : ledger_organs()) {
+            std::vector<std::string> lacking;
+            for (const auto& span : filled) {
+                if (!study.has_organ(span.location, organ) &&
+                    std::find(lacking.begin(), lacking.end(), span.location) == lacking.end()) {
+                    lacking.push_back(span.location);
+                }
+            }
+            if (!lacking.empty()) {
+                result.not_evaluated[organ] = lacking;
+                continue;
+            }
+            // The effective dose is limited in mSv: its pieces carry the dose equivalent in
+            // every field, so that the window arithmetic (on the RBE-weighted field) sums it.
+            const bool effective = organ == "effective";
+            auto as_limited = [effective](exposure::DoseQuantities d) {
+                if (effective) {
+                    d.rbe_weighted_GyEq = d.dose_equivalent_Sv;
+                    d.absorbed_Gy = d.dose_equivalent_Sv;
+                }
+                return d;
+            };
             std::vector<DosePiece> pieces;
             for (const auto& span : filled) {
                 for (const auto& ev : sc.events) {
@@ -198,7 +234,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                         continue;
                     }
                     const auto full = study.event_dose(span.location, organ, ev);
-                    pieces.push_back({span.start, span.end, full.scaled(f * uf), &ev,
+                    pieces.push_back({span.start, span.end, as_limited(full).scaled(f * uf), &ev,
                                       "SPE " + ev.id, span.label, &timing});
                 }
                 // GCR: the location's daily rate over the span, cut where phi changes.
@@ -214,8 +250,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     const double days =
                         static_cast<double>((cuts[c + 1] - cuts[c]).total_seconds()) / 86400.0;
                     const auto rate = study.gcr_daily_dose(span.location, organ, phi).for_limits();
-                    pieces.push_back({cuts[c], cuts[c + 1], rate.scaled(days * uf), nullptr,
-                                      kGcrSource, span.label});
+                    pieces.push_back({cuts[c], cuts[c + 1], as_limited(rate).scaled(days * uf),
+                                      nullptr, kGcrSource, span.label});
                 }
             }
             // Recorded doses: replace the modelled dose of their period (the pieces are cut
@@ -244,8 +280,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     }
                     pieces = std::move(kept);
                 }
-                if (const auto it = rec.doses.mGyEq.find(organ); it != rec.doses.mGyEq.end()) {
-                    const double gyeq = it->second * 1e-3;
+                if (const auto value = stated_dose(rec.doses, organ)) {
+                    const double gyeq = *value * 1e-3;
                     pieces.push_back({rec.start,
                                       rec.end,
                                       {gyeq, gyeq, gyeq},
@@ -273,8 +309,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                 }
             }
             for (const auto& prior : crew.prior) {
-                if (const auto it = prior.doses.mGyEq.find(organ); it != prior.doses.mGyEq.end()) {
-                    const double gyeq = it->second * 1e-3;
+                if (const auto value = stated_dose(prior.doses, organ)) {
+                    const double gyeq = *value * 1e-3;
                     pieces.push_back({prior.start,
                                       prior.end,
                                       {gyeq, gyeq, gyeq},

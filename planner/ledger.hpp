@@ -70,6 +70,8 @@ struct DoseTotals {
     }
 };
 
+/// One organ's ledger. For "effective" every dose field holds the effective dose (mSv) where
+/// the others hold mGy-Eq: its limit is in mSv.
 struct OrganResult {
     std::string organ;
     DoseTotals gcr;   ///< mission GCR part
@@ -114,6 +116,9 @@ struct CrewResult {
     Budget budget;
     std::vector<DosePiece> pieces; ///< all pieces of the lowest-margin organ's ledger
     std::vector<std::pair<std::string, double>> contributors; ///< BFO mGy-Eq by activity x source
+    /// Organs not evaluated for this crew member (heart, brain, effective), with the locations
+    /// of the timeline whose body model does not give them (the quick model).
+    std::map<std::string, std::vector<std::string>> not_evaluated;
 };
 
 struct LedgerOptions {

@@ -1,5 +1,6 @@
 #include "location_response.hpp"
 
+#include "exposure/effective_dose.hpp"
 #include "exposure/gcr.hpp"
 
 #include <fmt/format.h>
@@ -76,6 +77,168 @@ BodyDepths quick_body_depths() {
     return b;
 }
 
+std::vector<double> phantom_depth_grid() {
+    return {0.007, 0.3,  0.5,  1.0,  1.5,  2.0,  2.5,  3.0,  3.6,  4.3,  5.2,  6.2,  7.4,
+            8.9,   10.7, 12.8, 15.4, 18.5, 22.0, 26.5, 32.0, 46.0, 66.0, 96.0, 160.0};
+}
+
+std::vector<double> phantom_gcr_depth_grid() {
+    return {0.007, 0.3, 1.0, 2.0, 3.6, 5.2, 7.4, 10.7, 15.4, 22.0, 32.0, 46.0};
+}
+
+const habitats::Phantom& shared_phantom() {
+    static const habitats::Phantom phantom;
+    return phantom;
+}
+
+std::string phantom_organ_for(std::string_view tissue) {
+    if (tissue == "oesophagus") {
+        return "thymus";
+    }
+    if (tissue == "salivary-glands") {
+        return "thyroid";
+    }
+    if (tissue == "bone-surface") {
+        return "red-marrow";
+    }
+    if (tissue == "remainder") {
+        return "";
+    }
+    return std::string(tissue);
+}
+
+BodyDepths phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture,
+                               double heading_deg, const std::vector<habitats::Vector3>& directions,
+                               const std::vector<double>& grid, std::size_t points_per_direction) {
+    const std::vector<std::vector<double>> grids{grid};
+    return std::move(
+        phantom_body_depths(phantom, posture, heading_deg, directions, grids, points_per_direction)
+            .front());
+}
+
+std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
+                                            habitats::Posture posture, double heading_deg,
+                                            const std::vector<habitats::Vector3>& directions,
+                                            std::span<const std::vector<double>> grids,
+                                            std::size_t points_per_direction) {
+    constexpr std::size_t n_out = 6;
+    std::vector<BodyDepths> bodies;
+    std::vector<std::size_t> skin_node;
+    std::vector<std::size_t> lens_node;
+    for (const auto& grid : grids) {
+        if (grid.size() < 2 || !std::is_sorted(grid.begin(), grid.end()) ||
+            std::adjacent_find(grid.begin(), grid.end()) != grid.end()) {
+            throw std::invalid_argument("phantom depth grid: at least two increasing depths");
+        }
+        auto node_of = [&](double depth) {
+            const auto at = std::find(grid.begin(), grid.end(), depth);
+            if (at == grid.end()) {
+                throw std::invalid_argument(
+                    "phantom depth grid: must hold the skin and lens depths");
+            }
+            return static_cast<std::size_t>(at - grid.begin());
+        };
+        skin_node.push_back(node_of(0.007));
+        lens_node.push_back(node_of(0.3));
+        BodyDepths b;
+        b.model = "phantom";
+        b.organs = {"skin", "lens", "bfo", "heart", "brain", "effective"};
+        b.grid_g_cm2 = grid;
+        b.directions = directions.size();
+        b.weights.assign(directions.size() * n_out * grid.size(), 0.0);
+        bodies.push_back(std::move(b));
+    }
+
+    // What each phantom organ adds to each reported organ.
+    const auto organs = phantom.organs();
+    std::vector<std::vector<std::pair<std::size_t, double>>> feeds(organs.size());
+    auto organ_index = [&](const std::string& id) {
+        for (std::size_t i = 0; i < organs.size(); ++i) {
+            if (organs[i].id == id) {
+                return i;
+            }
+        }
+        throw std::logic_error(fmt::format("phantom has no organ {}", id));
+    };
+    feeds[organ_index("red-marrow")].emplace_back(2, 1.0);
+    feeds[organ_index("heart")].emplace_back(3, 1.0);
+    feeds[organ_index("brain")].emplace_back(4, 1.0);
+    std::vector<std::string> remainder;
+    for (const auto r : exposure::icrp103_remainder_tissues()) {
+        for (const auto& o : organs) {
+            if (o.id == r) {
+                remainder.emplace_back(r);
+            }
+        }
+    }
+    double effective_skin = 0.0;
+    for (const auto& w : exposure::icrp103_tissue_weights()) {
+        if (w.tissue == "skin") {
+            effective_skin += w.w_T;
+        } else if (w.tissue == "remainder") {
+            for (const auto& r : remainder) {
+                feeds[organ_index(r)].emplace_back(5,
+                                                   w.w_T / static_cast<double>(remainder.size()));
+            }
+        } else {
+            feeds[organ_index(phantom_organ_for(w.tissue))].emplace_back(5, w.w_T);
+        }
+    }
+
+    for (std::size_t k = 0; k < directions.size(); ++k) {
+        const habitats::Vector3 u = habitats::to_phantom_frame(directions[k], posture, heading_deg);
+        for (std::size_t q = 0; q < bodies.size(); ++q) {
+            const std::size_t n_grid = bodies[q].grid_g_cm2.size();
+            double* block = bodies[q].weights.data() + k * n_out * n_grid;
+            block[0 * n_grid + skin_node[q]] = 1.0;
+            block[1 * n_grid + lens_node[q]] = 1.0;
+            block[5 * n_grid + skin_node[q]] += effective_skin;
+        }
+        for (std::size_t i = 0; i < organs.size(); ++i) {
+            if (feeds[i].empty()) {
+                continue;
+            }
+            const auto& o = organs[i];
+            for (std::size_t r = 0; r + 1 < o.region_begin.size(); ++r) {
+                const std::size_t first = o.region_begin[r];
+                const std::size_t count = o.region_begin[r + 1] - first;
+                const std::size_t m =
+                    points_per_direction == 0 ? count : std::min(points_per_direction, count);
+                // The region's weight, spread over the m points this direction uses.
+                const double scale = static_cast<double>(count) / static_cast<double>(m);
+                for (std::size_t j = 0; j < m; ++j) {
+                    const std::size_t s = first + (k * m + j) % count;
+                    const double t = phantom.tissue_g_cm2(o.points[s], u);
+                    for (auto& body : bodies) {
+                        const auto& grid = body.grid_g_cm2;
+                        const std::size_t n_grid = grid.size();
+                        double* block = body.weights.data() + k * n_out * n_grid;
+                        // Split between the neighbouring nodes (beyond the last: all on it).
+                        const auto g = static_cast<std::size_t>(
+                            std::upper_bound(grid.begin(), grid.end(), t) - grid.begin());
+                        double lo_share = 1.0;
+                        std::size_t lo = 0;
+                        if (g == n_grid) {
+                            lo = n_grid - 1;
+                        } else if (g > 0) {
+                            lo = g - 1;
+                            lo_share = (grid[g] - t) / (grid[g] - grid[g - 1]);
+                        }
+                        for (const auto& [out, f] : feeds[i]) {
+                            const double w = f * o.weights[s] * scale;
+                            block[out * n_grid + lo] += w * lo_share;
+                            if (lo_share < 1.0) {
+                                block[out * n_grid + lo + 1] += w * (1.0 - lo_share);
+                            }
+                        }
+                    }
+                }
+            }
+        }
+    }
+    return bodies;
+}
+
 std::vector<OrganResponse> quick_model_responses(exposure::TableLibrary& tables,
                                                  const MaterialResolver& materials,
                                                  const LocationGeometry& where,
@@ -122,6 +285,8 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
     const double weight = 1.0 / static_cast<double>(directions.size());
     const exposure::NodeDoses doses = exposure::node_doses(medium, p, exposure::RbeModel{});
     std::vector<double> node_weight(n_grid);
+    std::vector<std::size_t> needed;
+    std::vector<double> depths;
     for (std::size_t k = 0; k < directions.size(); ++k) {
         const auto& d = directions[k];
         if (where.surroundings.blocked(d)) {
@@ -132,7 +297,6 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
         for (const auto& seg : external_path(where, d)) {
             path.push_back({&tables.table(materials(seg.material_id), p), seg.areal_density_g_cm2});
         }
-        path.push_back({medium.medium, 0.0});
         // Which grid depths some organ needs along this direction.
         std::fill(node_weight.begin(), node_weight.end(), 0.0);
         for (std::size_t o = 0; o < n_organs; ++o) {
@@ -141,12 +305,29 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
                 node_weight[g] += w[g];
             }
         }
+        needed.clear();
+        depths.clear();
         for (std::size_t g = 0; g < n_grid; ++g) {
-            if (node_weight[g] == 0.0) {
-                continue;
+            if (node_weight[g] != 0.0) {
+                needed.push_back(g);
+                depths.push_back(body.grid_g_cm2[g]);
             }
-            path.back().areal_density_g_cm2 = body.grid_g_cm2[g];
-            const auto r = exposure::path_response(path, doses);
+        }
+        // One path response per depth: the exact one for a few depths, the fast path (the
+        // external map computed once, tests/unit/response_test) for a grid.
+        std::vector<exposure::PathResponse> at_depth;
+        if (depths.size() <= 3) {
+            path.push_back({medium.medium, 0.0});
+            for (const double t : depths) {
+                path.back().areal_density_g_cm2 = t;
+                at_depth.push_back(exposure::path_response(path, doses));
+            }
+        } else {
+            at_depth = exposure::depth_responses(path, *medium.medium, depths, doses);
+        }
+        for (std::size_t q = 0; q < needed.size(); ++q) {
+            const std::size_t g = needed[q];
+            const auto& r = at_depth[q];
             for (std::size_t o = 0; o < n_organs; ++o) {
                 const double f = weight * body.of(k, o)[g];
                 if (f == 0.0) {

@@ -8,6 +8,7 @@
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "habitats/directional_shielding.hpp"
+#include "habitats/phantom.hpp"
 #include "habitats/scene.hpp"
 #include "habitats/surroundings.hpp"
 
@@ -16,6 +17,7 @@
 #include <optional>
 #include <span>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace crewdose::planner {
@@ -53,6 +55,53 @@ struct BodyDepths {
 /// The quick model as BodyDepths: skin, lens and BFO each at its one depth.
 [[nodiscard]] BodyDepths quick_body_depths();
 
+/// Phantom points each direction uses per organ region (of the 512 each region has).
+/// Convergence: tests/unit/phantom_test.
+inline constexpr std::size_t kPhantomPointsPerDirection = 32;
+
+/// The phantom's tissue-depth grid, g/cm2: the skin and lens depths, then nodes from 0.5 to
+/// 160 g/cm2 (the longest path through the body) about 20 % apart. Convergence against a grid
+/// twice as fine and against every sample point's own depth: tests/unit/phantom_test.
+[[nodiscard]] std::vector<double> phantom_depth_grid();
+
+/// The organs a phantom location reports: skin and lens at the quick model's depths (the
+/// phantom has no eyes; the skin dose is the dose at 0.07 mm wherever the skin is), "bfo" the
+/// active marrow, "heart" and "brain" (the circulatory and CNS limits), and "effective": the
+/// ICRP 103 tissue-weighted sum of the phantom's organs (exposure::icrp103_tissue_weights), so
+/// that its dose equivalent is the effective dose. Tissues the phantom lacks take a named
+/// proxy: oesophagus -> thymus, salivary glands -> thyroid, bone surface -> active marrow;
+/// the remainder is the mean of the remainder tissues it has.
+///
+/// Each direction uses `points_per_direction` of each organ region's points, a different
+/// block of them for each direction in turn (stratified sampling: over all directions every
+/// point is used); 0 uses every point in every direction (the reference).
+[[nodiscard]] BodyDepths
+phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
+                    const std::vector<habitats::Vector3>& directions,
+                    const std::vector<double>& grid_g_cm2,
+                    std::size_t points_per_direction = kPhantomPointsPerDirection);
+
+/// A coarser grid for the GCR marches (the GCR dose changes slowly with depth; every node is a
+/// step boundary of the march): the skin and lens depths, then 1 to 46 g/cm2 about 45 % apart;
+/// deeper points count at 46 g/cm2 (the GCR dose falls with depth: the higher value; 0.2 % on
+/// the organ doses against nodes to 160 g/cm2). Against phantom_depth_grid():
+/// tests/unit/phantom_test.
+[[nodiscard]] std::vector<double> phantom_gcr_depth_grid();
+
+/// The adult phantom every phantom location shares (built once, thread-safe).
+[[nodiscard]] const habitats::Phantom& shared_phantom();
+
+/// The same on several grids at once (one ray trace per point and direction for all).
+[[nodiscard]] std::vector<BodyDepths>
+phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
+                    const std::vector<habitats::Vector3>& directions,
+                    std::span<const std::vector<double>> grids,
+                    std::size_t points_per_direction = kPhantomPointsPerDirection);
+
+/// Which phantom organ stands for an ICRP 103 tissue (the tissue itself where the phantom has
+/// it), or "" for "remainder".
+[[nodiscard]] std::string phantom_organ_for(std::string_view icrp_tissue);
+
 /// One layer of an EVA suit, in areal density.
 struct SuitLayer {
     std::string material_id;
@@ -81,6 +130,10 @@ inline constexpr std::size_t kDefaultDirections = 2048;
 /// 0.071 % (the per-nucleus responses before the marches: 3.1, 0.29, 0.066 %). The GCR rate is
 /// a background whose model uncertainty is far larger than 0.3 %.
 inline constexpr std::size_t kDefaultGcrDirections = 256;
+
+/// Default number of directions for the SPE responses of a phantom location: 256 (each costs
+/// one path response per grid depth, 30 of them). Convergence: tests/unit/phantom_test.
+inline constexpr std::size_t kDefaultPhantomDirections = 256;
 
 /// Everything that sets the shielding around one dose point.
 struct LocationGeometry {

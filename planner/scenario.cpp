@@ -103,17 +103,31 @@ const std::vector<std::string>& limited_organs() {
     return organs;
 }
 
+const std::vector<std::string>& phantom_limited_organs() {
+    static const std::vector<std::string> organs{"heart", "brain"};
+    return organs;
+}
+
+const std::vector<std::string>& ledger_organs() {
+    static const std::vector<std::string> organs{"bfo",   "lens",  "skin",
+                                                 "heart", "brain", "effective"};
+    return organs;
+}
+
 std::vector<Limit> default_limits() {
     // Planning defaults, never official limits. NCRP Report 132 (2000) for BFO, lens and skin
     // (from memory); career effective dose 600 mSv from the 2022 revision of NASA-STD-3001
-    // (from memory). Circulatory (heart) and CNS (brain) limits need the phantom's organ doses
-    // and are added when it lands.
+    // (from memory); circulatory (heart) 250 / 500 and CNS (brain) 500 / 1000 mGy-Eq per 30
+    // days / year from the same revision (from memory). Heart, brain and effective dose need
+    // the phantom's organ doses.
     const std::string ncrp = "NCRP Report 132 (planning value, from memory)";
     const std::string std3001 = "NASA-STD-3001 2022 revision (planning value, from memory)";
     return {{"bfo", "30-day", 250.0, ncrp},         {"bfo", "annual", 500.0, ncrp},
             {"lens", "30-day", 1000.0, ncrp},       {"lens", "annual", 2000.0, ncrp},
             {"lens", "career", 4000.0, ncrp},       {"skin", "30-day", 1500.0, ncrp},
             {"skin", "annual", 3000.0, ncrp},       {"skin", "career", 6000.0, ncrp},
+            {"heart", "30-day", 250.0, std3001},    {"heart", "annual", 500.0, std3001},
+            {"brain", "30-day", 500.0, std3001},    {"brain", "annual", 1000.0, std3001},
             {"effective", "career", 600.0, std3001}};
 }
 

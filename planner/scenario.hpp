@@ -55,9 +55,14 @@ struct Mission {
     double sep_fluence_exponent = 2.0;
     /// Directions for the GCR responses (the GCR dose varies slowly with direction).
     std::size_t gcr_directions = kDefaultGcrDirections;
+    /// Directions for the SPE responses of phantom locations (each direction costs one path
+    /// response per tissue depth of the phantom's grid).
+    std::size_t phantom_directions = kDefaultPhantomDirections;
     /// phi at time t.
     [[nodiscard]] double gcr_phi_at(const Time& t) const;
 };
+
+enum class BodyModelKind { quick, phantom };
 
 struct LocationSpec {
     SourceLocation where;
@@ -69,6 +74,10 @@ struct LocationSpec {
     std::optional<SuitModel> suit;
     double heading_deg = 0.0;
     bool deep_space = false; ///< surroundings: no ground, no atmosphere
+    /// The body model: the quick screening model (skin, lens, BFO at fixed depths) or the
+    /// stylised phantom (adds heart, brain and the effective dose).
+    BodyModelKind body = BodyModelKind::quick;
+    habitats::Posture posture = habitats::Posture::standing;
 };
 
 /// The time profile of an event: intensity proportional to (1 - exp(-t/rise)) exp(-t/decay)
@@ -109,7 +118,7 @@ struct EventSpec {
 /// Organ doses as the scenario gives them for prior history and recorded periods, mGy-Eq for
 /// organs and mSv for the effective dose.
 struct OrganDoses {
-    std::map<std::string, double> mGyEq; ///< by organ id (bfo, lens, skin)
+    std::map<std::string, double> mGyEq; ///< by organ id (bfo, lens, skin, heart, brain)
     std::optional<double> effective_mSv;
 };
 
@@ -220,6 +229,11 @@ struct Scenario {
 
 /// The organs with organ-dose limits (bfo, lens, skin), in the order reports list them.
 [[nodiscard]] const std::vector<std::string>& limited_organs();
+/// The organs with limits that only the phantom gives: heart (circulatory) and brain (CNS).
+[[nodiscard]] const std::vector<std::string>& phantom_limited_organs();
+/// Every organ the ledger tracks: limited_organs(), phantom_limited_organs(), then
+/// "effective" (the effective dose, mSv, carried in the mGy-Eq fields).
+[[nodiscard]] const std::vector<std::string>& ledger_organs();
 
 /// An RFC 3339 date-time with its offset ("2032-03-11T10:30:00Z"), read as TOML reads it; nullopt
 /// when the text is not one, or its year lies outside 1400..9999 (then `bad_year` is set).

@@ -223,7 +223,10 @@ std::vector<const toml::table*> entries(const toml::table& root, const std::stri
 
 OrganDoses read_doses(const Section& s) {
     OrganDoses d;
-    for (const auto& organ : limited_organs()) {
+    for (const auto& organ : ledger_organs()) {
+        if (organ == "effective") {
+            continue;
+        }
         if (s.has(organ + "_mGyEq")) {
             d.mGyEq[organ] = s.non_negative(organ + "_mGyEq");
         }
@@ -235,8 +238,10 @@ OrganDoses read_doses(const Section& s) {
 }
 
 std::set<std::string> with_dose_keys(std::set<std::string> keys) {
-    for (const auto& organ : limited_organs()) {
-        keys.insert(organ + "_mGyEq");
+    for (const auto& organ : ledger_organs()) {
+        if (organ != "effective") {
+            keys.insert(organ + "_mGyEq");
+        }
     }
     keys.insert("effective_mSv");
     return keys;
@@ -334,8 +339,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section m(top.table("mission"), file, "mission",
                         {"name", "site", "start", "end", "directions", "terrain_mask",
                          "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
-                         "gcr_directions", "sun_distance_AU", "sep_path_length_AU",
-                         "sep_fluence_exponent"});
+                         "gcr_directions", "phantom_directions", "sun_distance_AU",
+                         "sep_path_length_AU", "sep_fluence_exponent"});
         sc.mission.where = m.where();
         sc.mission.name = m.text("name");
         const std::string site = m.text("site");
@@ -426,6 +431,13 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         if (m.has("gcr_phi_MV")) {
             sc.mission.gcr_phi_MV = phi_value(m, "gcr_phi_MV");
             sc.mission.gcr_phi_given = true;
+        }
+        if (m.has("phantom_directions")) {
+            const double n = m.number("phantom_directions");
+            if (!(n >= 16 && n <= 65536) || n != std::floor(n)) {
+                m.fail("phantom_directions", "must be a whole number from 16 to 65536");
+            }
+            sc.mission.phantom_directions = static_cast<std::size_t>(n);
         }
         if (m.has("gcr_directions")) {
             const double n = m.number("gcr_directions");
@@ -550,7 +562,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     for (const auto* t : entries(root, "location", file)) {
         const Section s(*t, file, "location",
                         {"id", "point_m", "solids", "shielding_table", "body", "suit",
-                         "heading_deg", "surroundings"});
+                         "heading_deg", "posture", "surroundings"});
         LocationSpec loc;
         loc.where = s.where();
         loc.id = s.text("id");
@@ -574,10 +586,24 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             loc.shielding_table_file = s.text("shielding_table");
         }
         const std::string body = s.text_or("body", "quick");
-        if (body != "quick") {
+        if (body == "phantom") {
+            loc.body = BodyModelKind::phantom;
+        } else if (body != "quick") {
             s.fail("body", "'" + body +
-                               "': only the quick screening model ('quick') is available "
-                               "yet; the stylised phantom arrives with the geometry issue");
+                               "'; allowed: quick (skin, lens, BFO at fixed tissue depths), "
+                               "phantom (the stylised adult phantom: adds heart, brain and the "
+                               "effective dose)");
+        }
+        const std::string posture = s.text_or("posture", "standing");
+        if (posture == "lying") {
+            loc.posture = habitats::Posture::lying;
+        } else if (posture != "standing") {
+            s.fail("posture", "'" + posture +
+                                  "'; allowed: standing, lying (on the back, head towards "
+                                  "heading_deg)");
+        }
+        if (s.has("posture") && loc.body != BodyModelKind::phantom) {
+            s.fail("posture", "only the phantom has a posture; set body = \"phantom\"");
         }
         if (s.has("suit")) {
             const toml::node& n = s.need("suit");

@@ -8,6 +8,7 @@
 #include "habitats/shape.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
@@ -152,7 +153,10 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
     };
     std::map<std::string, double> out;
     for (const auto& o :
-         quick_model_responses(tables, materials, where, study.directions(loc.id))) {
+         body_responses(tables, materials, where, study.directions(loc.id), study.body(loc.id))) {
+        if (o.organ == "effective") {
+            continue; // no 30-day limit
+        }
         const auto fluences = event_node_fluences(ev, sc.mission.sep_fluence_exponent,
                                                   o.response.node_energies_MeV_per_n);
         out[o.organ] = 1e3 * sc.limits.uncertainty_factor *
@@ -166,7 +170,7 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
 std::map<std::string, double> sheltered_event_dose(const Study& study, const ShelterRequest& r,
                                                    const std::string& material_id,
                                                    double areal_density_g_cm2) {
-    exposure::TableLibrary tables;
+    exposure::TableLibrary tables(spe_grid(location_of(study, r.location_id).body));
     return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables);
 }
 
@@ -174,7 +178,7 @@ void parse_shelter_target(const std::string& text, std::map<std::string, double>
     const auto eq = text.find('=');
     const std::string allowed =
         "write ORGAN=VALUE in mGy-Eq, for example bfo=250 or bfo=250mGyEq; organs: bfo, lens, "
-        "skin";
+        "skin, and at a phantom location heart, brain";
     if (eq == std::string::npos || eq == 0) {
         throw InputError(kCommandLine, "--target", fmt::format("'{}': {}", text, allowed));
     }
@@ -271,17 +275,36 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
     if (!(request.max_g_cm2 > 0.0 && request.max_g_cm2 <= 2000.0)) {
         throw InputError(kCommandLine, "--max-g-cm2", "must be a number > 0 and <= 2000");
     }
+    // The other dose sharing the 30-day window: every piece of the ledger but this event's.
+    LedgerOptions options;
+    options.allow_gaps = true; // the check reports gaps; sizing charges them as the check would
+    const LedgerResult ledger = build_ledger(study, options);
+    // An organ can be a target when the location's body model gives it and every crew
+    // member's ledger has it (heart and brain need the phantom wherever the crew goes).
+    std::vector<std::string> organs;
+    for (const auto& organ : ledger_organs()) {
+        bool known = organ != "effective" && study.has_organ(loc.id, organ);
+        for (const auto& c : ledger.crew) {
+            known = known && !c.not_evaluated.count(organ);
+        }
+        if (known) {
+            organs.push_back(organ);
+        }
+    }
     // Targets: the 30-day planning limits, overridden per organ.
     for (const auto& l : sc.limits.limits) {
-        if (l.window == "30-day" && l.organ != "effective") {
+        if (l.window == "30-day" &&
+            std::find(organs.begin(), organs.end(), l.organ) != organs.end()) {
             rep.target_mGyEq[l.organ] = l.value;
         }
     }
     for (const auto& [organ, value] : request.targets) {
-        const auto& organs = limited_organs();
         if (std::find(organs.begin(), organs.end(), organ) == organs.end()) {
-            throw InputError(kCommandLine, "--target",
-                             fmt::format("unknown organ '{}'; allowed: bfo, lens, skin", organ));
+            throw InputError(
+                kCommandLine, "--target",
+                fmt::format("'{}' cannot be a target here; allowed: {} (heart and brain need "
+                            "body = \"phantom\" at this location and wherever the crew goes)",
+                            organ, fmt::join(organs, ", ")));
         }
         if (!(value > 0.0)) {
             throw InputError(kCommandLine, "--target",
@@ -289,10 +312,6 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
         rep.target_mGyEq[organ] = value;
     }
-    // The other dose sharing the 30-day window: every piece of the ledger but this event's.
-    LedgerOptions options;
-    options.allow_gaps = true; // the check reports gaps; sizing charges them as the check would
-    const LedgerResult ledger = build_ledger(study, options);
     for (const auto& [organ, target] : rep.target_mGyEq) {
         double worst = 0.0;
         for (const auto& crew : sc.crew) {
@@ -300,7 +319,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
         rep.other_30d_mGyEq[organ] = worst;
     }
-    exposure::TableLibrary tables; // shared by every evaluation
+    exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
     for (const auto& material_id : request.materials) {
         const exposure::Material& material = material_of(study, material_id, "--material");
         ShelterAnswer a;

@@ -2,8 +2,10 @@
 
 #include <atomic>
 #include <exception>
+#include <optional>
 #include <system_error>
 #include <thread>
+#include <tuple>
 
 #include "shielding_table_file.hpp"
 
@@ -22,6 +24,20 @@ exposure::EnergyGridSpec gcr_grid() {
     return g;
 }
 
+exposure::EnergyGridSpec spe_grid(BodyModelKind body) {
+    exposure::EnergyGridSpec g;
+    if (body == BodyModelKind::phantom) {
+        g.nodes_per_decade = kPhantomSpeNodesPerDecade;
+    }
+    return g;
+}
+
+exposure::MarchOptions gcr_march_options() {
+    exposure::MarchOptions o;
+    o.max_step_g_cm2 = kGcrMarchStep_g_cm2;
+    return o;
+}
+
 Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
     const MaterialResolver materials = [this](const std::string& id) -> const exposure::Material& {
         const auto* m = sc_.material(id);
@@ -32,6 +48,8 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     };
     const auto dirs = habitats::fibonacci_directions(directions_);
     const auto gcr_dirs = habitats::fibonacci_directions(sc_.mission.gcr_directions);
+    const auto phantom_dirs = habitats::fibonacci_directions(sc_.mission.phantom_directions);
+    std::map<std::tuple<int, double, bool>, std::vector<BodyDepths>> phantom_cache;
     std::vector<double> phis{sc_.mission.gcr_phi_MV};
     for (const auto& phase : sc_.mission.gcr_phases) {
         phis.push_back(phase.phi_MV);
@@ -70,47 +88,109 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             where.scene = scenes_.back().get();
         }
         geometries_[loc.id] = where;
-        location_directions_[loc.id] = loc_dirs;
-        for (auto& r : quick_model_responses(tables_, materials, where, loc_dirs)) {
-            const std::string organ = r.organ;
-            responses_.emplace(std::make_pair(loc.id, organ), std::move(r));
+        if (loc.body == BodyModelKind::phantom) {
+            if (!where.imported) {
+                loc_dirs = phantom_dirs;
+            }
+            // Locations that place the person alike share the body's depths; the SPE and
+            // GCR grids come from one ray trace when their directions are the same.
+            const auto key = std::make_tuple(static_cast<int>(loc.posture), loc.heading_deg,
+                                             where.imported != nullptr);
+            auto it = phantom_cache.find(key);
+            if (it == phantom_cache.end() || where.imported) {
+                const std::vector<std::vector<double>> grids{phantom_depth_grid(),
+                                                             phantom_gcr_depth_grid()};
+                std::vector<BodyDepths> both;
+                if (where.imported || loc_dirs.size() == gcr_dirs.size()) {
+                    // The same direction sets (Fibonacci sets of one size, or the table's).
+                    both = phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
+                                               loc_dirs, grids);
+                } else {
+                    both = {phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
+                                                loc_dirs, grids[0]),
+                            phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
+                                                gcr_dirs, grids[1])};
+                }
+                it = phantom_cache.insert_or_assign(key, std::move(both)).first;
+            }
+            bodies_[loc.id] = it->second[0];
+            gcr_bodies_[loc.id] = it->second[1];
+        } else {
+            bodies_[loc.id] = quick_body_depths();
+            gcr_bodies_[loc.id] = quick_body_depths();
         }
+        location_directions_[loc.id] = loc_dirs;
     }
-    // GCR: per location, the whole ion field marched along every direction with nuclear
-    // reactions and without, once per phi of the mission (location_response.hpp). The locations are
-    // independent: they are shared among threads, each with its own tables and march, and merged in
-    // location order, so the result does not depend on the thread count.
+    // Per location two independent jobs: the SPE responses, and the GCR: the whole ion field
+    // marched along every direction with nuclear reactions and without, once per phi of the
+    // mission (location_response.hpp). The jobs are shared among threads, each with its own
+    // tables and marches, and merged in location order, so the result does not depend on the
+    // thread count.
     std::sort(phis.begin(), phis.end());
     phis.erase(std::unique(phis.begin(), phis.end()), phis.end());
+    const std::size_t n_loc = sc_.locations.size();
     std::vector<std::map<std::pair<std::string, double>, exposure::BracketedDose>> per_location(
-        sc_.locations.size());
+        n_loc);
+    std::vector<std::vector<OrganResponse>> spe_per_location(n_loc);
     auto gcr_location = [&](std::size_t i, const GcrMarches& march) {
         const auto& loc = sc_.locations[i];
         const LocationGeometry& where = geometries_.at(loc.id);
         const auto& g_dirs = where.imported ? location_directions_.at(loc.id) : gcr_dirs;
-        per_location[i] = gcr_quick_model_doses(march, materials, where, g_dirs, phis);
+        per_location[i] =
+            gcr_body_doses(march, materials, where, g_dirs, gcr_bodies_.at(loc.id), phis);
     };
+    auto spe_location = [&](std::size_t i, exposure::TableLibrary& tables) {
+        const auto& loc = sc_.locations[i];
+        spe_per_location[i] = body_responses(tables, materials, geometries_.at(loc.id),
+                                             location_directions_.at(loc.id), bodies_.at(loc.id));
+    };
+    const exposure::EnergyGridSpec phantom_spe_grid = spe_grid(BodyModelKind::phantom);
     // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
     std::size_t wanted = std::thread::hardware_concurrency();
     if (const char* env = std::getenv("CREWDOSE_THREADS")) {
         wanted = static_cast<std::size_t>(std::max(1L, std::strtol(env, nullptr, 10)));
     }
     const std::size_t threads =
-        std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, per_location.size()));
+        std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, 2 * n_loc));
     std::vector<std::exception_ptr> failures(threads);
     // Locations differ in cost by an order of magnitude (a thin EVA site against a shelter
     // under regolith): each worker takes the next location not yet taken.
-    std::atomic<std::size_t> next_location{0};
+    // Jobs 0 .. n-1 are the GCR ones, n .. 2n-1 the SPE ones, taken largest first (by a rough
+    // estimate: GCR above SPE, open sky twice the directions of a site with ground), so that
+    // the threads finish together.
+    std::vector<std::size_t> order(2 * n_loc);
+    std::vector<double> estimate(2 * n_loc);
+    for (std::size_t i = 0; i < 2 * n_loc; ++i) {
+        const auto& loc = sc_.locations[i % n_loc];
+        const bool open_sky = loc.deep_space || sc_.mission.site == SiteKind::deep_space;
+        order[i] = i;
+        estimate[i] = (i < n_loc ? 1.5 : 1.0) * (open_sky ? 2.0 : 1.0);
+    }
+    std::stable_sort(order.begin(), order.end(),
+                     [&](std::size_t a, std::size_t b) { return estimate[a] > estimate[b]; });
+    std::atomic<std::size_t> next_job{0};
     auto worker = [&](std::size_t t) {
         try {
             exposure::TableLibrary gcr_tables(gcr_grid());
-            exposure::FragmentTransport with_reactions(gcr_tables);
+            exposure::FragmentTransport with_reactions(gcr_tables, gcr_march_options());
             exposure::MarchOptions none;
             none.removal = false;
             exposure::FragmentTransport without_reactions(gcr_tables, none);
             const GcrMarches marches{with_reactions, without_reactions};
-            for (std::size_t i = next_location++; i < per_location.size(); i = next_location++) {
-                gcr_location(i, marches);
+            std::optional<exposure::TableLibrary> spe_tables;         // quick locations
+            std::optional<exposure::TableLibrary> phantom_spe_tables; // phantom ones
+            for (std::size_t taken = next_job++; taken < 2 * n_loc; taken = next_job++) {
+                const std::size_t i = order[taken];
+                if (i < n_loc) {
+                    gcr_location(i, marches);
+                } else {
+                    const bool phantom = sc_.locations[i - n_loc].body == BodyModelKind::phantom;
+                    auto& t = phantom ? phantom_spe_tables : spe_tables;
+                    if (!t) {
+                        t.emplace(phantom ? phantom_spe_grid : tables_.grid());
+                    }
+                    spe_location(i - n_loc, *t);
+                }
             }
         } catch (...) {
             failures[t] = std::current_exception();
@@ -140,7 +220,11 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             std::rethrow_exception(f);
         }
     }
-    for (std::size_t i = 0; i < per_location.size(); ++i) {
+    for (std::size_t i = 0; i < n_loc; ++i) {
+        for (auto& r : spe_per_location[i]) {
+            const std::string organ = r.organ;
+            responses_.emplace(std::make_pair(sc_.locations[i].id, organ), std::move(r));
+        }
         for (auto& [key, rates] : per_location[i]) {
             gcr_rates_[{sc_.locations[i].id, key.first, key.second}] = std::move(rates);
         }
@@ -227,6 +311,14 @@ const LocationGeometry& Study::geometry(const std::string& id) const {
 
 const std::vector<habitats::Vector3>& Study::directions(const std::string& id) const {
     return location_directions_.at(id);
+}
+
+const BodyDepths& Study::body(const std::string& location) const {
+    return bodies_.at(location);
+}
+
+bool Study::has_organ(const std::string& location, const std::string& organ) const {
+    return responses_.count({location, organ}) > 0;
 }
 
 const LocationSpec& Study::location(const std::string& id) const {

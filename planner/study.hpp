@@ -18,6 +18,21 @@ namespace crewdose::planner {
 /// plus 5 cm water, absorbed dose and dose equivalent, both removal cases: 8 differ by up to
 /// 0.26 %, 16 by 0.06 %, 32 by 0.02 %. Sixteen keeps the GCR part of a run within its budget.
 inline constexpr std::size_t kGcrNodesPerDecade = 16;
+/// Largest depth step of the check's GCR march with reactions, g/cm2 (the march's own default
+/// is 4). Convergence against 2 g/cm2 steps (tests/unit/phantom_test: phantom organs behind a
+/// suit, 20 g/cm2 aluminium and 150 g/cm2 regolith, dose equivalent and absorbed dose):
+/// within 0.2 %; it saves a third of the GCR time behind thick regolith.
+inline constexpr double kGcrMarchStep_g_cm2 = 8.0;
+/// The march options of the check's GCR march with reactions.
+[[nodiscard]] exposure::MarchOptions gcr_march_options();
+/// Nodes per decade of the proton tables for the SPE responses of phantom locations (quick
+/// ones keep the tables' default 64). Against 64 (phantom organs behind a suit, 10 g/cm2
+/// aluminium and 60 g/cm2 regolith, the demo Band event and a harder one): within 0.1 %
+/// (tests/unit/phantom_test); 16 would be within 0.45 %. The phantom's 25 depths per direction
+/// cost a response each: 32 halves that cost.
+inline constexpr std::size_t kPhantomSpeNodesPerDecade = 32;
+/// The proton table grid of a location's SPE responses.
+[[nodiscard]] exposure::EnergyGridSpec spe_grid(BodyModelKind body);
 /// The energy grid of the GCR tables (10 keV/n to 100 GeV/n).
 [[nodiscard]] exposure::EnergyGridSpec gcr_grid();
 
@@ -59,6 +74,11 @@ class Study {
     [[nodiscard]] const LocationGeometry& geometry(const std::string& id) const;
     [[nodiscard]] const std::vector<habitats::Vector3>& directions(const std::string& id) const;
     [[nodiscard]] std::size_t direction_count() const noexcept { return directions_; }
+    /// The body model of a location, on its SPE directions.
+    [[nodiscard]] const BodyDepths& body(const std::string& location) const;
+    /// True when the location's body model gives `organ` (ledger_organs(): the quick model
+    /// lacks heart, brain and effective).
+    [[nodiscard]] bool has_organ(const std::string& location, const std::string& organ) const;
 
     /// GCR dose rate at a location and organ for modulation potential phi (one of the values
     /// the mission uses: every such value is computed at construction), per day, nuclei
@@ -78,6 +98,8 @@ class Study {
         event_doses_;
     std::map<std::tuple<std::string, std::string, std::string>, ArrivalGroups> event_timing_;
     std::map<std::string, std::vector<habitats::Vector3>> location_directions_;
+    std::map<std::string, BodyDepths> bodies_;
+    std::map<std::string, BodyDepths> gcr_bodies_;
     std::size_t directions_ = 0;
     std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
 };

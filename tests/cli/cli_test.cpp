@@ -372,8 +372,25 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     const Run t = run("check " + demo());
     char buf[32];
     std::snprintf(buf, sizeof buf, "%.3g", bfo30);
-    CHECK(t.out.find(std::string("  BFO    30-day ")) != std::string::npos);
+    CHECK(t.out.find(std::string("  BFO       30-day ")) != std::string::npos);
     CHECK(t.out.find(buf) != std::string::npos);
+    // The demo's locations use the phantom: heart, brain and the effective dose are checked,
+    // the effective dose in mSv, and nothing is left unevaluated.
+    CHECK(crew["not_evaluated"].empty());
+    int phantom_checks = 0;
+    for (const auto& l : crew["limits"]) {
+        if (l["organ"] == "effective") {
+            CHECK(l["unit"] == "mSv");
+            CHECK(l["window"] == "career");
+            CHECK(l["dose"].get<double>() > 0.0);
+            ++phantom_checks;
+        } else if (l["organ"] == "heart" || l["organ"] == "brain") {
+            CHECK(l["unit"] == "mGy-Eq");
+            ++phantom_checks;
+        }
+    }
+    CHECK(phantom_checks == 5); // heart and brain 30-day and annual, career effective
+    CHECK(t.out.find("  effective career ") != std::string::npos);
     // The parts by source add up to the mission total (nothing else is charged).
     const auto& bfo = crew["organs"]["bfo"];
     const auto& by = bfo["mission_by_source"];

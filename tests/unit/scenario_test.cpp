@@ -82,7 +82,8 @@ TEST_CASE("the base scenario is valid", "[scenario]") {
     CHECK(s.activities.size() == 1);
     CHECK(s.activities[0].where.line == 28);
     CHECK(s.limits.uncertainty_factor == 1.0);
-    CHECK(s.limits.limits.size() == 9);
+    // NCRP 132 BFO/lens/skin (8), heart and brain 30-day + annual (4), career effective (1).
+    CHECK(s.limits.limits.size() == 13);
 }
 
 TEST_CASE("syntax errors, unknown and missing keys, wrong types", "[scenario]") {
@@ -151,8 +152,13 @@ TEST_CASE("spectrum parameters, shapes and geometry are checked at their line", 
            "plan.toml:10: solid.shape: 'torus' is not a supported shape; allowed: sphere");
     expect(replace(kBase, "point_m = [0.0, 0.0, 2.0]", "point_m = [0.0, 0.0, 3.995]"),
            "plan.toml:17: location.point_m: the dose point lies inside solid 'hut'");
-    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"phantom\""),
-           "location.body: 'phantom': only the quick screening model");
+    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"voxel\""),
+           "plan.toml:19: location.body: 'voxel'; allowed: quick");
+    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nposture = \"lying\""),
+           "location.posture: only the phantom has a posture");
+    expect(replace(kBase, "solids = [\"hut\"]",
+                   "solids = [\"hut\"]\nbody = \"phantom\"\nposture = \"seated\""),
+           "location.posture: 'seated'; allowed: standing, lying");
     expect(replace(kBase, "solids = [\"hut\"]", "shielding_table = \"x.dirs\"\nsolids = [\"hut\"]"),
            "location.shielding_table: give either solids or a shielding table, not both");
 }

@@ -191,7 +191,8 @@ TEST_CASE("shelter: option errors name the option and what is allowed", "[shelte
     bad_organ.targets["liver"] = 10.0;
     CHECK(error_of([&] {
               (void)size_shelter(study, bad_organ);
-          }).find("unknown organ 'liver'; allowed: bfo, lens, skin") != std::string::npos);
+          }).find("'liver' cannot be a target here; allowed: bfo, lens, skin (heart and brain") !=
+          std::string::npos);
     CHECK(error_of([&] {
               (void)size_shelter(study, request({"unobtainium"}, 50.0));
           }).find("--material: unknown material 'unobtainium'") != std::string::npos);

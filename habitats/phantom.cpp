@@ -1,0 +1,602 @@
+#include "phantom.hpp"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <stdexcept>
+
+namespace crewdose::habitats {
+namespace {
+
+constexpr double kInf = std::numeric_limits<double>::infinity();
+constexpr double kPi = 3.14159265358979323846;
+
+struct Interval {
+    double lo;
+    double hi;
+};
+
+// The ray parameters at which p + t u satisfies the quadric inequality A t^2 + B t + C <= 0:
+// up to two intervals.
+int quadric_intervals(double A, double B, double C, Interval out[2]) {
+    constexpr double tiny = 1e-14;
+    if (std::abs(A) < tiny) {
+        if (std::abs(B) < tiny) {
+            if (C <= 0.0) {
+                out[0] = {-kInf, kInf};
+                return 1;
+            }
+            return 0;
+        }
+        const double t = -C / B;
+        out[0] = B > 0.0 ? Interval{-kInf, t} : Interval{t, kInf};
+        return 1;
+    }
+    const double disc = B * B - 4.0 * A * C;
+    if (disc < 0.0) {
+        if (A < 0.0) { // always negative
+            out[0] = {-kInf, kInf};
+            return 1;
+        }
+        return 0;
+    }
+    const double s = std::sqrt(disc);
+    // Numerically stable roots.
+    const double q = -0.5 * (B + (B >= 0.0 ? s : -s));
+    double t1 = q / A;
+    double t2 = q != 0.0 ? C / q : t1;
+    if (t1 > t2) {
+        std::swap(t1, t2);
+    }
+    if (A > 0.0) {
+        out[0] = {t1, t2};
+        return 1;
+    }
+    out[0] = {-kInf, t1};
+    out[1] = {t2, kInf};
+    return 2;
+}
+
+Vector3 local(const PhantomSolid& s, Vector3 v) {
+    return {dot(v, s.ex), dot(v, s.ey), dot(v, s.ez)};
+}
+
+} // namespace
+
+bool PhantomSolid::contains(Point3 p) const {
+    for (const auto& c : cuts) {
+        if (dot(c.normal, p - Point3{}) > c.offset) {
+            return false;
+        }
+    }
+    const Vector3 q = local(*this, p - center);
+    const double x = q.x / semi.x;
+    const double y = q.y / semi.y;
+    switch (kind) {
+    case Kind::ellipsoid:
+        return x * x + y * y + (q.z / semi.z) * (q.z / semi.z) <= 1.0;
+    case Kind::elliptic_cylinder:
+        return x * x + y * y <= 1.0;
+    case Kind::elliptic_cone: {
+        const double f = 1.0 + k * q.z;
+        return f > 0.0 && x * x + y * y <= f * f;
+    }
+    case Kind::polytope:
+        return true;
+    case Kind::torus: {
+        const double rho = std::sqrt(q.x * q.x + q.z * q.z) - semi.z;
+        return rho * rho + q.y * q.y <= semi.x * semi.x;
+    }
+    }
+    return false;
+}
+
+std::pair<double, double> PhantomSolid::interval_ahead(Point3 p, Vector3 u) const {
+    // The planes bound t to one interval.
+    double lo = 0.0;
+    double hi = kInf;
+    for (const auto& c : cuts) {
+        const double dn = dot(c.normal, u);
+        const double room = c.offset - dot(c.normal, p - Point3{});
+        if (std::abs(dn) < 1e-15) {
+            if (room < 0.0) {
+                return {0.0, 0.0};
+            }
+            continue;
+        }
+        const double t = room / dn;
+        if (dn > 0.0) {
+            hi = std::min(hi, t);
+        } else {
+            lo = std::max(lo, t);
+        }
+    }
+    if (lo >= hi || kind == Kind::polytope) {
+        return {lo, hi};
+    }
+    if (kind == Kind::torus) {
+        throw std::logic_error("phantom: a torus has no single chord");
+    }
+    const Vector3 q = local(*this, p - center);
+    const Vector3 v = local(*this, u);
+    const double ia = 1.0 / (semi.x * semi.x);
+    const double ib = 1.0 / (semi.y * semi.y);
+    double A = v.x * v.x * ia + v.y * v.y * ib;
+    double B = 2.0 * (q.x * v.x * ia + q.y * v.y * ib);
+    double C = q.x * q.x * ia + q.y * q.y * ib - 1.0;
+    if (kind == Kind::ellipsoid) {
+        const double ic = 1.0 / (semi.z * semi.z);
+        A += v.z * v.z * ic;
+        B += 2.0 * q.z * v.z * ic;
+        C += q.z * q.z * ic;
+    } else if (kind == Kind::elliptic_cone) {
+        // ... <= (1 + k qz)^2; the cut made by the constructor keeps 1 + k qz > 0.
+        const double f = 1.0 + k * q.z;
+        A -= k * k * v.z * v.z;
+        B -= 2.0 * k * f * v.z;
+        C += 1.0 - f * f;
+    }
+    Interval iv[2];
+    const int n = quadric_intervals(A, B, C, iv);
+    double a_min = kInf;
+    double b_max = -kInf;
+    for (int i = 0; i < n; ++i) {
+        const double a = std::max(lo, iv[i].lo);
+        const double b = std::min(hi, iv[i].hi);
+        if (b > a) { // within one nappe at most one piece is left
+            a_min = std::min(a_min, a);
+            b_max = std::max(b_max, b);
+        }
+    }
+    if (b_max <= a_min) {
+        return {0.0, 0.0};
+    }
+    return {a_min, b_max};
+}
+
+double PhantomPiece::chord_ahead(Point3 p, Vector3 u) const {
+    const auto [lo, hi] = base.interval_ahead(p, u);
+    if (hi <= lo) {
+        return 0.0;
+    }
+    double length = hi - lo;
+    for (const auto& m : minus) {
+        const auto [mlo, mhi] = m.interval_ahead(p, u);
+        const double a = std::max(lo, mlo);
+        const double b = std::min(hi, mhi);
+        if (b > a) {
+            length -= b - a;
+        }
+    }
+    return std::max(length, 0.0);
+}
+
+bool PhantomRegion::contains(Point3 p) const {
+    bool in = false;
+    for (const auto& s : parts) {
+        if (s.contains(p)) {
+            in = true;
+            break;
+        }
+    }
+    if (!in) {
+        return false;
+    }
+    for (const auto& s : minus) {
+        if (s.contains(p)) {
+            return false;
+        }
+    }
+    return true;
+}
+
+namespace {
+
+// ---- Building blocks (cm, phantom frame) ----
+
+PhantomSolid& cut(PhantomSolid& s, Vector3 normal, double offset) {
+    s.cuts.push_back({normal, offset});
+    return s;
+}
+PhantomSolid& z_at_least(PhantomSolid& s, double z) {
+    return cut(s, {0, 0, -1}, -z);
+}
+PhantomSolid& z_at_most(PhantomSolid& s, double z) {
+    return cut(s, {0, 0, 1}, z);
+}
+PhantomSolid& x_at_least(PhantomSolid& s, double x) {
+    return cut(s, {-1, 0, 0}, -x);
+}
+PhantomSolid& x_at_most(PhantomSolid& s, double x) {
+    return cut(s, {1, 0, 0}, x);
+}
+PhantomSolid& y_at_least(PhantomSolid& s, double y) {
+    return cut(s, {0, -1, 0}, -y);
+}
+PhantomSolid& y_at_most(PhantomSolid& s, double y) {
+    return cut(s, {0, 1, 0}, y);
+}
+
+PhantomSolid ellipsoid(Point3 c, Vector3 semi) {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::ellipsoid;
+    s.center = c;
+    s.semi = semi;
+    const double m = std::max({semi.x, semi.y, semi.z});
+    s.bound_lo = {c.x - m, c.y - m, c.z - m};
+    s.bound_hi = {c.x + m, c.y + m, c.z + m};
+    return s;
+}
+
+PhantomSolid aligned_ellipsoid(Point3 c, Vector3 semi) {
+    PhantomSolid s = ellipsoid(c, semi);
+    s.bound_lo = {c.x - semi.x, c.y - semi.y, c.z - semi.z};
+    s.bound_hi = {c.x + semi.x, c.y + semi.y, c.z + semi.z};
+    return s;
+}
+
+// Vertical elliptic cylinder, axis through (cx, cy), z0 <= z <= z1.
+PhantomSolid cylinder_z(double cx, double cy, double a, double b, double z0, double z1) {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::elliptic_cylinder;
+    s.center = {cx, cy, 0.5 * (z0 + z1)};
+    s.semi = {a, b, 0.5 * (z1 - z0)};
+    z_at_least(s, z0);
+    z_at_most(s, z1);
+    s.bound_lo = {cx - a, cy - b, z0};
+    s.bound_hi = {cx + a, cy + b, z1};
+    return s;
+}
+
+// Horizontal elliptic cylinder along x through (y = cy, z = cz): semi-axis b along y, c along
+// z, x0 <= x <= x1.
+PhantomSolid cylinder_x(double cy, double cz, double b, double c, double x0, double x1) {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::elliptic_cylinder;
+    s.center = {0.5 * (x0 + x1), cy, cz};
+    s.ex = {0, 1, 0};
+    s.ey = {0, 0, 1};
+    s.ez = {1, 0, 0};
+    s.semi = {b, c, 0.5 * (x1 - x0)};
+    x_at_least(s, x0);
+    x_at_most(s, x1);
+    s.bound_lo = {x0, cy - b, cz - c};
+    s.bound_hi = {x1, cy + b, cz + c};
+    return s;
+}
+
+// Vertical circular cone frustum, axis through (cx, cy): radius r1 at z1 narrowing linearly to
+// r0 at z0 < z1.
+PhantomSolid cone_z(double cx, double cy, double z0, double r0, double z1, double r1) {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::elliptic_cone;
+    s.center = {cx, cy, z1};
+    s.semi = {r1, r1, 0.0};
+    s.k = (1.0 - r0 / r1) / (z1 - z0); // r(z) = r1 (1 + k (z - z1))
+    z_at_least(s, z0);
+    z_at_most(s, z1);
+    s.bound_lo = {cx - r1, cy - r1, z0};
+    s.bound_hi = {cx + r1, cy + r1, z1};
+    return s;
+}
+
+// Tube of radius r about the circle of radius R in the plane y = c.y, centred on c.
+PhantomSolid torus_xz(Point3 c, double R, double r) {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::torus;
+    s.center = c;
+    s.semi = {r, r, R};
+    s.bound_lo = {c.x - R - r, c.y - r, c.z - R - r};
+    s.bound_hi = {c.x + R + r, c.y + r, c.z + R + r};
+    return s;
+}
+
+PhantomSolid polytope() {
+    PhantomSolid s;
+    s.kind = PhantomSolid::Kind::polytope;
+    s.semi = {1, 1, 1};
+    return s;
+}
+
+PhantomRegion region(std::vector<PhantomSolid> parts, std::vector<PhantomSolid> minus = {}) {
+    return {std::move(parts), std::move(minus)};
+}
+
+// The radical inverse of i in `base` (the Halton sequence).
+double halton(std::size_t i, std::size_t base) {
+    double f = 1.0;
+    double r = 0.0;
+    while (i > 0) {
+        f /= static_cast<double>(base);
+        r += f * static_cast<double>(i % base);
+        i /= base;
+    }
+    return r;
+}
+
+// `n` points uniform in the region's volume: the Halton sequence in the box that holds its
+// parts, kept where the point is inside.
+std::vector<Point3> sample(const PhantomRegion& r, std::size_t n, const std::string& id) {
+    Point3 lo = r.parts.front().bound_lo;
+    Point3 hi = r.parts.front().bound_hi;
+    for (const auto& p : r.parts) {
+        lo = {std::min(lo.x, p.bound_lo.x), std::min(lo.y, p.bound_lo.y),
+              std::min(lo.z, p.bound_lo.z)};
+        hi = {std::max(hi.x, p.bound_hi.x), std::max(hi.y, p.bound_hi.y),
+              std::max(hi.z, p.bound_hi.z)};
+    }
+    std::vector<Point3> out;
+    constexpr std::size_t kMaxTries = 4'000'000;
+    for (std::size_t i = 1; out.size() < n; ++i) {
+        if (i > kMaxTries) {
+            throw std::logic_error(std::string("phantom: cannot place points in ").append(id));
+        }
+        const Point3 p{lo.x + (hi.x - lo.x) * halton(i, 2), lo.y + (hi.y - lo.y) * halton(i, 3),
+                       lo.z + (hi.z - lo.z) * halton(i, 5)};
+        if (r.contains(p)) {
+            out.push_back(p);
+        }
+    }
+    return out;
+}
+
+} // namespace
+
+Phantom::Phantom(std::size_t points_per_region) {
+    if (points_per_region == 0) {
+        throw std::invalid_argument("phantom: at least one point per organ region");
+    }
+    // ---- Outer body (G4MIRDTrunk, G4MIRDHead, G4MIRD{Left,Right}Leg, G4MIRD*Breast,
+    // G4MIRDMaleGenitalia) ----
+    const PhantomSolid trunk = cylinder_z(0, 0, 20, 10, 0, 70);
+    PhantomSolid head_cap = aligned_ellipsoid({0, 0, 85.5}, {7, 10, 8.5});
+    z_at_least(head_cap, 85.5);
+    const PhantomSolid leg_left = cone_z(10, 0, -80, 2, 0, 10);
+    const PhantomSolid leg_right = cone_z(-10, 0, -80, 2, 0, 10);
+    PhantomSolid genitalia = polytope(); // the trapezoid as its bounding box
+    x_at_least(genitalia, -10);
+    x_at_most(genitalia, 10);
+    y_at_least(genitalia, -10);
+    y_at_most(genitalia, 0);
+    z_at_least(genitalia, -4.8);
+    z_at_most(genitalia, 0);
+    genitalia.bound_lo = {-10, -10, -4.8};
+    genitalia.bound_hi = {10, 0, 0};
+    const PhantomSolid breast_left = aligned_ellipsoid({10, -9.1, 52}, {4.95, 4.15, 4.35});
+    const PhantomSolid breast_right = aligned_ellipsoid({-10, -9.1, 52}, {4.95, 4.15, 4.35});
+    body_ = {{trunk, {}},
+             {cylinder_z(0, 0, 7, 10, 70, 85.5), {}},
+             {head_cap, {}},
+             {leg_left, {}},
+             {leg_right, {}},
+             {breast_left, {trunk}},
+             {breast_right, {trunk}},
+             {genitalia, {leg_left, leg_right}}};
+
+    // ---- Tissues of another density (G4HumanPhantomMaterial: MIRD lung 0.2958, skeleton
+    // 1.4862 g/cm3) ----
+    PhantomSolid lung_left = aligned_ellipsoid({8.5, 0, 43.5}, {5, 7.5, 24});
+    z_at_least(lung_left, 43.5);
+    PhantomSolid notch_left = aligned_ellipsoid({2.5, 0, 43.5}, {5, 7.5, 24});
+    y_at_most(notch_left, 0);
+    z_at_least(notch_left, 43.5);
+    PhantomSolid lung_right = aligned_ellipsoid({-8.5, 0, 43.5}, {5, 7.5, 24});
+    z_at_least(lung_right, 43.5);
+    PhantomSolid notch_right = aligned_ellipsoid({-2.5, 0, 43.5}, {5, 7.5, 24});
+    y_at_most(notch_right, 0);
+    z_at_least(notch_right, 43.5);
+    const PhantomSolid skull_outer = aligned_ellipsoid({0, 0, 85.5}, {6.8, 9.8, 8.3});
+    const PhantomSolid brain = aligned_ellipsoid({0, 0, 86.5}, {6, 9, 6.5});
+    const PhantomSolid spine_upper = cylinder_z(0, 5.5, 2, 2.5, 70, 78.5);
+    const PhantomSolid spine_lower = cylinder_z(0, 5.5, 2, 2.5, 22, 70);
+    inserts_ = {{"lungs", {{lung_left, {notch_left}}, {lung_right, {notch_right}}}, 0.2958},
+                {"skull", {{skull_outer, {brain}}}, 1.4862},
+                {"spine", {{spine_upper, {}}, {spine_lower, {}}}, 1.4862}};
+
+    // ---- Organs ----
+    auto add = [&](std::string id, std::string note,
+                   std::vector<std::pair<PhantomRegion, double>> regions) {
+        PhantomOrgan o;
+        o.id = std::move(id);
+        o.note = std::move(note);
+        o.regions = std::move(regions);
+        double total = 0.0;
+        for (const auto& [r, share] : o.regions) {
+            total += share;
+        }
+        for (const auto& [r, share] : o.regions) {
+            o.region_begin.push_back(o.points.size());
+            for (const auto& p : sample(r, points_per_region, o.id)) {
+                o.points.push_back(p);
+                o.weights.push_back(share / total / static_cast<double>(points_per_region));
+            }
+        }
+        o.region_begin.push_back(o.points.size());
+        organs_.push_back(std::move(o));
+    };
+    add("brain", "G4MIRDBrain", {{region({brain}), 1.0}});
+    PhantomSolid thyroid = cylinder_z(0, -3.91, 1.85, 1.85, 70, 74.2);
+    y_at_most(thyroid, -3.91);
+    add("thyroid", "G4MIRDThyroid, without its two bevels",
+        {{region({thyroid}, {cylinder_z(0, -3.91, 0.83, 0.83, 69, 75)}), 1.0}});
+    add("thymus", "G4MIRDThymus", {{region({aligned_ellipsoid({2, -6, 60.5}, {3, 0.5, 4})}), 1.0}});
+    {
+        // G4MIRDHeart: a lower half-ellipsoid and an upper hemisphere about (0, -3, 50.32),
+        // the long axis turned 25 degrees about y.
+        const double c = std::cos(25.0 * kPi / 180.0);
+        const double s = std::sin(25.0 * kPi / 180.0);
+        const Point3 centre{0, -3, 50.32};
+        PhantomSolid lower = ellipsoid(centre, {4, 4, 7});
+        lower.ex = {c, 0, s};
+        lower.ez = {-s, 0, c};
+        const double along = dot(lower.ez, centre - Point3{});
+        cut(lower, lower.ez, along);
+        PhantomSolid upper = ellipsoid(centre, {3.99, 3.99, 3.99});
+        upper.ex = lower.ex;
+        upper.ez = lower.ez;
+        cut(upper, -lower.ez, -along);
+        add("heart", "G4MIRDHeart (a simplified heart)", {{region({lower, upper}), 1.0}});
+    }
+    add("lung", "G4MIRD{Left,Right}Lung",
+        {{region({lung_left, lung_right}, {notch_left, notch_right}), 1.0}});
+    add("breast", "G4MIRD{Left,Right}Breast, not turned",
+        {{region({breast_left, breast_right}, {trunk}), 1.0}});
+    add("stomach", "G4MIRDStomach (wall and contents)",
+        {{region({aligned_ellipsoid({8, -4, 35}, {4, 3, 8})}), 1.0}});
+    PhantomSolid liver = cylinder_z(0, 0, 14.19, 7.84, 27.79, 42.21);
+    cut(liver, {0.641, 0.655, -0.401}, -17.61);
+    add("liver", "G4MIRDLiver", {{region({liver}), 1.0}});
+    add("spleen", "G4MIRDSpleen", {{region({aligned_ellipsoid({11, 3, 37}, {3.5, 2, 6})}), 1.0}});
+    PhantomSolid pancreas = aligned_ellipsoid({0, 0, 37}, {15, 1, 3});
+    x_at_least(pancreas, 0);
+    PhantomSolid pancreas_cut = polytope();
+    x_at_least(pancreas_cut, 3);
+    z_at_most(pancreas_cut, 37);
+    add("pancreas", "G4MIRDPancreas", {{region({pancreas}, {pancreas_cut}), 1.0}});
+    PhantomSolid kidney_left = aligned_ellipsoid({6, 6, 32.5}, {4.5, 1.5, 5.5});
+    x_at_least(kidney_left, 3);
+    PhantomSolid kidney_right = aligned_ellipsoid({-6, 6, 32.5}, {4.5, 1.5, 5.5});
+    x_at_most(kidney_right, -3);
+    add("kidneys", "G4MIRD{Left,Right}Kidney", {{region({kidney_left, kidney_right}), 1.0}});
+    PhantomSolid adrenal_left = aligned_ellipsoid({4.5, 6.5, 38}, {1.5, 0.5, 5});
+    z_at_least(adrenal_left, 38);
+    PhantomSolid adrenal_right = aligned_ellipsoid({-4.5, 6.5, 38}, {1.5, 0.5, 5});
+    z_at_least(adrenal_right, 38);
+    add("adrenals", "G4MIRD{Left,Right}Adrenal", {{region({adrenal_left, adrenal_right}), 1.0}});
+    const PhantomSolid colon_ascending = cylinder_z(-8, -2.36, 2.5, 2.5, 14.45, 24.0);
+    const PhantomSolid colon_transverse = cylinder_x(-2.36, 25.5, 2.5, 1.5, -10.5, 10.5);
+    const PhantomSolid colon_descending = cylinder_z(8.72, -2.36, 1.88, 2.13, 8.72, 24.0);
+    PhantomSolid sigmoid_upper = torus_xz({3, -2.36, 8.72}, 5.72, 1.88);
+    x_at_least(sigmoid_upper, 3);
+    z_at_most(sigmoid_upper, 8.72);
+    PhantomSolid sigmoid_lower = torus_xz({3, -2.36, 0}, 3.0, 1.88);
+    x_at_most(sigmoid_lower, 3);
+    z_at_least(sigmoid_lower, 0);
+    PhantomSolid intestine = cylinder_z(0, -2.66, 11, 11, 17, 27);
+    y_at_least(intestine, -4.86);
+    y_at_most(intestine, 2.20);
+    add("small-intestine", "G4MIRDSmallIntestine (one of its two bounding circles)",
+        {{region({intestine}, {colon_ascending, colon_transverse, colon_descending}), 1.0}});
+    add("colon", "G4MIRDUpperLargeIntestine and G4MIRDLowerLargeIntestine",
+        {{region(
+              {colon_ascending, colon_transverse, colon_descending, sigmoid_upper, sigmoid_lower}),
+          1.0}});
+    add("bladder", "G4MIRDUrinaryBladder (the wall)",
+        {{region({aligned_ellipsoid({0, -4.5, 8}, {4.958, 3.458, 3.458})},
+                 {aligned_ellipsoid({0, -4.5, 8}, {4.706, 3.206, 3.206})}),
+          1.0}});
+    const PhantomRegion ovaries = region({aligned_ellipsoid({6, 0.5, 15}, {1, 0.5, 2}),
+                                          aligned_ellipsoid({-6, 0.5, 15}, {1, 0.5, 2})});
+    const PhantomRegion testes = region({aligned_ellipsoid({1.4, -8, -2.4}, {1.3, 1.5, 2.3}),
+                                         aligned_ellipsoid({-1.4, -8, -2.4}, {1.3, 1.5, 2.3})});
+    // ICRP 103 averages the male and female organ doses: the gonads of the hermaphrodite
+    // phantom are half testes, half ovaries.
+    add("gonads", "G4MIRD testes and ovaries, half each", {{testes, 0.5}, {ovaries, 0.5}});
+    PhantomSolid uterus = aligned_ellipsoid({0, 2, 14}, {2.5, 5, 1.5});
+    y_at_most(uterus, 4.5);
+    add("uterus", "G4MIRDUterus", {{region({uterus}), 1.0}});
+
+    // Active marrow over the bones. Shares by skeletal site for the adult after Cristy (1981,
+    // Phys. Med. Biol. 26, 389), FROM MEMORY and unverified: cranium 7.6 + mandible 0.8,
+    // cervical spine 3.9, thoracic + lumbar 28.4, ribs 16.1 + sternum 3.1, os coxae 17.5 +
+    // sacrum 9.9, scapulae 2.8, humeri (upper half) 2.3, femora (upper half) 6.7; the clavicles'
+    // 0.8 % is left out (the shares are renormalised).
+    std::vector<PhantomSolid> ribs;
+    for (const double zc :
+         {36.0, 38.8, 41.5, 44.3, 47.1, 49.9, 52.7, 55.5, 58.3, 61.1, 63.9, 66.7}) {
+        ribs.push_back(cylinder_z(0, 0, 17, 9.8, zc - 0.7, zc + 0.7));
+    }
+    PhantomSolid pelvis_upper = cylinder_z(0, -3, 12, 12, 14, 22);
+    y_at_least(pelvis_upper, -3);
+    PhantomSolid pelvis_lower = cylinder_z(0, -3, 12, 12, 0, 14);
+    y_at_least(pelvis_lower, -3);
+    y_at_most(pelvis_lower, 5);
+    PhantomSolid scapula_left = cylinder_z(0, 0, 19, 9.8, 50.9, 67.3);
+    cut(scapula_left, {0.25, -1, 0}, 0); // y >= 0.25 x
+    cut(scapula_left, {-0.80, 1, 0}, 0); // y <= 0.80 x
+    PhantomSolid scapula_right = cylinder_z(0, 0, 19, 9.8, 50.9, 67.3);
+    cut(scapula_right, {-0.25, -1, 0}, 0); // y >= -0.25 x
+    cut(scapula_right, {0.80, 1, 0}, 0);   // y <= -0.80 x
+    const std::vector<std::pair<PhantomRegion, double>> marrow{
+        {region({skull_outer}, {brain}), 8.4},
+        {region({spine_upper}), 3.9},
+        {region({spine_lower}), 28.4},
+        {region(ribs, {cylinder_z(0, 0, 16.5, 9.3, 35, 68)}), 19.2},
+        {region({pelvis_upper, pelvis_lower}, {cylinder_z(0, -3.8, 11.3, 11.3, -1, 23)}), 27.4},
+        {region({scapula_left, scapula_right}, {cylinder_z(0, 0, 17, 9.8, 50, 68)}), 2.8},
+        {region(
+             {cylinder_z(18.4, 0, 1.4, 2.7, 34.5, 69), cylinder_z(-18.4, 0, 1.4, 2.7, 34.5, 69)}),
+         2.3},
+        {region({[] {
+                     PhantomSolid s = cone_z(10, 0, -79.8, 1.0, 0, 3.5);
+                     z_at_least(s, -39.9);
+                     return s;
+                 }(),
+                 [] {
+                     PhantomSolid s = cone_z(-10, 0, -79.8, 1.0, 0, 3.5);
+                     z_at_least(s, -39.9);
+                     return s;
+                 }()}),
+         6.7}};
+    add("red-marrow", "active marrow in the MIRD bones (Cristy 1981 shares, from memory)", marrow);
+}
+
+const PhantomOrgan& Phantom::organ(const std::string& id) const {
+    for (const auto& o : organs_) {
+        if (o.id == id) {
+            return o;
+        }
+    }
+    throw std::out_of_range(std::string("phantom: no organ ").append(id));
+}
+
+bool Phantom::in_body(Point3 p) const {
+    for (const auto& piece : body_) {
+        if (piece.base.contains(p)) {
+            bool out = false;
+            for (const auto& m : piece.minus) {
+                out = out || m.contains(p);
+            }
+            if (!out) {
+                return true;
+            }
+        }
+    }
+    return false;
+}
+
+double Phantom::tissue_g_cm2(Point3 p, Vector3 u) const {
+    double length = 0.0;
+    for (const auto& piece : body_) {
+        length += piece.chord_ahead(p, u);
+    }
+    double g = soft_tissue_density() * length;
+    for (const auto& insert : inserts_) {
+        double l = 0.0;
+        for (const auto& piece : insert.pieces) {
+            l += piece.chord_ahead(p, u);
+        }
+        g += (insert.density_g_cm3 - soft_tissue_density()) * l;
+    }
+    return g;
+}
+
+Vector3 to_phantom_frame(Vector3 w, Posture posture, double heading_deg) {
+    const double h = heading_deg * kPi / 180.0;
+    const Vector3 facing{std::sin(h), std::cos(h), 0.0};
+    const Vector3 up{0.0, 0.0, 1.0};
+    Vector3 x_axis;
+    Vector3 y_axis;
+    Vector3 z_axis;
+    if (posture == Posture::standing) {
+        z_axis = up;
+        y_axis = -facing; // the back
+    } else {
+        z_axis = facing; // towards the head
+        y_axis = -up;    // the back, on the ground
+    }
+    x_axis = cross(y_axis, z_axis); // the phantom's left
+    return {dot(w, x_axis), dot(w, y_axis), dot(w, z_axis)};
+}
+
+} // namespace crewdose::habitats

@@ -1,0 +1,125 @@
+#pragma once
+// The stylised adult phantom: the body and its organs as quadric solids (ellipsoids, elliptic
+// cylinders, elliptic cones and tori, cut by planes), after the MIRD adult phantom (Snyder et
+// al., MIRD Pamphlet No. 5, J. Nucl. Med. Suppl. 3, 1969, revised 1978) in the dimensions of
+// the public Geant4 transcription (examples/advanced/human_phantom, G4MIRD*.cc).
+// Lengths in cm in the phantom's frame: x towards the phantom's left, y towards its back, z up,
+// z = 0 at the base of the trunk. What it is for: the tissue areal density between each organ
+// and the skin along a direction (DESIGN.md "body model").
+#include "vector.hpp"
+
+#include <span>
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace crewdose::habitats {
+
+/// Keeps the side of a plane where dot(normal, p) <= offset (p in phantom coordinates).
+struct PhantomCut {
+    Vector3 normal;
+    double offset = 0.0;
+};
+
+/// A convex solid: one quadric (or none) intersected with half-spaces. The quadric is written
+/// in local coordinates q = (dot(p - center, ex), dot(p - center, ey), dot(p - center, ez)).
+struct PhantomSolid {
+    enum class Kind {
+        ellipsoid,         ///< (qx/a)^2 + (qy/b)^2 + (qz/c)^2 <= 1
+        elliptic_cylinder, ///< (qx/a)^2 + (qy/b)^2 <= 1 (bound it along ez with cuts)
+        /// (qx/a)^2 + (qy/b)^2 <= (1 + k qz)^2, 1 + k qz > 0: semi-axes a (1 + k qz), b (1 + k qz)
+        elliptic_cone,
+        polytope, ///< the cuts alone
+        /// tube of radius a about the circle of radius c in the local x-z plane; organs only
+        /// (no chord): not convex
+        torus,
+    };
+    Kind kind = Kind::ellipsoid;
+    Point3 center;
+    Vector3 ex{1, 0, 0};
+    Vector3 ey{0, 1, 0};
+    Vector3 ez{0, 0, 1};
+    Vector3 semi; ///< a, b, c
+    double k = 0.0;
+    std::vector<PhantomCut> cuts;
+    Point3 bound_lo; ///< a box that holds the solid
+    Point3 bound_hi;
+
+    [[nodiscard]] bool contains(Point3 p) const;
+    /// The ray parameters [lo, hi] (lo >= 0) at which p + t u is inside the convex solid;
+    /// empty when hi <= lo. Not for tori.
+    [[nodiscard]] std::pair<double, double> interval_ahead(Point3 p, Vector3 u) const;
+};
+
+/// A convex solid minus disjoint convex solids: what a ray crosses of it is its own interval
+/// less the overlaps with each of `minus` (so each must lie in a region the others do not).
+struct PhantomPiece {
+    PhantomSolid base;
+    std::vector<PhantomSolid> minus;
+    [[nodiscard]] double chord_ahead(Point3 p, Vector3 u) const;
+};
+
+/// A union of solids minus another union: a point is in the region when it is in some `parts`
+/// solid and in no `minus` solid.
+struct PhantomRegion {
+    std::vector<PhantomSolid> parts;
+    std::vector<PhantomSolid> minus;
+    [[nodiscard]] bool contains(Point3 p) const;
+};
+
+/// One organ: the regions it is made of, each with its share of the organ (red marrow is
+/// spread over several bones), and the points that stand for it.
+struct PhantomOrgan {
+    std::string id;
+    std::string note; ///< what the organ's points are (a proxy is named as such)
+    std::vector<std::pair<PhantomRegion, double>> regions;
+    /// Sample points (quasi-random, uniform in each region's volume), region after region,
+    /// and their weights (sum 1: a region's share spread evenly over its points).
+    std::vector<Point3> points;
+    std::vector<double> weights;
+    /// Where each region's points start in `points` (one entry per region, then the end).
+    std::vector<std::size_t> region_begin;
+};
+
+/// A part of the body whose density differs from soft tissue (lungs, skull, spine).
+struct PhantomInsert {
+    std::string id;
+    std::vector<PhantomPiece> pieces; ///< disjoint
+    double density_g_cm3 = 1.0;
+};
+
+class Phantom {
+  public:
+    /// The adult phantom with `points_per_region` sample points in every organ region.
+    explicit Phantom(std::size_t points_per_region = 512);
+
+    [[nodiscard]] std::span<const PhantomOrgan> organs() const { return organs_; }
+    /// Throws std::out_of_range for an unknown id.
+    [[nodiscard]] const PhantomOrgan& organ(const std::string& id) const;
+    /// True when the point is inside the outer body (head, trunk, breasts, legs, genitalia).
+    [[nodiscard]] bool in_body(Point3 p) const;
+    /// Tissue areal density, g/cm2, from `p` along unit vector `u` to the skin and beyond (a
+    /// ray that leaves the trunk may cross a leg or the head): soft tissue at its density, the
+    /// lungs, skull and spine at theirs.
+    [[nodiscard]] double tissue_g_cm2(Point3 p, Vector3 u) const;
+    [[nodiscard]] static constexpr double soft_tissue_density() { return 0.9869; }
+
+  private:
+    std::vector<PhantomPiece> body_; ///< disjoint pieces of the outer body
+    std::vector<PhantomInsert> inserts_;
+    std::vector<PhantomOrgan> organs_;
+};
+
+/// How the person at a dose point is placed.
+enum class Posture {
+    standing, ///< body axis vertical, facing the heading
+    lying,    ///< on the back, face up, head towards the heading
+};
+
+/// A direction in the scene frame (x east, y north, z up) in the phantom's frame, for a person
+/// in `posture` whose heading (compass azimuth, degrees from north towards east) is
+/// `heading_deg`.
+[[nodiscard]] Vector3 to_phantom_frame(Vector3 scene_direction, Posture posture,
+                                       double heading_deg);
+
+} // namespace crewdose::habitats
