@@ -185,11 +185,11 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                     gcr_location(i, marches);
                 } else {
                     const bool phantom = sc_.locations[i - n_loc].body == BodyModelKind::phantom;
-                    auto& t = phantom ? phantom_spe_tables : spe_tables;
-                    if (!t) {
-                        t.emplace(phantom ? phantom_spe_grid : tables_.grid());
+                    auto& lib = phantom ? phantom_spe_tables : spe_tables;
+                    if (!lib) {
+                        lib.emplace(phantom ? phantom_spe_grid : tables_.grid());
                     }
-                    spe_location(i - n_loc, *t);
+                    spe_location(i - n_loc, *lib);
                 }
             }
         } catch (...) {
