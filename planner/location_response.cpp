@@ -9,6 +9,7 @@
 #include <cmath>
 #include <stdexcept>
 #include <string>
+#include <thread>
 
 namespace crewdose::planner {
 
@@ -78,8 +79,9 @@ BodyDepths quick_body_depths() {
 }
 
 std::vector<double> phantom_depth_grid() {
-    return {0.007, 0.3,  0.5,  1.0,  1.5,  2.0,  2.5,  3.0,  3.6,  4.3,  5.2,  6.2,  7.4,
-            8.9,   10.7, 12.8, 15.4, 18.5, 22.0, 26.5, 32.0, 46.0, 66.0, 96.0, 160.0};
+    return {0.007, 0.05, 0.1,  0.2,  0.3,  0.4,  0.5,  0.65, 0.8,  1.0,  1.25,
+            1.5,   1.8,  2.2,  2.6,  3.0,  3.6,  4.3,  5.2,  6.2,  7.4,  8.9,
+            10.7,  12.8, 15.4, 18.5, 22.0, 26.5, 32.0, 46.0, 66.0, 96.0, 160.0};
 }
 
 std::vector<double> phantom_gcr_depth_grid() {
@@ -120,7 +122,7 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                                             habitats::Posture posture, double heading_deg,
                                             const std::vector<habitats::Vector3>& directions,
                                             std::span<const std::vector<double>> grids,
-                                            std::size_t points_per_direction) {
+                                            std::size_t points_per_direction, std::size_t threads) {
     constexpr std::size_t n_out = 6;
     std::vector<BodyDepths> bodies;
     std::vector<std::size_t> skin_node;
@@ -185,55 +187,74 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
         }
     }
 
-    for (std::size_t k = 0; k < directions.size(); ++k) {
-        const habitats::Vector3 u = habitats::to_phantom_frame(directions[k], posture, heading_deg);
-        for (std::size_t q = 0; q < bodies.size(); ++q) {
-            const std::size_t n_grid = bodies[q].grid_g_cm2.size();
-            double* block = bodies[q].weights.data() + k * n_out * n_grid;
-            block[0 * n_grid + skin_node[q]] = 1.0;
-            block[1 * n_grid + lens_node[q]] = 1.0;
-            block[5 * n_grid + skin_node[q]] += effective_skin;
-        }
-        for (std::size_t i = 0; i < organs.size(); ++i) {
-            if (feeds[i].empty()) {
-                continue;
+    // Directions write disjoint blocks of the weights: they may be shared among threads.
+    auto trace = [&](std::size_t k0, std::size_t k1) {
+        for (std::size_t k = k0; k < k1; ++k) {
+            const habitats::Vector3 u =
+                habitats::to_phantom_frame(directions[k], posture, heading_deg);
+            for (std::size_t q = 0; q < bodies.size(); ++q) {
+                const std::size_t n_grid = bodies[q].grid_g_cm2.size();
+                double* block = bodies[q].weights.data() + k * n_out * n_grid;
+                block[0 * n_grid + skin_node[q]] = 1.0;
+                block[1 * n_grid + lens_node[q]] = 1.0;
+                block[5 * n_grid + skin_node[q]] += effective_skin;
             }
-            const auto& o = organs[i];
-            for (std::size_t r = 0; r + 1 < o.region_begin.size(); ++r) {
-                const std::size_t first = o.region_begin[r];
-                const std::size_t count = o.region_begin[r + 1] - first;
-                const std::size_t m =
-                    points_per_direction == 0 ? count : std::min(points_per_direction, count);
-                // The region's weight, spread over the m points this direction uses.
-                const double scale = static_cast<double>(count) / static_cast<double>(m);
-                for (std::size_t j = 0; j < m; ++j) {
-                    const std::size_t s = first + (k * m + j) % count;
-                    const double t = phantom.tissue_g_cm2(o.points[s], u);
-                    for (auto& body : bodies) {
-                        const auto& grid = body.grid_g_cm2;
-                        const std::size_t n_grid = grid.size();
-                        double* block = body.weights.data() + k * n_out * n_grid;
-                        // Split between the neighbouring nodes (beyond the last: all on it).
-                        const auto g = static_cast<std::size_t>(
-                            std::upper_bound(grid.begin(), grid.end(), t) - grid.begin());
-                        double lo_share = 1.0;
-                        std::size_t lo = 0;
-                        if (g == n_grid) {
-                            lo = n_grid - 1;
-                        } else if (g > 0) {
-                            lo = g - 1;
-                            lo_share = (grid[g] - t) / (grid[g] - grid[g - 1]);
-                        }
-                        for (const auto& [out, f] : feeds[i]) {
-                            const double w = f * o.weights[s] * scale;
-                            block[out * n_grid + lo] += w * lo_share;
-                            if (lo_share < 1.0) {
-                                block[out * n_grid + lo + 1] += w * (1.0 - lo_share);
+            for (std::size_t i = 0; i < organs.size(); ++i) {
+                if (feeds[i].empty()) {
+                    continue;
+                }
+                const auto& o = organs[i];
+                for (std::size_t r = 0; r + 1 < o.region_begin.size(); ++r) {
+                    const std::size_t first = o.region_begin[r];
+                    const std::size_t count = o.region_begin[r + 1] - first;
+                    const std::size_t m =
+                        points_per_direction == 0 ? count : std::min(points_per_direction, count);
+                    // The region's weight, spread over the m points this direction uses.
+                    const double scale = static_cast<double>(count) / static_cast<double>(m);
+                    for (std::size_t j = 0; j < m; ++j) {
+                        const std::size_t s = first + (k * m + j) % count;
+                        const double t = phantom.tissue_g_cm2(o.points[s], u);
+                        for (auto& body : bodies) {
+                            const auto& grid = body.grid_g_cm2;
+                            const std::size_t n_grid = grid.size();
+                            double* block = body.weights.data() + k * n_out * n_grid;
+                            // Split between the neighbouring nodes (beyond the last: all on it).
+                            const auto g = static_cast<std::size_t>(
+                                std::upper_bound(grid.begin(), grid.end(), t) - grid.begin());
+                            double lo_share = 1.0;
+                            std::size_t lo = 0;
+                            if (g == n_grid) {
+                                lo = n_grid - 1;
+                            } else if (g > 0) {
+                                lo = g - 1;
+                                lo_share = (grid[g] - t) / (grid[g] - grid[g - 1]);
+                            }
+                            for (const auto& [out, f] : feeds[i]) {
+                                const double w = f * o.weights[s] * scale;
+                                block[out * n_grid + lo] += w * lo_share;
+                                if (lo_share < 1.0) {
+                                    block[out * n_grid + lo + 1] += w * (1.0 - lo_share);
+                                }
                             }
                         }
                     }
                 }
             }
+        }
+    };
+    const std::size_t n = directions.size();
+    const std::size_t workers =
+        std::clamp<std::size_t>(threads, 1, std::max<std::size_t>(1, n / 32));
+    if (workers == 1) {
+        trace(0, n);
+    } else {
+        std::vector<std::thread> pool;
+        for (std::size_t w = 1; w < workers; ++w) {
+            pool.emplace_back(trace, w * n / workers, (w + 1) * n / workers);
+        }
+        trace(0, n / workers);
+        for (auto& t : pool) {
+            t.join();
         }
     }
     return bodies;

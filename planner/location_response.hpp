@@ -91,12 +91,12 @@ phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture,
 /// The adult phantom every phantom location shares (built once, thread-safe).
 [[nodiscard]] const habitats::Phantom& shared_phantom();
 
-/// The same on several grids at once (one ray trace per point and direction for all).
-[[nodiscard]] std::vector<BodyDepths>
-phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
-                    const std::vector<habitats::Vector3>& directions,
-                    std::span<const std::vector<double>> grids,
-                    std::size_t points_per_direction = kPhantomPointsPerDirection);
+/// The same on several grids at once (one ray trace per point and direction for all), the
+/// directions shared among `threads` threads (the result does not depend on their number).
+[[nodiscard]] std::vector<BodyDepths> phantom_body_depths(
+    const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
+    const std::vector<habitats::Vector3>& directions, std::span<const std::vector<double>> grids,
+    std::size_t points_per_direction = kPhantomPointsPerDirection, std::size_t threads = 1);
 
 /// Which phantom organ stands for an ICRP 103 tissue (the tissue itself where the phantom has
 /// it), or "" for "remainder".

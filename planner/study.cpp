@@ -54,6 +54,12 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     for (const auto& phase : sc_.mission.gcr_phases) {
         phis.push_back(phase.phi_MV);
     }
+    // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
+    std::size_t wanted = std::thread::hardware_concurrency();
+    if (const char* env = std::getenv("CREWDOSE_THREADS")) {
+        wanted = static_cast<std::size_t>(std::max(1L, std::strtol(env, nullptr, 10)));
+    }
+    wanted = std::max<std::size_t>(wanted, 1);
     for (const auto& loc : sc_.locations) {
         LocationGeometry where;
         where.point = loc.point_m;
@@ -104,7 +110,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                 if (where.imported || loc_dirs.size() == gcr_dirs.size()) {
                     // The same direction sets (Fibonacci sets of one size, or the table's).
                     both = phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
-                                               loc_dirs, grids);
+                                               loc_dirs, grids, kPhantomPointsPerDirection, wanted);
                 } else {
                     both = {phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
                                                 loc_dirs, grids[0]),
@@ -145,11 +151,6 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                                              location_directions_.at(loc.id), bodies_.at(loc.id));
     };
     const exposure::EnergyGridSpec phantom_spe_grid = spe_grid(BodyModelKind::phantom);
-    // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
-    std::size_t wanted = std::thread::hardware_concurrency();
-    if (const char* env = std::getenv("CREWDOSE_THREADS")) {
-        wanted = static_cast<std::size_t>(std::max(1L, std::strtol(env, nullptr, 10)));
-    }
     const std::size_t threads =
         std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, 2 * n_loc));
     std::vector<std::exception_ptr> failures(threads);

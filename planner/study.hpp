@@ -16,12 +16,15 @@ namespace crewdose::planner {
 /// Energy grid density of the GCR range tables and responses (nodes per decade). Convergence
 /// against 128 per decade, all 27 nuclei at phi = 400 MV behind 1, 10 and 40 g/cm2 aluminium
 /// plus 5 cm water, absorbed dose and dose equivalent, both removal cases: 8 differ by up to
-/// 0.26 %, 16 by 0.06 %, 32 by 0.02 %. Sixteen keeps the GCR part of a run within its budget.
-inline constexpr std::size_t kGcrNodesPerDecade = 16;
+/// 0.26 %, 12 by 0.12 %, 16 by 0.06 %, 32 by 0.02 %; the march with fragments, 12 against 48
+/// behind 20 g/cm2 aluminium or 100 g/cm2 regolith plus 5 cm tissue: 0.13-0.31 %. Twelve
+/// keeps the GCR part of a run with the phantom (whose organs need 12 tissue depths per
+/// direction) within its budget; the GCR model's own uncertainty is tens of per cent.
+inline constexpr std::size_t kGcrNodesPerDecade = 12;
 /// Largest depth step of the check's GCR march with reactions, g/cm2 (the march's own default
 /// is 4). Convergence against 2 g/cm2 steps (tests/unit/phantom_test: phantom organs behind a
 /// suit, 20 g/cm2 aluminium and 150 g/cm2 regolith, dose equivalent and absorbed dose):
-/// within 0.2 %; it saves a third of the GCR time behind thick regolith.
+/// within 0.21 %; it saves a third of the GCR time behind thick regolith.
 inline constexpr double kGcrMarchStep_g_cm2 = 8.0;
 /// The march options of the check's GCR march with reactions.
 [[nodiscard]] exposure::MarchOptions gcr_march_options();
