@@ -34,7 +34,13 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     std::vector<double> external;
     std::size_t blocked = 0;
     const auto& dirs = study.directions(location);
-    for (const auto& d : dirs) {
+    const BodyDepths& body = study.body(location);
+    // Per organ and open direction: the external areal density plus the organ's mean tissue
+    // along that direction (the quick model: its fixed depth).
+    std::vector<std::vector<double>> totals(body.organs.size());
+    std::vector<double> mean_tissue(body.organs.size(), 0.0);
+    for (std::size_t k = 0; k < dirs.size(); ++k) {
+        const auto& d = dirs[k];
         if (where.surroundings.blocked(d)) {
             ++blocked;
             continue;
@@ -44,6 +50,19 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             total += seg.areal_density_g_cm2;
         }
         external.push_back(total);
+        for (std::size_t o = 0; o < body.organs.size(); ++o) {
+            const auto w = body.of(k, o);
+            double tissue = 0.0;
+            for (std::size_t g = 0; g < w.size(); ++g) {
+                tissue += w[g] * body.grid_g_cm2[g];
+            }
+            totals[o].push_back(total + tissue);
+            mean_tissue[o] += tissue;
+        }
+    }
+    for (std::size_t o = 0; o < body.organs.size(); ++o) {
+        std::sort(totals[o].begin(), totals[o].end());
+        mean_tissue[o] /= std::max<double>(1.0, static_cast<double>(external.size()));
     }
     std::sort(external.begin(), external.end());
     double mean = 0.0;
@@ -66,15 +85,19 @@ std::string format_shielding_report(const Study& study, const std::string& locat
                                {"p75", percentile(external, 0.75)},
                                {"p95", percentile(external, 0.95)}};
         j["gcr_phi_MV"] = sc.mission.gcr_phi_MV;
-        for (const auto& organ : quick_body_model()) {
-            j["organs"][organ.name]["tissue_g_cm2"] = organ.depth_g_cm2;
-            const auto& g = study.gcr_daily_dose(location, organ.name, sc.mission.gcr_phi_MV);
-            j["organs"][organ.name]["gcr_per_day"] = {
-                {"with_reactions", dose_si_json(g.with_removal)},
-                {"without_reactions", dose_si_json(g.without_removal)}};
+        j["body_model"] = body.model;
+        for (std::size_t o = 0; o < body.organs.size(); ++o) {
+            const std::string& organ = body.organs[o];
+            auto& oj = j["organs"][organ];
+            oj["mean_tissue_g_cm2"] = mean_tissue[o];
+            oj["total_g_cm2"] = {{"p05", percentile(totals[o], 0.05)},
+                                 {"p50", percentile(totals[o], 0.5)},
+                                 {"p95", percentile(totals[o], 0.95)}};
+            const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
+            oj["gcr_per_day"] = {{"with_reactions", dose_si_json(g.with_removal)},
+                                 {"without_reactions", dose_si_json(g.without_removal)}};
             if (ev) {
-                const auto d = study.event_dose(location, organ.name, *ev);
-                j["organs"][organ.name]["event"] = dose_si_json(d);
+                oj["event"] = dose_si_json(study.event_dose(location, organ, *ev));
             }
         }
         j["cautions"] = caution_text();
@@ -85,35 +108,48 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     out += fmt::format(
         "  blocked by the ground or terrain: {:.1f} % of the sky (counted as zero dose)\n",
         100.0 * blocked_share);
-    out += fmt::format("  external areal density over the open sky, g/cm2: mean {}",
-                       significant(mean, 3));
+    std::string ext = fmt::format("  external areal density over the open sky, g/cm2: mean {}",
+                                  significant(mean, 3));
     for (double p : ps) {
-        out += fmt::format(", p{:.0f} {}", 100 * p, significant(percentile(external, p), 3));
+        ext += fmt::format(", p{:.0f} {}", 100 * p, significant(percentile(external, p), 3));
     }
-    out += "\n  per organ (quick body model: the tissue depth is added in every direction):\n";
-    for (const auto& organ : quick_body_model()) {
-        const auto& g = study.gcr_daily_dose(location, organ.name, sc.mission.gcr_phi_MV);
-        out += fmt::format("    {:<5} tissue {} g/cm2, median total {} g/cm2; GCR {} / {} mSv per "
-                           "day",
-                           organ.name, significant(organ.depth_g_cm2, 3),
-                           significant(percentile(external, 0.5) + organ.depth_g_cm2, 3),
-                           significant(1e3 * g.with_removal.dose_equivalent_Sv, 3),
-                           significant(1e3 * g.without_removal.dose_equivalent_Sv, 3));
+    out += wrap(ext, 100, "    ");
+    out += body.model == "phantom"
+               ? "  per organ (stylised phantom: the organ's own tissue along each direction;\n"
+                 "  effective = ICRP 103 weighted, its doses in mSv):\n"
+               : "  per organ (quick body model: the tissue depth is added in every "
+                 "direction):\n";
+    for (std::size_t o = 0; o < body.organs.size(); ++o) {
+        const std::string& organ = body.organs[o];
+        const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
+        std::string line = fmt::format(
+            "    {:<9} tissue {} g/cm2{}, total p5/p50/p95 {} / {} / {} g/cm2; GCR {} / {} mSv per "
+            "day",
+            organ, significant(mean_tissue[o], 3), body.model == "phantom" ? " (mean)" : "",
+            significant(percentile(totals[o], 0.05), 3), significant(percentile(totals[o], 0.5), 3),
+            significant(percentile(totals[o], 0.95), 3),
+            significant(1e3 * g.with_removal.dose_equivalent_Sv, 3),
+            significant(1e3 * g.without_removal.dose_equivalent_Sv, 3));
         if (ev) {
-            const auto d = study.event_dose(location, organ.name, *ev);
-            out += fmt::format("; {}: {} mGy, {} mSv, {} mGy-Eq", ev->id,
-                               significant(1e3 * d.absorbed_Gy, 3),
-                               significant(1e3 * d.dose_equivalent_Sv, 3),
-                               significant(1e3 * d.rbe_weighted_GyEq, 3));
+            const auto d = study.event_dose(location, organ, *ev);
+            if (organ == "effective") {
+                line +=
+                    fmt::format("; {}: {} mSv", ev->id, significant(1e3 * d.dose_equivalent_Sv, 3));
+            } else {
+                line += fmt::format("; {}: {} mGy, {} mSv, {} mGy-Eq", ev->id,
+                                    significant(1e3 * d.absorbed_Gy, 3),
+                                    significant(1e3 * d.dose_equivalent_Sv, 3),
+                                    significant(1e3 * d.rbe_weighted_GyEq, 3));
+            }
         }
-        out += "\n";
+        out += wrap(line, 100, "              ");
     }
     out += fmt::format("  (GCR at the mission start, phi = {:g} MV, with / without nuclear "
-                       "reactions; no uncertainty factor)\n",
+                       "reactions;\n  no uncertainty factor)\n",
                        sc.mission.gcr_phi_MV);
     if (ev) {
         out += "  (event doses: the whole event at this location, no uncertainty factor, the "
-               "higher of the removal bracket)\n";
+               "higher of the\n  removal bracket)\n";
     }
     out += "\n" + caution_text();
     return out;

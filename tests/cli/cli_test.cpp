@@ -474,8 +474,15 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     // The location's GCR rates are the ones check reports for it (one study, two views).
     const Run c = run("check " + demo() + " --format json");
     const auto rates = nlohmann::json::parse(c.out)["gcr"]["daily_rates_at_start"]["storm-shelter"];
-    for (const char* organ : {"skin", "lens", "bfo"}) {
+    // The demo's shelter uses the phantom: heart, brain and the effective dose are shown, and
+    // each organ's total areal density is at least the walls' (percentiles ordered).
+    CHECK(doc["body_model"] == "phantom");
+    CHECK(r.out.find("stylised phantom") != std::string::npos);
+    for (const char* organ : {"skin", "lens", "bfo", "heart", "brain", "effective"}) {
         INFO(organ);
+        const auto& t = doc["organs"][organ]["total_g_cm2"];
+        CHECK(t["p05"].get<double>() >= ext["p05"].get<double>());
+        CHECK(t["p05"].get<double>() <= t["p95"].get<double>());
         const auto& g = doc["organs"][organ]["gcr_per_day"];
         CHECK(1e3 * g["with_reactions"]["dose_equivalent_Sv"].get<double>() ==
               Approx(rates[organ]["with_reactions"]["dose_equivalent_mSv"].get<double>())
