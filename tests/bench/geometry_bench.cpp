@@ -81,7 +81,7 @@ static void BM_GcrLocation(benchmark::State& state) {
     // with nuclear reactions and without, three organs, one phi.
     const habitats::Scene scene = twenty_solids();
     exposure::TableLibrary tables(planner::gcr_grid());
-    exposure::FragmentTransport with_reactions(tables);
+    exposure::FragmentTransport with_reactions(tables, planner::gcr_march_options());
     exposure::MarchOptions none;
     none.removal = false;
     exposure::FragmentTransport without_reactions(tables, none);
@@ -131,3 +131,65 @@ static void BM_GcrLocationPrimariesOnly(benchmark::State& state) {
 }
 BENCHMARK(BM_GcrLocationPrimariesOnly)->Arg(256)->Unit(benchmark::kMillisecond);
 BENCHMARK(BM_GcrLocation)->Arg(256)->Unit(benchmark::kMillisecond);
+
+// The phantom's organ depths over a direction set, on the SPE and GCR grids at once (one ray
+// trace through the body per organ point and direction), one thread.
+static void BM_PhantomBodyDepths(benchmark::State& state) {
+    const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
+    const std::vector<std::vector<double>> grids{planner::phantom_depth_grid(),
+                                                 planner::phantom_gcr_depth_grid()};
+    (void)planner::shared_phantom();
+    for (auto _ : state) {
+        benchmark::DoNotOptimize(planner::phantom_body_depths(
+            planner::shared_phantom(), habitats::Posture::standing, 0.0, dirs, grids));
+    }
+}
+BENCHMARK(BM_PhantomBodyDepths)->Arg(256)->Unit(benchmark::kMillisecond);
+
+// SPE responses of the phantom's organs at one location (the 20-solid scene), as the study
+// computes them: the phantom's energy grid, one response per needed tissue depth.
+static void BM_PhantomModelLocation(benchmark::State& state) {
+    const habitats::Scene scene = twenty_solids();
+    exposure::TableLibrary tables(planner::spe_grid(planner::BodyModelKind::phantom));
+    const planner::LocationGeometry where = module_deck(scene);
+    const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
+    const auto body = planner::phantom_body_depths(planner::shared_phantom(),
+                                                   habitats::Posture::standing, 0.0, dirs,
+                                                   planner::phantom_depth_grid());
+    (void)planner::body_responses(tables, materials, where, dirs, body); // build tables once
+    for (auto _ : state) {
+        benchmark::DoNotOptimize(planner::body_responses(tables, materials, where, dirs, body));
+    }
+}
+BENCHMARK(BM_PhantomModelLocation)->Arg(256)->Unit(benchmark::kMillisecond);
+
+// GCR rates of the phantom's organs at one location: both marches along every direction,
+// the organs scored at the GCR tissue grid, one phi (the goal: under 200 ms).
+static void BM_GcrPhantomLocation(benchmark::State& state) {
+    const habitats::Scene scene = twenty_solids();
+    exposure::TableLibrary tables(planner::gcr_grid());
+    exposure::FragmentTransport with_reactions(tables, planner::gcr_march_options());
+    exposure::MarchOptions none;
+    none.removal = false;
+    exposure::FragmentTransport without_reactions(tables, none);
+    const planner::GcrMarches march{with_reactions, without_reactions};
+    const planner::LocationGeometry where = module_deck(scene);
+    const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
+    const auto body = planner::phantom_body_depths(planner::shared_phantom(),
+                                                   habitats::Posture::standing, 0.0, dirs,
+                                                   planner::phantom_gcr_depth_grid());
+    const std::vector<double> phis{400.0};
+    auto run = [&] {
+        double total = 0.0;
+        for (const auto& [key, d] :
+             planner::gcr_body_doses(march, materials, where, dirs, body, phis)) {
+            total += d.for_limits().absorbed_Gy;
+        }
+        return total;
+    };
+    (void)run();
+    for (auto _ : state) {
+        benchmark::DoNotOptimize(run());
+    }
+}
+BENCHMARK(BM_GcrPhantomLocation)->Arg(256)->Unit(benchmark::kMillisecond);
