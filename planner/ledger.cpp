@@ -260,7 +260,9 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                 if (rec.crew != crew.id) {
                     continue;
                 }
-                if (rec.replaces_model) {
+                // A reading replaces the model only for the organs it gives: an organ it is
+                // silent on keeps its modelled dose (dropping it would not be conservative).
+                if (rec.replaces_model && stated_dose(rec.doses, organ)) {
                     std::vector<DosePiece> kept;
                     for (const auto& p : pieces) {
                         const double before = p.fraction_by(rec.start);

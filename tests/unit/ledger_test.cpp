@@ -145,7 +145,8 @@ TEST_CASE("a small timeline checked against a hand computation", "[ledger]") {
     CHECK(first == Approx(1.5 * D * F4).epsilon(1e-9));
 }
 
-TEST_CASE("recorded doses replace the modelled dose of their period, and only it", "[ledger]") {
+TEST_CASE("recorded doses replace the modelled dose of their period and organs, and only it",
+          "[ledger]") {
     // The event arrives at 01:00 on 10 January; a dosimeter reading of 2 mGy-Eq for 10 January
     // 00:00-03:00 replaces the model there (by construction the modelled part F(2 h) goes).
     const std::string rec = "\n[[recorded]]\ncrew = \"a\"\nstart = 2032-01-10T00:00:00Z\nend = "
@@ -164,6 +165,17 @@ TEST_CASE("recorded doses replace the modelled dose of their period, and only it
     const double base = build_ledger(plain).crew[0].organs[0].mission_mGyEq;
     const double replaced = build_ledger(with).crew[0].organs[0].mission_mGyEq;
     CHECK(replaced == Approx(base - D * F2 - G * 3.0 / 24.0 + 2.0).epsilon(1e-9));
+    // The reading gives the BFO only: the lens keeps its modelled dose (by construction).
+    const auto lens = [](const LedgerResult& l) {
+        for (const auto& o : l.crew[0].organs) {
+            if (o.organ == "lens") {
+                return o.mission_mGyEq;
+            }
+        }
+        return -1.0;
+    };
+    CHECK(lens(build_ledger(with)) == Approx(lens(build_ledger(plain))).epsilon(1e-12));
+    CHECK(lens(build_ledger(plain)) > 0.0);
     // Not replacing: the reading adds to the model (a dose the tool does not model).
     const std::string add = rec + "replaces_model = false\n";
     CHECK(build_ledger(Study(parse_scenario(kPlan + add, "hand.toml")))
