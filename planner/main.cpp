@@ -151,7 +151,13 @@ int main(int argc, char** argv) {
         "check", "Check every crew member's doses along the scenario's timeline against the "
                  "30-day, annual and career planning limits; report margins and where they are "
                  "smallest. Doses are SPE plus the galactic cosmic-ray (GCR) background, "
-                 "shown apart.\nGCR: set the modulation potential with mission.gcr_phi_MV "
+                 "shown apart.\nBody: each location's body = \"phantom\" (the stylised adult "
+                 "phantom: BFO as the active marrow, heart, brain, lens, skin and the ICRP 103 "
+                 "effective dose, each organ shielded by the body as placed: posture standing "
+                 "or lying, heading_deg) or \"quick\" (default; skin, lens and BFO at 0.07 mm, "
+                 "3 mm and 5 cm of tissue in every direction, a conservative screen without "
+                 "heart, brain or effective dose).\nGCR: set the modulation potential with "
+                 "mission.gcr_phi_MV "
                  "(and [[mission.gcr_modulation]] for later changes); about 400 MV near solar "
                  "minimum, 1000 MV or more near maximum, for the Burger et al. 2000 interstellar "
                  "spectrum the model uses: a phi derived with another spectrum is not "
@@ -167,7 +173,7 @@ int main(int argc, char** argv) {
                       "instead of standard output");
     check->add_option("--series", series_path,
                       "also write cumulative dose and dose rate against time per crew member "
-                      "and organ to this CSV file");
+                      "and organ to this CSV file (mGy-Eq; the effective dose's rows in mSv)");
     check->add_flag("--allow-gaps", allow_gaps,
                     "accept gaps in a crew member's timeline; each gap is charged at the "
                     "location of the activity before it and listed in the report");
