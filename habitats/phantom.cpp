@@ -171,6 +171,18 @@ double PhantomPiece::chord_ahead(Point3 p, Vector3 u) const {
     return std::max(length, 0.0);
 }
 
+std::pair<Point3, Point3> PhantomRegion::bounds() const {
+    Point3 lo = parts.front().bound_lo;
+    Point3 hi = parts.front().bound_hi;
+    for (const auto& p : parts) {
+        lo = {std::min(lo.x, p.bound_lo.x), std::min(lo.y, p.bound_lo.y),
+              std::min(lo.z, p.bound_lo.z)};
+        hi = {std::max(hi.x, p.bound_hi.x), std::max(hi.y, p.bound_hi.y),
+              std::max(hi.z, p.bound_hi.z)};
+    }
+    return {lo, hi};
+}
+
 bool PhantomRegion::contains(Point3 p) const {
     bool in = false;
     for (const auto& s : parts) {
@@ -317,14 +329,7 @@ double halton(std::size_t i, std::size_t base) {
 // `n` points uniform in the region's volume: the Halton sequence in the box that holds its
 // parts, kept where the point is inside.
 std::vector<Point3> sample(const PhantomRegion& r, std::size_t n, const std::string& id) {
-    Point3 lo = r.parts.front().bound_lo;
-    Point3 hi = r.parts.front().bound_hi;
-    for (const auto& p : r.parts) {
-        lo = {std::min(lo.x, p.bound_lo.x), std::min(lo.y, p.bound_lo.y),
-              std::min(lo.z, p.bound_lo.z)};
-        hi = {std::max(hi.x, p.bound_hi.x), std::max(hi.y, p.bound_hi.y),
-              std::max(hi.z, p.bound_hi.z)};
-    }
+    const auto [lo, hi] = r.bounds();
     std::vector<Point3> out;
     constexpr std::size_t kMaxTries = 4'000'000;
     for (std::size_t i = 1; out.size() < n; ++i) {

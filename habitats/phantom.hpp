@@ -65,6 +65,8 @@ struct PhantomRegion {
     std::vector<PhantomSolid> parts;
     std::vector<PhantomSolid> minus;
     [[nodiscard]] bool contains(Point3 p) const;
+    /// A box (low and high corners) that holds the region: its parts' boxes together.
+    [[nodiscard]] std::pair<Point3, Point3> bounds() const;
 };
 
 /// One organ: the regions it is made of, each with its share of the organ (red marrow is

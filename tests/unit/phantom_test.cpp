@@ -49,14 +49,7 @@ double dose_equivalent(const planner::OrganResponse& r, const exposure::ProtonSp
 double volume_cm3(const habitats::PhantomOrgan& o, double h) {
     double v = 0.0;
     for (const auto& [region, share] : o.regions) {
-        Point3 lo = region.parts.front().bound_lo;
-        Point3 hi = region.parts.front().bound_hi;
-        for (const auto& p : region.parts) {
-            lo = {std::min(lo.x, p.bound_lo.x), std::min(lo.y, p.bound_lo.y),
-                  std::min(lo.z, p.bound_lo.z)};
-            hi = {std::max(hi.x, p.bound_hi.x), std::max(hi.y, p.bound_hi.y),
-                  std::max(hi.z, p.bound_hi.z)};
-        }
+        const auto [lo, hi] = region.bounds();
         std::size_t inside = 0;
         for (double x = lo.x + 0.5 * h; x < hi.x; x += h) {
             for (double y = lo.y + 0.5 * h; y < hi.y; y += h) {
