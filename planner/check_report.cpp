@@ -406,9 +406,13 @@ std::string format_validation(const Scenario& sc) {
                        sc.materials.size(), sc.solids.size(), sc.locations.size(), sc.events.size(),
                        sc.crew.size(), sc.activities.size(), sc.recorded.size());
     for (const auto& l : sc.locations) {
-        out += fmt::format("  location {}: {}\n", l.id,
-                           l.shielding_table_file ? "imported table " + *l.shielding_table_file
-                                                  : fmt::format("{} solids", l.solids.size()));
+        out += fmt::format(
+            "  location {}: {}; body {}\n", l.id,
+            l.shielding_table_file ? "imported table " + *l.shielding_table_file
+                                   : fmt::format("{} solids", l.solids.size()),
+            l.body == BodyModelKind::phantom
+                ? (l.posture == habitats::Posture::lying ? "phantom (lying)" : "phantom (standing)")
+                : "quick");
     }
     for (const auto& c : sc.crew) {
         out += fmt::format("  crew {}: {}\n", c.id, c.name);
