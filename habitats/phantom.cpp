@@ -280,6 +280,11 @@ PhantomSolid cylinder_x(double cy, double cz, double b, double c, double x0, dou
 // Vertical circular cone frustum, axis through (cx, cy): radius r1 at z1 narrowing linearly to
 // r0 at z0 < z1.
 PhantomSolid cone_z(double cx, double cy, double z0, double r0, double z1, double r1) {
+    if (!(r0 > 0.0 && r1 >= r0 && z1 > z0)) {
+        // interval_ahead() takes the hull of the quadric's pieces: right only while the cuts
+        // keep the cone's apex out, as a frustum with r0 > 0 does.
+        throw std::logic_error("phantom: a cone frustum needs 0 < r0 <= r1 and z0 < z1");
+    }
     PhantomSolid s;
     s.kind = PhantomSolid::Kind::elliptic_cone;
     s.center = {cx, cy, z1};
@@ -367,8 +372,17 @@ Phantom::Phantom(std::size_t points_per_region) {
     z_at_most(genitalia, 0);
     genitalia.bound_lo = {-10, -10, -4.8};
     genitalia.bound_hi = {10, 0, 0};
-    const PhantomSolid breast_left = aligned_ellipsoid({10, -9.1, 52}, {4.95, 4.15, 4.35});
-    const PhantomSolid breast_right = aligned_ellipsoid({-10, -9.1, 52}, {4.95, 4.15, 4.35});
+    // The breasts are turned 16 degrees about z so that their short axis follows the trunk's
+    // surface normal at (+-10, -8.66): the evident intent of the Geant4 rotation.
+    auto breast = [](double side) {
+        PhantomSolid b = ellipsoid({side * 10, -9.1, 52}, {4.95, 4.15, 4.35});
+        const double t = side * 16.0 * kPi / 180.0;
+        b.ex = {std::cos(t), std::sin(t), 0};
+        b.ey = {-std::sin(t), std::cos(t), 0};
+        return b;
+    };
+    const PhantomSolid breast_left = breast(1.0);
+    const PhantomSolid breast_right = breast(-1.0);
     body_ = {{trunk, {}},
              {cylinder_z(0, 0, 7, 10, 70, 85.5), {}},
              {head_cap, {}},
@@ -392,7 +406,10 @@ Phantom::Phantom(std::size_t points_per_region) {
     z_at_least(notch_right, 43.5);
     const PhantomSolid skull_outer = aligned_ellipsoid({0, 0, 85.5}, {6.8, 9.8, 8.3});
     const PhantomSolid brain = aligned_ellipsoid({0, 0, 86.5}, {6, 9, 6.5});
-    const PhantomSolid spine_upper = cylinder_z(0, 5.5, 2, 2.5, 70, 78.5);
+    PhantomSolid spine_upper = cylinder_z(0, 5.5, 2, 2.5, 70, 78.5);
+    // G4MIRDUpperSpine's bevel: a box turned Rx(-25 deg) about (0, 3, 79.75) takes the anterior
+    // top; on the spine it acts as this one plane (without it the spine overlaps the skull).
+    cut(spine_upper, {0, -0.4226, 0.9063}, 68.510);
     const PhantomSolid spine_lower = cylinder_z(0, 5.5, 2, 2.5, 22, 70);
     inserts_ = {{"lungs", {{lung_left, {notch_left}}, {lung_right, {notch_right}}}, 0.2958},
                 {"skull", {{skull_outer, {brain}}}, 1.4862},
@@ -422,7 +439,10 @@ Phantom::Phantom(std::size_t points_per_region) {
     add("brain", "G4MIRDBrain", {{region({brain}), 1.0}});
     PhantomSolid thyroid = cylinder_z(0, -3.91, 1.85, 1.85, 70, 74.2);
     y_at_most(thyroid, -3.91);
-    add("thyroid", "G4MIRDThyroid, without its two bevels",
+    // Its two bevels (slabs turned +-50 degrees about x), each a plane on the thyroid.
+    cut(thyroid, {0, -0.643, 0.766}, 59.100);
+    cut(thyroid, {0, -0.643, -0.766}, -50.438);
+    add("thyroid", "G4MIRDThyroid",
         {{region({thyroid}, {cylinder_z(0, -3.91, 0.83, 0.83, 69, 75)}), 1.0}});
     add("thymus", "G4MIRDThymus", {{region({aligned_ellipsoid({2, -6, 60.5}, {3, 0.5, 4})}), 1.0}});
     {
@@ -444,13 +464,15 @@ Phantom::Phantom(std::size_t points_per_region) {
     }
     add("lung", "G4MIRD{Left,Right}Lung",
         {{region({lung_left, lung_right}, {notch_left, notch_right}), 1.0}});
-    add("breast", "G4MIRD{Left,Right}Breast, not turned",
+    add("breast",
+        "G4MIRD{Left,Right}Breast (minus the trunk itself, not Geant4's cylinder 0.4 cm off it)",
         {{region({breast_left, breast_right}, {trunk}), 1.0}});
     add("stomach", "G4MIRDStomach (wall and contents)",
         {{region({aligned_ellipsoid({8, -4, 35}, {4, 3, 8})}), 1.0}});
     PhantomSolid liver = cylinder_z(0, 0, 14.19, 7.84, 27.79, 42.21);
     cut(liver, {0.641, 0.655, -0.401}, -17.61);
-    add("liver", "G4MIRDLiver", {{region({liver}), 1.0}});
+    add("liver", "G4MIRDLiver (Geant4 keeps the ORNL 15-year-old / adult-female liver here)",
+        {{region({liver}), 1.0}});
     add("spleen", "G4MIRDSpleen", {{region({aligned_ellipsoid({11, 3, 37}, {3.5, 2, 6})}), 1.0}});
     PhantomSolid pancreas = aligned_ellipsoid({0, 0, 37}, {15, 1, 3});
     x_at_least(pancreas, 0);
@@ -477,11 +499,18 @@ Phantom::Phantom(std::size_t points_per_region) {
     PhantomSolid sigmoid_lower = torus_xz({3, -2.36, 0}, 3.0, 1.88);
     x_at_most(sigmoid_lower, 3);
     z_at_least(sigmoid_lower, 0);
-    PhantomSolid intestine = cylinder_z(0, -2.66, 11, 11, 17, 27);
-    y_at_least(intestine, -4.86);
-    y_at_most(intestine, 2.20);
-    add("small-intestine", "G4MIRDSmallIntestine (one of its two bounding circles)",
-        {{region({intestine}, {colon_ascending, colon_transverse, colon_descending}), 1.0}});
+    // Inside both circles of radius 11 about (0, -2.66) and (0, -3.46): the first binds below
+    // y = -3.06, the second above.
+    PhantomSolid intestine_front = cylinder_z(0, -2.66, 11, 11, 17, 27);
+    y_at_least(intestine_front, -4.86);
+    y_at_most(intestine_front, -3.06);
+    PhantomSolid intestine_back = cylinder_z(0, -3.46, 11, 11, 17, 27);
+    y_at_least(intestine_back, -3.06);
+    y_at_most(intestine_back, 2.20);
+    add("small-intestine", "G4MIRDSmallIntestine",
+        {{region({intestine_front, intestine_back},
+                 {colon_ascending, colon_transverse, colon_descending}),
+          1.0}});
     add("colon", "G4MIRDUpperLargeIntestine and G4MIRDLowerLargeIntestine",
         {{region(
               {colon_ascending, colon_transverse, colon_descending, sigmoid_upper, sigmoid_lower}),
@@ -544,6 +573,26 @@ Phantom::Phantom(std::size_t points_per_region) {
                  }()}),
          6.7}};
     add("red-marrow", "active marrow in the MIRD bones (Cristy 1981 shares, from memory)", marrow);
+
+    // The rest of the skeleton shields at the skeleton's density too: ribs, pelvis, scapulae,
+    // arm and leg bones (the clavicles, tori of 14 cm3 each, count as soft tissue).
+    PhantomInsert bones{"bones", {}, 1.4862};
+    for (const auto& rib : ribs) {
+        const double z0 = rib.bound_lo.z;
+        const double z1 = rib.bound_hi.z;
+        bones.pieces.push_back({rib, {cylinder_z(0, 0, 16.5, 9.3, z0, z1)}});
+    }
+    const PhantomSolid pelvis_inner = cylinder_z(0, -3.8, 11.3, 11.3, -1, 23);
+    bones.pieces.push_back({pelvis_upper, {pelvis_inner}});
+    bones.pieces.push_back({pelvis_lower, {pelvis_inner}});
+    const PhantomSolid scapula_inner = cylinder_z(0, 0, 17, 9.8, 50, 68);
+    bones.pieces.push_back({scapula_left, {scapula_inner}});
+    bones.pieces.push_back({scapula_right, {scapula_inner}});
+    bones.pieces.push_back({cylinder_z(18.4, 0, 1.4, 2.7, 0, 69), {}});
+    bones.pieces.push_back({cylinder_z(-18.4, 0, 1.4, 2.7, 0, 69), {}});
+    bones.pieces.push_back({cone_z(10, 0, -79.8, 1.0, 0, 3.5), {}});
+    bones.pieces.push_back({cone_z(-10, 0, -79.8, 1.0, 0, 3.5), {}});
+    inserts_.push_back(std::move(bones));
 }
 
 const PhantomOrgan& Phantom::organ(const std::string& id) const {

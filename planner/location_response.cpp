@@ -40,10 +40,14 @@ std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
         for (const auto& s : where.suit->all_around) {
             path.push_back({s.material_id, s.areal_density_g_cm2});
         }
-        // The pack covers a cone about the horizontal direction behind the wearer.
+        // The pack covers a cone about the direction of the wearer's back: horizontal and
+        // away from the heading when standing, straight down when lying on the back.
         constexpr double kDeg = 3.14159265358979323846 / 180.0;
         const double back_az = (where.heading_deg + 180.0) * kDeg;
-        const habitats::Vector3 back{std::sin(back_az), std::cos(back_az), 0.0};
+        const habitats::Vector3 back =
+            where.posture == habitats::Posture::lying
+                ? habitats::Vector3{0.0, 0.0, -1.0}
+                : habitats::Vector3{std::sin(back_az), std::cos(back_az), 0.0};
         if (habitats::dot(back, direction) >= std::cos(where.suit->pack_half_angle_deg * kDeg)) {
             for (const auto& s : where.suit->pack) {
                 path.push_back({s.material_id, s.areal_density_g_cm2});
@@ -165,22 +169,40 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
     feeds[organ_index("red-marrow")].emplace_back(2, 1.0);
     feeds[organ_index("heart")].emplace_back(3, 1.0);
     feeds[organ_index("brain")].emplace_back(4, 1.0);
-    std::vector<std::string> remainder;
-    for (const auto r : exposure::icrp103_remainder_tissues()) {
-        for (const auto& o : organs) {
-            if (o.id == r) {
-                remainder.emplace_back(r);
+    // ICRP 103 averages the male and female remainders, each the mean over that sex's
+    // remainder tissues present (uterus female only, prostate male only).
+    std::vector<std::pair<std::string, double>> remainder; // tissue, share of the remainder
+    {
+        std::vector<std::string> male;
+        std::vector<std::string> female;
+        for (const auto r : exposure::icrp103_remainder_tissues()) {
+            for (const auto& o : organs) {
+                if (o.id == r) {
+                    if (r != "uterus") {
+                        male.emplace_back(r);
+                    }
+                    if (r != "prostate") {
+                        female.emplace_back(r);
+                    }
+                }
             }
         }
+        std::map<std::string, double> share;
+        for (const auto& t : male) {
+            share[t] += 0.5 / static_cast<double>(male.size());
+        }
+        for (const auto& t : female) {
+            share[t] += 0.5 / static_cast<double>(female.size());
+        }
+        remainder.assign(share.begin(), share.end());
     }
     double effective_skin = 0.0;
     for (const auto& w : exposure::icrp103_tissue_weights()) {
         if (w.tissue == "skin") {
             effective_skin += w.w_T;
         } else if (w.tissue == "remainder") {
-            for (const auto& r : remainder) {
-                feeds[organ_index(r)].emplace_back(5,
-                                                   w.w_T / static_cast<double>(remainder.size()));
+            for (const auto& [r, share] : remainder) {
+                feeds[organ_index(r)].emplace_back(5, w.w_T * share);
             }
         } else {
             feeds[organ_index(phantom_organ_for(w.tissue))].emplace_back(5, w.w_T);

@@ -146,6 +146,8 @@ struct LocationGeometry {
     std::string atmosphere_material_id = "mars-atmosphere";
     std::optional<SuitModel> suit; ///< no suit when empty
     double heading_deg = 0.0;      ///< compass azimuth the person faces
+    /// Lying on the back puts a suit's pack under the wearer instead of behind.
+    habitats::Posture posture = habitats::Posture::standing;
     /// A uniform shell around the dose point, the same in every direction that is not blocked,
     /// inside the walls and outside the suit (shelter sizing adds one), outermost first.
     std::vector<habitats::PathSegment> shell;

@@ -65,6 +65,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
         where.point = loc.point_m;
         where.suit = loc.suit;
         where.heading_deg = loc.heading_deg;
+        where.posture = loc.posture;
         if (!loc.deep_space && sc_.mission.site != SiteKind::deep_space) {
             where.surroundings.ground = true;
             where.surroundings.mask = sc_.mission.terrain_mask;

@@ -54,7 +54,7 @@ double volume_cm3(const habitats::PhantomOrgan& o, double h) {
         for (double x = lo.x + 0.5 * h; x < hi.x; x += h) {
             for (double y = lo.y + 0.5 * h; y < hi.y; y += h) {
                 for (double z = lo.z + 0.5 * h; z < hi.z; z += h) {
-                    inside += region.contains({x, y, z}) ? 1 : 0;
+                    inside += region.contains({x, y, z}) ? 1U : 0U;
                 }
             }
         }
@@ -96,12 +96,18 @@ planner::LocationGeometry shelled(const std::string& material, double g_cm2) {
 
 TEST_CASE("phantom: tissue paths through the body by hand", "[phantom]") {
     // By construction from the MIRD dimensions (Geant4 G4MIRD*.cc): trunk semi-axes 20 x 10 cm,
-    // 0 <= z <= 70; spine an elliptic cylinder 2 x 2.5 cm about (0, 5.5); legs cones of radius
+    // 0 <= z <= 70; spine an elliptic cylinder 2 x 2.5 cm about (0, 5.5); arm bones 1.4 x 2.7 cm
+    // about (+-18.4, 0); ribs rings between 16.5 x 9.3 and 17 x 9.8 cm; legs cones of radius
     // 10 (1 + 0.01 z) about (+-10, 0); head cap 7 x 10 x 8.5 cm above z = 85.5; skull outer
     // ellipsoid 6.8 x 9.8 x 8.3 about z = 85.5, brain 6 x 9 x 6.5 about z = 86.5.
     const Phantom& ph = planner::shared_phantom();
     const Point3 mid{0, 0, 35};
-    CHECK(ph.tissue_g_cm2(mid, {1, 0, 0}) == Approx(20.0 * kSoft).epsilon(1e-12));
+    // Sideways at z = 35: 20 cm of trunk, 2.8 cm of it the left arm bone (x = 18.4 +- 1.4); at
+    // z = 36 also the first rib (x from 16.5 to 17).
+    CHECK(ph.tissue_g_cm2(mid, {1, 0, 0}) ==
+          Approx(20.0 * kSoft + 2.8 * (kBone - kSoft)).epsilon(1e-12));
+    CHECK(ph.tissue_g_cm2({0, 0, 36}, {1, 0, 0}) ==
+          Approx(20.0 * kSoft + 3.3 * (kBone - kSoft)).epsilon(1e-12));
     CHECK(ph.tissue_g_cm2(mid, {0, -1, 0}) == Approx(10.0 * kSoft).epsilon(1e-12));
     // Backwards through 5 cm of spine (y from 3 to 8).
     CHECK(ph.tissue_g_cm2(mid, {0, 1, 0}) ==
