@@ -102,7 +102,7 @@ class Phantom {
     [[nodiscard]] bool in_body(Point3 p) const;
     /// Tissue areal density, g/cm2, from `p` along unit vector `u` to the skin and beyond (a
     /// ray that leaves the trunk may cross a leg or the head): soft tissue at its density, the
-    /// lungs, skull and spine at theirs.
+    /// lungs and the skeleton at theirs (the clavicles count as soft tissue).
     [[nodiscard]] double tissue_g_cm2(Point3 p, Vector3 u) const;
     [[nodiscard]] static constexpr double soft_tissue_density() { return 0.9869; }
 
