@@ -155,6 +155,17 @@ std::pair<double, double> PhantomSolid::interval_ahead(Point3 p, Vector3 u) cons
 }
 
 double PhantomPiece::chord_ahead(Point3 p, Vector3 u) const {
+    // Most rays miss most pieces: first the sphere about the base's bounding box (a solid
+    // without a box, r2 = 0, is always traced).
+    const Vector3 half = 0.5 * (base.bound_hi - base.bound_lo);
+    const Point3 mid = base.bound_lo + half;
+    const Vector3 w = mid - p;
+    const double along = dot(w, u);
+    const double r2 = dot(half, half);
+    const double w2 = dot(w, w);
+    if (r2 > 0.0 && w2 > r2 && (along < 0.0 || w2 - along * along > r2)) {
+        return 0.0; // the ray starts outside the sphere and passes it by
+    }
     const auto [lo, hi] = base.interval_ahead(p, u);
     if (hi <= lo) {
         return 0.0;
@@ -411,9 +422,10 @@ Phantom::Phantom(std::size_t points_per_region) {
     // top; on the spine it acts as this one plane (without it the spine overlaps the skull).
     cut(spine_upper, {0, -0.4226, 0.9063}, 68.510);
     const PhantomSolid spine_lower = cylinder_z(0, 5.5, 2, 2.5, 22, 70);
-    inserts_ = {{"lungs", {{lung_left, {notch_left}}, {lung_right, {notch_right}}}, 0.2958},
-                {"skull", {{skull_outer, {brain}}}, 1.4862},
-                {"spine", {{spine_upper, {}}, {spine_lower, {}}}, 1.4862}};
+    inserts_ = {
+        {"lungs", {{lung_left, {notch_left}}, {lung_right, {notch_right}}}, 0.2958, std::nullopt},
+        {"skull", {{skull_outer, {brain}}}, 1.4862, std::nullopt},
+        {"spine", {{spine_upper, {}}, {spine_lower, {}}}, 1.4862, std::nullopt}};
 
     // ---- Organs ----
     auto add = [&](std::string id, std::string note,
@@ -576,12 +588,14 @@ Phantom::Phantom(std::size_t points_per_region) {
 
     // The rest of the skeleton shields at the skeleton's density too: ribs, pelvis, scapulae,
     // arm and leg bones (the clavicles, tori of 14 cm3 each, count as soft tissue).
-    PhantomInsert bones{"bones", {}, 1.4862};
+    PhantomInsert rib_cage{"ribs", {}, 1.4862, cylinder_z(0, 0, 17, 9.8, 35.3, 67.4)};
     for (const auto& rib : ribs) {
         const double z0 = rib.bound_lo.z;
         const double z1 = rib.bound_hi.z;
-        bones.pieces.push_back({rib, {cylinder_z(0, 0, 16.5, 9.3, z0, z1)}});
+        rib_cage.pieces.push_back({rib, {cylinder_z(0, 0, 16.5, 9.3, z0, z1)}});
     }
+    inserts_.push_back(std::move(rib_cage));
+    PhantomInsert bones{"bones", {}, 1.4862, std::nullopt};
     const PhantomSolid pelvis_inner = cylinder_z(0, -3.8, 11.3, 11.3, -1, 23);
     bones.pieces.push_back({pelvis_upper, {pelvis_inner}});
     bones.pieces.push_back({pelvis_lower, {pelvis_inner}});
@@ -626,6 +640,12 @@ double Phantom::tissue_g_cm2(Point3 p, Vector3 u) const {
     }
     double g = soft_tissue_density() * length;
     for (const auto& insert : inserts_) {
+        if (insert.envelope) {
+            const auto [lo, hi] = insert.envelope->interval_ahead(p, u);
+            if (hi <= lo) {
+                continue;
+            }
+        }
         double l = 0.0;
         for (const auto& piece : insert.pieces) {
             l += piece.chord_ahead(p, u);

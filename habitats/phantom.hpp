@@ -8,6 +8,7 @@
 // and the skin along a direction (DESIGN.md "body model").
 #include "vector.hpp"
 
+#include <optional>
 #include <span>
 #include <string>
 #include <utility>
@@ -88,6 +89,8 @@ struct PhantomInsert {
     std::string id;
     std::vector<PhantomPiece> pieces; ///< disjoint
     double density_g_cm3 = 1.0;
+    /// Optional convex solid holding every piece: a ray that misses it misses them all.
+    std::optional<PhantomSolid> envelope;
 };
 
 class Phantom {
