@@ -143,6 +143,10 @@ std::string to_string(SiteKind site) {
     return "?";
 }
 
+std::string to_string(BodyModelKind body) {
+    return body == BodyModelKind::phantom ? "phantom" : "quick";
+}
+
 std::string to_string(ActivityKind kind) {
     switch (kind) {
     case ActivityKind::stay:

@@ -245,6 +245,7 @@ struct Scenario {
 [[nodiscard]] Scenario parse_scenario(const std::string& text, const std::string& file_name);
 
 [[nodiscard]] std::string to_string(ActivityKind kind);
+[[nodiscard]] std::string to_string(BodyModelKind body);
 /// "moon", "mars" or "deep-space", as the scenario file spells it.
 [[nodiscard]] std::string to_string(SiteKind site);
 

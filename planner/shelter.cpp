@@ -458,7 +458,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["event"] = r.event_id;
         j["location"] = r.location_id;
         j["added_as"] = where;
-        j["body_model"] = "quick (screening; the stylised phantom is not available yet)";
+        j["body_model"] = to_string(study.location(r.location_id).body);
         j["uncertainty_factor"] = sc.limits.uncertainty_factor;
         j["max_g_cm2"] = r.max_g_cm2;
         j["targets_mGyEq"] = rep.target_mGyEq;
@@ -512,13 +512,14 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                       fmt::format("scenario: {}\n\n", sc.file);
     out += caution_text() + "\n";
     out += wrap(fmt::format(
-                    "Sizing rule: the crew receive the whole event in the shelter; its dose (quick "
-                    "body model, a screening model: the phantom is not available yet; the higher "
+                    "Sizing rule: the crew receive the whole event in the shelter; its dose ({} "
+                    "body model at the shelter; the higher "
                     "of with and without nuclear removal; uncertainty factor {:.2f}) plus the "
                     "highest 30-day dose any crew member has from everything else must stay "
                     "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
                     "below its target and within 0.5 % of it.",
-                    sc.limits.uncertainty_factor, significant(r.max_g_cm2, 3)),
+                    to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor,
+                    significant(r.max_g_cm2, 3)),
                 96) +
            "\n";
     out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
