@@ -1,15 +1,8 @@
 // The stylised phantom: its geometry, the organ depth weights, and the numerical choices of the
 // phantom body model (depth grid, points per direction, directions, SPE energy grid, GCR grid
-// and march step), each against a finer or exact reference.
-#include "exposure/effective_dose.hpp"
-#include "exposure/material_library.hpp"
-#include "exposure/table_library.hpp"
-#include "habitats/direction_set.hpp"
-#include "habitats/phantom.hpp"
-#include "planner/ledger.hpp"
-#include "planner/location_response.hpp"
-#include "planner/scenario.hpp"
-#include "planner/study.hpp"
+// and march step), each against a finer or exact reference; the convergence studies that take
+// long are in phantom_convergence_test.cpp (label slow).
+#include "phantom_helpers.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -21,78 +14,7 @@ using namespace crewdose;
 using habitats::Phantom;
 using habitats::Point3;
 using habitats::Vector3;
-
-namespace {
-
-constexpr double kSoft = 0.9869; // MIRD soft tissue, g/cm3 (G4HumanPhantomMaterial)
-constexpr double kBone = 1.4862; // MIRD skeleton
-
-const exposure::Material& builtin(const std::string& id) {
-    return *exposure::find_builtin_material(id);
-}
-
-// Demo spectra (invented parameters, not real events): the lunar demo's Band event and a harder
-// one.
-const exposure::ProtonSpectrum kBand(exposure::BandRigidity{1e10, 1.1, 3.5, 0.25},
-                                     exposure::FitRange{10, 1000});
-const exposure::ProtonSpectrum kHard(exposure::BandRigidity{1e9, 0.5, 2.5, 1.0},
-                                     exposure::FitRange{10, 1000});
-
-double dose_equivalent(const planner::OrganResponse& r, const exposure::ProtonSpectrum& s) {
-    return exposure::fold(r.response,
-                          exposure::node_fluences(s, r.response.node_energies_MeV_per_n))
-        .for_limits()
-        .dose_equivalent_Sv;
-}
-
-// Volume of an organ, cm3, on a regular midpoint grid of spacing h over its regions' boxes.
-double volume_cm3(const habitats::PhantomOrgan& o, double h) {
-    double v = 0.0;
-    for (const auto& [region, share] : o.regions) {
-        const auto [lo, hi] = region.bounds();
-        std::size_t inside = 0;
-        for (double x = lo.x + 0.5 * h; x < hi.x; x += h) {
-            for (double y = lo.y + 0.5 * h; y < hi.y; y += h) {
-                for (double z = lo.z + 0.5 * h; z < hi.z; z += h) {
-                    inside += region.contains({x, y, z}) ? 1U : 0U;
-                }
-            }
-        }
-        v += static_cast<double>(inside) * h * h * h;
-    }
-    return v;
-}
-
-std::vector<planner::OrganResponse> phantom_responses(const planner::LocationGeometry& where,
-                                                      std::size_t n_dirs,
-                                                      std::size_t nodes_per_decade,
-                                                      std::size_t points_per_direction,
-                                                      const std::vector<double>& grid) {
-    exposure::EnergyGridSpec spec;
-    spec.nodes_per_decade = nodes_per_decade;
-    exposure::TableLibrary tables(spec);
-    const auto dirs = habitats::fibonacci_directions(n_dirs);
-    const auto body =
-        planner::phantom_body_depths(planner::shared_phantom(), habitats::Posture::standing, 30.0,
-                                     dirs, grid, points_per_direction);
-    return planner::body_responses(tables, builtin, where, dirs, body);
-}
-
-planner::LocationGeometry suited() {
-    planner::LocationGeometry w;
-    w.surroundings.ground = true;
-    w.suit = planner::SuitModel{};
-    return w;
-}
-
-planner::LocationGeometry shelled(const std::string& material, double g_cm2) {
-    planner::LocationGeometry w;
-    w.surroundings.ground = true;
-    w.shell = {{material, g_cm2}};
-    return w;
-}
-
-} // namespace
+using namespace crewdose::phantom_test;
 
 TEST_CASE("phantom: tissue paths through the body by hand", "[phantom]") {
     // By construction from the MIRD dimensions (Geant4 G4MIRD*.cc): trunk semi-axes 20 x 10 cm,
@@ -250,98 +172,6 @@ TEST_CASE("phantom: the depth grid against every point's own depth", "[phantom]"
     }
 }
 
-TEST_CASE("phantom: SPE organ doses converge in points, directions and energy grid",
-          "[phantom][slow]") {
-    // Convergence (by construction), demo Band event and a harder one:
-    // - 32 of each region's 512 points per direction against all 512 (128 directions, behind
-    //   the suit): largest difference seen 1.6 % (effective dose: breasts and testes lie near
-    //   the skin); gate 3 %;
-    // - 256 directions against 1024 (10 g/cm2 aluminium): gate 1 %;
-    // - 32 energy nodes per decade against 64 (suit, 10 g/cm2 aluminium, 60 g/cm2 regolith):
-    //   largest seen 0.1 %; gate 0.2 %.
-    const auto grid = planner::phantom_depth_grid();
-    {
-        const auto a =
-            phantom_responses(suited(), 128, 32, planner::kPhantomPointsPerDirection, grid);
-        const auto b = phantom_responses(suited(), 128, 32, 0, grid);
-        for (std::size_t o = 0; o < a.size(); ++o) {
-            INFO(a[o].organ);
-            CHECK(dose_equivalent(a[o], kBand) ==
-                  Approx(dose_equivalent(b[o], kBand)).epsilon(0.03));
-        }
-    }
-    {
-        const auto al = shelled("aluminium", 10.0);
-        const auto a = phantom_responses(al, planner::kDefaultPhantomDirections, 32,
-                                         planner::kPhantomPointsPerDirection, grid);
-        const auto b = phantom_responses(al, 1024, 32, planner::kPhantomPointsPerDirection, grid);
-        for (std::size_t o = 0; o < a.size(); ++o) {
-            INFO(a[o].organ);
-            CHECK(dose_equivalent(a[o], kBand) ==
-                  Approx(dose_equivalent(b[o], kBand)).epsilon(0.01));
-        }
-    }
-    for (const auto& where :
-         {suited(), shelled("aluminium", 10.0), shelled("highland-regolith", 60.0)}) {
-        const auto a = phantom_responses(where, 64, planner::kPhantomSpeNodesPerDecade,
-                                         planner::kPhantomPointsPerDirection, grid);
-        const auto b = phantom_responses(where, 64, 64, planner::kPhantomPointsPerDirection, grid);
-        for (std::size_t o = 0; o < a.size(); ++o) {
-            for (const auto* s : {&kBand, &kHard}) {
-                INFO(a[o].organ);
-                CHECK(dose_equivalent(a[o], *s) == Approx(dose_equivalent(b[o], *s)).epsilon(2e-3));
-            }
-        }
-    }
-}
-
-TEST_CASE("phantom: GCR organ doses converge in march step and tissue grid", "[phantom][slow]") {
-    // Convergence (by construction), phi = 650 MV, dose equivalent and absorbed dose, both
-    // marches: the check's march step (8 g/cm2) against 2 g/cm2, largest seen 0.21 %, gate
-    // 0.4 %;
-    // the GCR tissue grid (12 nodes to 46 g/cm2) against the SPE grid (25 nodes to 160 g/cm2):
-    // the coarser grid is higher (linear interpolation of a convex fall), largest seen 0.8 %,
-    // gate 1.2 %.
-    const auto dirs = habitats::fibonacci_directions(32);
-    const std::vector<double> phis{650.0};
-    for (const auto& where :
-         {suited(), shelled("aluminium", 20.0), shelled("highland-regolith", 150.0)}) {
-        exposure::TableLibrary tables(planner::gcr_grid());
-        exposure::MarchOptions fine_step;
-        fine_step.max_step_g_cm2 = 2.0;
-        exposure::FragmentTransport check_march(tables, planner::gcr_march_options());
-        exposure::FragmentTransport fine_march(tables, fine_step);
-        exposure::MarchOptions none;
-        none.removal = false;
-        exposure::FragmentTransport without(tables, none);
-        const auto gcr_body =
-            planner::phantom_body_depths(planner::shared_phantom(), habitats::Posture::standing,
-                                         0.0, dirs, planner::phantom_gcr_depth_grid());
-        const auto spe_body =
-            planner::phantom_body_depths(planner::shared_phantom(), habitats::Posture::standing,
-                                         0.0, dirs, planner::phantom_depth_grid());
-        const auto a =
-            planner::gcr_body_doses({check_march, without}, builtin, where, dirs, gcr_body, phis);
-        const auto b =
-            planner::gcr_body_doses({fine_march, without}, builtin, where, dirs, gcr_body, phis);
-        const auto c =
-            planner::gcr_body_doses({check_march, without}, builtin, where, dirs, spe_body, phis);
-        for (const auto& [key, d] : a) {
-            INFO(key.first);
-            CHECK(d.with_removal.dose_equivalent_Sv ==
-                  Approx(b.at(key).with_removal.dose_equivalent_Sv).epsilon(4e-3));
-            CHECK(d.with_removal.absorbed_Gy ==
-                  Approx(b.at(key).with_removal.absorbed_Gy).epsilon(4e-3));
-            for (const bool with : {true, false}) {
-                const auto& x = with ? d.with_removal : d.without_removal;
-                const auto& y = with ? c.at(key).with_removal : c.at(key).without_removal;
-                CHECK(x.dose_equivalent_Sv >= y.dose_equivalent_Sv * (1.0 - 1e-3));
-                CHECK(x.dose_equivalent_Sv == Approx(y.dose_equivalent_Sv).epsilon(0.012));
-            }
-        }
-    }
-}
-
 TEST_CASE("phantom: organs behind the body get less than the quick model's fixed depths",
           "[phantom]") {
     // Common practice: the quick model's 5 cm BFO depth in every direction is a conservative
@@ -459,10 +289,10 @@ TEST_CASE("phantom: heart, brain and effective dose in the ledger", "[phantom][l
 TEST_CASE("phantom: in an isotropic field the posture and heading do not matter", "[phantom]") {
     // By construction: in deep space behind a uniform shell every direction sees the same
     // shielding, so turning the body changes its organ doses only by the direction sampling
-    // (seen: within 0.15 %; gate 1.5 %). On the ground, lying on the back puts most of the
-    // body between the open sky and the marrow of the spine, ribs and pelvis (seen: 23 %
-    // less BFO dose than standing; checked: more than 5 % less).
-    const auto dirs = habitats::fibonacci_directions(planner::kDefaultPhantomDirections);
+    // (128 directions: seen within 0.6 %; gate 1.5 %). On the ground, lying on the back puts
+    // most of the body between the open sky and the marrow of the spine, ribs and pelvis (seen:
+    // 19 % less BFO dose than standing; checked: more than 5 % less).
+    const auto dirs = habitats::fibonacci_directions(128);
     exposure::TableLibrary tables(planner::spe_grid(planner::BodyModelKind::phantom));
     auto doses = [&](const planner::LocationGeometry& where, habitats::Posture posture,
                      double heading) {
