@@ -3,6 +3,7 @@
 #include <atomic>
 #include <exception>
 #include <optional>
+#include <span>
 #include <system_error>
 #include <thread>
 #include <tuple>
@@ -113,10 +114,14 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                     both = phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
                                                loc_dirs, grids, kPhantomPointsPerDirection, wanted);
                 } else {
-                    both = {phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
-                                                loc_dirs, grids[0]),
+                    for (std::size_t g = 0; g < 2; ++g) {
+                        both.push_back(std::move(
                             phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
-                                                gcr_dirs, grids[1])};
+                                                g == 0 ? loc_dirs : gcr_dirs,
+                                                std::span(grids).subspan(g, 1),
+                                                kPhantomPointsPerDirection, wanted)
+                                .front()));
+                    }
                 }
                 it = phantom_cache.insert_or_assign(key, std::move(both)).first;
             }
