@@ -118,6 +118,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         j["model"] = model_text(study);
         j["uncertainty_factor"] = sc.limits.uncertainty_factor;
         j["directions"] = study.direction_count();
+        j["phantom_directions"] = sc.mission.phantom_directions;
+        j["body_models"] = nlohmann::json::object();
+        for (const auto& loc : sc.locations) {
+            j["body_models"][loc.id] = to_string(loc.body);
+        }
         j["any_limit_exceeded"] = ledger.any_exceeded;
         {
             nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
