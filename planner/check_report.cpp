@@ -208,12 +208,14 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         return j.dump(2) + "\n";
     }
     if (format == OutputFormat::csv) {
-        std::string out = "crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n";
+        // The effective dose is in mSv, every organ dose in mGy-Eq: a unit column says which.
+        std::string out = "crew,organ,window,dose,limit,margin,unit,exceeded,basis\n";
         for (const auto& c : ledger.crew) {
             for (const auto& chk : c.checks) {
-                out += fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},\"{}\"\n", c.crew,
+                out += fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},\"{}\"\n", c.crew,
                                    chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
-                                   chk.margin, chk.exceeded ? "yes" : "no", chk.limit.basis);
+                                   chk.margin, unit_of(chk.limit.organ),
+                                   chk.exceeded ? "yes" : "no", chk.limit.basis);
             }
         }
         return out;
@@ -369,7 +371,8 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
 
 std::string format_series(const Study& study, const LedgerResult& ledger) {
     (void)study;
-    std::string out = "crew,organ,time,cumulative_mGyEq,rate_mGyEq_per_h\n";
+    // Units per row: mGy-Eq for the organs, mSv for the effective dose.
+    std::string out = "crew,organ,unit,time,cumulative,rate_per_h\n";
     for (const auto& [key, pieces] : ledger.pieces) {
         std::set<Time> times;
         for (const auto& p : pieces) {
@@ -391,8 +394,8 @@ std::string format_series(const Study& study, const LedgerResult& ledger) {
             }
             const double rate =
                 first || t == previous_t ? 0.0 : (d - previous) / hours(t - previous_t);
-            out += fmt::format("{},{},{},{:.10g},{:.10g}\n", key.first, key.second, format_time(t),
-                               d, rate);
+            out += fmt::format("{},{},{},{},{:.10g},{:.10g}\n", key.first, key.second,
+                               unit_of(key.second), format_time(t), d, rate);
             previous = d;
             previous_t = t;
             first = false;

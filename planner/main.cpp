@@ -171,9 +171,10 @@ int main(int argc, char** argv) {
     check->add_option("--out,-o", out_path,
                       "write the report to this file (atomically) "
                       "instead of standard output");
-    check->add_option("--series", series_path,
-                      "also write cumulative dose and dose rate against time per crew member "
-                      "and organ to this CSV file (mGy-Eq; the effective dose's rows in mSv)");
+    check->add_option(
+        "--series", series_path,
+        "also write cumulative dose and dose rate against time per crew member "
+        "and organ to this CSV file (a unit column: mGy-Eq, or mSv for the effective dose)");
     check->add_flag("--allow-gaps", allow_gaps,
                     "accept gaps in a crew member's timeline; each gap is charged at the "
                     "location of the activity before it and listed in the report");

@@ -408,7 +408,10 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
           rate["without_reactions"]["dose_equivalent_mSv"].get<double>());
     CHECK(doc["gcr"]["transport"].get<std::string>().find("fragmentation") != std::string::npos);
     const Run c = run("check " + demo() + " --format csv");
-    CHECK(c.out.rfind("crew,organ,window,dose_mGyEq,limit,margin,exceeded,basis\n", 0) == 0);
+    CHECK(c.out.rfind("crew,organ,window,dose,limit,margin,unit,exceeded,basis\n", 0) == 0);
+    CHECK(c.out.find(",career,") != std::string::npos);
+    CHECK(c.out.find(",mSv,") != std::string::npos);    // the effective dose's rows
+    CHECK(c.out.find(",mGy-Eq,") != std::string::npos); // the organs' rows
 }
 
 TEST_CASE("check: --out and --series are written atomically, and bad input writes nothing",
@@ -419,7 +422,9 @@ TEST_CASE("check: --out and --series are written atomically, and bad input write
     CHECK(r.exit_code == 0);
     CHECK(read_file(dir + "/report.txt").find("crewdose check:") == 0);
     const std::string series = read_file(dir + "/s.csv");
-    CHECK(series.rfind("crew,organ,time,cumulative_mGyEq,rate_mGyEq_per_h\n", 0) == 0);
+    CHECK(series.rfind("crew,organ,unit,time,cumulative,rate_per_h\n", 0) == 0);
+    CHECK(series.find(",effective,mSv,") != std::string::npos);
+    CHECK(series.find(",bfo,mGy-Eq,") != std::string::npos);
     CHECK(series.find("halvorsen,bfo,") != std::string::npos);
     // A broken scenario: exit 2, the old report stays as it was, no temporary file is left.
     std::string text = read_file(demo());
