@@ -311,7 +311,6 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
     const exposure::Material& water = materials("water");
     const exposure::DoseMedium medium{&tables.table(tissue, p), &tables.table(water, p)};
     const std::size_t n_organs = body.organs.size();
-    const std::size_t n_grid = body.grid_g_cm2.size();
     const std::size_t n_nodes = medium.medium->grid().size();
     std::vector<OrganResponse> out(n_organs);
     for (std::size_t o = 0; o < n_organs; ++o) {
@@ -327,7 +326,6 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
     std::size_t blocked = 0;
     const double weight = 1.0 / static_cast<double>(directions.size());
     const exposure::NodeDoses doses = exposure::node_doses(medium, p, exposure::RbeModel{});
-    std::vector<double> node_weight(n_grid);
     std::vector<std::size_t> needed;
     std::vector<double> depths;
     for (std::size_t k = 0; k < directions.size(); ++k) {
@@ -340,21 +338,11 @@ std::vector<OrganResponse> body_responses(exposure::TableLibrary& tables,
         for (const auto& seg : external_path(where, d)) {
             path.push_back({&tables.table(materials(seg.material_id), p), seg.areal_density_g_cm2});
         }
-        // Which grid depths some organ needs along this direction.
-        std::fill(node_weight.begin(), node_weight.end(), 0.0);
-        for (std::size_t o = 0; o < n_organs; ++o) {
-            const auto w = body.of(k, o);
-            for (std::size_t g = 0; g < n_grid; ++g) {
-                node_weight[g] += w[g];
-            }
-        }
-        needed.clear();
+        // The grid depths some organ needs along this direction.
+        body.needed_nodes(k, needed);
         depths.clear();
-        for (std::size_t g = 0; g < n_grid; ++g) {
-            if (node_weight[g] != 0.0) {
-                needed.push_back(g);
-                depths.push_back(body.grid_g_cm2[g]);
-            }
+        for (const std::size_t g : needed) {
+            depths.push_back(body.grid_g_cm2[g]);
         }
         // One path response per depth: the exact one for a few depths, the fast path (the
         // external map computed once, tests/unit/response_test) for a grid.
@@ -418,7 +406,7 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
     }
     const double weight = 1.0 / static_cast<double>(directions.size());
     std::vector<std::pair<const exposure::Material*, double>> path;
-    std::vector<double> node_weight(n_grid);
+    std::vector<std::size_t> needed;
     std::vector<exposure::DoseQuantities> at_node(n_grid);
     for (std::size_t k = 0; k < directions.size(); ++k) {
         const auto& d = directions[k];
@@ -429,13 +417,7 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
         for (const auto& seg : external_path(where, d)) {
             path.emplace_back(&materials(seg.material_id), seg.areal_density_g_cm2);
         }
-        std::fill(node_weight.begin(), node_weight.end(), 0.0);
-        for (std::size_t o = 0; o < n_organs; ++o) {
-            const auto w = body.of(k, o);
-            for (std::size_t g = 0; g < n_grid; ++g) {
-                node_weight[g] += w[g];
-            }
-        }
+        body.needed_nodes(k, needed);
         for (std::size_t i = 0; i < phis_MV.size(); ++i) {
             for (const bool reactions : {true, false}) {
                 exposure::FragmentTransport& march =
@@ -445,10 +427,7 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
                     march.cross(field, *m, t);
                 }
                 double depth = 0.0;
-                for (std::size_t g = 0; g < n_grid; ++g) {
-                    if (node_weight[g] == 0.0) {
-                        continue;
-                    }
+                for (const std::size_t g : needed) {
                     march.cross(field, tissue, body.grid_g_cm2[g] - depth);
                     depth = body.grid_g_cm2[g];
                     at_node[g] = march.dose(field, tissue, water);

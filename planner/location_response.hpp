@@ -50,6 +50,18 @@ struct BodyDepths {
         const std::size_t base = (directions == 0 ? 0 : k * block) + organ * grid_g_cm2.size();
         return {weights.data() + base, grid_g_cm2.size()};
     }
+    /// The grid nodes some organ has weight on along direction `k`, increasing, into `nodes`.
+    void needed_nodes(std::size_t k, std::vector<std::size_t>& nodes) const {
+        nodes.clear();
+        for (std::size_t g = 0; g < grid_g_cm2.size(); ++g) {
+            for (std::size_t o = 0; o < organs.size(); ++o) {
+                if (of(k, o)[g] != 0.0) {
+                    nodes.push_back(g);
+                    break;
+                }
+            }
+        }
+    }
 };
 
 /// The quick model as BodyDepths: skin, lens and BFO each at its one depth.
