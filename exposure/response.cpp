@@ -138,25 +138,20 @@ std::vector<PathResponse> depth_responses(std::span<const Layer> external, const
         log_nodes[j] = g.log_node(j);
     }
     // The external map on the nodes: entering the tissue at node energy e_i.
-    const std::vector<BackwardResult> ext =
-        transport_backward_sweep(external, log_nodes, Removal::with);
-    const std::size_t m_ext = ext.size(); // nodes whose incident energy is within the tables
-    std::vector<double> ext_log_E0(m_ext);
-    std::vector<double> ext_log_jac(m_ext);
-    std::vector<double> ext_od(m_ext);
-    for (std::size_t i = 0; i < m_ext; ++i) {
-        ext_log_E0[i] = ext[i].log_incident;
-        ext_log_jac[i] = std::log(ext[i].jacobian);
-        ext_od[i] = -std::log(ext[i].survival);
-    }
+    const BackwardLogs ext = transport_backward_sweep_logs(external, log_nodes, Removal::with);
+    const std::vector<double>& ext_log_E0 = ext.log_incident;
+    const std::vector<double>& ext_log_jac = ext.log_jacobian;
+    const std::vector<double>& ext_od = ext.optical_depth;
+    const std::size_t m_ext = ext_log_E0.size(); // nodes whose incident energy is in the tables
     const double h = g.log_step();
     const double log0 = log_nodes[0];
     std::vector<PathResponse> out;
     out.reserve(depths_g_cm2.size());
     std::vector<BackwardResult> sweep;
-    // The tissue layer, from each exit node (a grid node: its range, stopping and optical
-    // depth are the table's node values) back to the tissue entrance, as in
-    // transport_backward_sweep() but in logs throughout.
+    // The tissue layer, from each exit node back to the tissue entrance: the step of
+    // transport_backward_sweep_logs(), specialised to exits at the grid nodes, where the
+    // table's node values give the range, stopping and optical depth without a look-up (the
+    // general sweep costs this path a fifth more time).
     const double top = tissue.log_max_range();
     const std::vector<double>& log_S = tissue.log_stopping_nodes();
     const std::vector<double>& tau = tissue.optical_depth_nodes();
@@ -164,8 +159,7 @@ std::vector<PathResponse> depth_responses(std::span<const Layer> external, const
         sweep.clear();
         std::size_t hint = 0;
         for (std::size_t j = 0; j < n; ++j) {
-            const double R_out = tissue.range_at_node(j);
-            const double R_in = R_out + depth;
+            const double R_in = tissue.range_at_node(j) + depth;
             const double log_R_in = std::log(R_in);
             if (log_R_in > top) {
                 break; // incident energies increase with exit energy: the rest are out too

@@ -97,9 +97,8 @@ BackwardResult transport_backward_log(std::span<const Layer> path, double log_ex
     return backward(path, log_exit, removal, hints);
 }
 
-std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path,
-                                                     std::span<const double> log_exits,
-                                                     Removal removal) {
+BackwardLogs transport_backward_sweep_logs(std::span<const Layer> path,
+                                           std::span<const double> log_exits, Removal removal) {
     std::size_t m = log_exits.size(); // energies still reachable
     std::vector<double> log_E(log_exits.begin(), log_exits.end());
     std::vector<double> log_jacobian(m, 0.0);
@@ -129,13 +128,23 @@ std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path
             log_E[j] = c_in.log_E;
         }
     }
-    std::vector<BackwardResult> out(m);
-    for (std::size_t j = 0; j < m; ++j) {
+    log_E.resize(m);
+    log_jacobian.resize(m);
+    optical_depth.resize(m);
+    return {std::move(log_E), std::move(log_jacobian), std::move(optical_depth)};
+}
+
+std::vector<BackwardResult> transport_backward_sweep(std::span<const Layer> path,
+                                                     std::span<const double> log_exits,
+                                                     Removal removal) {
+    const BackwardLogs logs = transport_backward_sweep_logs(path, log_exits, removal);
+    std::vector<BackwardResult> out(logs.log_incident.size());
+    for (std::size_t j = 0; j < out.size(); ++j) {
         out[j].reachable = true;
-        out[j].log_incident = log_E[j];
-        out[j].incident_MeV_per_n = std::exp(log_E[j]);
-        out[j].jacobian = std::exp(log_jacobian[j]);
-        out[j].survival = std::exp(-optical_depth[j]);
+        out[j].log_incident = logs.log_incident[j];
+        out[j].incident_MeV_per_n = std::exp(logs.log_incident[j]);
+        out[j].jacobian = std::exp(logs.log_jacobian[j]);
+        out[j].survival = std::exp(-logs.optical_depth[j]);
     }
     return out;
 }

@@ -71,4 +71,16 @@ struct BackwardResult {
 transport_backward_sweep(std::span<const Layer> path, std::span<const double> log_exits,
                          Removal removal);
 
+/// transport_backward_sweep() in logs, before the exponentials: per reachable exit energy
+/// ln E0, ln dE0/dE and the nuclear optical depth (survival = exp(-optical_depth)), for callers
+/// that compose a sweep with another map (exposure::depth_responses).
+struct BackwardLogs {
+    std::vector<double> log_incident;
+    std::vector<double> log_jacobian;
+    std::vector<double> optical_depth;
+};
+[[nodiscard]] BackwardLogs transport_backward_sweep_logs(std::span<const Layer> path,
+                                                         std::span<const double> log_exits,
+                                                         Removal removal);
+
 } // namespace crewdose::exposure
