@@ -66,11 +66,10 @@ std::string model_text(const Study& study) {
     const Scenario& sc = study.scenario();
     return fmt::format(
         "Model: body: {}; {} directions per quick-model location for SPEs, {} for GCR; "
-        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 (lithium only "
-        "as a "
-        "fragment) from the Burger et al. 2000 local interstellar spectrum, force-field modulated "
-        "with "
-        "{}, marched straight ahead through the same range tables with nucleus-nucleus removal "
+        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 from the "
+        "Burger et al. 2000 local interstellar spectrum (protons, helium) and ISO 15390 spectral "
+        "shapes scaled to HEAO-3 abundances (heavier nuclei), force-field modulated with {}, "
+        "marched straight ahead through the same range tables with nucleus-nucleus removal "
         "(Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the charge they "
         "lack leaves as protons at the same velocity), and again without any nuclear reaction; "
         "as for the SPE protons, every dose is the higher of the two. Not modelled: the "

@@ -32,12 +32,14 @@ double mean_q(const exposure::DoseQuantities& d) {
 }
 
 const char* kModelText =
-    "Model: the GCR nuclei Z = 1-28 (Burger et al. 2000 interstellar spectrum, HEAO-3 "
-    "abundances, force field) marched straight ahead through the shield and the tissue with "
+    "Model: the GCR nuclei Z = 1-28 (Burger et al. 2000 interstellar spectrum for protons and "
+    "helium, ISO 15390 spectral shapes for heavier nuclei, HEAO-3 abundances, force field) "
+    "marched straight ahead through the shield and the tissue with "
     "nuclear removal (Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the "
     "charge they lack leaves as protons at the same velocity). Not modelled: target fragments, "
     "secondary neutrons, the secondary nucleons of proton reactions; so behind thick shielding "
-    "the dose with reactions is low, and behind thin shielding the mean quality factor is high. "
+    "the dose with reactions is low, and behind thin shielding the mean quality factor is high "
+    "near the skin. "
     "'no react.' is the dose equivalent with no nuclear reaction at all (every nucleus keeps "
     "its charge): the higher of the two is what crewdose check uses for limits. Dose "
     "equivalent with ICRP 60 Q(L); RBE-weighted dose with NCRP 132 values. Tissue: ICRU "
