@@ -20,8 +20,6 @@ time_duration minutes_d(double m) {
     return duration_from_hours(m / 60.0);
 }
 
-const std::vector<std::string>& kOrgans = limited_organs();
-
 bool outside(const TimelineSpan& s) {
     return s.activity &&
            (s.activity->kind == ActivityKind::eva || s.activity->kind == ActivityKind::rover);
@@ -311,6 +309,27 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
                          "(see scenarios/README.md); run with --no-response to see the event "
                          "over the planned timeline");
     }
+    // BFO, lens and skin everywhere; heart and brain when every location gives them (the crew
+    // may be anywhere when the event comes, and the response may move them).
+    organs_ = limited_organs();
+    std::vector<std::string> unchecked;
+    for (const auto& organ : phantom_limited_organs()) {
+        const auto quick =
+            std::find_if(sc.locations.begin(), sc.locations.end(),
+                         [&](const LocationSpec& l) { return !study.has_organ(l.id, organ); });
+        if (quick == sc.locations.end()) {
+            organs_.push_back(organ);
+        } else {
+            unchecked.push_back(
+                fmt::format("{} (location {} uses the quick body model)", organ, quick->id));
+        }
+    }
+    if (organs_.size() > kMaxStormOrgans) {
+        throw std::logic_error("storm: more organs than kMaxStormOrgans");
+    }
+    for (std::size_t k = 0; k < unchecked.size(); ++k) {
+        unchecked_note_ += (k ? "; " : "") + unchecked[k];
+    }
     std::vector<Gap> gaps;
     LedgerOptions options;
     options.allow_gaps = true;
@@ -318,16 +337,16 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     for (const auto& c : sc.crew) {
         planned_.push_back(crew_timeline(sc, c, true, gaps));
         std::map<std::string, double> other;
-        for (const auto& organ : kOrgans) {
+        for (const auto& organ : organs_) {
             other[organ] = highest_30d_without(ledger, c.id, organ, event_);
         }
         other_.push_back(std::move(other));
     }
-    for (const auto& organ : kOrgans) {
+    for (const auto& organ : organs_) {
         limits_30d_[organ] = 0.0;
     }
     for (const auto& l : sc.limits.limits) {
-        if (l.window == "30-day" && l.organ != "effective") {
+        if (l.window == "30-day" && limits_30d_.count(l.organ)) {
             limits_30d_[l.organ] = l.value;
         }
     }
@@ -336,19 +355,36 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
             throw std::logic_error("storm: every organ needs a 30-day planning limit");
         }
     }
+    for (std::size_t k = 0; k < organs_.size(); ++k) {
+        limit_by_index_[k] = limits_30d_.at(organs_[k]);
+    }
+    for (const auto& other : other_) {
+        StormDoses d{};
+        for (std::size_t k = 0; k < organs_.size(); ++k) {
+            d[k] = other.at(organs_[k]);
+        }
+        other_by_index_.push_back(d);
+    }
     const double uf = sc.limits.uncertainty_factor;
     for (const auto& loc : sc.locations) {
         auto& c = by_location_[loc.id];
-        for (std::size_t k = 0; k < kOrgans.size(); ++k) {
-            c[k] = {1e3 * uf * study.event_dose(loc.id, kOrgans[k], *event_).rbe_weighted_GyEq,
-                    &study.event_timing(loc.id, kOrgans[k], *event_)};
+        for (std::size_t k = 0; k < organs_.size(); ++k) {
+            c[k] = {1e3 * uf * study.event_dose(loc.id, organs_[k], *event_).rbe_weighted_GyEq,
+                    &study.event_timing(loc.id, organs_[k], *event_), k};
+            for (std::size_t q = 0; q < k; ++q) {
+                if (c[q].timing->delay_h == c[k].timing->delay_h &&
+                    c[q].timing->share == c[k].timing->share) {
+                    c[k].same_timing_as = q;
+                    break;
+                }
+            }
         }
     }
     // Beyond the last group's arrival plus 40 decay times the profile has delivered all but
     // e^-40 of the event.
     double last = 0.0;
     for (const auto& loc : sc.locations) {
-        for (const auto& organ : kOrgans) {
+        for (const auto& organ : organs_) {
             const auto& g = study.event_timing(loc.id, organ, *event_);
             if (!g.delay_h.empty()) {
                 last = std::max(last, g.delay_h.back());
@@ -364,22 +400,25 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     }
 }
 
-void StormContext::add_piece(std::array<double, 3>& d, Time from, Time to,
-                             const std::string& location, Time onset) const {
+void StormContext::add_piece(StormDoses& d, Time from, Time to, const std::string& location,
+                             Time onset) const {
     const double a = hours(from - onset);
     const double b = hours(to - onset);
     const auto& c = by_location_.at(location);
-    for (std::size_t k = 0; k < 3; ++k) {
-        if (c[k].mGyEq > 0.0) {
-            d[k] += c[k].mGyEq * c[k].timing->fraction_between(a, b, event_->profile);
+    StormDoses fraction{};
+    for (std::size_t k = 0; k < organs_.size(); ++k) {
+        if (c[k].same_timing_as != k) {
+            fraction[k] = fraction[c[k].same_timing_as];
+        } else {
+            fraction[k] = c[k].timing->fraction_between(a, b, event_->profile);
         }
+        d[k] += c[k].mGyEq * fraction[k];
     }
 }
 
-std::array<double, 3> StormContext::doses_over(const std::vector<TimelineSpan>& spans,
-                                               Time onset) const {
+StormDoses StormContext::doses_over(const std::vector<TimelineSpan>& spans, Time onset) const {
     const Time stop = onset + minutes_d(60.0 * horizon_h_);
-    std::array<double, 3> d{0.0, 0.0, 0.0};
+    StormDoses d{};
     for (const auto& s : spans) {
         if (s.end <= onset || s.start >= stop) {
             continue;
@@ -390,11 +429,11 @@ std::array<double, 3> StormContext::doses_over(const std::vector<TimelineSpan>& 
 }
 
 double StormContext::other(std::size_t crew, std::size_t k) const {
-    return other_.at(crew).at(kOrgans.at(k));
+    return other_.at(crew).at(organs_.at(k));
 }
 
 double StormContext::limit(std::size_t k) const {
-    return limits_30d_.at(kOrgans.at(k));
+    return limits_30d_.at(organs_.at(k));
 }
 
 StormTimes StormContext::times_at(Time onset) const {
@@ -405,10 +444,9 @@ StormTimes StormContext::times_at(Time onset) const {
     return t;
 }
 
-double StormContext::worst_ratio_at(Time onset, std::size_t i,
-                                    std::array<double, 3>* with_mGyEq) const {
+double StormContext::worst_ratio_at(Time onset, std::size_t i, StormDoses* with_mGyEq) const {
     const StormTimes t = times_at(onset);
-    std::array<double, 3> d{0.0, 0.0, 0.0};
+    StormDoses d{};
     if (respond_) {
         const Time stop = onset + minutes_d(60.0 * horizon_h_);
         respond_each(planned_[i], study_.scenario().storm, t,
@@ -422,8 +460,8 @@ double StormContext::worst_ratio_at(Time onset, std::size_t i,
         d = doses_over(planned_[i], onset);
     }
     double worst = 0.0;
-    for (std::size_t k = 0; k < 3; ++k) {
-        worst = std::max(worst, (d[k] + other_[i].at(kOrgans[k])) / limits_30d_.at(kOrgans[k]));
+    for (std::size_t k = 0; k < organs_.size(); ++k) {
+        worst = std::max(worst, (d[k] + other_by_index_[i][k]) / limit_by_index_[k]);
     }
     if (with_mGyEq) {
         *with_mGyEq = d;
@@ -444,8 +482,8 @@ StormWhatIf StormContext::at(Time onset) const {
         const auto spans = respond_ ? respond(planned_[i], sc.storm, w.times) : planned_[i];
         const auto without = doses_over(planned_[i], onset);
         const auto with = doses_over(spans, onset);
-        for (std::size_t k = 0; k < 3; ++k) {
-            const std::string& organ = kOrgans[k];
+        for (std::size_t k = 0; k < organs_.size(); ++k) {
+            const std::string& organ = organs_[k];
             c.organs.push_back(
                 {organ, without[k], with[k], other_[i].at(organ), limits_30d_.at(organ)});
         }
@@ -525,7 +563,7 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     std::size_t done = 0;
     std::vector<Time> worst_onset(sc.crew.size(), from);
     std::vector<double> ratio(sc.crew.size());
-    std::vector<std::array<double, 3>> doses(sc.crew.size());
+    std::vector<StormDoses> doses(sc.crew.size());
     for (const Time& o : onsets) {
         for (std::size_t i = 0; i < sc.crew.size(); ++i) {
             ratio[i] = ctx.worst_ratio_at(o, i, &doses[i]);
@@ -551,13 +589,13 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
                 e.worst_onset = o;
                 e.crew = sc.crew[i].id;
                 std::size_t worst_k = 0;
-                for (std::size_t q = 1; q < 3; ++q) {
+                for (std::size_t q = 1; q < ctx.organs().size(); ++q) {
                     if ((doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
                         (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
                         worst_k = q;
                     }
                 }
-                e.organ = kOrgans[worst_k];
+                e.organ = ctx.organs()[worst_k];
             }
         }
         ++done;
@@ -612,13 +650,21 @@ std::string model_note(const StormContext& ctx) {
                           significant(60 * ev.delay_h(10), 3), significant(60 * ev.delay_h(100), 3),
                           significant(60 * ev.delay_h(1000), 3), significant(ev.path_length_AU, 3),
                           significant(ev.sun_distance_AU, 3));
+    std::string organs;
+    for (std::size_t k = 0; k < ctx.organs().size(); ++k) {
+        organs += fmt::format("{}{}", k == 0 ? "" : (k + 1 == ctx.organs().size() ? " and " : ", "),
+                              organ_name(ctx.organs()[k]));
+    }
+    std::string unchecked;
+    if (!ctx.unchecked_note().empty()) {
+        unchecked = fmt::format(" Not checked: {}.", ctx.unchecked_note());
+    }
     return fmt::format(
         "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
         "factor {:.2f}, the higher of with and without nuclear removal, each location's body "
-        "model; BFO, lens and skin) plus "
-        "the crew member's highest 30-day dose from everything else, wherever it lies "
-        "(conservative: as if both fell in one window).",
-        arrival, sc.limits.uncertainty_factor);
+        "model; {}) plus the crew member's highest 30-day dose from everything else, wherever "
+        "it lies (conservative: as if both fell in one window).{}",
+        arrival, sc.limits.uncertainty_factor, organs, unchecked);
 }
 
 std::string policy_text(const StormPolicy& p) {

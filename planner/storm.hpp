@@ -65,6 +65,11 @@ struct StormWhatIf {
     [[nodiscard]] bool any_exceeded() const;
 };
 
+/// The most organs a what-if checks: limited_organs() and phantom_limited_organs().
+inline constexpr std::size_t kMaxStormOrgans = 5;
+/// The event's dose per checked organ (StormContext::organs() order; the rest unused).
+using StormDoses = std::array<double, kMaxStormOrgans>;
+
 /// Everything a what-if needs that does not depend on the onset, computed once.
 class StormContext {
   public:
@@ -75,7 +80,7 @@ class StormContext {
     /// The fast path of the sweep: crew member `crew`'s highest (event with response + other) /
     /// limit over the organs at `onset`; the same numbers as at(onset), fewer of them.
     [[nodiscard]] double worst_ratio_at(Time onset, std::size_t crew,
-                                        std::array<double, 3>* with_mGyEq = nullptr) const;
+                                        StormDoses* with_mGyEq = nullptr) const;
 
     [[nodiscard]] const Study& study() const noexcept { return study_; }
     [[nodiscard]] const EventSpec& event() const noexcept { return *event_; }
@@ -84,29 +89,40 @@ class StormContext {
     }
     /// Hours from t0 to the all-clear (the same for every onset).
     [[nodiscard]] double all_clear_after_h() const noexcept { return all_clear_after_h_; }
-    /// Crew member `crew`'s other 30-day dose and the 30-day limit of organ k (bfo, lens, skin).
+    /// The organs checked against their 30-day limits: BFO, lens and skin, and heart and brain
+    /// when every location's body model gives them (the phantom).
+    [[nodiscard]] const std::vector<std::string>& organs() const noexcept { return organs_; }
+    /// Organs with a 30-day limit that are not checked, and why (empty when all are).
+    [[nodiscard]] const std::string& unchecked_note() const noexcept { return unchecked_note_; }
+    /// Crew member `crew`'s other 30-day dose and the 30-day limit of organ k of organs().
     [[nodiscard]] double other(std::size_t crew, std::size_t k) const;
     [[nodiscard]] double limit(std::size_t k) const;
 
   private:
-    /// The event's dose (uncertainty factor applied, mGy-Eq) for bfo, lens, skin over `spans`.
-    [[nodiscard]] std::array<double, 3> doses_over(const std::vector<TimelineSpan>& spans,
-                                                   Time onset) const;
+    /// The event's dose (uncertainty factor applied, mGy-Eq) per organ of organs() over `spans`.
+    [[nodiscard]] StormDoses doses_over(const std::vector<TimelineSpan>& spans, Time onset) const;
     StormTimes times_at(Time onset) const;
     /// Adds the event's dose between `from` and `to` at `location` to `d`.
-    void add_piece(std::array<double, 3>& d, Time from, Time to, const std::string& location,
+    void add_piece(StormDoses& d, Time from, Time to, const std::string& location,
                    Time onset) const;
 
     struct Cached {
         double mGyEq = 0.0; ///< the whole event there, factor applied
         const ArrivalGroups* timing = nullptr;
+        /// An earlier organ at this location whose timing is the same (then its fraction is
+        /// reused: with a fixed arrival every organ has one group), or this organ's own index.
+        std::size_t same_timing_as = 0;
     };
-    std::unordered_map<std::string, std::array<Cached, 3>> by_location_;
+    std::unordered_map<std::string, std::array<Cached, kMaxStormOrgans>> by_location_;
+    std::vector<std::string> organs_;
+    std::string unchecked_note_;
     const Study& study_;
     const EventSpec* event_ = nullptr;
     bool respond_ = true;
     std::vector<std::vector<TimelineSpan>> planned_;   ///< per crew member
     std::vector<std::map<std::string, double>> other_; ///< per crew member, per organ
+    std::vector<StormDoses> other_by_index_;           ///< the same per organs() index
+    StormDoses limit_by_index_{};                      ///< 30-day limits per organs() index
     std::map<std::string, double> limits_30d_;
     double horizon_h_ = 0.0;         ///< after the onset, beyond which the event gives nothing
     double all_clear_after_h_ = 0.0; ///< all-clear - onset: the same for every onset

@@ -388,3 +388,72 @@ TEST_CASE("storm: the response never keeps the crew out longer than the plan doe
         }
     }
 }
+
+namespace {
+
+// The test plan with the phantom at the named locations (16 phantom directions: the test
+// checks bookkeeping, not convergence).
+std::string with_phantom(std::string text, const std::vector<std::string>& locations) {
+    const std::string mission = "gcr_directions = 16\n";
+    text.replace(text.find(mission), mission.size(), mission + "phantom_directions = 16\n");
+    for (const auto& id : locations) {
+        const std::string line = "id = \"" + id + "\"\n";
+        const auto at = text.find("[[location]]\n" + line);
+        REQUIRE(at != std::string::npos);
+        text.insert(at + 13 + line.size(), "body = \"phantom\"\n");
+    }
+    return text;
+}
+
+} // namespace
+
+TEST_CASE("storm: heart and brain are checked when every location uses the phantom", "[storm]") {
+    // By construction, as in the first storm test: with no response the what-if's heart and
+    // brain doses equal the plain check's SPE part with the event at that onset.
+    const std::vector<std::string> all{"cabin", "shelter", "outside"};
+    const Study study(parse_scenario(with_phantom(plan(kTimeline, kPolicy), all), "storm.toml"));
+    const StormContext none(study, "spe", false);
+    CHECK(none.organs() == std::vector<std::string>{"bfo", "lens", "skin", "heart", "brain"});
+    CHECK(none.unchecked_note().empty());
+    const std::string when = "2032-01-03T09:30:00Z";
+    const Study moved(
+        parse_scenario(with_phantom(moved_event(plan(kTimeline, kPolicy), when), all), "s.toml"));
+    const auto ledger = build_ledger(moved);
+    const auto w = none.at(moved.scenario().events[0].flare_seen);
+    REQUIRE(w.crew[0].organs.size() == 5);
+    for (const auto& o : w.crew[0].organs) {
+        const auto& plain =
+            *std::find_if(ledger.crew[0].organs.begin(), ledger.crew[0].organs.end(),
+                          [&](const OrganResult& r) { return r.organ == o.organ; });
+        INFO(o.organ);
+        CHECK(o.with_response_mGyEq > 0.0);
+        CHECK(o.with_response_mGyEq == Approx(plain.spe.mGyEq).epsilon(1e-9));
+        CHECK(o.limit_30d_mGyEq > 0.0);
+    }
+    // The sweep names the organ nearest its limit among all five, and the fast path agrees
+    // with the full what-if at the worst onset.
+    const StormContext ctx(study, "spe", true);
+    const Time from = parse_command_time("2032-01-03T07:00:00Z", "--from");
+    const Time to = parse_command_time("2032-01-03T15:00:00Z", "--to");
+    const StormSweep s = sweep_storm(ctx, from, to, boost::posix_time::minutes(30));
+    REQUIRE(s.worst.size() == 1);
+    CHECK(ctx.worst_ratio_at(s.worst[0].first, 0) ==
+          Approx(s.worst[0].second.worst_ratio()).epsilon(1e-12));
+}
+
+TEST_CASE("storm: heart and brain are not checked when a location uses the quick model",
+          "[storm]") {
+    const Study study(
+        parse_scenario(with_phantom(plan(kTimeline, kPolicy), {"cabin", "shelter"}), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    CHECK(ctx.organs() == std::vector<std::string>{"bfo", "lens", "skin"});
+    CHECK(ctx.unchecked_note() ==
+          "heart (location outside uses the quick body model); brain (location outside uses the "
+          "quick body model)");
+    const auto w = ctx.at(parse_command_time("2032-01-03T09:30:00Z", "--onset"));
+    CHECK(w.crew[0].organs.size() == 3);
+    // The report says so (the JSON's model text, which is not wrapped).
+    CHECK(format_storm_whatif(ctx, w, OutputFormat::json)
+              .find("Not checked: heart (location outside uses the quick body model)") !=
+          std::string::npos);
+}
