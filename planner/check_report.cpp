@@ -14,13 +14,6 @@
 namespace crewdose::planner {
 namespace {
 
-std::string organ_label(const std::string& organ) {
-    if (organ == "bfo") {
-        return "BFO";
-    }
-    return organ;
-}
-
 // The unit of an organ's ledger: the effective dose is in mSv, every organ dose in mGy-Eq.
 const char* unit_of(const std::string& organ) {
     return organ == "effective" ? "mSv" : "mGy-Eq";

@@ -2,8 +2,10 @@
 
 #include "cautions.hpp"
 #include "input_error.hpp"
+#include "location_response.hpp"
 #include "number_format.hpp"
 #include "number_parse.hpp"
+#include "scenario.hpp"
 #include "spectrum_spec.hpp"
 
 #include "exposure/depth_dose.hpp"
@@ -28,16 +30,16 @@ nlohmann::json dose_si_json(const exposure::DoseQuantities& d) {
 }
 
 TissueDepth parse_tissue_depth(std::string_view text, std::string_view field) {
-    // Quick-model depths, common practice in space radiation protection: skin 0.07 mm, eye
-    // lens 3 mm, blood-forming organs 5 cm, of unit-density tissue.
-    if (text == "skin") {
-        return {0.007, "skin (0.07 mm of tissue)"};
-    }
-    if (text == "lens") {
-        return {0.3, "eye lens (3 mm of tissue)"};
-    }
-    if (text == "bfo") {
-        return {5.0, "BFO (5 cm of tissue)"};
+    // The quick body model's named depths (skin 0.07 mm, eye lens 3 mm, BFO 5 cm of
+    // unit-density tissue).
+    for (const auto& o : quick_body_model()) {
+        if (text == o.name) {
+            const double mm = 10.0 * o.depth_g_cm2;
+            return {o.depth_g_cm2, fmt::format("{} ({} of tissue)",
+                                               o.name == "lens" ? "eye lens" : organ_label(o.name),
+                                               mm >= 10.0 ? fmt::format("{:g} cm", mm / 10.0)
+                                                          : fmt::format("{:g} mm", mm))};
+        }
     }
     const auto parsed = parse_finite(text);
     const double v = parsed.value_or(-1.0);

@@ -114,6 +114,10 @@ const std::vector<std::string>& ledger_organs() {
     return organs;
 }
 
+std::string organ_label(const std::string& organ) {
+    return organ == "bfo" ? "BFO" : organ;
+}
+
 std::vector<Limit> default_limits() {
     // Planning defaults, never official limits. NCRP Report 132 (2000) for BFO, lens and skin
     // (from memory); career effective dose 600 mSv from the 2022 revision of NASA-STD-3001

@@ -234,6 +234,8 @@ struct Scenario {
 /// Every organ the ledger tracks: limited_organs(), phantom_limited_organs(), then
 /// "effective" (the effective dose, mSv, carried in the mGy-Eq fields).
 [[nodiscard]] const std::vector<std::string>& ledger_organs();
+/// An organ's name in reports: "BFO" for bfo, the id otherwise.
+[[nodiscard]] std::string organ_label(const std::string& organ);
 
 /// An RFC 3339 date-time with its offset ("2032-03-11T10:30:00Z"), read as TOML reads it; nullopt
 /// when the text is not one, or its year lies outside 1400..9999 (then `bad_year` is set).

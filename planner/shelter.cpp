@@ -524,7 +524,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
            "\n";
     out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
     for (const auto& [organ, target] : rep.target_mGyEq) {
-        out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ == "bfo" ? "BFO" : organ,
+        out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ_label(organ),
                            significant(target, 3), significant(rep.other_30d_mGyEq.at(organ), 3));
     }
     out += "\n";
@@ -533,7 +533,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         if (a.none_needed) {
             out += fmt::format("  no added material needed: every target is met as built "
                                "(closest: {})\n",
-                               a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+                               organ_label(a.binding_organ));
         } else if (!a.achievable) {
             out += wrap(fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its "
                                     "target",
@@ -542,7 +542,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                                                         "would reach the dose point or another "
                                                         "solid)"
                                                       : "",
-                                    a.binding_organ == "bfo" ? "BFO" : a.binding_organ),
+                                    organ_label(a.binding_organ)),
                         100, "    ");
         } else {
             out += fmt::format(
@@ -551,11 +551,11 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
             if (a.added_mass_kg) {
                 out += fmt::format(", added mass {} kg", significant(*a.added_mass_kg, 3));
             }
-            out += fmt::format("; set by {}\n", a.binding_organ == "bfo" ? "BFO" : a.binding_organ);
+            out += fmt::format("; set by {}\n", organ_label(a.binding_organ));
         }
         out += fmt::format("  {:>12}", "g/cm2");
         for (const auto& [organ, target] : rep.target_mGyEq) {
-            out += fmt::format(" {:>14}", (organ == "bfo" ? std::string("BFO") : organ) + " event");
+            out += fmt::format(" {:>14}", organ_label(organ) + " event");
         }
         out += "   (mGy-Eq)\n";
         for (const auto& p : a.curve) {

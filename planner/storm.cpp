@@ -613,10 +613,6 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
 
 namespace {
 
-std::string organ_name(const std::string& o) {
-    return o == "bfo" ? "BFO" : o;
-}
-
 nlohmann::json crew_json(const StormCrew& c) {
     nlohmann::json j{{"id", c.crew}, {"name", c.name}, {"worst_ratio", c.worst_ratio()}};
     for (const auto& o : c.organs) {
@@ -653,7 +649,7 @@ std::string model_note(const StormContext& ctx) {
     std::string organs;
     for (std::size_t k = 0; k < ctx.organs().size(); ++k) {
         organs += fmt::format("{}{}", k == 0 ? "" : (k + 1 == ctx.organs().size() ? " and " : ", "),
-                              organ_name(ctx.organs()[k]));
+                              organ_label(ctx.organs()[k]));
     }
     std::string unchecked;
     if (!ctx.unchecked_note().empty()) {
@@ -770,7 +766,7 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
                            "no response", "response", "saved", "other 30d", "limit", "margin");
         for (const auto& o : c.organs) {
             out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}{}\n",
-                               organ_name(o.organ), significant(o.without_response_mGyEq, 3),
+                               organ_label(o.organ), significant(o.without_response_mGyEq, 3),
                                significant(o.with_response_mGyEq, 3),
                                significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
                                significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
@@ -851,7 +847,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             continue;
         }
         out += wrap(fmt::format("  {} ({}): t0 {}; {} {} = {} event + {} other of {} ({:.0f} %){}",
-                                c.name, c.crew, format_time(onset), organ_name(worst->organ),
+                                c.name, c.crew, format_time(onset), organ_label(worst->organ),
                                 significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
                                 significant(worst->with_response_mGyEq, 3),
                                 significant(worst->other_30d_mGyEq, 3),
@@ -873,7 +869,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
                                 "30-day limit",
                                 e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
-                                e.label, format_time(e.worst_onset), e.crew, organ_name(e.organ),
+                                e.label, format_time(e.worst_onset), e.crew, organ_label(e.organ),
                                 100.0 * e.ratio),
                     100, "        ");
     }
