@@ -93,12 +93,30 @@ struct PhantomInsert {
     std::optional<PhantomSolid> envelope;
 };
 
+/// `n` points on the surface of the union of disjoint `pieces`, uniform by area: the boundary
+/// crossings of isotropic uniform random lines (Crofton: the expected number of crossings with
+/// a surface element is proportional to its area), lines from a Halton sequence. Where two
+/// pieces touch, the shared face is not surface. Each point is moved 1e-6 cm inside along its
+/// line. `lines_per_crossing`, when given, receives the number of lines drawn divided by the
+/// crossings found; the surface area is then 2 pi R^2 / lines_per_crossing for the bounding
+/// sphere's radius R (returned in `bounding_radius`).
+[[nodiscard]] std::vector<Point3> surface_points(std::span<const PhantomPiece> pieces,
+                                                 std::size_t n,
+                                                 double* lines_per_crossing = nullptr,
+                                                 double* bounding_radius = nullptr);
+
 class Phantom {
   public:
     /// The adult phantom with `points_per_region` sample points in every organ region.
     explicit Phantom(std::size_t points_per_region = 512);
 
     [[nodiscard]] std::span<const PhantomOrgan> organs() const { return organs_; }
+    /// The skin: `points_per_region` points on the outer body's surface, uniform by area, with
+    /// equal weights (one region; `regions` is empty). Its dose is taken 0.07 mm below each
+    /// point (the caller adds that depth), each point shielded by the body behind it.
+    [[nodiscard]] const PhantomOrgan& skin() const { return skin_; }
+    /// The outer body's disjoint pieces.
+    [[nodiscard]] std::span<const PhantomPiece> body_pieces() const { return body_; }
     /// Throws std::out_of_range for an unknown id.
     [[nodiscard]] const PhantomOrgan& organ(const std::string& id) const;
     /// True when the point is inside the outer body (head, trunk, breasts, legs, genitalia).
@@ -113,6 +131,7 @@ class Phantom {
     std::vector<PhantomPiece> body_; ///< disjoint pieces of the outer body
     std::vector<PhantomInsert> inserts_;
     std::vector<PhantomOrgan> organs_;
+    PhantomOrgan skin_;
 };
 
 /// How the person at a dose point is placed.

@@ -31,7 +31,8 @@ std::string body_text(const Study& study) {
         t += fmt::format(
             "stylised adult phantom (MIRD-type hermaphrodite after MIRD Pamphlet 5, organ "
             "tissue depths per direction from {} points per organ region, {} directions for "
-            "SPEs; skin and lens at 0.07 mm and 3 mm; BFO = active marrow; effective dose with "
+            "SPEs; skin 0.07 mm below the body's surface, averaged over it; lens at 3 mm in every "
+            "direction (no eyes in the phantom); BFO = active marrow; effective dose with "
             "ICRP 103 weights, oesophagus, salivary glands and bone surface by named proxies) "
             "at {}",
             kPhantomPointsPerDirection, sc.mission.phantom_directions, fmt::join(phantom, ", "));

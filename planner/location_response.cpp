@@ -129,7 +129,6 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                                             std::size_t points_per_direction, std::size_t threads) {
     constexpr std::size_t n_out = 6;
     std::vector<BodyDepths> bodies;
-    std::vector<std::size_t> skin_node;
     std::vector<std::size_t> lens_node;
     for (const auto& grid : grids) {
         if (grid.size() < 2 || !std::is_sorted(grid.begin(), grid.end()) ||
@@ -144,7 +143,7 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
             }
             return static_cast<std::size_t>(at - grid.begin());
         };
-        skin_node.push_back(node_of(0.007));
+        node_of(0.007); // the skin's depth outward from its surface points: a node
         lens_node.push_back(node_of(0.3));
         BodyDepths b;
         b.model = "phantom";
@@ -155,17 +154,25 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
         bodies.push_back(std::move(b));
     }
 
-    // What each phantom organ adds to each reported organ.
-    const auto organs = phantom.organs();
+    // What each phantom organ (and the skin, last) adds to each reported organ.
+    std::vector<const habitats::PhantomOrgan*> organs;
+    for (const auto& o : phantom.organs()) {
+        organs.push_back(&o);
+    }
+    organs.push_back(&phantom.skin());
     std::vector<std::vector<std::pair<std::size_t, double>>> feeds(organs.size());
     auto organ_index = [&](const std::string& id) {
         for (std::size_t i = 0; i < organs.size(); ++i) {
-            if (organs[i].id == id) {
+            if (organs[i]->id == id) {
                 return i;
             }
         }
         throw std::logic_error(fmt::format("phantom has no organ {}", id));
     };
+    // The skin's dose is taken 0.07 mm below its surface points, in every direction (the
+    // convention of the quick model's skin, now with the body behind each point).
+    constexpr double kSkinDepth_g_cm2 = 0.007;
+    feeds[organ_index("skin")].emplace_back(0, 1.0);
     feeds[organ_index("red-marrow")].emplace_back(2, 1.0);
     feeds[organ_index("heart")].emplace_back(3, 1.0);
     feeds[organ_index("brain")].emplace_back(4, 1.0);
@@ -176,8 +183,8 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
         std::vector<std::string> male;
         std::vector<std::string> female;
         for (const auto r : exposure::icrp103_remainder_tissues()) {
-            for (const auto& o : organs) {
-                if (o.id == r) {
+            for (const auto* o : organs) {
+                if (o->id == r) {
                     if (r != "uterus") {
                         male.emplace_back(r);
                     }
@@ -196,11 +203,8 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
         }
         remainder.assign(share.begin(), share.end());
     }
-    double effective_skin = 0.0;
     for (const auto& w : exposure::icrp103_tissue_weights()) {
-        if (w.tissue == "skin") {
-            effective_skin += w.w_T;
-        } else if (w.tissue == "remainder") {
+        if (w.tissue == "remainder") {
             for (const auto& [r, share] : remainder) {
                 feeds[organ_index(r)].emplace_back(5, w.w_T * share);
             }
@@ -217,15 +221,14 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
             for (std::size_t q = 0; q < bodies.size(); ++q) {
                 const std::size_t n_grid = bodies[q].grid_g_cm2.size();
                 double* block = bodies[q].weights.data() + k * n_out * n_grid;
-                block[0 * n_grid + skin_node[q]] = 1.0;
                 block[1 * n_grid + lens_node[q]] = 1.0;
-                block[5 * n_grid + skin_node[q]] += effective_skin;
             }
             for (std::size_t i = 0; i < organs.size(); ++i) {
                 if (feeds[i].empty()) {
                     continue;
                 }
-                const auto& o = organs[i];
+                const auto& o = *organs[i];
+                const double below = &o == &phantom.skin() ? kSkinDepth_g_cm2 : 0.0;
                 for (std::size_t r = 0; r + 1 < o.region_begin.size(); ++r) {
                     const std::size_t first = o.region_begin[r];
                     const std::size_t count = o.region_begin[r + 1] - first;
@@ -235,7 +238,7 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                     const double scale = static_cast<double>(count) / static_cast<double>(m);
                     for (std::size_t j = 0; j < m; ++j) {
                         const std::size_t s = first + (k * m + j) % count;
-                        const double t = phantom.tissue_g_cm2(o.points[s], u);
+                        const double t = below + phantom.tissue_g_cm2(o.points[s], u);
                         for (auto& body : bodies) {
                             const auto& grid = body.grid_g_cm2;
                             const std::size_t n_grid = grid.size();

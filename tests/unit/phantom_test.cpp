@@ -45,13 +45,69 @@ TEST_CASE("phantom: tissue paths through the body by hand", "[phantom]") {
     CHECK(ph.in_body({0, 0, 93.9}));
     CHECK_FALSE(ph.in_body({0, 0, 94.1}));
     CHECK_FALSE(ph.in_body({0, -10.5, 35})); // in front of the trunk, outside the breasts
-    // Every organ point lies in the body.
+    // Every organ point lies in the body, and so does every skin point (1e-6 cm inside).
     for (const auto& o : ph.organs()) {
         for (const auto& p : o.points) {
             INFO(o.id);
             REQUIRE(ph.in_body(p));
         }
     }
+    for (const auto& p : ph.skin().points) {
+        REQUIRE(ph.in_body(p));
+    }
+}
+
+TEST_CASE("phantom: skin points are uniform on the surface by area", "[phantom]") {
+    // By construction (Crofton): isotropic uniform random lines meet a surface of area S on
+    // average S / (2 pi R^2) times, R the radius of the sphere they are drawn in. A sphere of
+    // radius 3 cm: area 4 pi 9 within 0.5 %, every point on it to 1e-6 cm, and the points
+    // uniform: the mean of z is 0 and of z^2 is r^2 / 3 = 3 (within 1 %).
+    habitats::PhantomSolid ball;
+    ball.kind = habitats::PhantomSolid::Kind::ellipsoid;
+    ball.center = {0, 0, 0};
+    ball.semi = {3, 3, 3};
+    ball.bound_lo = {-3, -3, -3};
+    ball.bound_hi = {3, 3, 3};
+    const std::vector<habitats::PhantomPiece> one{{ball, {}}};
+    double lines_per_crossing = 0.0;
+    double R = 0.0;
+    const auto points = habitats::surface_points(one, 20000, &lines_per_crossing, &R);
+    REQUIRE(points.size() == 20000);
+    CHECK(2.0 * 3.14159265358979 * R * R / lines_per_crossing ==
+          Approx(4.0 * 3.14159265358979 * 9.0).epsilon(5e-3));
+    double mean_z = 0.0;
+    double mean_z2 = 0.0;
+    for (const auto& p : points) {
+        CHECK(std::sqrt(p.x * p.x + p.y * p.y + p.z * p.z) == Approx(3.0).margin(2e-6));
+        mean_z += p.z / 20000.0;
+        mean_z2 += p.z * p.z / 20000.0;
+    }
+    CHECK(mean_z == Approx(0.0).margin(0.01));
+    CHECK(mean_z2 == Approx(3.0).epsilon(0.01));
+    // Two touching boxes are one surface: the face they share is not skin. Unit cubes side by
+    // side: area 10 (not 12).
+    habitats::PhantomSolid a;
+    a.kind = habitats::PhantomSolid::Kind::polytope;
+    a.cuts = {{{1, 0, 0}, 1},  {{-1, 0, 0}, 0}, {{0, 1, 0}, 1},
+              {{0, -1, 0}, 0}, {{0, 0, 1}, 1},  {{0, 0, -1}, 0}};
+    a.bound_lo = {0, 0, 0};
+    a.bound_hi = {1, 1, 1};
+    habitats::PhantomSolid b = a;
+    b.cuts[0].offset = 2;
+    b.cuts[1].offset = -1;
+    b.bound_lo = {1, 0, 0};
+    b.bound_hi = {2, 1, 1};
+    const std::vector<habitats::PhantomPiece> two{{a, {}}, {b, {}}};
+    (void)habitats::surface_points(two, 20000, &lines_per_crossing, &R);
+    CHECK(2.0 * 3.14159265358979 * R * R / lines_per_crossing == Approx(10.0).epsilon(0.01));
+    // The phantom's skin: by hand from the MIRD dimensions, trunk side 6782 cm2 (an ellipse of
+    // 20 x 10 cm, Ramanujan's perimeter, 70 cm high), trunk top less the neck 408, neck side
+    // 834, head cap 451 (half an ellipsoid 7 x 10 x 8.5, Thomsen's formula), leg cones 6062
+    // (radius 2 to 10 over 80 cm), about 500 more for the breasts, the genitalia box and the
+    // trunk base the legs leave bare: about 15,040 cm2. Gate 5 % (the last part is rough).
+    (void)habitats::surface_points(planner::shared_phantom().body_pieces(), 20000,
+                                   &lines_per_crossing, &R);
+    CHECK(2.0 * 3.14159265358979 * R * R / lines_per_crossing == Approx(15040.0).epsilon(0.05));
 }
 
 TEST_CASE("phantom: organ masses match the MIRD adult phantom's", "[phantom]") {
@@ -177,7 +233,11 @@ TEST_CASE("phantom: organs behind the body get less than the quick model's fixed
     // Common practice: the quick model's 5 cm BFO depth in every direction is a conservative
     // screening value; the body shields the marrow, heart and brain more on average. In a suit
     // on the ground (demo Band event), the phantom's BFO, heart and brain doses are below the
-    // quick model's BFO; skin and lens are the same depths in both.
+    // quick model's BFO; the lens is the same depth in both. The skin: a point on the surface
+    // of a convex body sees the sky through 0.07 mm only in the directions that point outwards
+    // (the others cross the body), so for a soft event about half the quick model's skin dose
+    // (less where the body is concave, between the legs; more through the body for hard
+    // protons). Gate 0.40-0.55 (measured when written: 0.469).
     const auto where = suited();
     const auto dirs = habitats::fibonacci_directions(planner::kDefaultPhantomDirections);
     exposure::TableLibrary tables;
@@ -191,10 +251,17 @@ TEST_CASE("phantom: organs behind the body get less than the quick model's fixed
             INFO(o.organ);
             CHECK(dose_equivalent(o, kBand) < quick_bfo);
         }
-        if (o.organ == "skin" || o.organ == "lens") {
-            const auto& q = o.organ == "skin" ? quick[0] : quick[1];
+        if (o.organ == "lens") {
             // (the phantom's responses take the fast path: within 0.05 %, response_test)
-            CHECK(dose_equivalent(o, kBand) == Approx(dose_equivalent(q, kBand)).epsilon(5e-4));
+            CHECK(dose_equivalent(o, kBand) ==
+                  Approx(dose_equivalent(quick[1], kBand)).epsilon(5e-4));
+        }
+        if (o.organ == "skin") {
+            REQUIRE(quick[0].organ == "skin");
+            const double ratio = dose_equivalent(o, kBand) / dose_equivalent(quick[0], kBand);
+            INFO("skin, phantom / quick: " << ratio);
+            CHECK(ratio > 0.40);
+            CHECK(ratio < 0.55);
         }
     }
 }
