@@ -13,15 +13,15 @@ constexpr double kPi = 3.14159265358979323846;
 // Heavier nuclei, Z = 4..28: abundances relative to oxygen = 1000 at 10.6 GeV/n measured by
 // the French-Danish HEAO-3-C2 experiment (Engelmann et al. 1990, A&A 233, 96, table of
 // relative abundances; 0.6 to 35 GeV/n, flown 1979-80), and its absolute oxygen intensity
-// there, 0.0329 per (m2 sr s GeV/n). Lithium (Z = 3) is not in that table: its abundance comes
-// from the spectral table below (kIsoLithium).
+// there, 0.0329 per (m2 sr s GeV/n). Lithium (Z = 3) is not in that table: its interstellar
+// abundance comes from the spectral table below (kIsoLithiumC).
 constexpr double kHeaoEnergy_MeV_per_n = 10600.0;
 constexpr double kHeaoOxygen_per_m2_sr_s_GeV_n = 0.0329;
 constexpr std::array<double, 29> kHeaoRelativeToOxygen1000{
     0.0,   // (index 0 unused)
     0.0,   // H: Burger LIS
     0.0,   // He: from the proton LIS, see below
-    0.0,   // Li: not measured by HEAO-3-C2, see kIsoLithium
+    0.0,   // Li: not measured by HEAO-3-C2, see kIsoLithiumC
     87.3,  // Be
     192.5, // B
     986.3, // C
@@ -149,9 +149,9 @@ double modulation_factor(const Particle& p, double T, double phi_MV) {
     return lis_shape(p, Ts) / lis_shape(p, T) * force_field_factor(p, T, Ts);
 }
 
-// Lithium per 1000 oxygen at 10.6 GeV/n from the ISO-form table: C_Z (A/Z) beta^(alpha-1)
-// R^-gamma for both, outside the heliosphere (at 10.6 GeV/n the force field changes the ratio
-// by under 2 %).
+// Lithium per 1000 oxygen at 10.6 GeV/n outside the heliosphere, from the ISO-form table:
+// C_Z (A/Z) beta^(alpha-1) R^-gamma for both. (The ISO table's abundances of secondary nuclei
+// are rough: its Be/O there is 53 against HEAO-3's 87.3.)
 double lithium_relative_to_oxygen_1000() {
     const Particle li = *particle_by_Z(3);
     const Particle o = *particle_by_Z(8);
@@ -162,12 +162,22 @@ double lithium_relative_to_oxygen_1000() {
     return 1000.0 * scaled(li, kIsoLithiumC) / scaled(o, kIsoOxygenC);
 }
 
+// Relative abundance at 10.6 GeV/n: measured at 1 AU for Z = 4-28 (HEAO-3), interstellar for
+// lithium (the ISO table); > 0 when the nucleus is included.
 double relative_to_oxygen_1000(int Z) {
     if (Z == 3) {
         static const double lithium = lithium_relative_to_oxygen_1000();
         return lithium;
     }
     return kHeaoRelativeToOxygen1000.at(static_cast<std::size_t>(Z));
+}
+
+// The LIS per GeV/n at 10.6 GeV/n of a nucleus with a HEAO-3 abundance: the measured intensity
+// taken back through the force field at the HEAO-3 epoch's potential.
+double heao_lis_at_reference(const Particle& p) {
+    const double measured = kHeaoRelativeToOxygen1000.at(static_cast<std::size_t>(p.Z)) / 1000.0 *
+                            kHeaoOxygen_per_m2_sr_s_GeV_n;
+    return measured / modulation_factor(p, kHeaoEnergy_MeV_per_n, kHeaoEpochPhi_MV);
 }
 
 // Scale c_Z of the LIS of nucleus Z: J_LIS(T) = c_Z lis_shape(T) per GeV/n.
@@ -180,12 +190,13 @@ double lis_scale(const Particle& p) {
         // proton; at high rigidity (beta -> 1) the ratio is A / (Z c).
         return static_cast<double>(p.A) / static_cast<double>(p.Z) / kProtonToHeliumAtEqualRigidity;
     }
-    const double relative = relative_to_oxygen_1000(p.Z);
-    if (relative <= 0.0) {
+    if (relative_to_oxygen_1000(p.Z) <= 0.0) {
         return 0.0;
     }
-    const double measured = relative / 1000.0 * kHeaoOxygen_per_m2_sr_s_GeV_n;
-    const double lis = measured / modulation_factor(p, kHeaoEnergy_MeV_per_n, kHeaoEpochPhi_MV);
+    // Lithium: its interstellar ratio to oxygen's LIS; the others: HEAO-3 taken back.
+    const double lis =
+        p.Z == 3 ? relative_to_oxygen_1000(3) / 1000.0 * heao_lis_at_reference(*particle_by_Z(8))
+                 : heao_lis_at_reference(p);
     return lis / lis_shape(p, kHeaoEnergy_MeV_per_n);
 }
 

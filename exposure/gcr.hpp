@@ -17,17 +17,18 @@ namespace crewdose::exposure {
 /// This is the shape as a function of P; see gcr_lis() for other nuclei.
 [[nodiscard]] double burger_lis_shape(double P_GV);
 
-/// Whether nucleus Z has a LIS in this model (lithium has none: no published abundance
-/// found).
+/// Whether nucleus Z has a LIS in this model (Z = 1 to 28: all of them).
 [[nodiscard]] bool gcr_nucleus_included(int Z);
 /// Where the composition comes from, for reports.
 [[nodiscard]] std::string_view gcr_composition_source();
 
 /// LIS of `particle` at kinetic energy per nucleon T, particles per (m2 s sr MeV/n).
-/// Protons: burger_lis_shape() at the proton's rigidity. Heavier nuclei: the same shape taken
-/// in the nucleus's own rigidity P = (A/Z) sqrt(T (T + 2 T_r)) (so A/Z = 2 doubles the
-/// rigidity at one energy per nucleon), scaled per nucleus (gcr_composition_source()): helium
-/// by the p/He ratio at equal rigidity, Z = 4..28 to the HEAO-3 intensities at 10.6 GeV/n.
+/// Protons: burger_lis_shape() at the proton's rigidity. Helium: the same shape taken in its
+/// own rigidity P = (A/Z) sqrt(T (T + 2 T_r)) (so A/Z = 2 doubles the rigidity at one energy
+/// per nucleon), scaled by the p/He ratio at equal rigidity. Z = 3..28: each element's ISO
+/// 15390 shape C beta^alpha R^-gamma per unit rigidity, scaled (gcr_composition_source()):
+/// Z = 4..28 to the HEAO-3 intensities at 10.6 GeV/n taken back with the force field, lithium
+/// to the ISO table's interstellar Li/O ratio there.
 /// T_r is the particle's rest energy per nucleon (nuclear mass / A; 938.27 MeV for the
 /// proton). Zero for a nucleus not included.
 [[nodiscard]] double gcr_lis(const Particle& particle, double T_MeV_per_n);
@@ -50,8 +51,8 @@ namespace crewdose::exposure {
                                              std::span<const double> nodes_MeV_per_n);
 
 /// The free-space field of every included nucleus for the fragmentation march, on its nodes:
-/// psi = E phi(E), omnidirectional, per cm2 per day per unit ln E (lithium and anything not
-/// included start at zero; the march makes them).
+/// psi = E phi(E), omnidirectional, per cm2 per day per unit ln E (the march adds the
+/// fragments).
 [[nodiscard]] IonField gcr_free_space_field(const FragmentTransport& march, double phi_MV);
 
 /// Example modulation potentials for this LIS (planning examples, not forecasts).

@@ -20,7 +20,7 @@ namespace crewdose::planner {
 /// A tissue depth as given on the command line: g/cm2, or a quick-model name.
 struct TissueDepth {
     double g_cm2;
-    std::string label; ///< "skin (0.07 mm)", "5 g/cm2", ...
+    std::string label; ///< "skin (0.07 mm of tissue)", "5 g/cm2 of tissue", ...
 };
 
 /// "skin" (0.07 mm), "lens" (3 mm), "bfo" (5 cm) of unit-density tissue, or a number of g/cm2

@@ -248,13 +248,11 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                 folded.with_removal.rbe_weighted_GyEq >= folded.without_removal.rbe_weighted_GyEq;
             const auto& weights = with ? r.response.with_removal : r.response.without_removal;
             std::vector<std::pair<double, double>> nodes; // (delay, dose share)
-            double total = 0.0;
             for (std::size_t j = 0; j < weights.size(); ++j) {
                 const double d =
                     weights[j].rbe_weighted_GyEq * fluences.per_unit_log_energy_per_cm2[j];
                 if (d > 0.0) {
                     nodes.emplace_back(ev.delay_h(r.response.node_energies_MeV_per_n[j]), d);
-                    total += d;
                 }
             }
             std::sort(nodes.begin(), nodes.end());
@@ -267,7 +265,16 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
                 }
                 // The group's delay is that of its first (fastest) node: never later than any
                 // member's own arrival.
-                g.share.back() += d / total;
+                g.share.back() += d;
+            }
+            // Shares of the grouped sums (a single group is exactly 1: organs with the same
+            // grouping then have equal timings, which the storm sweep reuses).
+            double grouped = 0.0;
+            for (const double s : g.share) {
+                grouped += s;
+            }
+            for (double& s : g.share) {
+                s /= grouped;
             }
             event_timing_[{key.first, key.second, ev.id}] = std::move(g);
         }

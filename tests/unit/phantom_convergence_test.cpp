@@ -10,9 +10,10 @@ using namespace crewdose::phantom_test;
 TEST_CASE("phantom: SPE organ doses converge in points, directions and energy grid",
           "[phantom][slow]") {
     // Convergence (by construction), demo Band event and a harder one:
-    // - 32 of each region's 512 points per direction against all 512 (128 directions, behind
-    //   the suit): largest difference seen 1.6 % (effective dose: breasts and testes lie near
-    //   the skin); gate 3 %;
+    // - 32 of each region's 512 points per direction (the skin: 128) against all 512 (128
+    //   directions, behind the suit): largest difference seen 1.6 % (effective dose: breasts
+    //   and testes lie near the skin; the skin 0.6 %, and 4.2 % with 32 of its points); gate
+    //   3 %;
     // - 256 directions against 1024 (10 g/cm2 aluminium): gate 1 %;
     // - 32 energy nodes per decade against 64 (suit, 10 g/cm2 aluminium, 60 g/cm2 regolith):
     //   largest seen 0.1 %; gate 0.2 %.
