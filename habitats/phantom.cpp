@@ -154,17 +154,48 @@ std::pair<double, double> PhantomSolid::interval_ahead(Point3 p, Vector3 u) cons
     return {a_min, b_max};
 }
 
+namespace {
+
+// Whether the ray p + t u, t >= 0, meets the box [lo, hi] (the slab test; a ray along a face
+// counts as meeting it).
+bool meets_box(Point3 p, Vector3 u, Point3 lo, Point3 hi) {
+    double t0 = 0.0;
+    double t1 = kInf;
+    const double pc[3] = {p.x, p.y, p.z};
+    const double uc[3] = {u.x, u.y, u.z};
+    const double lc[3] = {lo.x, lo.y, lo.z};
+    const double hc[3] = {hi.x, hi.y, hi.z};
+    for (int a = 0; a < 3; ++a) {
+        if (uc[a] == 0.0) {
+            if (pc[a] < lc[a] || pc[a] > hc[a]) {
+                return false;
+            }
+            continue;
+        }
+        const double inv = 1.0 / uc[a];
+        double ta = (lc[a] - pc[a]) * inv;
+        double tb = (hc[a] - pc[a]) * inv;
+        if (ta > tb) {
+            std::swap(ta, tb);
+        }
+        t0 = std::max(t0, ta);
+        t1 = std::min(t1, tb);
+        if (t0 > t1) {
+            return false;
+        }
+    }
+    return true;
+}
+
+} // namespace
+
 double PhantomPiece::chord_ahead(Point3 p, Vector3 u) const {
-    // Most rays miss most pieces: first the sphere about the base's bounding box (a solid
-    // without a box, r2 = 0, is always traced).
-    const Vector3 half = 0.5 * (base.bound_hi - base.bound_lo);
-    const Point3 mid = base.bound_lo + half;
-    const Vector3 w = mid - p;
-    const double along = dot(w, u);
-    const double r2 = dot(half, half);
-    const double w2 = dot(w, w);
-    if (r2 > 0.0 && w2 > r2 && (along < 0.0 || w2 - along * along > r2)) {
-        return 0.0; // the ray starts outside the sphere and passes it by
+    // Most rays miss most pieces: first the base's bounding box (a solid without a box,
+    // lo = hi, is always traced). The box holds the solid, so a ray that misses it misses the
+    // solid: the result is the same without the test.
+    const Vector3 diagonal = base.bound_hi - base.bound_lo;
+    if (dot(diagonal, diagonal) > 0.0 && !meets_box(p, u, base.bound_lo, base.bound_hi)) {
+        return 0.0;
     }
     const auto [lo, hi] = base.interval_ahead(p, u);
     if (hi <= lo) {
