@@ -164,6 +164,20 @@ TEST_CASE("depth prints doses that fall with shielding and carries the cautions"
     CHECK(shown != Approx(mGy).epsilon(1e-9)); // it is rounded, not the full value
 }
 
+TEST_CASE("gcr and depth: the named tissue depths and their labels", "[cli]") {
+    // By construction: the quick body model's depths (skin 0.07 mm, eye lens 3 mm, BFO 5 cm of
+    // unit-density tissue) name themselves in the report's first line.
+    for (const auto& [name, label] : {std::pair{"skin", "at skin (0.07 mm of tissue)"},
+                                      std::pair{"lens", "at eye lens (3 mm of tissue)"},
+                                      std::pair{"bfo", "at BFO (5 cm of tissue)"},
+                                      std::pair{"2.5", "at 2.5 g/cm2 of tissue"}}) {
+        const Run r = run(std::string("gcr --phi 400 --depths 1 --tissue-depth ") + name);
+        INFO(r.out);
+        REQUIRE(r.exit_code == 0);
+        CHECK(r.out.substr(0, r.out.find('\n')).find(label) != std::string::npos);
+    }
+}
+
 TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input", "[cli]") {
     const Run r = run("gcr --phi 400 --material polyethylene --depths 20,0,5 --tissue-depth bfo "
                       "--format json");

@@ -457,3 +457,25 @@ TEST_CASE("storm: heart and brain are not checked when a location uses the quick
               .find("Not checked: heart (location outside uses the quick body model)") !=
           std::string::npos);
 }
+
+TEST_CASE("storm: the sweep names the heart when its 30-day limit binds", "[storm]") {
+    // By construction: with the heart's 30-day planning limit set far below the others (an
+    // invented test value), the heart is the organ nearest its limit at every onset.
+    const std::vector<std::string> all{"cabin", "shelter", "outside"};
+    std::string text = with_phantom(plan(kTimeline, kPolicy), all);
+    text += "\n[limits]\nheart_30d_mGyEq = 0.01\n";
+    const Study study(parse_scenario(text, "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    const Time from = parse_command_time("2032-01-03T07:00:00Z", "--from");
+    const Time to = parse_command_time("2032-01-03T15:00:00Z", "--to");
+    const StormSweep s = sweep_storm(ctx, from, to, boost::posix_time::minutes(30));
+    REQUIRE(s.evas.size() == 1);
+    REQUIRE(s.evas[0].swept());
+    CHECK(s.evas[0].organ == "heart");
+    CHECK_FALSE(s.evas[0].go());
+    const auto& worst = s.worst[0].second;
+    const auto heart = std::find_if(worst.organs.begin(), worst.organs.end(),
+                                    [](const StormOrgan& o) { return o.organ == "heart"; });
+    REQUIRE(heart != worst.organs.end());
+    CHECK(worst.worst_ratio() == Approx(heart->ratio()).epsilon(1e-12));
+}
