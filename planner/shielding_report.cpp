@@ -23,6 +23,33 @@ double percentile(const std::vector<double>& sorted, double p) {
     return sorted[i] + (sorted[j] - sorted[i]) * (x - static_cast<double>(i));
 }
 
+// The value below which a share p of the total weight lies: (value, weight) pairs sorted by
+// value, interpolated linearly in the cumulative weight between pair midpoints.
+double weighted_percentile(const std::vector<std::pair<double, double>>& sorted, double p) {
+    double total = 0.0;
+    for (const auto& [v, w] : sorted) {
+        total += w;
+    }
+    if (sorted.empty() || !(total > 0.0)) {
+        return 0.0;
+    }
+    const double target = p * total;
+    double below = 0.0; // weight below the current pair's midpoint
+    for (std::size_t i = 0; i < sorted.size(); ++i) {
+        const double mid = below + 0.5 * sorted[i].second;
+        if (target <= mid) {
+            if (i == 0) {
+                return sorted[0].first;
+            }
+            const double prev_mid = below - 0.5 * sorted[i - 1].second;
+            const double f = (target - prev_mid) / (mid - prev_mid);
+            return sorted[i - 1].first + f * (sorted[i].first - sorted[i - 1].first);
+        }
+        below += sorted[i].second;
+    }
+    return sorted.back().first;
+}
+
 } // namespace
 
 std::string format_shielding_report(const Study& study, const std::string& location,
@@ -35,9 +62,10 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     std::size_t blocked = 0;
     const auto& dirs = study.directions(location);
     const BodyDepths& body = study.body(location);
-    // Per organ and open direction: the external areal density plus the organ's mean tissue
-    // along that direction (the quick model: its fixed depth).
-    std::vector<std::vector<double>> totals(body.organs.size());
+    // Per organ: the external areal density plus the organ's tissue, over its points and the
+    // open directions (each tissue depth node with its weight; the quick model: its fixed
+    // depth), and the mean tissue.
+    std::vector<std::vector<std::pair<double, double>>> totals(body.organs.size());
     std::vector<double> mean_tissue(body.organs.size(), 0.0);
     for (std::size_t k = 0; k < dirs.size(); ++k) {
         const auto& d = dirs[k];
@@ -55,8 +83,10 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             double tissue = 0.0;
             for (std::size_t g = 0; g < w.size(); ++g) {
                 tissue += w[g] * body.grid_g_cm2[g];
+                if (w[g] > 0.0) {
+                    totals[o].emplace_back(total + body.grid_g_cm2[g], w[g]);
+                }
             }
-            totals[o].push_back(total + tissue);
             mean_tissue[o] += tissue;
         }
     }
@@ -90,9 +120,9 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             const std::string& organ = body.organs[o];
             auto& oj = j["organs"][organ];
             oj["mean_tissue_g_cm2"] = mean_tissue[o];
-            oj["total_g_cm2"] = {{"p05", percentile(totals[o], 0.05)},
-                                 {"p50", percentile(totals[o], 0.5)},
-                                 {"p95", percentile(totals[o], 0.95)}};
+            oj["total_g_cm2"] = {{"p05", weighted_percentile(totals[o], 0.05)},
+                                 {"p50", weighted_percentile(totals[o], 0.5)},
+                                 {"p95", weighted_percentile(totals[o], 0.95)}};
             const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
             oj["gcr_per_day"] = {{"with_reactions", dose_si_json(g.with_removal)},
                                  {"without_reactions", dose_si_json(g.without_removal)}};
@@ -116,7 +146,8 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     out += wrap(ext, 100, "    ");
     out += body.model == "phantom"
                ? "  per organ (stylised phantom: the organ's own tissue along each direction;\n"
-                 "  effective = ICRP 103 weighted, its doses in mSv):\n"
+                 "  percentiles over the organ's points and the open directions; effective =\n"
+                 "  ICRP 103 weighted, its doses in mSv):\n"
                : "  per organ (quick body model: the tissue depth is added in every "
                  "direction):\n";
     for (std::size_t o = 0; o < body.organs.size(); ++o) {
@@ -126,8 +157,9 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             "    {:<9} tissue {} g/cm2{}, total p5/p50/p95 {} / {} / {} g/cm2; GCR {} / {} mSv per "
             "day",
             organ, significant(mean_tissue[o], 3), body.model == "phantom" ? " (mean)" : "",
-            significant(percentile(totals[o], 0.05), 3), significant(percentile(totals[o], 0.5), 3),
-            significant(percentile(totals[o], 0.95), 3),
+            significant(weighted_percentile(totals[o], 0.05), 3),
+            significant(weighted_percentile(totals[o], 0.5), 3),
+            significant(weighted_percentile(totals[o], 0.95), 3),
             significant(1e3 * g.with_removal.dose_equivalent_Sv, 3),
             significant(1e3 * g.without_removal.dose_equivalent_Sv, 3));
         if (ev) {
