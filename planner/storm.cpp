@@ -309,33 +309,64 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
                          "(see scenarios/README.md); run with --no-response to see the event "
                          "over the planned timeline");
     }
-    // BFO, lens and skin everywhere; heart and brain when every location gives them (the crew
-    // may be anywhere when the event comes, and the response may move them).
+    std::vector<Gap> gaps;
+    for (const auto& c : sc.crew) {
+        planned_.push_back(crew_timeline(sc, c, true, gaps));
+    }
+    // BFO, lens and skin for everyone; heart and brain for a crew member when every location
+    // the what-if can put them at gives them (the planned timeline, the shelter and the
+    // activities' refuges: the event may come anywhere and the response may move them).
     organs_ = limited_organs();
     std::vector<std::string> unchecked;
-    for (const auto& organ : phantom_limited_organs()) {
-        const auto quick =
-            std::find_if(sc.locations.begin(), sc.locations.end(),
-                         [&](const LocationSpec& l) { return !study.has_organ(l.id, organ); });
-        if (quick == sc.locations.end()) {
-            organs_.push_back(organ);
-        } else {
-            unchecked.push_back(
-                fmt::format("{} (location {} uses the quick body model)", organ, quick->id));
+    const std::vector<std::string>& candidates = phantom_limited_organs();
+    std::vector<std::vector<bool>> can(sc.crew.size());
+    for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+        std::vector<std::string> places;
+        if (respond_) {
+            places.push_back(sc.storm.shelter);
+        }
+        for (const auto& s : planned_[i]) {
+            places.push_back(s.location);
+            if (s.activity && s.activity->refuge) {
+                places.push_back(*s.activity->refuge);
+            }
+        }
+        for (const auto& organ : candidates) {
+            const auto quick = std::find_if(places.begin(), places.end(), [&](const auto& l) {
+                return !study.has_organ(l, organ);
+            });
+            can[i].push_back(quick == places.end());
+            if (quick != places.end()) {
+                unchecked.push_back(fmt::format("{} for {} (location {} uses the quick body model)",
+                                                organ, sc.crew[i].id, *quick));
+            }
+        }
+    }
+    std::vector<std::size_t> candidate_index; // organs_ index -> candidates index, or npos
+    candidate_index.assign(organs_.size(), std::string::npos);
+    for (std::size_t q = 0; q < candidates.size(); ++q) {
+        if (std::any_of(can.begin(), can.end(), [&](const auto& c) { return c[q]; })) {
+            organs_.push_back(candidates[q]);
+            candidate_index.push_back(q);
         }
     }
     if (organs_.size() > kMaxStormOrgans) {
         throw std::logic_error("storm: more organs than kMaxStormOrgans");
     }
+    for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+        std::array<bool, kMaxStormOrgans> checked{};
+        for (std::size_t k = 0; k < organs_.size(); ++k) {
+            checked[k] = candidate_index[k] == std::string::npos || can[i][candidate_index[k]];
+        }
+        checked_.push_back(checked);
+    }
     for (std::size_t k = 0; k < unchecked.size(); ++k) {
         unchecked_note_ += (k ? "; " : "") + unchecked[k];
     }
-    std::vector<Gap> gaps;
     LedgerOptions options;
     options.allow_gaps = true;
     const LedgerResult ledger = build_ledger(study, options);
     for (const auto& c : sc.crew) {
-        planned_.push_back(crew_timeline(sc, c, true, gaps));
         std::map<std::string, double> other;
         for (const auto& organ : organs_) {
             other[organ] = highest_30d_without(ledger, c.id, organ, event_);
@@ -369,10 +400,14 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     for (const auto& loc : sc.locations) {
         auto& c = by_location_[loc.id];
         for (std::size_t k = 0; k < organs_.size(); ++k) {
+            if (!study.has_organ(loc.id, organs_[k])) {
+                c[k] = {0.0, nullptr, k}; // no crew member checked for it can be here
+                continue;
+            }
             c[k] = {1e3 * uf * study.event_dose(loc.id, organs_[k], *event_).rbe_weighted_GyEq,
                     &study.event_timing(loc.id, organs_[k], *event_), k};
             for (std::size_t q = 0; q < k; ++q) {
-                if (c[q].timing->delay_h == c[k].timing->delay_h &&
+                if (c[q].timing && c[q].timing->delay_h == c[k].timing->delay_h &&
                     c[q].timing->share == c[k].timing->share) {
                     c[k].same_timing_as = q;
                     break;
@@ -385,6 +420,9 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     double last = 0.0;
     for (const auto& loc : sc.locations) {
         for (const auto& organ : organs_) {
+            if (!study.has_organ(loc.id, organ)) {
+                continue;
+            }
             const auto& g = study.event_timing(loc.id, organ, *event_);
             if (!g.delay_h.empty()) {
                 last = std::max(last, g.delay_h.back());
@@ -409,7 +447,7 @@ void StormContext::add_piece(StormDoses& d, Time from, Time to, const std::strin
     for (std::size_t k = 0; k < organs_.size(); ++k) {
         if (c[k].same_timing_as != k) {
             fraction[k] = fraction[c[k].same_timing_as];
-        } else {
+        } else if (c[k].timing) {
             fraction[k] = c[k].timing->fraction_between(a, b, event_->profile);
         }
         d[k] += c[k].mGyEq * fraction[k];
@@ -461,7 +499,9 @@ double StormContext::worst_ratio_at(Time onset, std::size_t i, StormDoses* with_
     }
     double worst = 0.0;
     for (std::size_t k = 0; k < organs_.size(); ++k) {
-        worst = std::max(worst, (d[k] + other_by_index_[i][k]) / limit_by_index_[k]);
+        if (checked_[i][k]) {
+            worst = std::max(worst, (d[k] + other_by_index_[i][k]) / limit_by_index_[k]);
+        }
     }
     if (with_mGyEq) {
         *with_mGyEq = d;
@@ -483,6 +523,9 @@ StormWhatIf StormContext::at(Time onset) const {
         const auto without = doses_over(planned_[i], onset);
         const auto with = doses_over(spans, onset);
         for (std::size_t k = 0; k < organs_.size(); ++k) {
+            if (!checked_[i][k]) {
+                continue;
+            }
             const std::string& organ = organs_[k];
             c.organs.push_back(
                 {organ, without[k], with[k], other_[i].at(organ), limits_30d_.at(organ)});
@@ -590,8 +633,9 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
                 e.crew = sc.crew[i].id;
                 std::size_t worst_k = 0;
                 for (std::size_t q = 1; q < ctx.organs().size(); ++q) {
-                    if ((doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
-                        (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
+                    if (ctx.checked(i, q) &&
+                        (doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
+                            (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
                         worst_k = q;
                     }
                 }

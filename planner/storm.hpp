@@ -90,8 +90,14 @@ class StormContext {
     /// Hours from t0 to the all-clear (the same for every onset).
     [[nodiscard]] double all_clear_after_h() const noexcept { return all_clear_after_h_; }
     /// The organs checked against their 30-day limits: BFO, lens and skin, and heart and brain
-    /// when every location's body model gives them (the phantom).
+    /// when, for some crew member, every location the what-if can put them at gives them (the
+    /// phantom body model).
     [[nodiscard]] const std::vector<std::string>& organs() const noexcept { return organs_; }
+    /// Whether organ k of organs() is checked for crew member `crew` (BFO, lens and skin
+    /// always; heart and brain when all of that crew member's places give them).
+    [[nodiscard]] bool checked(std::size_t crew, std::size_t k) const {
+        return checked_.at(crew).at(k);
+    }
     /// Organs with a 30-day limit that are not checked, and why (empty when all are).
     [[nodiscard]] const std::string& unchecked_note() const noexcept { return unchecked_note_; }
     /// Crew member `crew`'s other 30-day dose and the 30-day limit of organ k of organs().
@@ -115,6 +121,7 @@ class StormContext {
     };
     std::unordered_map<std::string, std::array<Cached, kMaxStormOrgans>> by_location_;
     std::vector<std::string> organs_;
+    std::vector<std::array<bool, kMaxStormOrgans>> checked_; ///< per crew member, per organ
     std::string unchecked_note_;
     const Study& study_;
     const EventSpec* event_ = nullptr;

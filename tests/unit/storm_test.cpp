@@ -441,21 +441,56 @@ TEST_CASE("storm: heart and brain are checked when every location uses the phant
           Approx(s.worst[0].second.worst_ratio()).epsilon(1e-12));
 }
 
-TEST_CASE("storm: heart and brain are not checked when a location uses the quick model",
+TEST_CASE("storm: heart and brain are not checked where a crew member may be at a quick location",
           "[storm]") {
-    const Study study(
-        parse_scenario(with_phantom(plan(kTimeline, kPolicy), {"cabin", "shelter"}), "storm.toml"));
+    // Crew member a walks outside (a quick-model location): no heart or brain check for a.
+    // With a second crew member b who only stays in the cabin (and would shelter in the
+    // shelter), both phantom locations, b is checked for them and a still is not.
+    const std::string alone = with_phantom(plan(kTimeline, kPolicy), {"cabin", "shelter"});
+    const Study study(parse_scenario(alone, "storm.toml"));
     const StormContext ctx(study, "spe", true);
     CHECK(ctx.organs() == std::vector<std::string>{"bfo", "lens", "skin"});
     CHECK(ctx.unchecked_note() ==
-          "heart (location outside uses the quick body model); brain (location outside uses the "
-          "quick body model)");
+          "heart for a (location outside uses the quick body model); brain for a (location "
+          "outside uses the quick body model)");
     const auto w = ctx.at(parse_command_time("2032-01-03T09:30:00Z", "--onset"));
     CHECK(w.crew[0].organs.size() == 3);
     // The report says so (the JSON's model text, which is not wrapped).
     CHECK(format_storm_whatif(ctx, w, OutputFormat::json)
-              .find("Not checked: heart (location outside uses the quick body model)") !=
+              .find("Not checked: heart for a (location outside uses the quick body model)") !=
           std::string::npos);
+
+    std::string two = alone;
+    const std::string crew_a = "[[crew]]\nid = \"a\"\n";
+    two.replace(two.find(crew_a), crew_a.size(), crew_a + "\n[[crew]]\nid = \"b\"\n");
+    two += R"(
+[[activity]]
+crew = "b"
+kind = "stay"
+location = "cabin"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+)";
+    const Study both(parse_scenario(two, "two.toml"));
+    const StormContext ctx2(both, "spe", true);
+    CHECK(ctx2.organs() == std::vector<std::string>{"bfo", "lens", "skin", "heart", "brain"});
+    REQUIRE(both.scenario().crew.size() == 2);
+    const auto w2 = ctx2.at(parse_command_time("2032-01-03T09:30:00Z", "--onset"));
+    REQUIRE(w2.crew.size() == 2);
+    CHECK(w2.crew[0].organs.size() == 3); // a
+    CHECK(w2.crew[1].organs.size() == 5); // b
+    for (std::size_t k = 0; k < 5; ++k) {
+        CHECK(ctx2.checked(1, k));
+        CHECK(ctx2.checked(0, k) == (k < 3));
+    }
+    // The fast path skips what it does not check: the same worst ratio as the full what-if.
+    for (std::size_t i = 0; i < 2; ++i) {
+        CHECK(ctx2.worst_ratio_at(w2.times.onset, i) ==
+              Approx(w2.crew[i].worst_ratio()).epsilon(1e-12));
+    }
+    CHECK(ctx2.unchecked_note() ==
+          "heart for a (location outside uses the quick body model); brain for a (location "
+          "outside uses the quick body model)");
 }
 
 TEST_CASE("storm: the sweep names the heart when its 30-day limit binds", "[storm]") {
