@@ -30,12 +30,14 @@ std::string body_text(const Study& study) {
     if (!phantom.empty()) {
         t += fmt::format(
             "stylised adult phantom (MIRD-type hermaphrodite after MIRD Pamphlet 5, organ "
-            "tissue depths per direction from {} points per organ region, {} directions for "
+            "tissue depths per direction from {} points per organ region (the skin {}), {} "
+            "directions for "
             "SPEs; skin 0.07 mm below the body's surface, averaged over it; lens at 3 mm in every "
             "direction (no eyes in the phantom); BFO = active marrow; effective dose with "
             "ICRP 103 weights, oesophagus, salivary glands and bone surface by named proxies) "
             "at {}",
-            kPhantomPointsPerDirection, sc.mission.phantom_directions, fmt::join(phantom, ", "));
+            kPhantomPointsPerDirection, kSkinPointsFactor * kPhantomPointsPerDirection,
+            sc.mission.phantom_directions, fmt::join(phantom, ", "));
     }
     if (!quick.empty()) {
         t += fmt::format("{}quick screening model (skin 0.07 mm, lens 3 mm, BFO 5 cm of tissue in "

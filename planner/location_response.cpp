@@ -126,8 +126,13 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                                             habitats::Posture posture, double heading_deg,
                                             const std::vector<habitats::Vector3>& directions,
                                             std::span<const std::vector<double>> grids,
-                                            std::size_t points_per_direction, std::size_t threads) {
+                                            std::size_t points_per_direction, std::size_t threads,
+                                            std::vector<std::vector<DepthSample>>* samples) {
     constexpr std::size_t n_out = 6;
+    if (samples) {
+        samples->assign(n_out, {});
+        threads = 1;
+    }
     std::vector<BodyDepths> bodies;
     std::vector<std::size_t> lens_node;
     for (const auto& grid : grids) {
@@ -172,7 +177,6 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
     // The skin's dose is taken 0.07 mm below its surface points, in every direction (the
     // convention of the quick model's skin, now with the body behind each point).
     constexpr double kSkinDepth_g_cm2 = 0.007;
-    constexpr std::size_t kSkinPointsFactor = 4;
     feeds[organ_index("skin")].emplace_back(0, 1.0);
     feeds[organ_index("red-marrow")].emplace_back(2, 1.0);
     feeds[organ_index("heart")].emplace_back(3, 1.0);
@@ -224,6 +228,9 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                 double* block = bodies[q].weights.data() + k * n_out * n_grid;
                 block[1 * n_grid + lens_node[q]] = 1.0;
             }
+            if (samples) {
+                (*samples)[1].push_back({k, 0.3, 1.0});
+            }
             for (std::size_t i = 0; i < organs.size(); ++i) {
                 if (feeds[i].empty()) {
                     continue;
@@ -246,6 +253,11 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                     for (std::size_t j = 0; j < m; ++j) {
                         const std::size_t s = first + (k * m + j) % count;
                         const double t = below + phantom.tissue_g_cm2(o.points[s], u);
+                        if (samples) {
+                            for (const auto& [out, f] : feeds[i]) {
+                                (*samples)[out].push_back({k, t, f * o.weights[s] * scale});
+                            }
+                        }
                         for (auto& body : bodies) {
                             const auto& grid = body.grid_g_cm2;
                             const std::size_t n_grid = grid.size();

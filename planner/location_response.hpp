@@ -70,23 +70,28 @@ struct BodyDepths {
 /// Phantom points each direction uses per organ region (of the 512 each region has).
 /// Convergence: tests/unit/phantom_test.
 inline constexpr std::size_t kPhantomPointsPerDirection = 32;
+/// The skin takes this many times as many points per direction (whether a surface point faces
+/// the direction decides its dose; convergence: tests/unit/phantom_convergence_test).
+inline constexpr std::size_t kSkinPointsFactor = 4;
 
 /// The phantom's tissue-depth grid, g/cm2: the skin and lens depths, then nodes from 0.5 to
 /// 160 g/cm2 (the longest path through the body) about 20 % apart. Convergence against a grid
 /// twice as fine and against every sample point's own depth: tests/unit/phantom_test.
 [[nodiscard]] std::vector<double> phantom_depth_grid();
 
-/// The organs a phantom location reports: skin and lens at the quick model's depths (the
-/// phantom has no eyes; the skin dose is the dose at 0.07 mm wherever the skin is), "bfo" the
-/// active marrow, "heart" and "brain" (the circulatory and CNS limits), and "effective": the
-/// ICRP 103 tissue-weighted sum of the phantom's organs (exposure::icrp103_tissue_weights), so
-/// that its dose equivalent is the effective dose. Tissues the phantom lacks take a named
-/// proxy: oesophagus -> thymus, salivary glands -> thyroid, bone surface -> active marrow;
-/// the remainder is the mean of the remainder tissues it has.
+/// The organs a phantom location reports: "skin", the mean over the body's surface of the
+/// dose 0.07 mm below it (each point with the body behind it), "lens" at the quick model's
+/// 3 mm in every direction (the phantom has no eyes), "bfo" the active marrow, "heart" and "brain"
+/// (the circulatory and CNS limits), and "effective": the ICRP 103 tissue-weighted sum of the
+/// phantom's organs (exposure::icrp103_tissue_weights), so that its dose equivalent is the
+/// effective dose. Tissues the phantom lacks take a named proxy: oesophagus -> thymus, salivary
+/// glands -> thyroid, bone surface -> active marrow; the remainder is the mean of the remainder
+/// tissues it has.
 ///
-/// Each direction uses `points_per_direction` of each organ region's points, a different
-/// block of them for each direction in turn (stratified sampling: over all directions every
-/// point is used); 0 uses every point in every direction (the reference).
+/// Each direction uses `points_per_direction` of each organ region's points (the skin four
+/// times as many), a different block of them for each direction in turn (stratified sampling:
+/// over all directions every point is used); 0 uses every point in every direction (the
+/// reference).
 [[nodiscard]] BodyDepths
 phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
                     const std::vector<habitats::Vector3>& directions,
@@ -103,12 +108,24 @@ phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture,
 /// The adult phantom every phantom location shares (built once, thread-safe).
 [[nodiscard]] const habitats::Phantom& shared_phantom();
 
+/// One sample point's tissue along one direction, for reports: the direction's index, the
+/// tissue areal density (g/cm2) and the point's weight in the reported organ (the weights of
+/// one direction sum to 1 per organ).
+struct DepthSample {
+    std::size_t direction = 0;
+    double tissue_g_cm2 = 0.0;
+    double weight = 0.0;
+};
+
 /// The same on several grids at once (one ray trace per point and direction for all), the
 /// directions shared among `threads` threads (the result does not depend on their number).
+/// With `samples`, also every traced depth before it is split onto the grid, per reported
+/// organ (then on one thread).
 [[nodiscard]] std::vector<BodyDepths> phantom_body_depths(
     const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
     const std::vector<habitats::Vector3>& directions, std::span<const std::vector<double>> grids,
-    std::size_t points_per_direction = kPhantomPointsPerDirection, std::size_t threads = 1);
+    std::size_t points_per_direction = kPhantomPointsPerDirection, std::size_t threads = 1,
+    std::vector<std::vector<DepthSample>>* samples = nullptr);
 
 /// Which phantom organ stands for an ICRP 103 tissue (the tissue itself where the phantom has
 /// it), or "" for "remainder".

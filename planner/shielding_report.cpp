@@ -13,41 +13,41 @@
 namespace crewdose::planner {
 namespace {
 
-double percentile(const std::vector<double>& sorted, double p) {
+// The value below which a share p of the weight lies, for (value, weight) pairs sorted by
+// value: the i-th value sits at (S_i - w_i) / (S_n - w_n) of the cumulative weight S
+// (inclusive), linear in between; with equal weights the usual (n - 1) p interpolation.
+double weighted_percentile(const std::vector<std::pair<double, double>>& sorted, double p) {
     if (sorted.empty()) {
         return 0.0;
     }
-    const double x = p * static_cast<double>(sorted.size() - 1);
-    const auto i = static_cast<std::size_t>(std::floor(x));
-    const std::size_t j = std::min(i + 1, sorted.size() - 1);
-    return sorted[i] + (sorted[j] - sorted[i]) * (x - static_cast<double>(i));
-}
-
-// The value below which a share p of the total weight lies: (value, weight) pairs sorted by
-// value, interpolated linearly in the cumulative weight between pair midpoints.
-double weighted_percentile(const std::vector<std::pair<double, double>>& sorted, double p) {
     double total = 0.0;
     for (const auto& [v, w] : sorted) {
         total += w;
     }
-    if (sorted.empty() || !(total > 0.0)) {
-        return 0.0;
+    const double span = total - sorted.back().second;
+    if (!(span > 0.0)) {
+        return sorted.back().first;
     }
-    const double target = p * total;
-    double below = 0.0; // weight below the current pair's midpoint
-    for (std::size_t i = 0; i < sorted.size(); ++i) {
-        const double mid = below + 0.5 * sorted[i].second;
-        if (target <= mid) {
-            if (i == 0) {
-                return sorted[0].first;
-            }
-            const double prev_mid = below - 0.5 * sorted[i - 1].second;
-            const double f = (target - prev_mid) / (mid - prev_mid);
-            return sorted[i - 1].first + f * (sorted[i].first - sorted[i - 1].first);
+    const double target = p * span;
+    double before = 0.0; // S_i - w_i of the current pair
+    for (std::size_t i = 0; i + 1 < sorted.size(); ++i) {
+        const double next = before + sorted[i].second;
+        if (target <= next) {
+            const double f = sorted[i].second > 0.0 ? (target - before) / sorted[i].second : 0.0;
+            return sorted[i].first + f * (sorted[i + 1].first - sorted[i].first);
         }
-        below += sorted[i].second;
+        before = next;
     }
     return sorted.back().first;
+}
+
+double percentile(const std::vector<double>& sorted, double p) {
+    std::vector<std::pair<double, double>> unit;
+    unit.reserve(sorted.size());
+    for (const double v : sorted) {
+        unit.emplace_back(v, 1.0);
+    }
+    return weighted_percentile(unit, p);
 }
 
 } // namespace
@@ -63,10 +63,11 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     const auto& dirs = study.directions(location);
     const BodyDepths& body = study.body(location);
     // Per organ: the external areal density plus the organ's tissue, over its points and the
-    // open directions (each tissue depth node with its weight; the quick model: its fixed
+    // open directions (the phantom: every traced point's own depth; the quick model: its fixed
     // depth), and the mean tissue.
     std::vector<std::vector<std::pair<double, double>>> totals(body.organs.size());
     std::vector<double> mean_tissue(body.organs.size(), 0.0);
+    std::vector<double> external_of(dirs.size(), -1.0); // < 0: blocked
     for (std::size_t k = 0; k < dirs.size(); ++k) {
         const auto& d = dirs[k];
         if (where.surroundings.blocked(d)) {
@@ -78,16 +79,33 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             total += seg.areal_density_g_cm2;
         }
         external.push_back(total);
+        external_of[k] = total;
         for (std::size_t o = 0; o < body.organs.size(); ++o) {
             const auto w = body.of(k, o);
             double tissue = 0.0;
             for (std::size_t g = 0; g < w.size(); ++g) {
                 tissue += w[g] * body.grid_g_cm2[g];
-                if (w[g] > 0.0) {
+                if (w[g] > 0.0 && body.model != "phantom") {
                     totals[o].emplace_back(total + body.grid_g_cm2[g], w[g]);
                 }
             }
             mean_tissue[o] += tissue;
+        }
+    }
+    if (body.model == "phantom") {
+        // The grid's weights only hold each depth split between two nodes: trace again, once,
+        // keeping every point's own depth.
+        std::vector<std::vector<DepthSample>> samples;
+        const std::vector<std::vector<double>> grid{body.grid_g_cm2};
+        (void)phantom_body_depths(shared_phantom(), where.posture, where.heading_deg, dirs, grid,
+                                  kPhantomPointsPerDirection, 1, &samples);
+        for (std::size_t o = 0; o < body.organs.size(); ++o) {
+            for (const auto& smp : samples.at(o)) {
+                if (external_of[smp.direction] >= 0.0 && smp.weight > 0.0) {
+                    totals[o].emplace_back(external_of[smp.direction] + smp.tissue_g_cm2,
+                                           smp.weight);
+                }
+            }
         }
     }
     for (std::size_t o = 0; o < body.organs.size(); ++o) {

@@ -327,19 +327,27 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
         }
         for (const auto& s : planned_[i]) {
             places.push_back(s.location);
-            if (s.activity && s.activity->refuge) {
+            if (respond_ && s.activity && s.activity->refuge) {
                 places.push_back(*s.activity->refuge);
             }
         }
+        std::vector<std::pair<std::string, std::string>> left_out; // organ, a quick location
         for (const auto& organ : candidates) {
             const auto quick = std::find_if(places.begin(), places.end(), [&](const auto& l) {
                 return !study.has_organ(l, organ);
             });
             can[i].push_back(quick == places.end());
             if (quick != places.end()) {
-                unchecked.push_back(fmt::format("{} for {} (location {} uses the quick body model)",
-                                                organ, sc.crew[i].id, *quick));
+                if (!left_out.empty() && left_out.back().second == *quick) {
+                    left_out.back().first += " and " + organ;
+                } else {
+                    left_out.emplace_back(organ, *quick);
+                }
             }
+        }
+        for (const auto& [organs, where] : left_out) {
+            unchecked.push_back(fmt::format("{} for {} (location {} uses the quick body model)",
+                                            organs, sc.crew[i].id, where));
         }
     }
     std::vector<std::size_t> candidate_index; // organs_ index -> candidates index, or npos

@@ -96,7 +96,7 @@ class StormContext {
     /// Whether organ k of organs() is checked for crew member `crew` (BFO, lens and skin
     /// always; heart and brain when all of that crew member's places give them).
     [[nodiscard]] bool checked(std::size_t crew, std::size_t k) const {
-        return checked_.at(crew).at(k);
+        return k < organs_.size() && checked_.at(crew).at(k);
     }
     /// Organs with a 30-day limit that are not checked, and why (empty when all are).
     [[nodiscard]] const std::string& unchecked_note() const noexcept { return unchecked_note_; }

@@ -517,6 +517,30 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     CHECK(skin["p05"].get<double>() < ext["p05"].get<double>() + 0.5);
     CHECK(skin["p05"].get<double>() < doc["organs"]["bfo"]["total_g_cm2"]["p05"].get<double>());
     CHECK(r.out.find("GCR at the mission start, phi = 650 MV") != std::string::npos);
+    // The quick model adds its fixed depth in every direction: each organ's percentiles are
+    // the walls' plus that depth (by construction; one percentile definition for both).
+    {
+        std::string text = read_file(demo());
+        const std::string phantom_rover = "id = \"rover-cabin\"\nbody = \"phantom\"";
+        const auto at = text.find(phantom_rover);
+        REQUIRE(at != std::string::npos);
+        text.replace(at, phantom_rover.size(), "id = \"rover-cabin\"\nbody = \"quick\"");
+        const std::string dir = temp_dir();
+        write_file(dir + "/quick-rover.toml", text);
+        const Run q =
+            run("shielding " + dir + "/quick-rover.toml --location rover-cabin --format json");
+        REQUIRE(q.exit_code == 0);
+        const auto qd = nlohmann::json::parse(q.out);
+        CHECK(qd["body_model"] == "quick");
+        for (const auto& [organ, depth] :
+             {std::pair{"skin", 0.007}, std::pair{"lens", 0.3}, std::pair{"bfo", 5.0}}) {
+            INFO(organ);
+            for (const char* pk : {"p05", "p50", "p95"}) {
+                CHECK(qd["organs"][organ]["total_g_cm2"][pk].get<double>() ==
+                      Approx(qd["external_g_cm2"][pk].get<double>() + depth).epsilon(1e-12));
+            }
+        }
+    }
     const Run bad = run("shielding " + demo() + " --location attic");
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("--location: unknown location 'attic'; the scenario defines: hab-deck") !=

@@ -451,14 +451,13 @@ TEST_CASE("storm: heart and brain are not checked where a crew member may be at 
     const StormContext ctx(study, "spe", true);
     CHECK(ctx.organs() == std::vector<std::string>{"bfo", "lens", "skin"});
     CHECK(ctx.unchecked_note() ==
-          "heart for a (location outside uses the quick body model); brain for a (location "
-          "outside uses the quick body model)");
+          "heart and brain for a (location outside uses the quick body model)");
     const auto w = ctx.at(parse_command_time("2032-01-03T09:30:00Z", "--onset"));
     CHECK(w.crew[0].organs.size() == 3);
     // The report says so (the JSON's model text, which is not wrapped).
     CHECK(format_storm_whatif(ctx, w, OutputFormat::json)
-              .find("Not checked: heart for a (location outside uses the quick body model)") !=
-          std::string::npos);
+              .find("Not checked: heart and brain for a (location outside uses the quick body "
+                    "model)") != std::string::npos);
 
     std::string two = alone;
     const std::string crew_a = "[[crew]]\nid = \"a\"\n";
@@ -489,8 +488,7 @@ end = 2032-01-11T00:00:00Z
               Approx(w2.crew[i].worst_ratio()).epsilon(1e-12));
     }
     CHECK(ctx2.unchecked_note() ==
-          "heart for a (location outside uses the quick body model); brain for a (location "
-          "outside uses the quick body model)");
+          "heart and brain for a (location outside uses the quick body model)");
 }
 
 TEST_CASE("storm: the sweep names the heart when its 30-day limit binds", "[storm]") {
@@ -513,4 +511,24 @@ TEST_CASE("storm: the sweep names the heart when its 30-day limit binds", "[stor
                                     [](const StormOrgan& o) { return o.organ == "heart"; });
     REQUIRE(heart != worst.organs.end());
     CHECK(worst.worst_ratio() == Approx(heart->ratio()).epsilon(1e-12));
+}
+
+TEST_CASE("storm: a refuge counts among a crew member's places only with a response", "[storm]") {
+    // All locations phantom but a quick-model hut that is the EVA's refuge: with the response
+    // the crew member may end up in the hut, so no heart or brain check; without it nobody
+    // moves there, so they are checked.
+    std::string text = with_phantom(plan(kTimeline, kPolicy), {"cabin", "shelter", "outside"});
+    const std::string ret = "return_min = 40\n";
+    text.replace(text.find(ret), ret.size(), ret + "refuge = \"hut\"\n");
+    const std::string crew = "[[crew]]\n";
+    text.replace(text.find(crew), crew.size(),
+                 "[[location]]\nid = \"hut\"\npoint_m = [0.0, 12.0, 0.0]\nsuit = true\n\n" + crew);
+    const Study study(parse_scenario(text, "refuge.toml"));
+    const StormContext with(study, "spe", true);
+    CHECK(with.organs() == std::vector<std::string>{"bfo", "lens", "skin"});
+    CHECK(with.unchecked_note() ==
+          "heart and brain for a (location hut uses the quick body model)");
+    const StormContext without(study, "spe", false);
+    CHECK(without.organs() == std::vector<std::string>{"bfo", "lens", "skin", "heart", "brain"});
+    CHECK(without.unchecked_note().empty());
 }
