@@ -374,35 +374,24 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     LedgerOptions options;
     options.allow_gaps = true;
     const LedgerResult ledger = build_ledger(study, options);
+    // Per crew member and organ: the highest 30-day dose from everything else; per organ its
+    // 30-day planning limit (both indexed like organs_).
     for (const auto& c : sc.crew) {
-        std::map<std::string, double> other;
-        for (const auto& organ : organs_) {
-            other[organ] = highest_30d_without(ledger, c.id, organ, event_);
-        }
-        other_.push_back(std::move(other));
-    }
-    for (const auto& organ : organs_) {
-        limits_30d_[organ] = 0.0;
-    }
-    for (const auto& l : sc.limits.limits) {
-        if (l.window == "30-day" && limits_30d_.count(l.organ)) {
-            limits_30d_[l.organ] = l.value;
-        }
-    }
-    for (const auto& [organ, limit] : limits_30d_) {
-        if (!(limit > 0.0)) {
-            throw std::logic_error("storm: every organ needs a 30-day planning limit");
-        }
-    }
-    for (std::size_t k = 0; k < organs_.size(); ++k) {
-        limit_by_index_[k] = limits_30d_.at(organs_[k]);
-    }
-    for (const auto& other : other_) {
         StormDoses d{};
         for (std::size_t k = 0; k < organs_.size(); ++k) {
-            d[k] = other.at(organs_[k]);
+            d[k] = highest_30d_without(ledger, c.id, organs_[k], event_);
         }
         other_by_index_.push_back(d);
+    }
+    for (std::size_t k = 0; k < organs_.size(); ++k) {
+        for (const auto& l : sc.limits.limits) {
+            if (l.window == "30-day" && l.organ == organs_[k]) {
+                limit_by_index_[k] = l.value;
+            }
+        }
+        if (!(limit_by_index_[k] > 0.0)) {
+            throw std::logic_error("storm: every organ needs a 30-day planning limit");
+        }
     }
     const double uf = sc.limits.uncertainty_factor;
     for (const auto& loc : sc.locations) {
@@ -475,11 +464,11 @@ StormDoses StormContext::doses_over(const std::vector<TimelineSpan>& spans, Time
 }
 
 double StormContext::other(std::size_t crew, std::size_t k) const {
-    return other_.at(crew).at(organs_.at(k));
+    return other_by_index_.at(crew).at(k);
 }
 
 double StormContext::limit(std::size_t k) const {
-    return limits_30d_.at(organs_.at(k));
+    return limit_by_index_.at(k);
 }
 
 StormTimes StormContext::times_at(Time onset) const {
@@ -536,7 +525,7 @@ StormWhatIf StormContext::at(Time onset) const {
             }
             const std::string& organ = organs_[k];
             c.organs.push_back(
-                {organ, without[k], with[k], other_[i].at(organ), limits_30d_.at(organ)});
+                {organ, without[k], with[k], other_by_index_[i][k], limit_by_index_[k]});
         }
         const Time shown_until = std::max(w.times.all_clear, onset) + boost::posix_time::hours(12);
         for (const auto& s : spans) {

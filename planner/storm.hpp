@@ -7,7 +7,6 @@
 
 #include <array>
 #include <functional>
-#include <map>
 #include <optional>
 #include <string>
 #include <unordered_map>
@@ -126,11 +125,9 @@ class StormContext {
     const Study& study_;
     const EventSpec* event_ = nullptr;
     bool respond_ = true;
-    std::vector<std::vector<TimelineSpan>> planned_;   ///< per crew member
-    std::vector<std::map<std::string, double>> other_; ///< per crew member, per organ
-    std::vector<StormDoses> other_by_index_;           ///< the same per organs() index
-    StormDoses limit_by_index_{};                      ///< 30-day limits per organs() index
-    std::map<std::string, double> limits_30d_;
+    std::vector<std::vector<TimelineSpan>> planned_; ///< per crew member
+    std::vector<StormDoses> other_by_index_;         ///< the same per organs() index
+    StormDoses limit_by_index_{};                    ///< 30-day limits per organs() index
     double horizon_h_ = 0.0;         ///< after the onset, beyond which the event gives nothing
     double all_clear_after_h_ = 0.0; ///< all-clear - onset: the same for every onset
 };
