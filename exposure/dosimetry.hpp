@@ -4,6 +4,8 @@
 #include "particle.hpp"
 #include "range_table.hpp"
 
+#include <cmath>
+
 namespace crewdose::exposure {
 
 /// RBE values by particle type for RBE-weighted dose (Gy-Eq). Defaults: NCRP Report 132
@@ -29,6 +31,12 @@ struct DoseQuantities {
     }
     [[nodiscard]] DoseQuantities scaled(double f) const {
         return {absorbed_Gy * f, dose_equivalent_Sv * f, rbe_weighted_GyEq * f};
+    }
+    /// True when every quantity is a finite number >= 0: a dose that was computed.
+    [[nodiscard]] bool physical() const {
+        return std::isfinite(absorbed_Gy) && std::isfinite(dose_equivalent_Sv) &&
+               std::isfinite(rbe_weighted_GyEq) && absorbed_Gy >= 0.0 &&
+               dose_equivalent_Sv >= 0.0 && rbe_weighted_GyEq >= 0.0;
     }
 };
 

@@ -266,9 +266,9 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
 }
 
 void FragmentTransport::cross(IonField& field, const Material& material, double t) {
-    if (!std::isfinite(t) || t < 0.0) {
+    if (!std::isfinite(t) || t < 0.0 || t > kMaxCrossing_g_cm2) {
         throw std::invalid_argument("FragmentTransport::cross: thickness of " + material.id() +
-                                    " must be finite and >= 0");
+                                    " must be finite, >= 0 and at most 1e9 g/cm2");
     }
     if (t == 0.0) {
         return;
@@ -353,8 +353,27 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     if (rest > 1e-9 * h_max) {
         substep(rest);
     }
+    // A path far thicker than any shield (a hill, a planet) would take many steps for nothing:
+    // once the whole field has fallen below kExtinction of what entered, it is zero (the dose
+    // behind is below that share of the dose in front) and the march stops.
+    auto largest = [&field] {
+        double m = 0.0;
+        for (const auto& psi : field.psi) {
+            for (const double v : psi) {
+                m = std::max(m, v);
+            }
+        }
+        return m;
+    };
+    const double entered = largest();
     for (std::size_t k = 0; k < full; ++k) {
         substep(h_max);
+        if (k % 16 == 15 && largest() < kExtinction * entered) {
+            for (auto& psi : field.psi) {
+                std::fill(psi.begin(), psi.end(), 0.0);
+            }
+            return;
+        }
     }
 }
 

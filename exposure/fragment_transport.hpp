@@ -55,6 +55,11 @@ struct MarchOptions {
 class FragmentTransport {
   public:
     static constexpr int kMaxZ = 28;
+    /// The field is taken as extinct, and set to zero, once every node has fallen below this
+    /// share of the largest value that entered the layer (checked every 16 steps).
+    static constexpr double kExtinction = 1e-30;
+    /// Thickest layer cross() takes, g/cm2 (the scenario's bounds give at most 2.5e7).
+    static constexpr double kMaxCrossing_g_cm2 = 1e9;
 
     FragmentTransport(TableLibrary& tables, MarchOptions options = {});
     ~FragmentTransport();
@@ -70,7 +75,8 @@ class FragmentTransport {
     /// A field of zeros.
     [[nodiscard]] IonField empty_field() const;
 
-    /// Carries `field` through `areal_density_g_cm2` of `material`.
+    /// Carries `field` through `areal_density_g_cm2` of `material` (0 to kMaxCrossing_g_cm2;
+    /// std::invalid_argument otherwise).
     void cross(IonField& field, const Material& material, double areal_density_g_cm2);
 
     /// Dose quantities of `field` scored in `medium` (LET in water for Q(L)): the integral over

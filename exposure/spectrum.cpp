@@ -2,10 +2,12 @@
 
 #include "parameter_error.hpp"
 #include "particle.hpp"
+#include "range_table.hpp"
 #include "rigidity.hpp"
 #include "units.hpp"
 
 #include <cmath>
+#include <cstdio>
 #include <string>
 
 namespace crewdose::exposure {
@@ -14,42 +16,74 @@ namespace {
 template <class... Ts> struct Overloaded : Ts... { using Ts::operator()...; };
 template <class... Ts> Overloaded(Ts...) -> Overloaded<Ts...>;
 
-void require_positive(double value, const char* field) {
-    if (!(value > 0.0) || !std::isfinite(value)) {
-        throw ParameterError(field, "must be a finite number > 0, got " + std::to_string(value));
+// The energies a spectrum is evaluated at: the transport grid's (10 keV to 100 GeV).
+constexpr EnergyGridSpec kSpectrumGrid{};
+// Bounds of the plausible parameter ranges (see validate()).
+constexpr double kMaxNormalisation = 1.0e20;
+constexpr double kMaxSpectralIndex = 20.0;
+constexpr double kMinRigidityScale_GV = 0.005;
+constexpr double kMaxRigidityScale_GV = 10.0;
+
+std::string number_text(double v) {
+    char buf[32];
+    std::snprintf(buf, sizeof buf, "%g", v);
+    return buf;
+}
+
+// A parameter in (lo, hi] (open_low) or [lo, hi]: finite by construction of the test.
+void require_range(double value, double lo, double hi, const char* field, const char* unit,
+                   bool open_low = true) {
+    const bool ok = open_low ? (value > lo && value <= hi) : (value >= lo && value <= hi);
+    if (!ok) {
+        throw ParameterError(field, std::string("must be ") + (open_low ? "more than " : "from ") +
+                                        number_text(lo) + (open_low ? " and at most " : " to ") +
+                                        number_text(hi) + (*unit ? " " : "") + unit + ", got " +
+                                        number_text(value));
     }
 }
 
+void require_positive(double value, const char* field) {
+    require_range(value, 0.0, kMaxNormalisation, field, "");
+}
+
+// Plausible parameter ranges of the published forms (scenarios/README.md repeats them). Fitted
+// SPE spectra lie well inside them (common practice); they keep every form finite on the
+// transport grid, which check_values() then verifies.
 void validate(const SpectrumForm& form) {
     std::visit(Overloaded{
                    [](const BandRigidity& b) {
                        require_positive(b.J0_per_cm2, "J0");
-                       require_positive(b.R0_GV, "R0_GV");
-                       if (!std::isfinite(b.gamma_a)) {
-                           throw ParameterError("gamma_a", "must be a finite number");
-                       }
-                       if (!(b.gamma_b > b.gamma_a) || !std::isfinite(b.gamma_b)) {
-                           throw ParameterError("gamma_b", "must be finite and greater than "
-                                                           "gamma_a");
+                       require_range(b.R0_GV, kMinRigidityScale_GV, kMaxRigidityScale_GV, "R0_GV",
+                                     "GV", false);
+                       // gamma_a < 0 makes J(>R) rise with R at low rigidity: a negative
+                       // differential fluence.
+                       require_range(b.gamma_a, 0.0, kMaxSpectralIndex, "gamma_a", "", false);
+                       if (!(b.gamma_b > b.gamma_a && b.gamma_b <= kMaxSpectralIndex)) {
+                           throw ParameterError("gamma_b", "must be greater than gamma_a and at "
+                                                           "most " +
+                                                               number_text(kMaxSpectralIndex) +
+                                                               ", got " + number_text(b.gamma_b));
                        }
                    },
                    [](const WeibullEnergy& w) {
                        require_positive(w.J0_per_cm2, "J0");
-                       require_positive(w.k, "k");
-                       require_positive(w.alpha, "alpha");
+                       require_range(w.k, 0.0, 100.0, "k", "MeV^-alpha");
+                       require_range(w.alpha, 0.0, 5.0, "alpha", "");
                    },
                    [](const ExponentialRigidity& e) {
                        require_positive(e.J0_per_cm2, "J0");
-                       require_positive(e.R0_GV, "R0_GV");
+                       require_range(e.R0_GV, kMinRigidityScale_GV, kMaxRigidityScale_GV, "R0_GV",
+                                     "GV", false);
                    },
                    [](const ExponentialEnergy& e) {
                        require_positive(e.J0_per_cm2, "J0");
-                       require_positive(e.E0_MeV, "E0_MeV");
+                       require_range(e.E0_MeV, 0.1, 1.0e4, "E0_MeV", "MeV", false);
                    },
                    [](const PowerLawEnergy& p) {
                        require_positive(p.J0_per_cm2, "J0");
-                       require_positive(p.gamma, "gamma");
-                       require_positive(p.E_ref_MeV, "E_ref_MeV");
+                       require_range(p.gamma, 0.0, kMaxSpectralIndex, "gamma", "");
+                       require_range(p.E_ref_MeV, kSpectrumGrid.min_MeV_per_n,
+                                     kSpectrumGrid.max_MeV_per_n, "E_ref_MeV", "MeV", false);
                    },
                    [](const TabulatedIntegral& t) {
                        if (t.energy_MeV.size() < 2 || t.energy_MeV.size() != t.J_per_cm2.size()) {
@@ -57,7 +91,8 @@ void validate(const SpectrumForm& form) {
                                                          "of equal length");
                        }
                        for (std::size_t i = 0; i < t.energy_MeV.size(); ++i) {
-                           require_positive(t.energy_MeV[i], "energy_MeV");
+                           require_range(t.energy_MeV[i], kSpectrumGrid.min_MeV_per_n,
+                                         kSpectrumGrid.max_MeV_per_n, "energy_MeV", "MeV", false);
                            require_positive(t.J_per_cm2[i], "J");
                            if (i > 0 && !(t.energy_MeV[i] > t.energy_MeV[i - 1])) {
                                throw ParameterError("energy_MeV", "must increase strictly "
@@ -66,6 +101,20 @@ void validate(const SpectrumForm& form) {
                            if (i > 0 && !(t.J_per_cm2[i] < t.J_per_cm2[i - 1])) {
                                throw ParameterError("J", "an integral fluence J(>E) must "
                                                          "decrease strictly with energy");
+                           }
+                           if (i > 0) {
+                               // Each segment is a power law, extended beyond the table: its
+                               // index obeys the power form's bound.
+                               const double index = -std::log(t.J_per_cm2[i] / t.J_per_cm2[i - 1]) /
+                                                    std::log(t.energy_MeV[i] / t.energy_MeV[i - 1]);
+                               if (!(index <= kMaxSpectralIndex)) {
+                                   throw ParameterError(
+                                       "J",
+                                       "falls faster than E^-" + number_text(kMaxSpectralIndex) +
+                                           " between " + number_text(t.energy_MeV[i - 1]) +
+                                           " and " + number_text(t.energy_MeV[i]) + " MeV (index " +
+                                           number_text(index) + "); no SPE spectrum is that steep");
+                               }
                            }
                        }
                    },
@@ -136,8 +185,50 @@ IntegralAndSlope evaluate(const SpectrumForm& form, double E) {
 ProtonSpectrum::ProtonSpectrum(SpectrumForm form, FitRange fit_range)
     : form_(std::move(form)), fit_range_(fit_range) {
     validate(form_);
-    if (!(fit_range_.min_MeV > 0.0) || !(fit_range_.max_MeV > fit_range_.min_MeV)) {
-        throw ParameterError("fit_range", "needs 0 < min_MeV < max_MeV");
+    if (!(fit_range_.min_MeV >= kSpectrumGrid.min_MeV_per_n) ||
+        !(fit_range_.max_MeV > fit_range_.min_MeV) ||
+        !(fit_range_.max_MeV <= kSpectrumGrid.max_MeV_per_n)) {
+        throw ParameterError("fit_range", "needs " + number_text(kSpectrumGrid.min_MeV_per_n) +
+                                              " <= fit_min_MeV < fit_max_MeV <= " +
+                                              number_text(kSpectrumGrid.max_MeV_per_n) + " MeV");
+    }
+    check_values();
+}
+
+void ProtonSpectrum::check_values() const {
+    // Every energy the transport grid can ask for, 8 per decade, and the fit range's ends.
+    const double decades = std::log10(kSpectrumGrid.max_MeV_per_n / kSpectrumGrid.min_MeV_per_n);
+    const int n = static_cast<int>(std::lround(8.0 * decades));
+    for (int i = 0; i <= n + 2; ++i) {
+        const double E = i == n + 1 ? fit_range_.min_MeV
+                         : i == n + 2
+                             ? fit_range_.max_MeV
+                             : kSpectrumGrid.min_MeV_per_n * std::pow(10.0, decades * i / n);
+        const auto v = evaluate(form_, E);
+        const double J = scale_ * v.J;
+        const double dJ = scale_ * v.minus_dJ;
+        if (!std::isfinite(J) || !std::isfinite(dJ) || J < 0.0 || dJ < 0.0) {
+            throw ParameterError("spectrum", "does not give a finite, non-negative fluence at " +
+                                                 number_text(E) + " MeV (J(>E) = " +
+                                                 number_text(J) + ", -dJ/dE = " + number_text(dJ) +
+                                                 "); the parameters are outside what the form can "
+                                                 "represent on 0.01 MeV to 100 GeV");
+        }
+    }
+    const double in_fit =
+        integral_fluence_per_cm2(fit_range_.min_MeV) - integral_fluence_per_cm2(fit_range_.max_MeV);
+    if (!(in_fit > 0.0)) {
+        throw ParameterError("spectrum", "has no fluence inside its fit range (" +
+                                             number_text(fit_range_.min_MeV) + " to " +
+                                             number_text(fit_range_.max_MeV) + " MeV)");
+    }
+    const double above_10 = integral_fluence_per_cm2(10.0);
+    if (!(above_10 <= kMaxFluenceAbove10MeV_per_cm2)) {
+        throw ParameterError(
+            "spectrum", "gives J(>10 MeV) = " + number_text(above_10) + " protons/cm2, above " +
+                            number_text(kMaxFluenceAbove10MeV_per_cm2) +
+                            ", about a thousand times the largest events on record; "
+                            "check the units of J0 and of scale_to");
     }
 }
 
@@ -150,10 +241,19 @@ double ProtonSpectrum::differential_fluence_per_cm2_MeV(double energy_MeV) const
 }
 
 ProtonSpectrum ProtonSpectrum::scaled_to(double fluence_per_cm2, double energy_MeV) const {
-    require_positive(fluence_per_cm2, "fluence");
-    require_positive(energy_MeV, "energy_MeV");
+    require_range(fluence_per_cm2, 0.0, kMaxFluenceAbove10MeV_per_cm2, "scale_to fluence",
+                  "protons/cm2");
+    require_range(energy_MeV, kSpectrumGrid.min_MeV_per_n, kSpectrumGrid.max_MeV_per_n,
+                  "scale_to energy", "MeV", false);
+    const double J = evaluate(form_, energy_MeV).J;
+    if (!(J > 0.0) || !std::isfinite(J)) {
+        throw ParameterError("scale_to", "the spectrum's J(>" + number_text(energy_MeV) +
+                                             " MeV) is " + number_text(J) +
+                                             ": it cannot be scaled there");
+    }
     ProtonSpectrum copy = *this;
-    copy.scale_ = fluence_per_cm2 / evaluate(form_, energy_MeV).J;
+    copy.scale_ = fluence_per_cm2 / J;
+    copy.check_values();
     return copy;
 }
 

@@ -63,7 +63,8 @@ struct FitRange {
 /// A validated SPE proton spectrum: one published form, a fit range and a scale factor.
 class ProtonSpectrum {
   public:
-    /// Validates every parameter; ParameterError names the first one that is not allowed.
+    /// Validates every parameter against its plausible range and the spectrum's values on the
+    /// transport grid (0.01 MeV to 100 GeV); ParameterError names the first problem.
     ProtonSpectrum(SpectrumForm form, FitRange fit_range);
 
     /// Integral fluence above E, protons/cm2.
@@ -78,7 +79,15 @@ class ProtonSpectrum {
     /// but with F protons/cm2 above E MeV").
     [[nodiscard]] ProtonSpectrum scaled_to(double fluence_per_cm2, double energy_MeV) const;
 
+    /// Largest integral fluence above 10 MeV a spectrum may have, protons/cm2: about a
+    /// thousand times the largest events on record (about 1e10 above 10 MeV, from memory).
+    static constexpr double kMaxFluenceAbove10MeV_per_cm2 = 1.0e13;
+
   private:
+    /// ParameterError unless J(>E) and -dJ/dE are finite and non-negative on the whole
+    /// transport grid, the fit range holds some fluence, and J(>10 MeV) is plausible.
+    void check_values() const;
+
     SpectrumForm form_;
     FitRange fit_range_;
     double scale_ = 1.0;
