@@ -2,6 +2,7 @@
 
 #include "cautions.hpp"
 #include "number_format.hpp"
+#include "result_guard.hpp"
 #include "spectrum_spec.hpp"
 #include "time_format.hpp"
 
@@ -200,7 +201,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                                  {"end", format_time(g.end)},
                                  {"charged_at", g.charged_at}});
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         // The effective dose is in mSv, every organ dose in mGy-Eq: a unit column says which.

@@ -5,6 +5,7 @@
 #include "location_response.hpp"
 #include "number_format.hpp"
 #include "number_parse.hpp"
+#include "result_guard.hpp"
 #include "scenario.hpp"
 #include "spectrum_spec.hpp"
 
@@ -77,6 +78,9 @@ std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
     const auto doses = exposure::depth_dose_curve(tables, setup, spectrum, depths_g_cm2);
     std::vector<DepthRow> rows;
     for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
+        const std::string what = fmt::format("the dose behind {} g/cm2", depths_g_cm2[i]);
+        require_dose(doses[i].with_removal, what);
+        require_dose(doses[i].without_removal, what);
         rows.push_back({depths_g_cm2[i], doses[i]});
     }
     return rows;
@@ -101,7 +105,7 @@ std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
                                  {"extrapolated_share", r.dose.extrapolated_share}});
         }
         j["cautions"] = caution_text();
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out = "shield_g_cm2,absorbed_mGy,dose_equivalent_mSv,rbe_weighted_mGyEq,"

@@ -5,6 +5,7 @@
 #include "location_response.hpp"
 #include "number_format.hpp"
 #include "number_parse.hpp"
+#include "result_guard.hpp"
 #include "study.hpp"
 
 #include "exposure/fragment_transport.hpp"
@@ -148,6 +149,9 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
         for (const auto& d : by[i]) {
             r.per_day += d;
         }
+        const std::string what = fmt::format("the GCR dose rate behind {} g/cm2", r.shield_g_cm2);
+        require_dose(r.per_day, what);
+        require_dose(r.per_day_without_reactions, what + " without reactions");
         for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
             double absorbed = 0.0;
             double equivalent = 0.0;
@@ -221,7 +225,7 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
             j["rows"].push_back(row);
         }
         j["cautions"] = caution_text();
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out =

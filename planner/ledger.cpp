@@ -1,5 +1,6 @@
 #include "ledger.hpp"
 
+#include "result_guard.hpp"
 #include "time_format.hpp"
 
 #include <fmt/format.h>
@@ -64,7 +65,8 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
         }
     }
     for (const Time& e : ends) {
-        const double d = cumulative(pieces, e) - cumulative(pieces, e - length);
+        const double d = require_finite(cumulative(pieces, e) - cumulative(pieces, e - length),
+                                        "a rolling-window dose");
         if (d > best.dose_mGyEq) {
             best.dose_mGyEq = d;
             best.window_end = e;
@@ -189,6 +191,38 @@ std::optional<double> stated_dose(const OrganDoses& d, const std::string& organ)
 
 } // namespace
 
+namespace {
+
+// Every number of a crew member's result is one that was computed (result_guard.hpp).
+void verify(const CrewResult& c) {
+    const std::string who = "crew member '" + c.crew + "': ";
+    for (const auto& o : c.organs) {
+        const std::string what = who + o.organ;
+        for (const DoseTotals* t : {&o.gcr, &o.spe, &o.other}) {
+            require_dose(t->mGyEq, what + " mission dose");
+            require_dose(t->absorbed_mGy, what + " absorbed dose");
+            require_dose(t->dose_equivalent_mSv, what + " dose equivalent");
+        }
+        require_dose(o.max_30d.dose_mGyEq, what + " highest 30-day dose");
+        require_dose(o.max_365d.dose_mGyEq, what + " highest 365-day dose");
+        require_dose(o.career_mGyEq, what + " career dose");
+        require_dose(o.mission_mGyEq, what + " mission dose");
+        require_dose(o.mission_absorbed_mGy, what + " mission absorbed dose");
+        require_dose(o.mission_dose_equivalent_mSv, what + " mission dose equivalent");
+    }
+    for (const auto& chk : c.checks) {
+        require_dose(chk.dose, who + chk.limit.organ + " " + chk.limit.window + " dose");
+        require_finite(chk.margin, who + chk.limit.organ + " " + chk.limit.window + " margin");
+    }
+    require_finite(c.budget.days, who + "budget left");
+    require_dose(c.budget.rate_mGyEq_per_day, who + "GCR rate");
+    for (const auto& [name, dose] : c.contributors) {
+        require_dose(dose, who + "contribution of " + name);
+    }
+}
+
+} // namespace
+
 LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     const Scenario& sc = study.scenario();
     LedgerResult out;
@@ -292,6 +326,11 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                                       fmt::format("line {}", rec.where.line)});
                 }
             }
+            for (const auto& p : pieces) {
+                require_dose(p.dose,
+                             fmt::format("the {} dose of crew member '{}' from {} during {}", organ,
+                                         crew.id, p.source, p.activity));
+            }
             OrganResult r;
             r.organ = organ;
             for (const auto& p : pieces) {
@@ -343,7 +382,8 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     c.dose = r.career_mGyEq;
                 }
                 c.margin = limit.value - c.dose;
-                c.exceeded = c.margin < 0.0;
+                // Written so that a dose that is not a number can never read as within.
+                c.exceeded = !(c.dose <= limit.value);
                 if (w && w->dose_mGyEq > 0.0) {
                     c.window_text =
                         format_time(w->window_start) + " to " + format_time(w->window_end);
@@ -363,6 +403,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                   [](const auto& a, const auto& b) { return a.second > b.second; });
         result.budget = remaining_budget(result.checks, result.organs,
                                          hours(sc.mission.end - sc.mission.start) / 24.0);
+        verify(result);
         out.crew.push_back(std::move(result));
     }
     return out;

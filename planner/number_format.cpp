@@ -1,5 +1,7 @@
 #include "number_format.hpp"
 
+#include "result_guard.hpp"
+
 #include <fmt/format.h>
 
 #include <cmath>
@@ -7,8 +9,10 @@
 namespace crewdose::planner {
 
 std::string significant(double value, int digits) {
-    if (value == 0.0 || !std::isfinite(value)) {
-        return fmt::format("{}", value);
+    // Nothing that was not computed reaches a report (result_guard.hpp).
+    require_finite(value, "a number to print");
+    if (value == 0.0) {
+        return "0";
     }
     // Round first, so that 999.96 at 4 figures becomes 1000 (exponent 3), not 999.96.
     const std::string sci = fmt::format("{:.{}e}", value, digits - 1);

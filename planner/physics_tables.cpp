@@ -3,6 +3,7 @@
 #include "input_error.hpp"
 #include "number_format.hpp"
 #include "number_parse.hpp"
+#include "result_guard.hpp"
 
 #include "exposure/element.hpp"
 #include "exposure/material_library.hpp"
@@ -144,7 +145,7 @@ std::string format_range_report(const exposure::Material& material,
                                  {"csda_range_g_cm2", r.csda_range_g_cm2},
                                  {"csda_range_cm", r.csda_range_cm}});
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out =
@@ -195,7 +196,7 @@ std::string format_materials_report(OutputFormat format) {
                          {"composition", comp},
                          {"source", m.source()}});
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out = "id,density_g_cm3,mean_excitation_eV,i_value_origin,composition\n";

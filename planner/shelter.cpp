@@ -3,6 +3,7 @@
 #include "cautions.hpp"
 #include "ledger.hpp"
 #include "number_format.hpp"
+#include "result_guard.hpp"
 
 #include "exposure/material_library.hpp"
 #include "habitats/shape.hpp"
@@ -349,7 +350,11 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
             }
             double worst = 0.0;
             for (const auto& [o, target] : rep.target_mGyEq) {
-                const double ratio = (it->second.at(o) + rep.other_30d_mGyEq.at(o)) / target;
+                const double event = require_dose(
+                    it->second.at(o), fmt::format("shelter: the event's {} dose behind {} g/cm2 "
+                                                  "of {}",
+                                                  o, x, material_id));
+                const double ratio = (event + rep.other_30d_mGyEq.at(o)) / target;
                 if (ratio > worst) {
                     worst = ratio;
                     if (organ) {
@@ -439,6 +444,10 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
             (void)evaluate(x, nullptr);
             a.curve.push_back({x, seen.at(x)});
         }
+        for (const double v : {a.areal_density_g_cm2, a.thickness_cm, a.mass_per_area_kg_m2,
+                               a.added_mass_kg.value_or(0.0)}) {
+            require_dose(v, "shelter: the answer for " + material_id);
+        }
         rep.answers.push_back(std::move(a));
     }
     return rep;
@@ -487,7 +496,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
             }
             j["answers"].push_back(aj);
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out = "material,areal_density_g_cm2,organ,event_mGyEq,other_30d_mGyEq,"

@@ -3,6 +3,7 @@
 #include "cautions.hpp"
 #include "depth_report.hpp"
 #include "number_format.hpp"
+#include "result_guard.hpp"
 
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
@@ -149,7 +150,7 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             }
         }
         j["cautions"] = caution_text();
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     std::string out =
         fmt::format("Shielding at {} ({}), {} directions\n", location, sc.file, dirs.size());

@@ -2,6 +2,7 @@
 
 #include "cautions.hpp"
 #include "number_format.hpp"
+#include "result_guard.hpp"
 #include "time_format.hpp"
 
 #include <fmt/format.h>
@@ -285,7 +286,11 @@ Time all_clear_time(const StormPolicy& policy, const EventSpec& ev, Time onset,
 double StormCrew::worst_ratio() const {
     double r = 0.0;
     for (const auto& o : organs) {
-        r = std::max(r, o.ratio());
+        const double x = o.ratio();
+        if (std::isnan(x)) {
+            return x; // a ratio that is not a number never reads as within
+        }
+        r = std::max(r, x);
     }
     return r;
 }
@@ -524,8 +529,11 @@ StormWhatIf StormContext::at(Time onset) const {
                 continue;
             }
             const std::string& organ = organs_[k];
-            c.organs.push_back(
-                {organ, without[k], with[k], other_by_index_[i][k], limit_by_index_[k]});
+            const std::string what = "storm what-if, crew member '" + c.crew + "', " + organ;
+            c.organs.push_back({organ, require_dose(without[k], what + " without the response"),
+                                require_dose(with[k], what + " with the response"),
+                                require_dose(other_by_index_[i][k], what + " other 30-day dose"),
+                                limit_by_index_[k]});
         }
         const Time shown_until = std::max(w.times.all_clear, onset) + boost::posix_time::hours(12);
         for (const auto& s : spans) {
@@ -606,7 +614,8 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     std::vector<StormDoses> doses(sc.crew.size());
     for (const Time& o : onsets) {
         for (std::size_t i = 0; i < sc.crew.size(); ++i) {
-            ratio[i] = ctx.worst_ratio_at(o, i, &doses[i]);
+            ratio[i] = require_dose(ctx.worst_ratio_at(o, i, &doses[i]),
+                                    "storm sweep share of a 30-day limit");
             if (ratio[i] > worst_ratio[i]) {
                 worst_ratio[i] = ratio[i];
                 worst_onset[i] = o;
@@ -645,6 +654,12 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         }
     }
     out.profile.assign(profile.begin(), profile.end());
+    for (const auto& bin_ratio : out.profile) {
+        require_dose(bin_ratio.second, "storm sweep profile ratio");
+    }
+    for (const auto& e : out.evas) {
+        require_finite(e.ratio, "storm sweep ratio of " + e.label);
+    }
     // The worst onsets in full (with the doses without the response and the timeline).
     for (std::size_t i = 0; i < sc.crew.size(); ++i) {
         out.worst[i] = {worst_onset[i], ctx.at(worst_onset[i]).crew[i]};
@@ -663,7 +678,7 @@ nlohmann::json crew_json(const StormCrew& c) {
                                 {"other_30d_mGyEq", o.other_30d_mGyEq},
                                 {"limit_30d_mGyEq", o.limit_30d_mGyEq},
                                 {"margin_30d_mGyEq", o.margin()},
-                                {"exceeded", o.ratio() > 1.0}};
+                                {"exceeded", o.exceeded()}};
     }
     for (const auto& s : c.responded) {
         j["timeline"].push_back({{"start", format_time(s.start)},
@@ -773,7 +788,7 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
         for (const auto& c : w.crew) {
             j["crew"].push_back(crew_json(c));
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out = "crew,organ,without_response_mGyEq,with_response_mGyEq,saved_mGyEq,"
@@ -784,7 +799,7 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
                     fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
                                 c.crew, o.organ, o.without_response_mGyEq, o.with_response_mGyEq,
                                 o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
-                                o.limit_30d_mGyEq, o.margin(), o.ratio() > 1.0 ? "yes" : "no");
+                                o.limit_30d_mGyEq, o.margin(), o.exceeded() ? "yes" : "no");
             }
         }
         return out;
@@ -811,7 +826,7 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
                                significant(o.with_response_mGyEq, 3),
                                significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
                                significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
-                               significant(o.margin(), 3), o.ratio() > 1.0 ? "  EXCEEDED" : "");
+                               significant(o.margin(), 3), o.exceeded() ? "  EXCEEDED" : "");
         }
         out += "  where (from t0):\n";
         for (const auto& s : c.responded) {
@@ -854,7 +869,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         for (const auto& [t, r] : s.profile) {
             j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
         }
-        return j.dump(2) + "\n";
+        return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
         std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
@@ -893,7 +908,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                                 significant(worst->with_response_mGyEq, 3),
                                 significant(worst->other_30d_mGyEq, 3),
                                 significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
-                                worst->ratio() > 1.0 ? "  EXCEEDED" : ""),
+                                worst->exceeded() ? "  EXCEEDED" : ""),
                     100, "      ");
     }
     out += "\n" + wrap("Go/no-go per EVA and rover drive (the design event starting at the worst "

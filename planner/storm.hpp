@@ -45,6 +45,8 @@ struct StormOrgan {
     [[nodiscard]] double ratio() const {
         return (with_response_mGyEq + other_30d_mGyEq) / limit_30d_mGyEq;
     }
+    /// Written so that a ratio that is not a number reads as exceeded, never as within.
+    [[nodiscard]] bool exceeded() const { return !(ratio() <= 1.0); }
 };
 
 struct StormCrew {
@@ -53,7 +55,7 @@ struct StormCrew {
     std::vector<StormOrgan> organs;
     std::vector<TimelineSpan> responded; ///< the spans that overlap the event
     [[nodiscard]] double worst_ratio() const;
-    [[nodiscard]] bool exceeded() const { return worst_ratio() > 1.0; }
+    [[nodiscard]] bool exceeded() const { return !(worst_ratio() <= 1.0); }
 };
 
 struct StormWhatIf {

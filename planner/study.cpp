@@ -8,9 +8,9 @@
 #include <thread>
 #include <tuple>
 
-#include "shielding_table_file.hpp"
-
 #include "habitats/direction_set.hpp"
+
+#include <fmt/format.h>
 
 #include <algorithm>
 #include <cstdlib>
@@ -76,14 +76,8 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             }
         }
         std::vector<habitats::Vector3> loc_dirs = dirs;
-        if (loc.shielding_table_file) {
-            const auto base = std::filesystem::path(sc_.file).parent_path();
-            auto known = [this](const std::string& id) {
-                return sc_.material(id) != nullptr;
-            };
-            imported_.push_back(std::make_unique<habitats::DirectionalShielding>(
-                read_shielding_table((base / *loc.shielding_table_file).string(), known)));
-            where.imported = imported_.back().get();
+        if (loc.shielding_table) {
+            where.imported = &*loc.shielding_table;
             loc_dirs = where.imported->directions;
         } else {
             std::vector<habitats::Solid> around;
@@ -233,6 +227,13 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             responses_.emplace(std::make_pair(sc_.locations[i].id, organ), std::move(r));
         }
         for (auto& [key, rates] : per_location[i]) {
+            if (!rates.with_removal.physical() || !rates.without_removal.physical()) {
+                throw InputError(sc_.locations[i].where, "location",
+                                 fmt::format("'{}': the GCR dose rate of organ {} (phi {} MV) is "
+                                             "not a finite number >= 0; check the densities, "
+                                             "thicknesses and materials of its shielding",
+                                             sc_.locations[i].id, key.first, key.second));
+            }
             gcr_rates_[{sc_.locations[i].id, key.first, key.second}] = std::move(rates);
         }
     }
@@ -242,6 +243,13 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             const auto fluences = event_node_fluences(ev, sc_.mission.sep_fluence_exponent,
                                                       r.response.node_energies_MeV_per_n);
             const auto folded = exposure::fold(r.response, fluences);
+            if (!folded.with_removal.physical() || !folded.without_removal.physical()) {
+                throw InputError(ev.where, "event.spectrum",
+                                 fmt::format("event '{}': its dose to organ {} at location '{}' "
+                                             "is not a finite number >= 0; check the spectrum's "
+                                             "parameters and the location's shielding",
+                                             ev.id, key.second, key.first));
+            }
             event_doses_[{key.first, key.second, ev.id}] = folded.for_limits();
             // Arrival groups, weighted by the removal case that gives the higher dose.
             const bool with =

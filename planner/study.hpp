@@ -58,7 +58,14 @@ struct ArrivalGroups {
 /// Responses of every location and organ, shared by every crew member and activity.
 class Study {
   public:
+    /// Computes every response; InputError (naming the location or event) when the input
+    /// leads to a dose that is not a finite number >= 0.
     explicit Study(Scenario scenario);
+    // Locations point into the scenario held here: a Study stays where it was built.
+    Study(const Study&) = delete;
+    Study& operator=(const Study&) = delete;
+    Study(Study&&) = delete;
+    Study& operator=(Study&&) = delete;
 
     [[nodiscard]] const Scenario& scenario() const noexcept { return sc_; }
     /// The organ response at a location (organ: bfo, lens, skin).
@@ -94,7 +101,6 @@ class Study {
     Scenario sc_;
     exposure::TableLibrary tables_;
     std::vector<std::unique_ptr<habitats::Scene>> scenes_;
-    std::vector<std::unique_ptr<habitats::DirectionalShielding>> imported_;
     std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
     std::map<std::string, LocationGeometry> geometries_;
     std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>
