@@ -5,6 +5,7 @@
 #include "gcr_report.hpp"
 #include "input_error.hpp"
 #include "physics_tables.hpp"
+#include "result_guard.hpp"
 #include "shelter.hpp"
 #include "shielding_report.hpp"
 #include "spectrum_spec.hpp"
@@ -21,6 +22,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <exception>
+#include <filesystem>
 #include <optional>
 #include <string>
 #include <unistd.h>
@@ -28,6 +30,9 @@
 namespace {
 
 constexpr int kExitBadInput = 2;
+/// A result that could not be computed or an unexpected error: a defect of crewdose, never an
+/// abort, and nothing written.
+constexpr int kExitInternalFault = 3;
 
 void write_stdout(const std::string& text) {
     std::fwrite(text.data(), 1, text.size(), stdout);
@@ -39,7 +44,9 @@ int main(int argc, char** argv) {
     using namespace crewdose;
     CLI::App app{"crewdose: radiation dose planning for crewed lunar, Mars and deep-space "
                  "missions.\n\nResults support, and never replace, review by licensed "
-                 "radiation-protection staff.\nExit codes: 0 success, 2 bad input or usage.",
+                 "radiation-protection staff.\nExit codes: 0 success; 1 a planning limit or "
+                 "target not met (check, storm, shelter); 2 bad input or usage; 3 internal "
+                 "fault (a result that could not be computed: nothing is written).",
                  "crewdose"};
     app.require_subcommand(1);
     app.set_version_flag("--version", "crewdose 0.1.0");
@@ -389,6 +396,17 @@ int main(int argc, char** argv) {
             write_stdout(planner::format_validation(planner::load_scenario(scenario_path)));
         } else if (check->parsed()) {
             const planner::Study study(planner::load_scenario(scenario_path));
+            std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
+            for (const auto& loc : study.scenario().locations) {
+                if (loc.shielding_table_file) {
+                    inputs.push_back(
+                        {"shielding table", (std::filesystem::path(scenario_path).parent_path() /
+                                             *loc.shielding_table_file)
+                                                .string()});
+                }
+            }
+            planner::refuse_clashing_outputs(inputs,
+                                             {{"--out", out_path}, {"--series", series_path}});
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;
             const auto ledger = planner::build_ledger(study, options);
@@ -417,6 +435,22 @@ int main(int argc, char** argv) {
     } catch (const exposure::ParameterError& e) {
         std::fprintf(stderr, "crewdose: %s\n", e.what());
         return kExitBadInput;
+    } catch (const planner::ResultFault& e) {
+        std::fprintf(stderr,
+                     "crewdose: internal fault: %s. No result was written; this is a defect of "
+                     "crewdose, please report it with the input.\n",
+                     e.what());
+        return kExitInternalFault;
+    } catch (const std::exception& e) {
+        std::fprintf(stderr,
+                     "crewdose: internal fault: %s. No result was written; this is a defect of "
+                     "crewdose, please report it with the input.\n",
+                     e.what());
+        return kExitInternalFault;
+    } catch (...) {
+        std::fprintf(stderr, "crewdose: internal fault of unknown kind. No result was written; "
+                             "this is a defect of crewdose, please report it with the input.\n");
+        return kExitInternalFault;
     }
     return 0;
 }

@@ -7,6 +7,7 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
 #include <cmath>
 
 namespace crewdose::planner {
@@ -30,7 +31,8 @@ double EventProfile::fraction_by(double t) const {
     const double d = decay_h;
     const double c = 1.0 / (1.0 / rise_h + 1.0 / decay_h);
     const double part = d * -std::expm1(-t / d) - c * -std::expm1(-t / c);
-    return std::min(1.0, part / (d - c));
+    // d - c = d^2 / (rise + d), written so that it does not cancel when rise >> decay.
+    return std::clamp(part / (d * d / (rise_h + d)), 0.0, 1.0);
 }
 
 double EventProfile::rate_per_h(double t) const {
@@ -40,7 +42,7 @@ double EventProfile::rate_per_h(double t) const {
     // d/dt of fraction_by: (e^{-t/d} - e^{-t/c}) / (d - c).
     const double d = decay_h;
     const double c = 1.0 / (1.0 / rise_h + 1.0 / decay_h);
-    return (std::exp(-t / d) - std::exp(-t / c)) / (d - c);
+    return (std::exp(-t / d) - std::exp(-t / c)) / (d * d / (rise_h + d));
 }
 
 double EventSpec::delay_h(double energy_MeV) const {

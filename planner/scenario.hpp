@@ -7,6 +7,7 @@
 #include "exposure/gcr.hpp"
 #include "exposure/material.hpp"
 #include "exposure/spectrum.hpp"
+#include "habitats/directional_shielding.hpp"
 #include "habitats/scene.hpp"
 
 #include <boost/date_time/posix_time/posix_time_types.hpp>
@@ -68,9 +69,11 @@ struct LocationSpec {
     SourceLocation where;
     std::string id;
     habitats::Point3 point_m;
-    SourceLocation point_where;      ///< line of point_m (or of the entry)
-    std::vector<std::string> solids; ///< ids of the solids around it
-    std::optional<std::string> shielding_table_file;
+    SourceLocation point_where;                      ///< line of point_m (or of the entry)
+    std::vector<std::string> solids;                 ///< ids of the solids around it
+    std::optional<std::string> shielding_table_file; ///< as written in the scenario
+    /// The imported table itself, read when the scenario is loaded.
+    std::optional<habitats::DirectionalShielding> shielding_table;
     std::optional<SuitModel> suit;
     double heading_deg = 0.0;
     bool deep_space = false; ///< surroundings: no ground, no atmosphere

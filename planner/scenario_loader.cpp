@@ -12,9 +12,10 @@
 #include "exposure/parameter_error.hpp"
 #include "habitats/direction_set.hpp"
 
+#include "toml.hpp"
+#include "toml_text.hpp"
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <fmt/format.h>
-#include <toml++/toml.h>
 
 #include <algorithm>
 #include <cmath>
@@ -25,6 +26,34 @@
 
 namespace crewdose::planner {
 namespace {
+
+// Plausible ranges of the scenario's numbers (scenarios/README.md lists every one). They keep
+// each value inside what the physics and the timeline represent; none is a physical limit.
+/// Any length or coordinate of the geometry: 10 km.
+constexpr double kMaxLength_m = 10000.0;
+/// Densities: from far below a thin gas (the Martian surface atmosphere is about 1.5e-5 g/cm3,
+/// common practice) to above osmium, the densest element (22.6 g/cm3, from memory).
+constexpr double kMinDensity_g_cm3 = 1e-7;
+constexpr double kMaxDensity_g_cm3 = 25.0;
+/// Mean excitation energies: the lowest of any element is hydrogen's 19.2 eV and the highest
+/// tabulated ones are below 1000 eV (ICRU Report 37 / 49, from memory).
+constexpr double kMinExcitation_eV = 10.0;
+constexpr double kMaxExcitation_eV = 1000.0;
+/// One suit layer: 100 g/cm2 is far beyond any suit.
+constexpr double kMaxSuitLayer_g_cm2 = 100.0;
+/// A dose entry (prior, recorded, a limit): 10,000 mGy-Eq or mSv, far above any career dose; a
+/// larger number is a slip of units.
+constexpr double kMaxDoseEntry = 10000.0;
+/// An event's fixed arrival delay: particles arrive within hours to a day or two of the flare
+/// (common practice); 10 days is the bound.
+constexpr double kMaxArrivalDelay_h = 240.0;
+/// Response times (warnings, moves, returns): two days.
+constexpr double kMaxMinutes = 2880.0;
+/// Largest scenario file read (a 3-year plan of 10,000 activities is about 1 MiB).
+constexpr std::uintmax_t kMaxScenarioBytes = 64u << 20;
+/// The years a mission may lie in.
+constexpr int kFirstMissionYear = 1950;
+constexpr int kLastMissionYear = 2500;
 
 // One TOML table being read: knows its file, its name for messages, and which keys it allows.
 
@@ -89,27 +118,42 @@ class Section {
         return has(key) ? text(key) : std::move(fallback);
     }
 
+    /// A finite number (TOML's nan and inf are refused: no input may carry a non-finite
+    /// value into a dose).
     [[nodiscard]] double number(const std::string& key) const {
         const toml::node& n = need(key);
+        double v = 0.0;
         if (const auto* d = n.as_floating_point()) {
-            return d->get();
+            v = d->get();
+        } else if (const auto* i = n.as_integer()) {
+            v = static_cast<double>(i->get());
+        } else {
+            fail(key, "must be a number");
         }
-        if (const auto* i = n.as_integer()) {
-            return static_cast<double>(i->get());
-        }
-        fail(key, "must be a number");
-    }
-    [[nodiscard]] double positive(const std::string& key) const {
-        const double v = number(key);
-        if (!(v > 0.0) || !std::isfinite(v)) {
-            fail(key, fmt::format("must be a number > 0, got {}", v));
+        if (!std::isfinite(v)) {
+            fail(key, "must be a finite number (nan and inf are not allowed)");
         }
         return v;
     }
-    [[nodiscard]] double non_negative(const std::string& key) const {
+    /// A number from `lo` to `hi` inclusive; `unit` ("m", "g/cm3", ...) goes into the message
+    /// with the plausible range, which scenarios/README.md repeats.
+    [[nodiscard]] double within(const std::string& key, double lo, double hi,
+                                std::string_view unit) const {
         const double v = number(key);
-        if (!(v >= 0.0) || !std::isfinite(v)) {
-            fail(key, fmt::format("must be a number >= 0, got {}", v));
+        if (!(v >= lo && v <= hi)) {
+            fail(key, fmt::format("{} is outside the allowed range {} to {}{}{}", v, lo, hi,
+                                  unit.empty() ? "" : " ", unit));
+        }
+        return v;
+    }
+    /// A number above `lo` (exclusive) up to `hi`.
+    [[nodiscard]] double above(const std::string& key, double lo, double hi,
+                               std::string_view unit) const {
+        const double v = number(key);
+        if (!(v > lo && v <= hi)) {
+            fail(key, fmt::format("{} is outside the allowed range: more than {} and at most "
+                                  "{}{}{}",
+                                  v, lo, hi, unit.empty() ? "" : " ", unit));
         }
         return v;
     }
@@ -157,6 +201,12 @@ class Section {
     }
     [[nodiscard]] habitats::Point3 point(const std::string& key) const {
         const auto v = numbers(key, 3);
+        for (const double x : v) {
+            if (!(std::abs(x) <= kMaxLength_m)) {
+                fail(key, fmt::format("every coordinate must lie within +-{} m of the site origin",
+                                      kMaxLength_m));
+            }
+        }
         return {v[0], v[1], v[2]};
     }
     [[nodiscard]] habitats::Vector3 unit_vector(const std::string& key) const {
@@ -228,11 +278,11 @@ OrganDoses read_doses(const Section& s) {
             continue;
         }
         if (s.has(organ + "_mGyEq")) {
-            d.mGyEq[organ] = s.non_negative(organ + "_mGyEq");
+            d.mGyEq[organ] = s.within(organ + "_mGyEq", 0.0, kMaxDoseEntry, "mGy-Eq");
         }
     }
     if (s.has("effective_mSv")) {
-        d.effective_mSv = s.non_negative("effective_mSv");
+        d.effective_mSv = s.within("effective_mSv", 0.0, kMaxDoseEntry, "mSv");
     }
     return d;
 }
@@ -249,17 +299,20 @@ std::set<std::string> with_dose_keys(std::set<std::string> keys) {
 
 habitats::Shape read_shape(const Section& s, const std::string& shape) {
     if (shape == "sphere") {
-        return habitats::Sphere{s.point("center_m"), s.positive("radius_m")};
+        return habitats::Sphere{s.point("center_m"), s.above("radius_m", 0.0, kMaxLength_m, "m")};
     }
     if (shape == "cylinder") {
-        return habitats::Cylinder{s.point("base_m"), s.unit_vector("axis"), s.positive("height_m"),
-                                  s.positive("radius_m")};
+        return habitats::Cylinder{s.point("base_m"), s.unit_vector("axis"),
+                                  s.above("height_m", 0.0, kMaxLength_m, "m"),
+                                  s.above("radius_m", 0.0, kMaxLength_m, "m")};
     }
     if (shape == "box") {
         const auto h = s.numbers("half_size_m", 3);
         for (double v : h) {
-            if (!(v > 0.0)) {
-                s.fail("half_size_m", "every half size must be > 0 m");
+            if (!(v > 0.0 && v <= kMaxLength_m)) {
+                s.fail("half_size_m",
+                       fmt::format("every half size must be more than 0 and at most {} m",
+                                   kMaxLength_m));
             }
         }
         habitats::Box b{s.point("center_m"), {h[0], h[1], h[2]}};
@@ -275,11 +328,11 @@ habitats::Shape read_shape(const Section& s, const std::string& shape) {
         return b;
     }
     if (shape == "dome") {
-        return habitats::Dome{s.point("center_m"), s.positive("radius_m")};
+        return habitats::Dome{s.point("center_m"), s.above("radius_m", 0.0, kMaxLength_m, "m")};
     }
     if (shape == "slab") {
         return habitats::Slab{s.point("outer_point_m"), s.unit_vector("normal"),
-                              s.positive("thickness_m")};
+                              s.above("thickness_m", 0.0, kMaxLength_m, "m")};
     }
     s.fail("shape", "'" + shape +
                         "' is not a supported shape; allowed: sphere, cylinder, box, "
@@ -295,7 +348,8 @@ std::vector<SuitLayer> read_suit_layers(const Section& s, const std::string& key
     }
     for (const auto& e : *a) {
         const Section l(*e.as_table(), file, s.field(key), {"material", "areal_density_g_cm2"});
-        out.push_back({l.text("material"), l.positive("areal_density_g_cm2")});
+        out.push_back({l.text("material"),
+                       l.above("areal_density_g_cm2", 0.0, kMaxSuitLayer_g_cm2, "g/cm2")});
     }
     return out;
 }
@@ -303,6 +357,11 @@ std::vector<SuitLayer> read_suit_layers(const Section& s, const std::string& key
 } // namespace
 
 std::optional<Time> parse_rfc3339(const std::string& text, bool* bad_year) {
+    try {
+        check_toml_text(text, "command line");
+    } catch (const InputError&) {
+        return std::nullopt;
+    }
     toml::table t;
     try {
         t = toml::parse("t = " + text);
@@ -321,6 +380,7 @@ std::optional<Time> parse_rfc3339(const std::string& text, bool* bad_year) {
 }
 
 Scenario parse_scenario(const std::string& text, const std::string& file) {
+    check_toml_text(text, file);
     toml::table root;
     try {
         root = toml::parse(text, file);
@@ -358,6 +418,15 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         if (!(sc.mission.end > sc.mission.start)) {
             m.fail("end", "must be after mission.start");
         }
+        for (const auto& [key, t] :
+             {std::pair{"start", sc.mission.start}, std::pair{"end", sc.mission.end}}) {
+            const int year = t.date().year();
+            if (year < kFirstMissionYear || year > kLastMissionYear) {
+                m.fail(key, fmt::format("the year {} is outside the years a mission may lie in, "
+                                        "{} to {}",
+                                        year, kFirstMissionYear, kLastMissionYear));
+            }
+        }
         if (m.has("directions")) {
             const double n = m.number("directions");
             if (!(n >= 16 && n <= 65536) || n != std::floor(n)) {
@@ -387,10 +456,10 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             }
         }
         if (m.has("surface_pressure_Pa")) {
-            sc.mission.surface_pressure_Pa = m.positive("surface_pressure_Pa");
+            sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", 10.0, 2000.0, "Pa");
         }
         if (m.has("scale_height_km")) {
-            sc.mission.scale_height_km = m.positive("scale_height_km");
+            sc.mission.scale_height_km = m.within("scale_height_km", 5.0, 30.0, "km");
         }
         if (sc.mission.site == SiteKind::mars) {
             sc.mission.sun_distance_AU = 1.52;
@@ -483,7 +552,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                              "'crewdose materials'); choose another id");
         }
         spec.name = s.text_or("name", spec.id);
-        spec.density_g_cm3 = s.positive("density_g_cm3");
+        spec.density_g_cm3 =
+            s.within("density_g_cm3", kMinDensity_g_cm3, kMaxDensity_g_cm3, "g/cm3");
         const Section comp(s.table("composition"), file, "material.composition", [] {
             std::set<std::string> symbols;
             for (const auto& e : exposure::elements()) {
@@ -493,10 +563,12 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }());
         for (const auto& [key, node] : s.table("composition")) {
             const std::string sym(key.str());
-            spec.composition.push_back({exposure::element_by_symbol(sym)->Z, comp.positive(sym)});
+            spec.composition.push_back({exposure::element_by_symbol(sym)->Z,
+                                        comp.above(sym, 0.0, 1.0, "(mass fraction)")});
         }
         if (s.has("mean_excitation_eV")) {
-            spec.mean_excitation_eV = s.positive("mean_excitation_eV");
+            spec.mean_excitation_eV =
+                s.within("mean_excitation_eV", kMinExcitation_eV, kMaxExcitation_eV, "eV");
         }
         if (s.has("gas") && s.boolean("gas")) {
             spec.phase = exposure::Phase::gas;
@@ -540,9 +612,12 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                                 {"material", "thickness_m", "density_g_cm3"});
                 const std::string id = l.text("material");
                 require_material(l, "material", id);
-                const double density = l.has("density_g_cm3") ? l.positive("density_g_cm3")
-                                                              : sc.material(id)->density_g_cm3();
-                solid.layers.push_back({id, l.positive("thickness_m"), density});
+                const double density =
+                    l.has("density_g_cm3")
+                        ? l.within("density_g_cm3", kMinDensity_g_cm3, kMaxDensity_g_cm3, "g/cm3")
+                        : sc.material(id)->density_g_cm3();
+                solid.layers.push_back(
+                    {id, l.above("thickness_m", 0.0, kMaxLength_m, "m"), density});
             }
         }
         if (s.has("core")) {
@@ -584,6 +659,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 s.fail("shielding_table", "give either solids or a shielding table, not both");
             }
             loc.shielding_table_file = s.text("shielding_table");
+            // Relative to the scenario file's folder.
+            const auto path = std::filesystem::path(file).parent_path() / *loc.shielding_table_file;
+            loc.shielding_table = read_shielding_table(
+                path.string(), [&sc](const std::string& id) { return sc.material(id) != nullptr; },
+                s.at(s.need("shielding_table")), s.field("shielding_table"));
         }
         const std::string body = s.text_or("body", "quick");
         if (body == "phantom") {
@@ -622,7 +702,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                     m.pack = read_suit_layers(su, "pack", file);
                 }
                 if (su.has("pack_half_angle_deg")) {
-                    m.pack_half_angle_deg = su.positive("pack_half_angle_deg");
+                    m.pack_half_angle_deg = su.above("pack_half_angle_deg", 0.0, 180.0, "degrees");
                 }
                 for (const auto& l : m.all_around) {
                     require_material(su, "layers", l.material_id);
@@ -637,7 +717,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             }
         }
         if (s.has("heading_deg")) {
-            loc.heading_deg = s.number("heading_deg");
+            loc.heading_deg = s.within("heading_deg", -360.0, 360.0, "degrees");
         }
         const std::string surroundings = s.text_or("surroundings", "site");
         if (surroundings == "deep-space") {
@@ -672,7 +752,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                      std::nullopt};
         if (s.has("arrival_delay_h")) {
             ev.fixed_arrival = true;
-            ev.arrival_delay_h = s.non_negative("arrival_delay_h");
+            ev.arrival_delay_h = s.within("arrival_delay_h", 0.0, kMaxArrivalDelay_h, "h");
         }
         ev.path_length_AU = sc.mission.sep_path_length_AU;
         ev.sun_distance_AU = sc.mission.sun_distance_AU;
@@ -684,10 +764,10 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             ev.spectrum_at_AU = r;
         }
         if (s.has("rise_h")) {
-            ev.profile.rise_h = s.positive("rise_h");
+            ev.profile.rise_h = s.within("rise_h", 0.01, 240.0, "h");
         }
         if (s.has("decay_h")) {
-            ev.profile.decay_h = s.positive("decay_h");
+            ev.profile.decay_h = s.within("decay_h", 0.1, 2400.0, "h");
         }
         if (ev.flare_seen < sc.mission.start || ev.flare_seen > sc.mission.end) {
             s.fail("flare_seen", "lies outside the mission (mission.start to mission.end)");
@@ -779,13 +859,13 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             s.fail("distance_km", "give return_min or distance_km, not both");
         }
         if (s.has("distance_km")) {
-            a.distance_km = s.non_negative("distance_km");
+            a.distance_km = s.within("distance_km", 0.0, 1000.0, "km");
         }
         if (s.has("refuge") && !outside && a.kind != ActivityKind::transit) {
             s.fail("refuge", "applies to kind = \"eva\", \"rover\" or \"transit\" only");
         }
         if (s.has("return_min")) {
-            a.return_min = s.non_negative("return_min");
+            a.return_min = s.within("return_min", 0.0, kMaxMinutes, "minutes");
         }
         if (s.has("refuge")) {
             a.refuge = s.text("refuge");
@@ -812,6 +892,35 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         if (s.has("replaces_model")) {
             r.replaces_model = s.boolean("replaces_model");
         }
+        if (r.start < sc.mission.start || r.end > sc.mission.end) {
+            s.fail(r.start < sc.mission.start ? "start" : "end",
+                   "lies outside the mission (mission.start to mission.end); a dose received "
+                   "before the mission belongs in the crew member's prior history "
+                   "(crew.prior)");
+        }
+        if (r.doses.mGyEq.empty() && !r.doses.effective_mSv) {
+            s.fail("source", "the reading gives no dose; give at least one of bfo_mGyEq, "
+                             "lens_mGyEq, skin_mGyEq, heart_mGyEq, brain_mGyEq, effective_mSv");
+        }
+        // Two readings of one organ over overlapping periods would count twice, or (when both
+        // replace the model) leave it to the order in the file which one counts.
+        for (const auto& other : sc.recorded) {
+            if (other.crew != r.crew || !(r.start < other.end && other.start < r.end)) {
+                continue;
+            }
+            for (const auto& organ : ledger_organs()) {
+                const bool mine = organ == "effective" ? r.doses.effective_mSv.has_value()
+                                                       : r.doses.mGyEq.count(organ) > 0;
+                const bool theirs = organ == "effective" ? other.doses.effective_mSv.has_value()
+                                                         : other.doses.mGyEq.count(organ) > 0;
+                if (mine && theirs) {
+                    s.fail("start", fmt::format("overlaps the reading at line {} for crew member "
+                                                "'{}' and organ {}; readings of one organ must "
+                                                "not overlap in time (split or merge them)",
+                                                other.where.line, r.crew, organ));
+                }
+            }
+        }
         sc.recorded.push_back(std::move(r));
     }
 
@@ -829,39 +938,36 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             s.fail("shelter", "unknown location '" + p.shelter + "'");
         }
         if (s.has("warning_delay_min")) {
-            p.warning_delay_min = s.non_negative("warning_delay_min");
+            p.warning_delay_min = s.within("warning_delay_min", 0.0, kMaxMinutes, "minutes");
         }
         if (s.has("move_to_shelter_min")) {
-            p.move_to_shelter_min = s.non_negative("move_to_shelter_min");
+            p.move_to_shelter_min = s.within("move_to_shelter_min", 0.0, kMaxMinutes, "minutes");
         }
         if (s.has("eva_return_min")) {
-            p.eva_return_min = s.non_negative("eva_return_min");
+            p.eva_return_min = s.within("eva_return_min", 0.0, kMaxMinutes, "minutes");
         }
         if (s.has("walk_speed_km_h")) {
-            p.walk_speed_km_h = s.positive("walk_speed_km_h");
+            p.walk_speed_km_h = s.within("walk_speed_km_h", 0.1, 20.0, "km/h");
         }
         if (s.has("drive_speed_km_h")) {
-            p.drive_speed_km_h = s.positive("drive_speed_km_h");
+            p.drive_speed_km_h = s.within("drive_speed_km_h", 0.1, 200.0, "km/h");
         }
         if (s.has("all_clear_h") && s.has("all_clear_above_MeV")) {
             s.fail("all_clear_h", "give either all_clear_h (a fixed time) or "
                                   "all_clear_above_MeV with all_clear_flux_per_cm2_s_sr, not both");
         }
         if (s.has("all_clear_h")) {
-            p.all_clear_h = s.positive("all_clear_h");
+            p.all_clear_h = s.above("all_clear_h", 0.0, 720.0, "h");
         }
         if (s.has("all_clear_above_MeV")) {
-            const double e = s.positive("all_clear_above_MeV");
-            if (!(e >= 1.0 && e <= 1000.0)) {
-                s.fail("all_clear_above_MeV", "must be an energy from 1 to 1000 MeV");
-            }
-            p.all_clear_above_MeV = e;
+            p.all_clear_above_MeV = s.within("all_clear_above_MeV", 1.0, 1000.0, "MeV");
         }
         if (s.has("all_clear_flux_per_cm2_s_sr")) {
             if (!p.all_clear_above_MeV) {
                 s.fail("all_clear_flux_per_cm2_s_sr", "needs all_clear_above_MeV");
             }
-            p.all_clear_flux_per_cm2_s_sr = s.positive("all_clear_flux_per_cm2_s_sr");
+            p.all_clear_flux_per_cm2_s_sr =
+                s.above("all_clear_flux_per_cm2_s_sr", 0.0, 1e6, "protons/(cm2 s sr)");
         }
     }
 
@@ -876,13 +982,14 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section s(top.table("limits"), file, "limits", keys);
         sc.limits.where = s.where();
         if (s.has("uncertainty_factor")) {
-            sc.limits.uncertainty_factor = s.positive("uncertainty_factor");
+            sc.limits.uncertainty_factor = s.within("uncertainty_factor", 1.0, 10.0, "");
         }
         for (auto& l : sc.limits.limits) {
             const std::string key = l.organ + "_" + (l.window == "30-day" ? "30d" : l.window) +
                                     (l.organ == "effective" ? "_mSv" : "_mGyEq");
             if (s.has(key)) {
-                l.value = s.positive(key);
+                l.value =
+                    s.above(key, 0.0, kMaxDoseEntry, l.organ == "effective" ? "mSv" : "mGy-Eq");
                 l.basis = "scenario " + file + " (user value)";
             }
         }
@@ -931,7 +1038,25 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
 }
 
 Scenario load_scenario(const std::string& path) {
-    std::ifstream in(path);
+    namespace fs = std::filesystem;
+    std::error_code ec;
+    const auto status = fs::status(path, ec);
+    if (ec || !fs::exists(status)) {
+        throw InputError({path, 0}, "file", "does not exist");
+    }
+    if (!fs::is_regular_file(status)) {
+        throw InputError({path, 0}, "file",
+                         fs::is_directory(status)
+                             ? "is a folder; give the scenario file (a .toml file)"
+                             : "is not a regular file; give the scenario file (a .toml file)");
+    }
+    const auto size = fs::file_size(path, ec);
+    if (ec || size > kMaxScenarioBytes) {
+        throw InputError({path, 0}, "file",
+                         fmt::format("is larger than {} MiB, the most a scenario may be",
+                                     kMaxScenarioBytes >> 20));
+    }
+    std::ifstream in(path, std::ios::binary);
     if (!in) {
         throw InputError({path, 0}, "file", "cannot be read");
     }

@@ -4,8 +4,11 @@
 // The direction (any length, not zero) is in the site frame (x east, y north, z up); the
 // layers follow from the dose point outwards, nearest first, areal densities in g/cm2 (>= 0).
 // Blank lines and lines starting with '#' are skipped.
+#include "input_error.hpp"
+
 #include "habitats/directional_shielding.hpp"
 
+#include <cstdint>
 #include <functional>
 #include <string>
 
@@ -17,9 +20,22 @@ namespace crewdose::planner {
 parse_shielding_table(const std::string& text, const std::string& file_name,
                       const std::function<bool(const std::string&)>& known_material);
 
-/// Reads and parses a file (InputError if it cannot be read).
+/// Largest shielding table file read, bytes (a table of 65,536 directions with a dozen layers
+/// each is about 8 MiB).
+inline constexpr std::uintmax_t kMaxShieldingTableBytes = 16u << 20;
+/// Most direction rows of a table (as mission.directions).
+inline constexpr std::size_t kMaxShieldingTableRows = 65536;
+/// Largest areal density of one layer of a table, g/cm2 (1e5 g/cm2 stops every particle of the
+/// transport grid, up to 100 GeV/n, in any material; common practice).
+inline constexpr double kMaxLayer_g_cm2 = 1.0e5;
+
+/// Reads and parses a file: it must be a regular file of at most kMaxShieldingTableBytes of
+/// printable ASCII text. InputError at `named_at` (where the scenario names the file) and
+/// `field` when the file is missing, not a regular file, too large or not text; content errors
+/// name the table's own file and line, and quote nothing from a file until one row has parsed.
 [[nodiscard]] habitats::DirectionalShielding
 read_shielding_table(const std::string& path,
-                     const std::function<bool(const std::string&)>& known_material);
+                     const std::function<bool(const std::string&)>& known_material,
+                     const SourceLocation& named_at, const std::string& field);
 
 } // namespace crewdose::planner

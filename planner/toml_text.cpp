@@ -1,0 +1,189 @@
+#include "toml_text.hpp"
+
+#include "input_error.hpp"
+
+#include <fmt/format.h>
+
+#include <cstdint>
+#include <string>
+
+namespace crewdose::planner {
+namespace {
+
+// Decodes the UTF-8 sequence at text[i]; returns its length (0 when invalid) and the code
+// point. Overlong forms, surrogates and code points above U+10FFFF are invalid (RFC 3629).
+std::size_t decode(std::string_view text, std::size_t i, char32_t& cp) {
+    const auto byte = [&](std::size_t k) {
+        return static_cast<unsigned char>(text[k]);
+    };
+    const unsigned char b0 = byte(i);
+    std::size_t len = 0;
+    char32_t min = 0;
+    if (b0 < 0x80) {
+        cp = b0;
+        return 1;
+    }
+    if ((b0 & 0xE0) == 0xC0) {
+        len = 2;
+        cp = b0 & 0x1Fu;
+        min = 0x80;
+    } else if ((b0 & 0xF0) == 0xE0) {
+        len = 3;
+        cp = b0 & 0x0Fu;
+        min = 0x800;
+    } else if ((b0 & 0xF8) == 0xF0) {
+        len = 4;
+        cp = b0 & 0x07u;
+        min = 0x10000;
+    } else {
+        return 0;
+    }
+    if (i + len > text.size()) {
+        return 0;
+    }
+    for (std::size_t k = 1; k < len; ++k) {
+        if ((byte(i + k) & 0xC0) != 0x80) {
+            return 0;
+        }
+        cp = (cp << 6) | (byte(i + k) & 0x3Fu);
+    }
+    if (cp < min || cp > 0x10FFFF || (cp >= 0xD800 && cp <= 0xDFFF)) {
+        return 0;
+    }
+    return len;
+}
+
+enum class State { normal, comment, basic, literal, ml_basic, ml_literal };
+
+} // namespace
+
+void check_toml_text(std::string_view text, std::string_view file) {
+    int line = 1;
+    State state = State::normal;
+    bool after_line_end_backslash = false; // in a multi-line basic string
+    bool escaped = false;                  // the character before was an escaping backslash
+    auto fail = [&](const std::string& problem) {
+        throw InputError({std::string(file), line}, "syntax", problem);
+    };
+    auto starts = [&](std::size_t i, std::string_view s) {
+        return text.substr(i, s.size()) == s;
+    };
+    std::size_t i = 0;
+    while (i < text.size()) {
+        char32_t cp = 0;
+        const std::size_t len = decode(text, i, cp);
+        if (len == 0) {
+            fail(fmt::format("byte {} is not valid UTF-8; save the file as UTF-8 text", i + 1));
+        }
+        if ((cp < 0x20 && cp != U'\t' && cp != U'\n' && cp != U'\r') || cp == 0x7F) {
+            fail(fmt::format("control character U+{:04X}; only tab, line feed and carriage return "
+                             "may appear",
+                             static_cast<std::uint32_t>(cp)));
+        }
+        const bool ascii = cp < 0x80;
+        const char c = static_cast<char>(cp);
+        if (escaped) {
+            // The escaped character itself has no meaning here (toml++ judges the escape).
+            escaped = false;
+            line += c == '\n' ? 1 : 0;
+            i += len;
+            continue;
+        }
+        switch (state) {
+        case State::normal:
+            if (!ascii) {
+                fail(fmt::format("character U+{:04X} outside a quoted string or a comment; TOML "
+                                 "allows non-ASCII characters only inside them",
+                                 static_cast<std::uint32_t>(cp)));
+            }
+            if (c == '#') {
+                state = State::comment;
+            } else if (starts(i, "\"\"\"")) {
+                state = State::ml_basic;
+                i += 3;
+                continue;
+            } else if (starts(i, "'''")) {
+                state = State::ml_literal;
+                i += 3;
+                continue;
+            } else if (c == '"') {
+                state = State::basic;
+            } else if (c == '\'') {
+                state = State::literal;
+            }
+            break;
+        case State::comment:
+            if (c == '\n') {
+                state = State::normal;
+            }
+            break;
+        case State::basic:
+            if (c == '\\' && i + 1 < text.size() && text[i + 1] != '\n') {
+                escaped = true; // the next character cannot end the string
+                i += 1;
+                continue;
+            }
+            if (c == '"' || c == '\n') {
+                state = State::normal; // a string ends at its quote (or, malformed, its line)
+            }
+            break;
+        case State::literal:
+            if (c == '\'' || c == '\n') {
+                state = State::normal;
+            }
+            break;
+        case State::ml_basic:
+            if (after_line_end_backslash) {
+                if (!ascii) {
+                    fail(fmt::format("character U+{:04X} right after a line-ending backslash in "
+                                     "a multi-line string; put an ASCII character first",
+                                     static_cast<std::uint32_t>(cp)));
+                }
+                if (c != ' ' && c != '\t' && c != '\n' && c != '\r') {
+                    after_line_end_backslash = false;
+                }
+            }
+            if (!after_line_end_backslash && c == '\\' && i + 1 < text.size()) {
+                // A backslash followed by optional blanks and a line end trims what follows.
+                std::size_t k = i + 1;
+                while (k < text.size() && (text[k] == ' ' || text[k] == '\t' || text[k] == '\r')) {
+                    ++k;
+                }
+                if (k < text.size() && text[k] == '\n') {
+                    after_line_end_backslash = true;
+                    i += 1;
+                    continue;
+                }
+                escaped = true;
+                i += 1;
+                continue;
+            }
+            if (starts(i, "\"\"\"")) {
+                i += 3;
+                // Up to two more quotes belong to the string.
+                for (int q = 0; q < 2 && i < text.size() && text[i] == '"'; ++q) {
+                    ++i;
+                }
+                state = State::normal;
+                continue;
+            }
+            break;
+        case State::ml_literal:
+            if (starts(i, "'''")) {
+                i += 3;
+                for (int q = 0; q < 2 && i < text.size() && text[i] == '\''; ++q) {
+                    ++i;
+                }
+                state = State::normal;
+                continue;
+            }
+            break;
+        }
+        if (c == '\n') {
+            ++line;
+        }
+        i += len;
+    }
+}
+
+} // namespace crewdose::planner
