@@ -6,6 +6,7 @@
 #include <array>
 #include <cstdio>
 #include <cstdlib>
+#include <filesystem>
 #include <string>
 #include <sys/wait.h>
 #include <unistd.h>
@@ -276,7 +277,7 @@ TEST_CASE("bad spectra and depths exit 2 naming the key and what is allowed", "[
     };
     for (const Case& c :
          {Case{"depth -s \"band:J0=1e10,gamma_a=3.5,gamma_b=1.1,R0_GV=0.25\"",
-               "--spectrum: gamma_b: must be finite and greater than gamma_a"},
+               "--spectrum: gamma_b: must be greater than gamma_a and at most 20"},
           Case{"depth -s \"band:J0=1e10,gamma_a=1.1,R0_GV=0.25\"", "needs gamma_b"},
           Case{"depth -s \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0=0.25\"", "no key 'R0'"},
           Case{"depth -s \"gauss:J0=1\"", "unknown spectrum form 'gauss'"},
@@ -452,9 +453,39 @@ TEST_CASE("check: --out and --series are written atomically, and bad input write
     INFO(bad.out);
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("broken.toml:" + std::to_string(line) +
-                       ": solid.radius_m: must be a number > 0") != std::string::npos);
+                       ": solid.radius_m: -2.5 is outside the allowed range") != std::string::npos);
     CHECK(read_file(dir + "/report.txt") == before);
-    CHECK(read_file(dir + "/report.txt.crewdose-tmp").empty());
+    // No temporary file is left in the folder.
+    for (const auto& entry : std::filesystem::directory_iterator(dir)) {
+        CHECK(entry.path().filename().string().find("crewdose-") == std::string::npos);
+    }
+}
+
+TEST_CASE("check: --out never writes through a planted link and keeps the file's mode",
+          "[cli][check]") {
+    const std::string dir = temp_dir();
+    const std::string small = std::string(CREWDOSE_SOURCE_DIR) +
+                              "/tests/fixtures/malformed/case-toml-nonascii-in-string-ok.toml";
+    write_file(dir + "/victim.txt", "precious\n");
+    // A link at the output's name is replaced by the report; the file it pointed to is not
+    // touched (rename replaces the link itself).
+    REQUIRE(symlink((dir + "/victim.txt").c_str(), (dir + "/report.txt").c_str()) == 0);
+    // A link at the name the previous versions used for their temporary file, and any other
+    // predictable name, is never followed: the temporary file is created exclusively under a
+    // random name.
+    REQUIRE(symlink((dir + "/victim.txt").c_str(), (dir + "/report.txt.crewdose-tmp").c_str()) ==
+            0);
+    const Run r = run("check " + small + " --out " + dir + "/report.txt");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    CHECK(read_file(dir + "/victim.txt") == "precious\n");
+    CHECK(std::filesystem::is_regular_file(std::filesystem::symlink_status(dir + "/report.txt")));
+    CHECK(read_file(dir + "/report.txt").rfind("crewdose check:", 0) == 0);
+    // Replacing a file keeps its permissions.
+    std::filesystem::permissions(dir + "/report.txt", std::filesystem::perms(0640));
+    CHECK(run("check " + small + " --out " + dir + "/report.txt").exit_code == 0);
+    CHECK(std::filesystem::status(dir + "/report.txt").permissions() ==
+          std::filesystem::perms(0640));
 }
 
 TEST_CASE("validate lists what the scenario defines", "[cli][check]") {
@@ -464,7 +495,7 @@ TEST_CASE("validate lists what the scenario defines", "[cli][check]") {
     CHECK(r.out.find("4 crew, 31 activities") != std::string::npos);
     const Run missing = run("validate /nonexistent/plan.toml");
     CHECK(missing.exit_code == 2);
-    CHECK(missing.out.find("/nonexistent/plan.toml: file: cannot be read") != std::string::npos);
+    CHECK(missing.out.find("/nonexistent/plan.toml: file: does not exist") != std::string::npos);
 }
 
 TEST_CASE("check: the Mars demo runs and stays within limits", "[cli][check]") {

@@ -134,7 +134,9 @@ TEST_CASE("imported shielding tables: parsed with file and line, same response c
           Bad{"0 0 0 aluminium=1\n", "hab.dirs:1: direction: is the zero vector"},
           Bad{"# c\n1 0 0 cheese=1\n", "hab.dirs:2: layer: unknown material 'cheese'"},
           Bad{"1 0 0 aluminium=-1\n", "hab.dirs:1: layer: 'aluminium=-1'"},
-          Bad{"1 0 x\n", "hab.dirs:1: direction: 'x' is not a number"},
+          Bad{"1 0 x\n", "hab.dirs:1: direction: this line does not start with three numbers"},
+          Bad{"1 0 0 aluminium=1\n1 0 x\n", "hab.dirs:2: direction: 'x' does not start"},
+          Bad{"1 0 0 aluminium=1e6\n", "the areal density must be a number from 0 to 100000"},
           Bad{"# nothing\n", "hab.dirs: table: has no direction rows"}}) {
         try {
             (void)planner::parse_shielding_table(b.text, "hab.dirs", known);
@@ -143,6 +145,17 @@ TEST_CASE("imported shielding tables: parsed with file and line, same response c
             INFO(e.what());
             CHECK(std::string(e.what()).find(b.must_say) != std::string::npos);
         }
+    }
+    // A file that is not a table (a wrong path: here a password-file line) is named with its
+    // line, and nothing of it is quoted.
+    try {
+        (void)planner::parse_shielding_table("root:x:0:0:secret:/root:/bin/sh\n", "f", known);
+        FAIL("expected an error");
+    } catch (const InputError& e) {
+        INFO(e.what());
+        CHECK(std::string(e.what()).find("f:1: direction:") != std::string::npos);
+        CHECK(std::string(e.what()).find("secret") == std::string::npos);
+        CHECK(std::string(e.what()).find("root") == std::string::npos);
     }
     // A table whose every row is the 10 g/cm2 aluminium shell gives the shell's dose (by
     // construction: the same response code serves scenes and tables).

@@ -128,7 +128,8 @@ TEST_CASE("materials: unknown elements and fractions that do not sum to one", "[
 TEST_CASE("non-positive sizes and durations, times out of order or outside the mission",
           "[scenario]") {
     expect(replace(kBase, "thickness_m = 0.01", "thickness_m = -0.01"),
-           "solid.layers.thickness_m: must be a number > 0");
+           "solid.layers.thickness_m: -0.01 is outside the allowed range: more than 0 and at most "
+           "10000 m");
     expect(replace(kBase, "end = 2032-01-11T00:00:00Z\ndirections",
                    "end = 2031-12-01T00:00:00Z\ndirections"),
            "plan.toml:5: mission.end: must be after mission.start");
@@ -147,7 +148,7 @@ TEST_CASE("overlapping activities of one crew member", "[scenario]") {
 
 TEST_CASE("spectrum parameters, shapes and geometry are checked at their line", "[scenario]") {
     expect(replace(kBase, "E0_MeV=30", "E0_MeV=-30"),
-           "plan.toml:23: event.spectrum: E0_MeV: must be a finite number > 0");
+           "plan.toml:23: event.spectrum: E0_MeV: must be from 0.1 to 10000 MeV, got -30");
     expect(replace(kBase, "shape = \"sphere\"", "shape = \"torus\""),
            "plan.toml:10: solid.shape: 'torus' is not a supported shape; allowed: sphere");
     expect(replace(kBase, "point_m = [0.0, 0.0, 2.0]", "point_m = [0.0, 0.0, 3.995]"),
@@ -178,7 +179,7 @@ TEST_CASE("limits: overrides and the uncertainty factor", "[scenario]") {
     CHECK(found);
     expect(kBase + "\n[limits]\nbfo_7d_mGyEq = 100\n", "limits.bfo_7d_mGyEq: unknown key");
     expect(kBase + "\n[limits]\nuncertainty_factor = 0\n",
-           "limits.uncertainty_factor: must be a number > 0");
+           "limits.uncertainty_factor: 0 is outside the allowed range 1 to 10");
 }
 
 TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenario][gcr]") {
