@@ -170,7 +170,7 @@ int main(int argc, char** argv) {
                  "spectrum the model uses: a phi derived with another spectrum is not "
                  "interchangeable. Without a value the solar-minimum example (400 MV) is used.\n"
                  "Example: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
-                 "evaluated limits met; 1: a limit exceeded; 2: bad input.");
+                 "evaluated limits met; 1: a limit exceeded; 2: bad input; 3: internal fault.");
     check->add_option("scenario", scenario_path, "scenario file (TOML; see scenarios/README.md)")
         ->required();
     check->add_option("--format,-f", format, "text, json (full precision) or csv")
@@ -256,7 +256,8 @@ int main(int argc, char** argv) {
         "10min, --from/--to default the mission), plus the onsets where the policy changes; per "
         "crew member the worst onset, per EVA a go/no-go, and a text profile.\n"
         "Example: crewdose storm scenarios/lunar-demo.toml --event design-spe --sweep\n"
-        "Exit 0: every 30-day limit met; 1: some what-if breaks one; 2: bad input.");
+        "Exit 0: every 30-day limit met; 1: some what-if breaks one; 2: bad input; 3: internal "
+        "fault.");
     storm->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
     storm->add_option("--event,-e", event_id, "the design event (an event id)")->required();
     auto* onset_opt = storm->add_option("--onset", storm_onset,

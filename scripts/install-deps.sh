@@ -5,6 +5,10 @@ set -euo pipefail
 packages=(libboost-date-time-dev libfmt-dev catch2 libcli11-dev libtomlplusplus-dev
           nlohmann-json3-dev libbenchmark-dev cmake ninja-build g++)
 
+# Callers may ask for more (scripts/fuzz.sh: clang and its fuzzer runtime).
+read -r -a extra <<< "${CREWDOSE_EXTRA_PACKAGES:-}"
+packages+=("${extra[@]}")
+
 missing=()
 for p in "${packages[@]}"; do
   if ! dpkg-query -W -f='${Status}' "$p" 2>/dev/null | grep -q "install ok installed"; then
