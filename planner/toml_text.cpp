@@ -6,6 +6,7 @@
 
 #include <cstdint>
 #include <string>
+#include <vector>
 
 namespace crewdose::planner {
 namespace {
@@ -55,6 +56,15 @@ std::size_t decode(std::string_view text, std::size_t i, char32_t& cp) {
 
 enum class State { normal, comment, basic, literal, ml_basic, ml_literal };
 
+// Where the text is, as far as keys and values go: toml++ records the raw text of every key it
+// reads and tests each character of it for whitespace, so a non-ASCII character inside a
+// quoted key reaches the same undefined behaviour as one outside any string.
+enum class Nest { header, array, inline_table };
+
+std::string code_point(char32_t cp) {
+    return fmt::format("U+{:04X}", static_cast<std::uint32_t>(cp));
+}
+
 } // namespace
 
 void check_toml_text(std::string_view text, std::string_view file) {
@@ -62,11 +72,21 @@ void check_toml_text(std::string_view text, std::string_view file) {
     State state = State::normal;
     bool after_line_end_backslash = false; // in a multi-line basic string
     bool escaped = false;                  // the character before was an escaping backslash
+    std::vector<Nest> nest;                // open [header], [array] and {inline table}
+    bool key_expected = true;              // a key comes next: a line's start, after '{' or ','
+    bool string_is_key = false;            // the string being read is a quoted key
     auto fail = [&](const std::string& problem) {
         throw InputError({std::string(file), line}, "syntax", problem);
     };
     auto starts = [&](std::size_t i, std::string_view s) {
         return text.substr(i, s.size()) == s;
+    };
+    auto end_of_line = [&] {
+        // Outside arrays and inline tables a line ends a key-value pair or a header.
+        if (nest.empty() || nest.back() == Nest::header) {
+            nest.clear();
+            key_expected = true;
+        }
     };
     std::size_t i = 0;
     while (i < text.size()) {
@@ -76,12 +96,18 @@ void check_toml_text(std::string_view text, std::string_view file) {
             fail(fmt::format("byte {} is not valid UTF-8; save the file as UTF-8 text", i + 1));
         }
         if ((cp < 0x20 && cp != U'\t' && cp != U'\n' && cp != U'\r') || cp == 0x7F) {
-            fail(fmt::format("control character U+{:04X}; only tab, line feed and carriage return "
-                             "may appear",
-                             static_cast<std::uint32_t>(cp)));
+            fail(fmt::format("control character {}; only tab, line feed and carriage return may "
+                             "appear",
+                             code_point(cp)));
         }
         const bool ascii = cp < 0x80;
         const char c = static_cast<char>(cp);
+        const bool in_string = state != State::normal && state != State::comment;
+        if (!ascii && in_string && string_is_key) {
+            fail(fmt::format("character {} in a quoted key; keys must be ASCII (non-ASCII text "
+                             "may appear in string values and in comments)",
+                             code_point(cp)));
+        }
         if (escaped) {
             // The escaped character itself has no meaning here (toml++ judges the escape).
             escaped = false;
@@ -92,29 +118,49 @@ void check_toml_text(std::string_view text, std::string_view file) {
         switch (state) {
         case State::normal:
             if (!ascii) {
-                fail(fmt::format("character U+{:04X} outside a quoted string or a comment; TOML "
-                                 "allows non-ASCII characters only inside them",
-                                 static_cast<std::uint32_t>(cp)));
+                fail(fmt::format("character {} outside a quoted string or a comment; TOML allows "
+                                 "non-ASCII characters only inside them",
+                                 code_point(cp)));
             }
             if (c == '#') {
                 state = State::comment;
-            } else if (starts(i, "\"\"\"")) {
-                state = State::ml_basic;
-                i += 3;
-                continue;
-            } else if (starts(i, "'''")) {
-                state = State::ml_literal;
-                i += 3;
-                continue;
-            } else if (c == '"') {
-                state = State::basic;
-            } else if (c == '\'') {
-                state = State::literal;
+            } else if (c == '"' || c == '\'') {
+                string_is_key = key_expected;
+                const bool triple = starts(i, std::string(3, c));
+                state = c == '"' ? (triple ? State::ml_basic : State::basic)
+                                 : (triple ? State::ml_literal : State::literal);
+                if (triple) {
+                    i += 3;
+                    continue;
+                }
+            } else if (c == '[') {
+                nest.push_back(key_expected && nest.empty() ? Nest::header : Nest::array);
+                key_expected = nest.back() == Nest::header;
+            } else if (c == ']') {
+                if (!nest.empty() && nest.back() != Nest::inline_table) {
+                    nest.pop_back();
+                }
+                key_expected = false;
+            } else if (c == '{') {
+                nest.push_back(Nest::inline_table);
+                key_expected = true;
+            } else if (c == '}') {
+                if (!nest.empty() && nest.back() == Nest::inline_table) {
+                    nest.pop_back();
+                }
+                key_expected = false;
+            } else if (c == '=') {
+                key_expected = false;
+            } else if (c == ',') {
+                key_expected = !nest.empty() && nest.back() == Nest::inline_table;
+            } else if (c == '\n') {
+                end_of_line();
             }
             break;
         case State::comment:
             if (c == '\n') {
                 state = State::normal;
+                end_of_line();
             }
             break;
         case State::basic:
@@ -125,25 +171,37 @@ void check_toml_text(std::string_view text, std::string_view file) {
             }
             if (c == '"' || c == '\n') {
                 state = State::normal; // a string ends at its quote (or, malformed, its line)
+                if (c == '\n') {
+                    end_of_line();
+                }
             }
             break;
         case State::literal:
             if (c == '\'' || c == '\n') {
                 state = State::normal;
+                if (c == '\n') {
+                    end_of_line();
+                }
             }
             break;
         case State::ml_basic:
             if (after_line_end_backslash) {
                 if (!ascii) {
-                    fail(fmt::format("character U+{:04X} right after a line-ending backslash in "
-                                     "a multi-line string; put an ASCII character first",
-                                     static_cast<std::uint32_t>(cp)));
+                    fail(fmt::format("character {} right after a line-ending backslash in a "
+                                     "multi-line string; put an ASCII character first",
+                                     code_point(cp)));
                 }
                 if (c != ' ' && c != '\t' && c != '\n' && c != '\r') {
                     after_line_end_backslash = false;
                 }
             }
             if (!after_line_end_backslash && c == '\\' && i + 1 < text.size()) {
+                if (static_cast<unsigned char>(text[i + 1]) >= 0x80) {
+                    // toml++ tests the escaped character for whitespace before anything else;
+                    // no escape of TOML is a non-ASCII character anyway.
+                    fail("a backslash before a non-ASCII character in a multi-line string is "
+                         "not an escape TOML knows");
+                }
                 // A backslash followed by optional blanks and a line end trims what follows.
                 std::size_t k = i + 1;
                 while (k < text.size() && (text[k] == ' ' || text[k] == '\t' || text[k] == '\r')) {

@@ -185,6 +185,16 @@ TEST_CASE("the TOML text check: UTF-8, control characters, non-ASCII only where 
           std::string::npos);
     CHECK(toml_error("s = \"\"\"x \\\n   \u03eb\"\"\"\n").find("line-ending backslash") !=
           std::string::npos);
+    // Keys are ASCII: toml++ 3.3 tests each character of a key for whitespace.
+    CHECK(toml_error("\"k\u03eb\" = 1\n").find("in a quoted key") != std::string::npos);
+    CHECK(toml_error("[\"t\u03eb\"]\n").find("in a quoted key") != std::string::npos);
+    CHECK(toml_error("a = { b = 1, \"\u03eb\" = 2 }\n").find("in a quoted key") !=
+          std::string::npos);
+    CHECK(toml_error("a = [\"\u03eb\", '\u03eb']\nb = { c = \"\u03eb\" }\n") == "no error");
+    // Found by the fuzzer: toml++ tests the character after any backslash of a multi-line
+    // basic string for whitespace.
+    CHECK(toml_error("s = \"\"\"x\\\u03eb\"\"\"\n").find("a backslash before") !=
+          std::string::npos);
     // An escaped quote does not end the string, so what follows is still inside it.
     CHECK(toml_error("a = \"x\\\" \u03eb\"\n") == "no error");
     // After the string ends, a non-ASCII character is outside again (line 2).
