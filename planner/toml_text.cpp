@@ -75,6 +75,10 @@ void check_toml_text(std::string_view text, std::string_view file) {
     std::vector<Nest> nest;                // open [header], [array] and {inline table}
     bool key_expected = true;              // a key comes next: a line's start, after '{' or ','
     bool string_is_key = false;            // the string being read is a quoted key
+    // The last character outside strings and comments that was not blank: a quote starts a
+    // string only where toml++ starts one (a key or a value), not inside a bare word such as
+    // -"x, which toml++ scans as part of that word.
+    char last = '\n';
     auto fail = [&](const std::string& problem) {
         throw InputError({std::string(file), line}, "syntax", problem);
     };
@@ -82,6 +86,7 @@ void check_toml_text(std::string_view text, std::string_view file) {
         return text.substr(i, s.size()) == s;
     };
     auto end_of_line = [&] {
+        last = '\n';
         // Outside arrays and inline tables a line ends a key-value pair or a header.
         if (nest.empty() || nest.back() == Nest::header) {
             nest.clear();
@@ -124,12 +129,14 @@ void check_toml_text(std::string_view text, std::string_view file) {
             }
             if (c == '#') {
                 state = State::comment;
-            } else if (c == '"' || c == '\'') {
+            } else if ((c == '"' || c == '\'') &&
+                       std::string_view("\n=[,{.").find(last) != std::string_view::npos) {
                 string_is_key = key_expected;
                 const bool triple = starts(i, std::string(3, c));
                 state = c == '"' ? (triple ? State::ml_basic : State::basic)
                                  : (triple ? State::ml_literal : State::literal);
                 if (triple) {
+                    last = c;
                     i += 3;
                     continue;
                 }
@@ -155,6 +162,11 @@ void check_toml_text(std::string_view text, std::string_view file) {
                 key_expected = !nest.empty() && nest.back() == Nest::inline_table;
             } else if (c == '\n') {
                 end_of_line();
+            }
+            if (c == '\n') {
+                last = '\n';
+            } else if (c != ' ' && c != '\t' && c != '\r') {
+                last = c;
             }
             break;
         case State::comment:

@@ -195,6 +195,11 @@ TEST_CASE("the TOML text check: UTF-8, control characters, non-ASCII only where 
     // basic string for whitespace.
     CHECK(toml_error("s = \"\"\"x\\\u03eb\"\"\"\n").find("a backslash before") !=
           std::string::npos);
+    // Found by the fuzzer: a quote inside a bare word does not start a string for toml++,
+    // which scans the word on (and tests each character for whitespace).
+    CHECK(toml_error("id =-\"hu\u03eb\"\n").find("outside a quoted string") !=
+          std::string::npos);
+    CHECK(toml_error("a = [1, \"\u03eb\"]\n") == "no error");
     // An escaped quote does not end the string, so what follows is still inside it.
     CHECK(toml_error("a = \"x\\\" \u03eb\"\n") == "no error");
     // After the string ends, a non-ASCII character is outside again (line 2).
