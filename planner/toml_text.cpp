@@ -208,18 +208,20 @@ void check_toml_text(std::string_view text, std::string_view file) {
                 }
             }
             if (!after_line_end_backslash && c == '\\' && i + 1 < text.size()) {
-                if (static_cast<unsigned char>(text[i + 1]) >= 0x80) {
-                    // toml++ tests the escaped character for whitespace before anything else;
-                    // no escape of TOML is a non-ASCII character anyway.
+                // toml++ tests the character after the backslash, and after any blanks that
+                // follow it, for whitespace; no escape of TOML is a non-ASCII character, and a
+                // backslash followed by blanks must end its line.
+                std::size_t next = i + 1;
+                while (next < text.size() &&
+                       (text[next] == ' ' || text[next] == '\t' || text[next] == '\r')) {
+                    ++next;
+                }
+                if (next < text.size() && static_cast<unsigned char>(text[next]) >= 0x80) {
                     fail("a backslash before a non-ASCII character in a multi-line string is "
                          "not an escape TOML knows");
                 }
                 // A backslash followed by optional blanks and a line end trims what follows.
-                std::size_t k = i + 1;
-                while (k < text.size() && (text[k] == ' ' || text[k] == '\t' || text[k] == '\r')) {
-                    ++k;
-                }
-                if (k < text.size() && text[k] == '\n') {
+                if (next < text.size() && text[next] == '\n') {
                     after_line_end_backslash = true;
                     i += 1;
                     continue;

@@ -200,6 +200,10 @@ TEST_CASE("the TOML text check: UTF-8, control characters, non-ASCII only where 
     CHECK(toml_error("id =-\"hu\u03eb\"\n").find("outside a quoted string") !=
           std::string::npos);
     CHECK(toml_error("a = [1, \"\u03eb\"]\n") == "no error");
+    // Found by the fuzzer: blanks after a backslash are skipped by toml++, testing what comes
+    // next for whitespace.
+    CHECK(toml_error("s = \"\"\"x\\ \t\u03eb\"\"\"\n").find("a backslash before") !=
+          std::string::npos);
     // An escaped quote does not end the string, so what follows is still inside it.
     CHECK(toml_error("a = \"x\\\" \u03eb\"\n") == "no error");
     // After the string ends, a non-ASCII character is outside again (line 2).
