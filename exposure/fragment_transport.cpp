@@ -4,6 +4,8 @@
 #include "fragmentation.hpp"
 #include "material_library.hpp"
 #include "nuclear.hpp"
+#include "nucleon_production.hpp"
+#include "quality_factor.hpp"
 #include "units.hpp"
 
 #include <algorithm>
@@ -16,11 +18,56 @@ namespace crewdose::exposure {
 
 namespace {
 
-constexpr std::size_t kSpecies = FragmentTransport::kMaxZ;
+constexpr std::size_t kSpecies = kFieldSpecies;
 
 const Particle& species(std::size_t j) {
-    return particles()[j];
+    return field_species(j);
 }
+
+// The march species of a light particle of nucleon_production.hpp.
+std::size_t species_of(LightParticle p) {
+    switch (p) {
+    case LightParticle::neutron:
+        return kNeutronSpecies;
+    case LightParticle::proton:
+        return 0;
+    case LightParticle::deuteron:
+        return kDeuteronSpecies;
+    case LightParticle::triton:
+        return kTritonSpecies;
+    case LightParticle::helion:
+        return kHelionSpecies;
+    case LightParticle::alpha:
+        return 1;
+    }
+    throw std::logic_error("species_of: unknown light particle");
+}
+
+// sum of a[k] b[k] for k in [from, to): four accumulators, so that the sums of the light
+// group's dense products pipeline (the order of additions is fixed: results do not depend on
+// the machine).
+double dot(const double* a, const double* b, std::size_t from, std::size_t to) {
+    double s0 = 0.0;
+    double s1 = 0.0;
+    double s2 = 0.0;
+    double s3 = 0.0;
+    std::size_t k = from;
+    for (; k + 4 <= to; k += 4) {
+        s0 += a[k] * b[k];
+        s1 += a[k + 1] * b[k + 1];
+        s2 += a[k + 2] * b[k + 2];
+        s3 += a[k + 3] * b[k + 3];
+    }
+    for (; k < to; ++k) {
+        s0 += a[k] * b[k];
+    }
+    return (s0 + s1) + (s2 + s3);
+}
+
+// The light group, marched together with a predictor-corrector step: protons, alphas,
+// neutrons, deuterons, tritons, helions.
+constexpr std::array<std::size_t, 6> kLightGroup{
+    0, 1, kNeutronSpecies, kDeuteronSpecies, kTritonSpecies, kHelionSpecies};
 
 // Above the top node the field is taken as a power law psi ~ E^-1.7 (the GCR spectral index
 // 2.7 of phi), for the few top nodes whose characteristic starts beyond it.
@@ -34,18 +81,39 @@ struct FragmentTransport::StepMap {
     // the Jacobian, the psi = E phi conversion and the survival).
     std::array<std::vector<std::size_t>, kSpecies> base;
     std::array<std::vector<double>, kSpecies> w;
+    // With secondaries, for the light group: what a source constant over the step leaves at
+    // x + h, integral over u from 0 to h of T(u) s, exact along the characteristics for a
+    // source linear in ln E between nodes (see source_integral()). Row m holds columns m ..
+    // upto[j][m], stored from u[j][start[j][m]] on.
+    std::array<std::vector<double>, kSpecies> u;
+    std::array<std::vector<std::size_t>, kSpecies> upto;
+    std::array<std::vector<std::size_t>, kSpecies> start;
 };
 
 struct FragmentTransport::MaterialData {
     const Material* material = nullptr;
-    std::array<const RangeTable*, kSpecies> table{};
+    std::array<const RangeTable*, kSpecies> table{};   ///< none for the neutron
     std::array<std::vector<double>, kSpecies> removal; ///< cm2/g per node
     std::array<std::vector<double>, kSpecies> self;    ///< neutron removal back to itself
-    /// prod[p][f][m]: production of element f + 1 per g/cm2 by projectile p + 1, f < p.
-    std::array<std::vector<std::vector<double>>, kSpecies> prod;
-    /// producers[f]: the projectiles p > f whose production of f is not zero everywhere.
+    /// prod[p][f][m]: production of species f per g/cm2 by species p at the same energy per
+    /// nucleon (fragments, breakup nucleons); empty where p makes no f.
+    std::array<std::array<std::vector<double>, kSpecies>, kSpecies> prod;
+    /// producers[f]: the species p whose production of f is not zero everywhere, ascending.
     std::array<std::vector<std::size_t>, kSpecies> producers;
     std::array<std::vector<double>, kSpecies> neutrons; ///< neutrons made per g/cm2 per node
+    /// With secondaries: spread[q][l], q = 0 the proton, 1 the neutron, l a light particle:
+    /// an n x n matrix (row: the product's node, column: the projectile's), per g/cm2, with
+    /// the incident ln E quadrature weight folded in, so that the source of l is spread x psi.
+    std::array<std::array<std::vector<double>, kLightParticles>, 2> spread;
+    /// Per spread matrix and row: its non-zero columns, [from, to) (from == to: none).
+    std::array<std::array<std::vector<std::size_t>, kLightParticles>, 2> spread_from;
+    std::array<std::array<std::vector<std::size_t>, kLightParticles>, 2> spread_to;
+    /// With secondaries: per projectile nucleon q and node, the energy deposited where the
+    /// reaction happens per unit fluence and per g/cm2, MeV cm2/g, with its Q- and RBE-
+    /// weighted forms for the proton RBE of the last dose call (see local_deposit()).
+    std::array<std::vector<double>, 2> local_MeV;
+    std::array<std::vector<double>, 2> local_Q_MeV;
+    std::array<std::vector<double>, 2> local_heavy_MeV; ///< the part of ions (RBE heavy_ion)
     std::map<double, StepMap> maps;                     ///< by step length, reused ones
     std::set<double> seen;                              ///< step lengths asked for once
     std::map<std::string, std::array<std::vector<DoseQuantities>, kSpecies>> doses;
@@ -56,10 +124,13 @@ FragmentTransport::FragmentTransport(TableLibrary& tables, MarchOptions options)
     if (!(options_.max_step_g_cm2 > 0.0)) {
         throw std::invalid_argument("FragmentTransport: max_step_g_cm2 must be > 0");
     }
-    if (particles().size() < kSpecies) {
+    if (particles().size() < kIonSpecies) {
         throw std::logic_error("FragmentTransport: particle list shorter than Z = 28");
     }
-    for (std::size_t j = 0; j < kSpecies; ++j) {
+    if (!(options_.local_below_MeV_per_n > 0.0)) {
+        throw std::invalid_argument("FragmentTransport: local_below_MeV_per_n must be > 0");
+    }
+    for (std::size_t j = 0; j < kIonSpecies; ++j) {
         if (species(j).Z != static_cast<int>(j + 1)) {
             throw std::logic_error("FragmentTransport: particles() not ordered by Z");
         }
@@ -90,6 +161,14 @@ IonField FragmentTransport::empty_field() const {
     return f;
 }
 
+std::size_t FragmentTransport::active_species() const noexcept {
+    return secondaries() ? kSpecies : kIonSpecies;
+}
+
+bool FragmentTransport::secondaries() const noexcept {
+    return options_.secondaries && options_.fragmentation && options_.removal;
+}
+
 const FragmentTransport::MaterialData& FragmentTransport::data(const Material& material) {
     auto it = materials_.find(material.id());
     if (it != materials_.end()) {
@@ -98,12 +177,11 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
     auto md = std::make_unique<MaterialData>();
     md->material = &material;
     const std::size_t n = energies_.size();
-    for (std::size_t j = 0; j < kSpecies; ++j) {
-        md->table[j] = &tables_.table(material, species(j));
+    for (std::size_t j = 0; j < active_species(); ++j) {
+        md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
         md->removal[j].resize(n);
         md->self[j].assign(n, 0.0);
         md->neutrons[j].assign(n, 0.0);
-        md->prod[j].assign(j, std::vector<double>(n, 0.0));
         for (std::size_t m = 0; m < n; ++m) {
             md->removal[j][m] = removal_cm2_g(material, species(j), energies_[m]);
         }
@@ -113,6 +191,13 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             std::fill(r.begin(), r.end(), 0.0);
         }
     }
+    auto production = [&](std::size_t p, std::size_t f) -> std::vector<double>& {
+        auto& v = md->prod[p][f];
+        if (v.empty()) {
+            v.assign(n, 0.0);
+        }
+        return v;
+    };
     if (options_.fragmentation && options_.removal) {
         // Channels are energy-independent: once per (projectile, element); the removal cross
         // section of that element carries the energy dependence.
@@ -123,7 +208,7 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             }
             const double At = element->atomic_mass_g_mol;
             const double per_g = share.mass_fraction * kAvogadro_per_mol / At * 1e-27;
-            for (std::size_t j = 1; j < kSpecies; ++j) {
+            for (std::size_t j = 1; j < kIonSpecies; ++j) {
                 const Particle& p = species(j);
                 const ReactionChannels ch = reaction_channels(p.Z, p.A, At);
                 for (std::size_t m = 0; m < n; ++m) {
@@ -134,22 +219,44 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
                         if (f == j) {
                             md->self[j][m] += removal * c.fraction;
                         } else {
-                            md->prod[j][f][m] += removal * c.fraction;
+                            production(j, f)[m] += removal * c.fraction;
                         }
                     }
-                    md->prod[j][0][m] += removal * ch.protons_per_reaction;
+                    production(j, 0)[m] += removal * ch.protons_per_reaction;
                     md->neutrons[j][m] += removal * ch.neutrons_per_reaction;
+                    if (secondaries()) {
+                        production(j, kNeutronSpecies)[m] += removal * ch.neutrons_per_reaction;
+                    }
+                }
+            }
+            if (!secondaries()) {
+                continue;
+            }
+            // Deuterons, tritons and helions break up into their nucleons at their velocity
+            // (reaction_channels: Zp <= 2 has breakup only).
+            for (const std::size_t j : {kDeuteronSpecies, kTritonSpecies, kHelionSpecies}) {
+                const Particle& p = species(j);
+                const ReactionChannels ch = reaction_channels(p.Z, p.A, At);
+                for (std::size_t m = 0; m < n; ++m) {
+                    const double removal = per_g * nucleus_reaction_cross_section_mb(
+                                                       p.Z, p.A, share.Z, At, energies_[m]);
+                    production(j, 0)[m] += removal * ch.protons_per_reaction;
+                    production(j, kNeutronSpecies)[m] += removal * ch.neutrons_per_reaction;
                 }
             }
         }
     }
-    for (std::size_t f = 0; f < kSpecies; ++f) {
-        for (std::size_t p = f + 1; p < kSpecies; ++p) {
+    for (std::size_t f = 0; f < active_species(); ++f) {
+        for (std::size_t p = 0; p < active_species(); ++p) {
             const auto& v = md->prod[p][f];
-            if (std::any_of(v.begin(), v.end(), [](double x) { return x != 0.0; })) {
+            if (p != f && std::any_of(v.begin(), v.end(), [](double x) { return x != 0.0; })) {
                 md->producers[f].push_back(p);
             }
         }
+    }
+    if (secondaries()) {
+        build_nucleon_production(*md);
+        index_spread(*md);
     }
     // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
     // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
@@ -168,6 +275,152 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
     return *materials_.emplace(material.id(), std::move(md)).first->second;
 }
 
+void FragmentTransport::build_nucleon_production(MaterialData& md) const {
+    const std::size_t n = energies_.size();
+    const double step = n > 1 ? std::log(energies_[1] / energies_[0]) : 1.0;
+    const auto edges = yield_edges_MeV();
+    // Cell m of the march: ln E within half a step of node m.
+    const double log_first = std::log(energies_.front());
+    for (std::size_t q = 0; q < 2; ++q) {
+        for (auto& m : md.spread[q]) {
+            m.assign(n * n, 0.0);
+        }
+        md.local_MeV[q].assign(n, 0.0);
+        md.local_Q_MeV[q].assign(n, 0.0);
+        md.local_heavy_MeV[q].assign(n, 0.0);
+    }
+    for (const auto& share : md.material->composition()) {
+        const auto element = element_by_Z(share.Z);
+        const double A = element->atomic_mass_g_mol;
+        const double per_g = share.mass_fraction * kAvogadro_per_mol / A * 1e-27;
+        const double q_recoil = recoil_quality(share.Z);
+        for (std::size_t q = 0; q < 2; ++q) {
+            for (std::size_t m = 0; m < n; ++m) {
+                const double E = energies_[m];
+                const double rate = per_g * proton_reaction_cross_section_mb(share.Z, A, E);
+                if (!(rate > 0.0)) {
+                    continue;
+                }
+                const ReactionYield y = nucleon_reaction_yield(share.Z, q == 1, E);
+                // Incident quadrature weight in ln E (trapezoid).
+                const double w_in = (m == 0 || m + 1 == n ? 0.5 : 1.0) * step;
+                md.local_MeV[q][m] += rate * y.recoil_MeV;
+                md.local_Q_MeV[q][m] += rate * y.recoil_MeV * q_recoil;
+                md.local_heavy_MeV[q][m] += rate * y.recoil_MeV;
+                for (std::size_t l = 0; l < kLightParticles; ++l) {
+                    const auto lp = static_cast<LightParticle>(l);
+                    const double A_l = light_particle_A(lp);
+                    const bool charged = light_particle_Z(lp) > 0;
+                    const std::size_t f = species_of(lp);
+                    auto& mat = md.spread[q][l];
+                    for (std::size_t i = 0; i + 1 < edges.size(); ++i) {
+                        const double all = y.forward[l][i] + y.backward[l][i];
+                        if (!(all > 0.0)) {
+                            continue;
+                        }
+                        const double lo = edges[i] / A_l; // per nucleon
+                        const double hi = edges[i + 1] / A_l;
+                        const double mid = 0.5 * (lo + hi);
+                        if (charged && mid < options_.local_below_MeV_per_n) {
+                            // Deposited where it is made, both hemispheres (kerma).
+                            const double e = all * mid * A_l;
+                            md.local_MeV[q][m] += rate * e;
+                            md.local_Q_MeV[q][m] += rate * e * track_quality(f, mid);
+                            if (light_particle_Z(lp) > 1) {
+                                md.local_heavy_MeV[q][m] += rate * e;
+                            }
+                            continue;
+                        }
+                        const double fwd = y.forward[l][i];
+                        if (!(fwd > 0.0) || hi <= energies_.front() * std::exp(-0.5 * step)) {
+                            continue; // backward: leaves; neutrons below the lowest cell: lost
+                        }
+                        // Spread the bin's forward particles (uniform in energy) over the
+                        // cells it overlaps; psi at node k = particles in cell k / step.
+                        const double log_lo = std::log(std::max(lo, 1e-300));
+                        const double log_hi = std::log(hi);
+                        auto k0 = static_cast<std::ptrdiff_t>(
+                            std::floor((log_lo - log_first) / step + 0.5));
+                        auto k1 = static_cast<std::ptrdiff_t>(
+                            std::floor((log_hi - log_first) / step + 0.5));
+                        k0 = std::max<std::ptrdiff_t>(k0, 0);
+                        k1 = std::min<std::ptrdiff_t>(k1, static_cast<std::ptrdiff_t>(n) - 1);
+                        for (std::ptrdiff_t k = k0; k <= k1; ++k) {
+                            const auto ku = static_cast<std::size_t>(k);
+                            const double c_lo = energies_[ku] * std::exp(-0.5 * step);
+                            const double c_hi = energies_[ku] * std::exp(0.5 * step);
+                            const double overlap = std::min(hi, c_hi) - std::max(lo, c_lo);
+                            if (overlap > 0.0) {
+                                mat[ku * n + m] += rate * fwd * overlap / (hi - lo) / step * w_in;
+                            }
+                        }
+                    }
+                }
+            }
+        }
+    }
+}
+
+void FragmentTransport::index_spread(MaterialData& md) const {
+    const std::size_t n = energies_.size();
+    for (std::size_t q = 0; q < 2; ++q) {
+        for (std::size_t l = 0; l < kLightParticles; ++l) {
+            const auto& mat = md.spread[q][l];
+            auto& from = md.spread_from[q][l];
+            auto& to = md.spread_to[q][l];
+            from.assign(n, 0);
+            to.assign(n, 0);
+            for (std::size_t r = 0; r < n; ++r) {
+                std::size_t a = n;
+                std::size_t b = 0;
+                for (std::size_t m = 0; m < n; ++m) {
+                    if (mat[r * n + m] != 0.0) {
+                        a = std::min(a, m);
+                        b = m + 1;
+                    }
+                }
+                from[r] = a < b ? a : 0;
+                to[r] = a < b ? b : 0;
+            }
+        }
+    }
+}
+
+double FragmentTransport::recoil_quality(int Z) const {
+    // The residual nucleus of a reaction on element Z, taken as that element's (most abundant
+    // isotope; Ni for the heavier targets) ion: its LET over the slowing down from a typical
+    // recoil energy of 0.1 MeV per nucleon (evaporation residues recoil with a few MeV).
+    if (Z < 2) {
+        return 1.0;
+    }
+    const std::size_t j = static_cast<std::size_t>(std::min(Z, kMaxZ) - 1);
+    return track_quality(j, 0.1);
+}
+
+double FragmentTransport::track_quality(std::size_t j, double E0_MeV_per_n) const {
+    // The dose-weighted mean Q(L) of a particle of species j that stops in water from energy per
+    // nucleon E0: (1 / E0) integral of Q(L(E)) dE, 32 steps in ln E from the tables' lowest
+    // energy (below it, Q at that energy).
+    const Material* water = find_builtin_material("water");
+    const RangeTable& t = tables_.table(*water, species(j));
+    const double E_min = t.grid().front();
+    auto Q = [&](double E) {
+        return quality_factor_icrp60(0.1 * t.stopping_MeV_cm2_g(std::max(E, E_min)));
+    };
+    if (E0_MeV_per_n <= E_min) {
+        return Q(E_min);
+    }
+    const int steps = 32;
+    const double h = std::log(E0_MeV_per_n / E_min) / steps;
+    double sum = Q(E_min) * E_min; // the part below the grid
+    for (int k = 0; k < steps; ++k) {
+        const double a = E_min * std::exp(h * k);
+        const double b = E_min * std::exp(h * (k + 1));
+        sum += Q(std::sqrt(a * b)) * (b - a);
+    }
+    return sum / E0_MeV_per_n;
+}
+
 FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, double h) const {
     StepMap map;
     const std::size_t n = energies_.size();
@@ -179,10 +432,22 @@ FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, d
         w[2] = -t * (t - 1.0) * (t - 3.0) / 2.0;
         w[3] = t * (t - 1.0) * (t - 2.0) / 6.0;
     };
-    for (std::size_t j = 0; j < kSpecies; ++j) {
-        const RangeTable& table = *md.table[j];
+    for (std::size_t j = 0; j < active_species(); ++j) {
         map.base[j].resize(n);
         map.w[j].assign(4 * n, 0.0);
+        if (j == kNeutronSpecies) {
+            // Neutrons do not slow down here: each node only attenuates (Lagrange weights at
+            // an integer position are exact: 1 at the node itself).
+            for (std::size_t m = 0; m < n; ++m) {
+                const double b =
+                    std::clamp(static_cast<double>(m) - 1.0, 0.0, static_cast<double>(n - 4));
+                map.base[j][m] = static_cast<std::size_t>(b);
+                map.w[j][4 * m + (m - static_cast<std::size_t>(b))] =
+                    std::exp(-md.removal[j][m] * h);
+            }
+            continue;
+        }
+        const RangeTable& table = *md.table[j];
         std::size_t hint = first_node_ == 0 ? 0 : first_node_ - 1;
         for (std::size_t m = 0; m < n; ++m) {
             const std::size_t i = first_node_ + m;
@@ -237,7 +502,106 @@ FragmentTransport::StepMap FragmentTransport::step_map(const MaterialData& md, d
             }
         }
     }
+    if (secondaries()) {
+        for (const std::size_t j : kLightGroup) {
+            source_integral(md, h, j, map);
+        }
+    }
     return map;
+}
+
+void FragmentTransport::source_integral(const MaterialData& md, double h, std::size_t j,
+                                        StepMap& map) const {
+    // A source sigma (particles per g/cm2 per unit ln E) made uniformly over the step reaches
+    // x + h as psi(E) = (A E / S(E)) integral from ln E to ln E_h of sigma(E') P(E' -> E)
+    // d ln E', where R(E_h) = R(E) + h (continuous slowing down) and P the survival between
+    // (particle balance at energy E: the flux times the stopping power equals what is made
+    // above E within reach). sigma P is taken linear in ln E between nodes. Neutrons only
+    // attenuate: (1 - exp(-Sigma h)) / Sigma.
+    const std::size_t n = energies_.size();
+    const double step = n > 1 ? std::log(energies_[1] / energies_[0]) : 1.0;
+    std::vector<double> u(n * n, 0.0); // dense while built, banded when stored
+    auto& upto = map.upto[j];
+    upto.assign(n, 0);
+    auto store = [&] {
+        auto& band = map.u[j];
+        auto& start = map.start[j];
+        band.clear();
+        start.assign(n, 0);
+        for (std::size_t m = 0; m < n; ++m) {
+            start[m] = band.size();
+            band.insert(band.end(), u.begin() + static_cast<std::ptrdiff_t>(m * n + m),
+                        u.begin() + static_cast<std::ptrdiff_t>(m * n + upto[m] + 1));
+        }
+    };
+    if (j == kNeutronSpecies) {
+        for (std::size_t m = 0; m < n; ++m) {
+            const double sigma = md.removal[j][m];
+            u[m * n + m] = sigma * h > 1e-12 ? -std::expm1(-sigma * h) / sigma : h;
+            upto[m] = m;
+        }
+        store();
+        return;
+    }
+    const RangeTable& table = *md.table[j];
+    const bool reactions = options_.removal && table.has_optical_depth();
+    const double A = species(j).A;
+    // Survival from node k to node k - 1.
+    std::vector<double> node_survival(n, 1.0);
+    if (reactions) {
+        const auto& tau = table.optical_depth_nodes();
+        for (std::size_t k = 1; k < n; ++k) {
+            node_survival[k] = std::exp(-(tau[first_node_ + k] - tau[first_node_ + k - 1]));
+        }
+    }
+    std::vector<double> survive;
+    std::size_t hint = first_node_ == 0 ? 0 : first_node_ - 1;
+    for (std::size_t m = 0; m < n; ++m) {
+        const std::size_t i = first_node_ + m;
+        const double R = table.range_at_node(i);
+        const double log_R_h = std::log(R + h);
+        // ln E_h, in node units from node m (the top node at most).
+        double pos = static_cast<double>(n - 1);
+        if (log_R_h < table.log_max_range()) {
+            const RangeTable::Cursor c = table.cursor_at_log_range(log_R_h, hint);
+            pos = std::min(pos, (c.log_E - std::log(energies_.front())) / step);
+        }
+        const double pre = A * energies_[m] / table.stopping_at_node(i);
+        const double span = pos - static_cast<double>(m);
+        if (!(span > 0.0)) {
+            upto[m] = m;
+            continue;
+        }
+        const auto last = static_cast<std::size_t>(std::floor(pos));
+        // Survival from node k down to node m, built up node by node along the row (one exp
+        // per node of the material, not per matrix entry).
+        survive.assign(std::min(last + 2, n) - m, 1.0);
+        for (std::size_t k = m + 1; k < m + survive.size(); ++k) {
+            survive[k - m] = survive[k - m - 1] * (reactions ? node_survival[k] : 1.0);
+        }
+        auto survival = [&](std::size_t k) {
+            return survive[k - m];
+        };
+        // Whole intervals [k, k + 1] for k from m to last - 1: trapezoid.
+        for (std::size_t k = m; k < last; ++k) {
+            u[m * n + k] += 0.5 * step * survival(k);
+            u[m * n + k + 1] += 0.5 * step * survival(k + 1);
+        }
+        // The partial interval [last, pos]: sigma P linear between the nodes.
+        const double t = pos - static_cast<double>(last);
+        if (t > 0.0 && last + 1 < n) {
+            const double len = t * step;
+            u[m * n + last] += 0.5 * len * (2.0 - t) * survival(last);
+            u[m * n + last + 1] += 0.5 * len * t * survival(last + 1);
+            upto[m] = last + 1;
+        } else {
+            upto[m] = last;
+        }
+        for (std::size_t k = m; k <= upto[m]; ++k) {
+            u[m * n + k] *= pre;
+        }
+    }
+    store();
 }
 
 const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const MaterialData& md,
@@ -279,20 +643,47 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     const auto full = static_cast<std::size_t>(std::floor(t / h_max * (1.0 + 1e-12)));
     const double rest = t - static_cast<double>(full) * h_max;
 
-    // Sources from heavier nuclei, per species, at the current depth (self channel apart).
-    std::array<std::vector<double>, kSpecies> source;
-    auto sources_into = [&](std::size_t j, std::vector<double>& s) {
+    const std::size_t active = active_species();
+    const bool light = secondaries();
+    // The fields a source is made from: each species' psi (the current field, or for the
+    // light group the predicted one).
+    using Fields = std::array<const std::vector<double>*, kSpecies>;
+    Fields current{};
+    for (std::size_t j = 0; j < active; ++j) {
+        current[j] = &field.psi[j];
+    }
+    // The source of species j per g/cm2 (self channel apart): same-velocity production by its
+    // producers and, with secondaries, what nucleon reactions spread over energy.
+    auto sources_into = [&](std::size_t j, std::vector<double>& s, const Fields& from) {
         s.assign(n, 0.0);
         for (const std::size_t p : md.producers[j]) {
             const double* prod = md.prod[p][j].data();
-            const double* psi = field.psi[p].data();
+            const double* psi = from[p]->data();
             for (std::size_t m = 0; m < n; ++m) {
                 s[m] += prod[m] * psi[m];
             }
         }
+        if (!light) {
+            return;
+        }
+        for (std::size_t l = 0; l < kLightParticles; ++l) {
+            if (species_of(static_cast<LightParticle>(l)) != j) {
+                continue;
+            }
+            for (std::size_t q = 0; q < 2; ++q) {
+                const double* mat = md.spread[q][l].data();
+                const double* psi = from[q == 0 ? 0 : kNeutronSpecies]->data();
+                const std::size_t* lo = md.spread_from[q][l].data();
+                const std::size_t* hi = md.spread_to[q][l].data();
+                for (std::size_t r = 0; r < n; ++r) {
+                    s[r] += dot(mat + r * n, psi, lo[r], hi[r]);
+                }
+            }
+        }
     };
-    for (std::size_t j = 0; j < kSpecies; ++j) {
-        sources_into(j, source[j]);
+    std::array<std::vector<double>, kSpecies> source;
+    for (std::size_t j = 0; j < active; ++j) {
+        sources_into(j, source[j], current);
     }
     std::vector<double> old_total(n), moved(n), fresh;
     auto apply = [&](const StepMap& map, std::size_t j, const std::vector<double>& f,
@@ -309,19 +700,25 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         for (std::size_t m = 0; m < n; ++m) {
             lost[m] = md.removal[0][m] * field.psi[0][m]; // protons' charge leaves
             double s = 0.0;
-            for (std::size_t p = 1; p < kSpecies; ++p) {
+            for (std::size_t p = 1; p < kIonSpecies; ++p) {
                 s += md.neutrons[p][m] * field.psi[p][m];
             }
             neut[m] = s;
         }
     };
     std::vector<double> lost_old(n), neut_old(n), lost_new(n), neut_new(n);
+    std::array<std::vector<double>, kSpecies> predicted;
+    std::array<std::vector<double>, kSpecies> transported;
+    std::array<std::vector<double>, kSpecies> fresh_light;
     auto substep = [&](double h) {
         const StepMap& map = cached_step_map(md, h);
         if (options_.tallies) {
             tally_rates(lost_old, neut_old);
         }
-        for (std::size_t jj = kSpecies; jj-- > 0;) {
+        // Nuclei heaviest first (each sees its parents' new field); without secondaries the
+        // light nuclei too, the same way.
+        const std::size_t lowest = light ? 2 : 0;
+        for (std::size_t jj = kIonSpecies; jj-- > lowest;) {
             auto& psi = field.psi[jj];
             const auto& self = md.self[jj];
             // T(psi) + h/2 T(source) = T(psi + h/2 source): the old field and what it emits
@@ -330,12 +727,55 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
                 old_total[m] = psi[m] + 0.5 * h * (source[jj][m] + self[m] * psi[m]);
             }
             apply(map, jj, old_total, moved);
-            sources_into(jj, fresh); // heavier nuclei are already at x + h
+            sources_into(jj, fresh, current); // heavier nuclei are already at x + h
             for (std::size_t m = 0; m < n; ++m) {
                 const double v = (moved[m] + 0.5 * h * fresh[m]) / (1.0 - 0.5 * h * self[m]);
                 psi[m] = v > 0.0 ? v : 0.0;
             }
             source[jj].swap(fresh);
+        }
+        if (light) {
+            // The light group makes itself (p and n make p, n, d, t, He-3, alpha; these break
+            // up into p and n). Each species: psi(x + h) = T psi(x) + U s, U the exact
+            // integral of a source constant over the step along the characteristics (slow
+            // secondaries stop within a step: a trapezoid would keep them), s the mean of the
+            // sources at x and at x + h; Heun's predictor-corrector for the latter.
+            Fields next = current;
+            auto integrate = [&](std::size_t j, const std::vector<double>& src,
+                                 std::vector<double>& out) {
+                const double* u = map.u[j].data();
+                for (std::size_t r = 0; r < n; ++r) {
+                    // The band of row r starts at column r.
+                    out[r] += dot(u + map.start[j][r], src.data() + r, 0, map.upto[j][r] + 1 - r);
+                }
+            };
+            for (const std::size_t j : kLightGroup) {
+                transported[j].resize(n);
+                apply(map, j, field.psi[j], transported[j]);
+                predicted[j] = transported[j];
+                integrate(j, source[j], predicted[j]);
+                for (double& v : predicted[j]) {
+                    v = v > 0.0 ? v : 0.0;
+                }
+                next[j] = &predicted[j];
+            }
+            for (const std::size_t j : kLightGroup) {
+                sources_into(j, fresh_light[j], next);
+            }
+            for (const std::size_t j : kLightGroup) {
+                for (std::size_t m = 0; m < n; ++m) {
+                    old_total[m] = 0.5 * (source[j][m] + fresh_light[j][m]);
+                }
+                auto& psi = field.psi[j];
+                psi = transported[j];
+                integrate(j, old_total, psi);
+                for (double& v : psi) {
+                    v = v > 0.0 ? v : 0.0;
+                }
+            }
+            for (const std::size_t j : kLightGroup) {
+                sources_into(j, source[j], current);
+            }
         }
         if (options_.tallies) {
             tally_rates(lost_new, neut_new);
@@ -356,11 +796,17 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     // A path far thicker than any shield (a hill, a planet) would take many steps for nothing:
     // once the whole field has fallen below kExtinction of what entered, it is zero (the dose
     // behind is below that share of the dose in front) and the march stops.
-    auto largest = [&field] {
+    // Neutrons that cannot react (below the reaction threshold of the cross sections) carry
+    // no dose and never die out in a straight-ahead march: they do not count.
+    auto largest = [&field, &md, n, active] {
         double m = 0.0;
-        for (const auto& psi : field.psi) {
-            for (const double v : psi) {
-                m = std::max(m, v);
+        for (std::size_t j = 0; j < active; ++j) {
+            const auto& psi = field.psi[j];
+            const bool neutral = j == kNeutronSpecies;
+            for (std::size_t k = 0; k < n; ++k) {
+                if (!neutral || md.removal[j][k] > 0.0) {
+                    m = std::max(m, psi[k]);
+                }
             }
         }
         return m;
@@ -377,18 +823,48 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     }
 }
 
+DoseQuantities FieldDose::total() const {
+    DoseQuantities t;
+    for (const auto& d : by_species) {
+        t += d;
+    }
+    t += local_from_protons;
+    t += local_from_neutrons;
+    return t;
+}
+
 DoseQuantities FragmentTransport::dose(const IonField& field, const Material& medium,
                                        const Material& water, const RbeModel& rbe) {
-    DoseQuantities total;
-    for (const auto& d : dose_by_nucleus(field, medium, water, rbe)) {
-        total += d;
+    if (!secondaries()) {
+        // The sum over nuclei, in the order of dose_by_nucleus (bit for bit as before the
+        // secondaries existed).
+        DoseQuantities total;
+        for (const auto& d : dose_by_nucleus(field, medium, water, rbe)) {
+            total += d;
+        }
+        return total;
     }
-    return total;
+    return dose_by_species(field, medium, water, rbe).total();
 }
 
 std::array<DoseQuantities, FragmentTransport::kMaxZ>
 FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium,
                                    const Material& water, const RbeModel& rbe) {
+    const FieldDose all = dose_by_species(field, medium, water, rbe);
+    std::array<DoseQuantities, kMaxZ> out{};
+    for (std::size_t j = 0; j < kIonSpecies; ++j) {
+        out[j] = all.by_species[j];
+    }
+    if (secondaries()) {
+        out[0] += all.by_species[kDeuteronSpecies];
+        out[0] += all.by_species[kTritonSpecies];
+        out[1] += all.by_species[kHelionSpecies];
+    }
+    return out;
+}
+
+FieldDose FragmentTransport::dose_by_species(const IonField& field, const Material& medium,
+                                             const Material& water, const RbeModel& rbe) {
     const MaterialData& md = data(medium);
     auto& cache = const_cast<MaterialData&>(md).doses;
     // Exact values in the key (hexadecimal floating point): RBE models that differ anywhere
@@ -398,9 +874,13 @@ FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium
                   rbe.heavy_ion);
     const std::string key = water.id() + exact;
     auto it = cache.find(key);
+    const std::size_t active = active_species();
     if (it == cache.end()) {
         std::array<std::vector<DoseQuantities>, kSpecies> per;
-        for (std::size_t j = 0; j < kSpecies; ++j) {
+        for (std::size_t j = 0; j < active; ++j) {
+            if (j == kNeutronSpecies) {
+                continue; // neutral: its dose is the local deposit of its reactions
+            }
             const Particle& p = species(j);
             const DoseMedium dm{&tables_.table(medium, p), &tables_.table(water, p)};
             per[j].resize(energies_.size());
@@ -412,11 +892,31 @@ FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium
     }
     const std::size_t n = energies_.size();
     const double step = n > 1 ? std::log(energies_[1] / energies_[0]) : 0.0;
-    std::array<DoseQuantities, kSpecies> out{};
-    for (std::size_t j = 0; j < kSpecies; ++j) {
+    FieldDose out;
+    for (std::size_t j = 0; j < active; ++j) {
+        if (it->second[j].empty()) {
+            continue;
+        }
         for (std::size_t m = 0; m < n; ++m) {
             const double w = (m == 0 || m + 1 == n ? 0.5 : 1.0) * step * field.psi[j][m];
-            out[j] += it->second[j][m].scaled(w);
+            out.by_species[j] += it->second[j][m].scaled(w);
+        }
+    }
+    if (secondaries()) {
+        // The energy deposited where the reactions happen (kerma in the medium).
+        for (std::size_t q = 0; q < 2; ++q) {
+            const auto& psi = field.psi[q == 0 ? 0 : kNeutronSpecies];
+            DoseQuantities d;
+            for (std::size_t m = 0; m < n; ++m) {
+                const double w =
+                    (m == 0 || m + 1 == n ? 0.5 : 1.0) * step * psi[m] * kGy_per_MeV_per_g;
+                const double heavy = md.local_heavy_MeV[q][m];
+                const double light_part = md.local_MeV[q][m] - heavy;
+                d += DoseQuantities{
+                    w * md.local_MeV[q][m], w * md.local_Q_MeV[q][m],
+                    w * (heavy * rbe.heavy_ion + light_part * rbe.proton_above_2MeV)};
+            }
+            (q == 0 ? out.local_from_protons : out.local_from_neutrons) = d;
         }
     }
     return out;
@@ -425,9 +925,27 @@ FragmentTransport::dose_by_nucleus(const IonField& field, const Material& medium
 double FragmentTransport::charge_at(const IonField& field, std::size_t m) {
     double q = 0.0;
     for (std::size_t j = 0; j < field.psi.size(); ++j) {
-        q += static_cast<double>(j + 1) * field.psi[j][m];
+        q += static_cast<double>(field_species(j).Z) * field.psi[j][m];
     }
     return q;
+}
+
+const Particle& field_species(std::size_t j) {
+    if (j < kIonSpecies) {
+        return particles()[j];
+    }
+    switch (j) {
+    case kNeutronSpecies:
+        return neutron();
+    case kDeuteronSpecies:
+        return deuteron();
+    case kTritonSpecies:
+        return triton();
+    case kHelionSpecies:
+        return helion();
+    default:
+        throw std::logic_error("field_species: no species " + std::to_string(j));
+    }
 }
 
 } // namespace crewdose::exposure

@@ -1,8 +1,10 @@
 #pragma once
-// Straight-ahead transport of the whole GCR ion field with projectile fragmentation
-// (DESIGN.md physics item 8): every nucleus Z = 1..28 on one grid of energy per nucleon,
-// marched through a layer path in depth steps. Fragments keep the velocity (energy per
-// nucleon) of the nucleus that made them and then slow down by their own range tables.
+// Straight-ahead transport of the whole radiation field (DESIGN.md physics items 3 and 8): every
+// nucleus Z = 1..28 and, with secondaries on, the neutron, deuteron, triton and helion, on one
+// grid of energy per nucleon, marched through a layer path in depth steps. Projectile
+// fragments keep the velocity (energy per nucleon) of the nucleus that made them; the light
+// particles of nucleon reactions (nucleon_production.hpp) are spread over energy; each then
+// slows down by its own range table (neutrons only attenuate).
 #include "dosimetry.hpp"
 #include "material.hpp"
 #include "table_library.hpp"
@@ -15,15 +17,40 @@
 
 namespace crewdose::exposure {
 
-/// The ion field at one depth: psi[Z - 1][m] = E phi(E), particles per cm2 per unit ln E, at
-/// the march's energy nodes (TableLibrary grid nodes from the march's lowest energy up), plus
-/// two tallies that conservation checks read (they do not move in energy): the charge that
-/// left the field through proton reactions (target fragments are not modelled), and the
-/// neutrons emitted (not transported).
+/// Species of the march: index Z - 1 for the nuclei Z = 1..28 (the proton, the alpha, and each
+/// heavier element's most abundant isotope, particles()), then the light particles the
+/// secondaries add.
+inline constexpr std::size_t kIonSpecies = 28;
+inline constexpr std::size_t kNeutronSpecies = 28;
+inline constexpr std::size_t kDeuteronSpecies = 29;
+inline constexpr std::size_t kTritonSpecies = 30;
+inline constexpr std::size_t kHelionSpecies = 31;
+inline constexpr std::size_t kFieldSpecies = 32;
+/// The particle of species j (the neutron has Z = 0).
+[[nodiscard]] const Particle& field_species(std::size_t j);
+
+/// The field at one depth: psi[j][m] = E phi(E) of species j (kFieldSpecies of them),
+/// particles per cm2 per unit ln E, at the march's energy nodes (TableLibrary grid nodes from
+/// the march's lowest energy up), plus two tallies that conservation checks read (they do not
+/// move in energy): the charge that left the field through proton reactions without
+/// secondaries, and the neutrons emitted by nucleus reactions without secondaries (with them,
+/// the neutrons are species kNeutronSpecies).
 struct IonField {
     std::vector<std::vector<double>> psi;
     std::vector<double> charge_lost;
     std::vector<double> neutrons;
+};
+
+/// The dose of a field at a point, by where it comes from.
+struct FieldDose {
+    /// Charged particles crossing the point, by species (the neutron's entry stays zero).
+    std::array<DoseQuantities, kFieldSpecies> by_species{};
+    /// Energy deposited at the point by reactions there (kerma): the recoiling residual nuclei
+    /// (target fragments) and the charged light particles too slow to be transported
+    /// (MarchOptions::local_below_MeV_per_n), from proton reactions and from neutron reactions.
+    DoseQuantities local_from_protons;
+    DoseQuantities local_from_neutrons;
+    [[nodiscard]] DoseQuantities total() const;
 };
 
 /// Options of the march. The defaults come from the convergence study in
@@ -47,6 +74,18 @@ struct MarchOptions {
     /// Keep the charge-lost and neutron tallies of IonField (for conservation checks; off
     /// saves a tenth of the time).
     bool tallies = false;
+    /// On (with removal and fragmentation): nucleon reactions make neutrons, protons,
+    /// deuterons, tritons, helions and alphas (nucleon_production.hpp) and deposit the energy of
+    /// their target fragments where they happen; the light particles of nucleus breakups (the
+    /// charge closure's protons and the neutrons) are transported; dose() adds the local
+    /// deposits. Off: the march of primaries and projectile fragments only.
+    bool secondaries = false;
+    /// With secondaries: charged light particles made below this energy per nucleon deposit
+    /// their energy where they are made (their range in water is at most 0.25 g/cm2, the
+    /// deuteron's; kerma, both hemispheres); faster ones are transported when they go forward
+    /// and leave when they go backward. Neutrons are transported from the march's lowest
+    /// energy up (the backward ones leave).
+    double local_below_MeV_per_n = 10.0;
 };
 
 /// The march. It prepares what it needs per material on first use (range tables from the
@@ -55,6 +94,7 @@ struct MarchOptions {
 class FragmentTransport {
   public:
     static constexpr int kMaxZ = 28;
+    static constexpr std::size_t kSpecies = kFieldSpecies;
     /// The field is taken as extinct, and set to zero, once every node has fallen below this
     /// share of the largest value that entered the layer (checked every 16 steps).
     static constexpr double kExtinction = 1e-30;
@@ -80,23 +120,38 @@ class FragmentTransport {
     void cross(IonField& field, const Material& material, double areal_density_g_cm2);
 
     /// Dose quantities of `field` scored in `medium` (LET in water for Q(L)): the integral over
-    /// ln E of psi times the dose per fluence, trapezoidal on the nodes, summed over nuclei.
+    /// ln E of psi times the dose per fluence, trapezoidal on the nodes, summed over species,
+    /// plus (with secondaries) the energy deposited at the point by reactions there.
     [[nodiscard]] DoseQuantities dose(const IonField& field, const Material& medium,
                                       const Material& water, const RbeModel& rbe = {});
-    /// dose() nucleus by nucleus: element Z - 1 is the dose of charge Z (primaries and
-    /// fragments alike); their sum is dose().
+    /// dose() by charge: element Z - 1 is the dose of charge Z (primaries, fragments and
+    /// secondaries alike: deuterons and tritons with the protons, helions with the alphas);
+    /// the local deposits are not in it.
     [[nodiscard]] std::array<DoseQuantities, kMaxZ> dose_by_nucleus(const IonField& field,
                                                                     const Material& medium,
                                                                     const Material& water,
                                                                     const RbeModel& rbe = {});
+    /// dose() by species and local deposit; total() is dose().
+    [[nodiscard]] FieldDose dose_by_species(const IonField& field, const Material& medium,
+                                            const Material& water, const RbeModel& rbe = {});
 
-    /// Total charge per unit ln E at node m: sum_Z Z psi_Z(m) (a conservation check).
+    /// Total charge per unit ln E at node m: sum over species of Z psi (a conservation check).
     [[nodiscard]] static double charge_at(const IonField& field, std::size_t m);
 
   private:
     struct MaterialData;
     struct StepMap;
+    [[nodiscard]] bool secondaries() const noexcept;
+    [[nodiscard]] std::size_t active_species() const noexcept;
     const MaterialData& data(const Material& material);
+    void build_nucleon_production(MaterialData& md) const;
+    void index_spread(MaterialData& md) const;
+    void source_integral(const MaterialData& md, double h, std::size_t j, StepMap& map) const;
+    /// The dose-weighted mean ICRP 60 Q of a particle of species j stopping in water from
+    /// energy per nucleon E0.
+    [[nodiscard]] double track_quality(std::size_t j, double E0_MeV_per_n) const;
+    /// Q of the residual nuclei of reactions on element Z (see the definition).
+    [[nodiscard]] double recoil_quality(int Z) const;
     [[nodiscard]] StepMap step_map(const MaterialData& md, double h) const;
     const StepMap& cached_step_map(const MaterialData& md, double h);
 

@@ -60,7 +60,7 @@ double nucleus_reaction_cross_section_mb(int Zp, double Ap, int Zt, double At, d
 }
 
 double removal_cm2_g(const Material& material, const Particle& particle, double E) {
-    if (particle.Z == 1) {
+    if (particle.A == 1) { // the proton, and the neutron (charge-independent above 5 MeV)
         return proton_removal_cm2_g(material, E);
     }
     double sigma = 0.0;

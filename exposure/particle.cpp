@@ -98,6 +98,24 @@ std::optional<Particle> particle_by_name(std::string_view name) {
 const Particle& proton() {
     return kParticles[0];
 }
+
+// The light particles that nuclear reactions add (CODATA 2018 nuclear masses, from memory).
+const Particle& neutron() {
+    static const Particle p{"neutron", "n", 0, 1, 939.56542052};
+    return p;
+}
+const Particle& deuteron() {
+    static const Particle p{"deuteron", "H", 1, 2, 1875.61294257};
+    return p;
+}
+const Particle& triton() {
+    static const Particle p{"triton", "H", 1, 3, 2808.92113298};
+    return p;
+}
+const Particle& helion() {
+    static const Particle p{"helion", "He", 2, 3, 2808.39160743};
+    return p;
+}
 const Particle& alpha() {
     return kParticles[1];
 }

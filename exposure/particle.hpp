@@ -38,5 +38,11 @@ struct Particle {
 
 [[nodiscard]] const Particle& proton();
 [[nodiscard]] const Particle& alpha();
+/// The light particles nuclear reactions add to the field: the neutron (Z = 0: no stopping, no
+/// range table), the deuteron, the triton and the helion (He-3).
+[[nodiscard]] const Particle& neutron();
+[[nodiscard]] const Particle& deuteron();
+[[nodiscard]] const Particle& triton();
+[[nodiscard]] const Particle& helion();
 
 } // namespace crewdose::exposure

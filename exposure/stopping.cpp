@@ -91,7 +91,13 @@ double effective_charge(const Particle& particle, double energy_MeV_per_n) {
 double low_energy_stopping_MeV_cm2_g(const Material& material, const Particle& particle,
                                      double energy_MeV_per_n) {
     if (particle.Z == 2) {
-        return helium_fit_stopping(material, energy_MeV_per_n * particle.A);
+        // The helium fit is per alpha-particle energy: He-3 takes the alpha's at its velocity.
+        const double alpha_energy_MeV = particle.A == alpha().A
+                                            ? energy_MeV_per_n * particle.A
+                                            : energy_MeV_per_n * alpha().A *
+                                                  alpha().mass_per_nucleon_MeV() /
+                                                  particle.mass_per_nucleon_MeV();
+        return helium_fit_stopping(material, alpha_energy_MeV);
     }
     // Proton fits take the energy per atomic mass unit at the projectile's velocity, keV/u.
     const double T_keV_per_u =
