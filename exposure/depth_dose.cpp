@@ -18,7 +18,8 @@ std::vector<BracketedDose> depth_dose_curve(TableLibrary& tables, const DepthDos
     const RangeTable& shield = tables.table(*setup.shield, p);
     const RangeTable& tissue = tables.table(*setup.tissue, p);
     const RangeTable& water = tables.table(*setup.water, p);
-    const NodeDoses doses = node_doses(DoseMedium{&tissue, &water}, p, setup.rbe);
+    const RangeTable& medium = setup.detector ? tables.table(*setup.detector, p) : tissue;
+    const NodeDoses doses = node_doses(DoseMedium{&medium, &water}, p, setup.rbe);
     std::vector<double> nodes(tissue.grid().size());
     for (std::size_t j = 0; j < nodes.size(); ++j) {
         nodes[j] = tissue.energy_at_node(j);

@@ -17,6 +17,8 @@ struct DepthDoseSetup {
     const Material* water = nullptr;  ///< liquid water, for LET in Q(L)
     double tissue_depth_g_cm2 = 0.0;  ///< tissue in front of the dose point, >= 0
     RbeModel rbe{};
+    /// Where the dose is scored instead of the tissue (a detector: silicon, water), if set.
+    const Material* detector = nullptr;
 };
 
 /// The dose behind `shield_g_cm2` of shield, exact (response of the two-layer path folded with

@@ -67,14 +67,17 @@ std::string model_text(const Study& study) {
         "Burger et al. 2000 local interstellar spectrum (protons, helium) and ISO 15390 spectral "
         "shapes scaled to HEAO-3 abundances (heavier nuclei), force-field modulated with {}, "
         "marched straight ahead through the same range tables with nucleus-nucleus removal "
-        "(Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the charge they "
-        "lack leaves as protons at the same velocity), and again without any nuclear reaction; "
-        "as for the SPE protons, every dose is the higher of the two. Not modelled: the "
-        "secondary nucleons of proton reactions, target fragments and secondary neutrons, which "
-        "carry most of the dose behind thick shielding: there the march with reactions is low, "
-        "and the higher value stands in for the missing secondaries. RBE-weighted dose with NCRP "
-        "132 "
-        "values; uncertainty factor {:.2f} applied to every dose. Window maxima are exact at "
+        "(Sihver et al. 1993), projectile fragmentation (EPAX 3.1 remnants; the charge they "
+        "lack leaves as protons, the nucleons left as neutrons, at the same velocity) and the "
+        "secondaries of nucleon reactions (neutrons, protons, deuterons, tritons, helions and "
+        "alphas from ENDF/B-VIII.1 to 150 MeV and a fit to measured neutron spectra above; "
+        "target fragments and slow light ions deposited where they are made), and again "
+        "without any nuclear reaction; as for the SPE protons, every dose is the higher of the "
+        "two, quantity by quantity. Against published in-situ measurements the GCR model is "
+        "still low (see the README). Not modelled: pions and the electromagnetic cascade, the "
+        "target fragments of nucleus-nucleus reactions, elastic scattering of neutrons on "
+        "hydrogen, neutrons emitted backwards. RBE-weighted dose with NCRP 132 values; "
+        "uncertainty factor {:.2f} applied to every dose. Window maxima are exact at "
         "activity and event boundaries and sampled every 10 minutes inside event profiles.",
         body_text(study), study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
         sc.limits.uncertainty_factor);
@@ -125,11 +128,14 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                              {"phi_given", sc.mission.gcr_phi_given},
                              {"composition", std::string(exposure::gcr_composition_source())},
                              {"transport",
-                              "straight-ahead depth march with nuclear reactions (removal, "
-                              "projectile fragmentation with EPAX 3.1 remnants, protons for the "
-                              "missing charge) and without any; limits use the higher; not "
-                              "modelled: secondary nucleons of proton reactions, target "
-                              "fragments, secondary neutrons"},
+                              "straight-ahead depth march of the whole field with nuclear "
+                              "reactions (removal, projectile fragmentation with EPAX 3.1 "
+                              "remnants, the secondaries of nucleon reactions: n, p, d, t, "
+                              "He-3, alpha, target fragments deposited locally) and without "
+                              "any; limits use the higher of each quantity; not modelled: "
+                              "pions and the electromagnetic cascade, target fragments of "
+                              "nucleus-nucleus reactions, elastic scattering of neutrons on "
+                              "hydrogen, neutrons emitted backwards"},
                              {"directions", sc.mission.gcr_directions},
                              {"phases", nlohmann::json::array()},
                              {"daily_rates_at_start", nlohmann::json::object()}};

@@ -33,20 +33,25 @@ struct TissueDepth {
 /// One row: the dose behind one shield thickness.
 struct DepthRow {
     double shield_g_cm2;
+    /// with_removal: the whole field (primaries with removal and their secondaries);
+    /// without_removal: the primaries without any nuclear reaction.
     exposure::BracketedDose dose;
+    exposure::DoseQuantities primaries; ///< the primaries alone with removal (a diagnostic)
 };
 
-/// Computes the rows (exact transport, one response per thickness).
+/// Computes the rows: the primaries exact (one response per thickness), their secondaries as
+/// the march's whole-field over primaries ratio; scored in `detector` (soft tissue for doses
+/// in the body, silicon or water for comparisons with detectors).
 [[nodiscard]] std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
                                                const exposure::Material& shield,
                                                const TissueDepth& tissue,
-                                               const std::vector<double>& depths_g_cm2);
+                                               const std::vector<double>& depths_g_cm2,
+                                               const exposure::Material& detector);
 
 /// The report in the chosen format.
-[[nodiscard]] std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
-                                              const exposure::Material& shield,
-                                              const TissueDepth& tissue,
-                                              const std::vector<DepthRow>& rows,
-                                              OutputFormat format);
+[[nodiscard]] std::string
+format_depth_report(const exposure::ProtonSpectrum& spectrum, const exposure::Material& shield,
+                    const TissueDepth& tissue, const std::vector<DepthRow>& rows,
+                    OutputFormat format, const exposure::Material& detector);
 
 } // namespace crewdose::planner

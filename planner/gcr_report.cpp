@@ -16,6 +16,8 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
+
 namespace crewdose::planner {
 namespace {
 
@@ -35,14 +37,17 @@ double mean_q(const exposure::DoseQuantities& d) {
 const char* kModelText =
     "Model: the GCR nuclei Z = 1-28 (Burger et al. 2000 interstellar spectrum for protons and "
     "helium, ISO 15390 spectral shapes for heavier nuclei, HEAO-3 abundances, force field) "
-    "marched straight ahead through the shield and the tissue with "
-    "nuclear removal (Sihver et al. 1993) and projectile fragmentation (EPAX 3.1 remnants; the "
-    "charge they lack leaves as protons at the same velocity). Not modelled: target fragments, "
-    "secondary neutrons, the secondary nucleons of proton reactions; so behind thick shielding "
-    "the dose with reactions is low, and behind thin shielding the mean quality factor is high "
-    "near the skin. "
-    "'no react.' is the dose equivalent with no nuclear reaction at all (every nucleus keeps "
-    "its charge): the higher of the two is what crewdose check uses for limits. Dose "
+    "marched straight ahead through the shield and the tissue as a whole field: nuclear "
+    "removal (Sihver et al. 1993), projectile fragmentation (EPAX 3.1 remnants; the charge "
+    "they lack leaves as protons, the nucleons left as neutrons, at the same velocity), and the "
+    "secondaries of nucleon reactions (neutrons, protons, deuterons, tritons, helions, alphas: "
+    "ENDF/B-VIII.1 to 150 MeV, a fit to measured neutron spectra above; the target fragments "
+    "and slow light ions deposited where they are made). Not modelled: pions and the "
+    "electromagnetic cascade, target fragments of nucleus-nucleus reactions, elastic "
+    "scattering of neutrons on hydrogen, neutrons emitted backwards; against published in-situ "
+    "measurements the model is still low (README). 'no react.' is the dose equivalent with no "
+    "nuclear reaction at all (every nucleus keeps its charge): crewdose check uses the higher "
+    "of the two for each quantity. 'prim.' is the primaries and their fragments alone. Dose "
     "equivalent with ICRP 60 Q(L); RBE-weighted dose with NCRP 132 values. Tissue: ICRU "
     "four-component soft tissue. phi belongs to the Burger et al. 2000 spectrum: about 400 MV "
     "near solar minimum, 1000 MV or more near maximum (planning examples).";
@@ -89,9 +94,13 @@ GcrSite parse_site(std::string_view text, std::string_view field) {
 std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material& shield,
                                         const TissueDepth& tissue,
                                         const std::vector<double>& depths_g_cm2,
-                                        const GcrSiteSpec& site) {
+                                        const GcrSiteSpec& site,
+                                        const exposure::Material& detector) {
     exposure::TableLibrary tables(gcr_grid());
-    exposure::FragmentTransport march(tables);
+    exposure::MarchOptions whole_options;
+    whole_options.secondaries = true;
+    exposure::FragmentTransport march(tables, whole_options);
+    exposure::FragmentTransport primaries(tables, exposure::MarchOptions{});
     exposure::MarchOptions none;
     none.removal = false;
     exposure::FragmentTransport unreacted(tables, none);
@@ -115,16 +124,21 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     std::vector<GcrDepthRow> rows(depths_g_cm2.size());
     std::vector<std::array<exposure::DoseQuantities, exposure::FragmentTransport::kMaxZ>> by(
         depths_g_cm2.size());
+    // Per row: the whole field's split, and the primaries' protons and alphas.
+    std::vector<exposure::FieldDose> split(depths_g_cm2.size());
+    std::vector<exposure::FieldDose> prim_split(depths_g_cm2.size());
     const exposure::IonField free_space = exposure::gcr_free_space_field(march, phi_MV);
     for (const auto& d : directions) {
         if (where.surroundings.blocked(d)) {
             continue;
         }
         exposure::IonField above = free_space;
+        exposure::IonField prim_above = free_space;
         exposure::IonField plain_above = free_space;
         for (const auto& seg : external_path(where, d)) {
             const exposure::Material& m = *exposure::find_builtin_material(seg.material_id);
             march.cross(above, m, seg.areal_density_g_cm2);
+            primaries.cross(prim_above, m, seg.areal_density_g_cm2);
             unreacted.cross(plain_above, m, seg.areal_density_g_cm2);
         }
         // Each row from the top of the shield: a row's numbers do not depend on the others.
@@ -132,26 +146,38 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
             exposure::IonField behind = above;
             march.cross(behind, shield, depths_g_cm2[i]);
             march.cross(behind, soft, tissue.g_cm2);
+            exposure::IonField prim_behind = prim_above;
+            primaries.cross(prim_behind, shield, depths_g_cm2[i]);
+            primaries.cross(prim_behind, soft, tissue.g_cm2);
             exposure::IonField plain_behind = plain_above;
             unreacted.cross(plain_behind, shield, depths_g_cm2[i]);
             unreacted.cross(plain_behind, soft, tissue.g_cm2);
             rows[i].per_day_without_reactions +=
-                unreacted.dose(plain_behind, soft, water).scaled(weight);
-            const auto nuclei = march.dose_by_nucleus(behind, soft, water);
+                unreacted.dose(plain_behind, detector, water).scaled(weight);
+            rows[i].per_day_primaries +=
+                primaries.dose(prim_behind, detector, water).scaled(weight);
+            const auto nuclei = march.dose_by_nucleus(behind, detector, water);
             for (std::size_t z = 0; z < nuclei.size(); ++z) {
                 by[i][z] += nuclei[z].scaled(weight);
             }
+            const auto s = march.dose_by_species(behind, detector, water);
+            const auto p = primaries.dose_by_species(prim_behind, detector, water);
+            for (std::size_t j = 0; j < exposure::kFieldSpecies; ++j) {
+                split[i].by_species[j] += s.by_species[j].scaled(weight);
+                prim_split[i].by_species[j] += p.by_species[j].scaled(weight);
+            }
+            split[i].local_from_protons += s.local_from_protons.scaled(weight);
+            split[i].local_from_neutrons += s.local_from_neutrons.scaled(weight);
         }
     }
     for (std::size_t i = 0; i < depths_g_cm2.size(); ++i) {
         GcrDepthRow& r = rows[i];
         r.shield_g_cm2 = depths_g_cm2[i];
-        for (const auto& d : by[i]) {
-            r.per_day += d;
-        }
+        r.per_day = split[i].total();
         const std::string what = fmt::format("the GCR dose rate behind {} g/cm2", r.shield_g_cm2);
         require_dose(r.per_day, what);
         require_dose(r.per_day_without_reactions, what + " without reactions");
+        require_dose(r.per_day_primaries, what + " of the primaries");
         for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
             double absorbed = 0.0;
             double equivalent = 0.0;
@@ -164,6 +190,31 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
             r.equivalent_share[g] = r.per_day.dose_equivalent_Sv > 0.0
                                         ? equivalent / r.per_day.dose_equivalent_Sv
                                         : 0.0;
+        }
+        // The sources (kDoseSources); the nuclei Z >= 3 are the same in both marches.
+        const auto& w = split[i].by_species;
+        const auto& p = prim_split[i].by_species;
+        using exposure::DoseQuantities;
+        auto minus = [](DoseQuantities a, const DoseQuantities& b) {
+            a.absorbed_Gy -= b.absorbed_Gy;
+            a.dose_equivalent_Sv -= b.dose_equivalent_Sv;
+            a.rbe_weighted_GyEq -= b.rbe_weighted_GyEq;
+            return a;
+        };
+        DoseQuantities light = w[1];
+        light += w[exposure::kDeuteronSpecies];
+        light += w[exposure::kTritonSpecies];
+        light += w[exposure::kHelionSpecies];
+        const std::array<DoseQuantities, kDoseSources.size()> sources{
+            r.per_day_primaries, minus(w[0], p[0]), minus(light, p[1]),
+            split[i].local_from_neutrons, split[i].local_from_protons};
+        for (std::size_t k = 0; k < sources.size(); ++k) {
+            r.source_absorbed_share[k] =
+                r.per_day.absorbed_Gy > 0.0 ? sources[k].absorbed_Gy / r.per_day.absorbed_Gy : 0.0;
+            r.source_equivalent_share[k] =
+                r.per_day.dose_equivalent_Sv > 0.0
+                    ? sources[k].dose_equivalent_Sv / r.per_day.dose_equivalent_Sv
+                    : 0.0;
         }
     }
     return rows;
@@ -188,7 +239,8 @@ std::string site_text(const GcrSiteSpec& site) {
 
 std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
                                     const TissueDepth& tissue, const std::vector<GcrDepthRow>& rows,
-                                    OutputFormat format, bool per_year, const GcrSiteSpec& site) {
+                                    OutputFormat format, bool per_year, const GcrSiteSpec& site,
+                                    const exposure::Material& detector) {
     const double scale = per_year ? kDaysPerYear : 1.0;
     const std::string per = per_year ? "year" : "day";
     if (format == OutputFormat::json) {
@@ -197,6 +249,7 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         j["shield_material"] = shield.id();
         j["tissue_depth_g_cm2"] = tissue.g_cm2;
         j["tissue"] = "soft-tissue";
+        j["detector"] = detector.id();
         j["per"] = per;
         j["site"] = site.kind == GcrSite::free_space ? "free-space"
                     : site.kind == GcrSite::moon     ? "moon"
@@ -214,13 +267,21 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
                 {"shield_g_cm2", r.shield_g_cm2},
                 {"dose", dose_json(r.per_day, scale)},
                 {"dose_without_reactions", dose_json(r.per_day_without_reactions, scale)},
+                {"dose_primaries_only", dose_json(r.per_day_primaries, scale)},
                 {"mean_quality_factor", mean_q(r.per_day)},
                 {"absorbed_share", nlohmann::json::object()},
-                {"dose_equivalent_share", nlohmann::json::object()}};
+                {"dose_equivalent_share", nlohmann::json::object()},
+                {"absorbed_share_by_source", nlohmann::json::object()},
+                {"dose_equivalent_share_by_source", nlohmann::json::object()}};
             for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
                 const std::string label(kChargeGroups[g].label);
                 row["absorbed_share"][label] = r.absorbed_share[g];
                 row["dose_equivalent_share"][label] = r.equivalent_share[g];
+            }
+            for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
+                const std::string label(kDoseSources[k]);
+                row["absorbed_share_by_source"][label] = r.source_absorbed_share[k];
+                row["dose_equivalent_share_by_source"][label] = r.source_equivalent_share[k];
             }
             j["rows"].push_back(row);
         }
@@ -231,10 +292,16 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         std::string out =
             fmt::format("shield_g_cm2,absorbed_mGy_per_{0},dose_equivalent_mSv_per_{0},"
                         "rbe_weighted_mGyEq_per_{0},mean_quality_factor,"
-                        "dose_equivalent_without_reactions_mSv_per_{0}",
+                        "dose_equivalent_without_reactions_mSv_per_{0},"
+                        "dose_equivalent_primaries_only_mSv_per_{0}",
                         per);
         for (const auto& g : kChargeGroups) {
             out += fmt::format(",equivalent_share_{}", g.label);
+        }
+        for (const auto& k : kDoseSources) {
+            std::string label(k);
+            std::replace(label.begin(), label.end(), ' ', '_');
+            out += fmt::format(",equivalent_share_{}", label);
         }
         out += "\n";
         for (const auto& r : rows) {
@@ -242,45 +309,69 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
                                1e3 * scale * r.per_day.absorbed_Gy,
                                1e3 * scale * r.per_day.dose_equivalent_Sv,
                                1e3 * scale * r.per_day.rbe_weighted_GyEq, mean_q(r.per_day));
-            out += fmt::format(",{:.10g}",
-                               1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv);
-            for (const double s : r.equivalent_share) {
-                out += fmt::format(",{:.6g}", s);
+            out += fmt::format(",{:.10g},{:.10g}",
+                               1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv,
+                               1e3 * scale * r.per_day_primaries.dose_equivalent_Sv);
+            for (const double v : r.equivalent_share) {
+                out += fmt::format(",{:.6g}", v);
+            }
+            for (const double v : r.source_equivalent_share) {
+                out += fmt::format(",{:.6g}", v);
             }
             out += "\n";
         }
         return out;
     }
-    std::string out = fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV\n",
-                                  shield.id(), shield.name(), tissue.label, phi_MV);
+    std::string out = fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV{}\n",
+                                  shield.id(), shield.name(), tissue.label, phi_MV,
+                                  detector.id() == "soft-tissue" ? std::string()
+                                                                 : ", scored in " + detector.id());
     out += wrap("geometry: shell-equivalent (the isotropic field through the same thickness in "
                 "every open direction: the dose at the centre of a spherical shell), " +
                     site_text(site),
                 92) +
            "\n";
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {:>11}   {}\n", "shield",
-                       "absorbed", "dose equiv.", "RBE-weighted", "mean", "dose equiv.",
-                       "share of dose equivalent, %");
-    std::string groups;
-    for (const auto& g : kChargeGroups) {
-        groups += fmt::format(" {:>7}", g.label);
-    }
     const char* unit = per == "day" ? "d" : "yr";
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>6}  {:>11}  {}\n", "g/cm2",
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>5}  {:>10}  {:>10}\n", "shield",
+                       "absorbed", "dose equiv.", "RBE-weighted", "mean", "dose eq.", "dose eq.");
+    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>5}  {:>10}  {:>10}\n", "g/cm2",
                        fmt::format("mGy/{}", unit), fmt::format("mSv/{}", unit),
-                       fmt::format("mGy-Eq/{}", unit), "Q", "no react.", groups);
+                       fmt::format("mGy-Eq/{}", unit), "Q", "no react.", "prim.");
     for (const auto& r : rows) {
-        std::string shares;
-        for (const double s : r.equivalent_share) {
-            shares += fmt::format(" {:>7.1f}", 100.0 * s);
-        }
         out += fmt::format(
-            "  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>6.2f}  {:>11}  {}\n", r.shield_g_cm2,
+            "  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>5.2f}  {:>10}  {:>10}\n", r.shield_g_cm2,
             significant(1e3 * scale * r.per_day.absorbed_Gy, 3),
             significant(1e3 * scale * r.per_day.dose_equivalent_Sv, 3),
             significant(1e3 * scale * r.per_day.rbe_weighted_GyEq, 3), mean_q(r.per_day),
-            significant(1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv, 3), shares);
+            significant(1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv, 3),
+            significant(1e3 * scale * r.per_day_primaries.dose_equivalent_Sv, 3));
     }
+    out += "\nShare of the dose equivalent, %, by charge (primaries, fragments and secondaries "
+           "together) and by source:\n";
+    std::string head = fmt::format("  {:>8}", "g/cm2");
+    for (const auto& g : kChargeGroups) {
+        head += fmt::format(" {:>7}", g.label);
+    }
+    head += "  |";
+    for (const auto& k : kDoseSources) {
+        head += fmt::format(
+            " {:>10}", k.substr(0, k.find(' ') == std::string_view::npos ? k.size() : k.find(' ')));
+    }
+    out += head + "\n";
+    for (const auto& r : rows) {
+        std::string line = fmt::format("  {:>8.4g}", r.shield_g_cm2);
+        for (const double v : r.equivalent_share) {
+            line += fmt::format(" {:>7.1f}", 100.0 * v);
+        }
+        line += "  |";
+        for (const double v : r.source_equivalent_share) {
+            line += fmt::format(" {:>10.1f}", 100.0 * v);
+        }
+        out += line + "\n";
+    }
+    out += "  (sources: primaries and their fragments; secondary protons; light ions d, t, He-3 "
+           "and secondary alphas; energy deposited by neutron reactions; target fragments and "
+           "slow light ions of proton reactions)\n";
     out += "\n" + wrap(kModelText, 92) + "\n";
     out += caution_text();
     return out;

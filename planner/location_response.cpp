@@ -406,31 +406,31 @@ std::map<std::pair<std::string, double>, exposure::BracketedDose> gcr_quick_mode
     return gcr_body_doses(marches, materials, where, directions, quick_body_depths(), phis_given);
 }
 
-std::map<std::pair<std::string, double>, exposure::BracketedDose>
-gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
-               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
-               const BodyDepths& body, std::span<const double> phis_given) {
+std::vector<std::vector<exposure::BracketedDose>>
+field_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+                 const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+                 const BodyDepths& body, std::span<const exposure::IonField> fields,
+                 std::size_t direction_stride) {
     check_body(body, directions.size());
-    // Each distinct phi once (a repeated one would be summed twice).
-    std::vector<double> phis_MV(phis_given.begin(), phis_given.end());
-    std::sort(phis_MV.begin(), phis_MV.end());
-    phis_MV.erase(std::unique(phis_MV.begin(), phis_MV.end()), phis_MV.end());
+    if (direction_stride == 0) {
+        throw std::logic_error("field_body_doses: direction_stride must be >= 1");
+    }
     const exposure::Material& tissue = materials("soft-tissue");
     const exposure::Material& water = materials("water");
     const std::size_t n_organs = body.organs.size();
     const std::size_t n_grid = body.grid_g_cm2.size();
-    // Per (phi, organ) accumulators, both marches.
-    std::vector<exposure::BracketedDose> acc(phis_MV.size() * n_organs);
-    // Both marches share one energy grid (the library's), so one free-space field serves both.
-    std::vector<exposure::IonField> free_space;
-    for (const double phi : phis_MV) {
-        free_space.push_back(exposure::gcr_free_space_field(marches.with_reactions, phi));
+    // Per (field, organ) accumulators, both marches.
+    std::vector<std::vector<exposure::BracketedDose>> acc(
+        fields.size(), std::vector<exposure::BracketedDose>(n_organs));
+    std::size_t used = 0;
+    for (std::size_t k = 0; k < directions.size(); k += direction_stride) {
+        ++used;
     }
-    const double weight = 1.0 / static_cast<double>(directions.size());
+    const double weight = 1.0 / static_cast<double>(used);
     std::vector<std::pair<const exposure::Material*, double>> path;
     std::vector<std::size_t> needed;
     std::vector<exposure::DoseQuantities> at_node(n_grid);
-    for (std::size_t k = 0; k < directions.size(); ++k) {
+    for (std::size_t k = 0; k < directions.size(); k += direction_stride) {
         const auto& d = directions[k];
         if (where.surroundings.blocked(d)) {
             continue; // fully shielded: zero in the equal-weight mean
@@ -440,11 +440,11 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
             path.emplace_back(&materials(seg.material_id), seg.areal_density_g_cm2);
         }
         body.needed_nodes(k, needed);
-        for (std::size_t i = 0; i < phis_MV.size(); ++i) {
+        for (std::size_t i = 0; i < fields.size(); ++i) {
             for (const bool reactions : {true, false}) {
                 exposure::FragmentTransport& march =
                     reactions ? marches.with_reactions : marches.without_reactions;
-                exposure::IonField field = free_space[i];
+                exposure::IonField field = fields[i];
                 for (const auto& [m, t] : path) {
                     march.cross(field, *m, t);
                 }
@@ -456,7 +456,7 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
                 }
                 for (std::size_t o = 0; o < n_organs; ++o) {
                     const auto w = body.of(k, o);
-                    auto& slot = acc[i * n_organs + o];
+                    auto& slot = acc[i][o];
                     auto& q = reactions ? slot.with_removal : slot.without_removal;
                     for (std::size_t g = 0; g < n_grid; ++g) {
                         if (w[g] != 0.0) {
@@ -467,10 +467,27 @@ gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
             }
         }
     }
+    return acc;
+}
+
+std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, std::span<const double> phis_given) {
+    // Each distinct phi once (a repeated one would be summed twice).
+    std::vector<double> phis_MV(phis_given.begin(), phis_given.end());
+    std::sort(phis_MV.begin(), phis_MV.end());
+    phis_MV.erase(std::unique(phis_MV.begin(), phis_MV.end()), phis_MV.end());
+    // Both marches share one energy grid (the library's), so one free-space field serves both.
+    std::vector<exposure::IonField> free_space;
+    for (const double phi : phis_MV) {
+        free_space.push_back(exposure::gcr_free_space_field(marches.with_reactions, phi));
+    }
+    const auto acc = field_body_doses(marches, materials, where, directions, body, free_space);
     std::map<std::pair<std::string, double>, exposure::BracketedDose> out;
     for (std::size_t i = 0; i < phis_MV.size(); ++i) {
-        for (std::size_t o = 0; o < n_organs; ++o) {
-            out[{body.organs[o], phis_MV[i]}] = acc[i * n_organs + o];
+        for (std::size_t o = 0; o < body.organs.size(); ++o) {
+            out[{body.organs[o], phis_MV[i]}] = acc[i][o];
         }
     }
     return out;

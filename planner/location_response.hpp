@@ -215,10 +215,10 @@ body_responses(exposure::TableLibrary& tables, const MaterialResolver& materials
                const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
                const BodyDepths& body, const exposure::Particle& particle = exposure::proton());
 
-/// The two marches of the GCR bracket: with nuclear reactions (removal and projectile
-/// fragments: the modelled physics) and without any (every nucleus keeps its charge). While
-/// secondary nucleons, target fragments and neutrons are missing, the first is low behind thick
-/// shielding and limits use the higher of the two.
+/// Two marches of one field: for the GCR bracket, with nuclear reactions (removal, projectile
+/// fragments and the secondaries: the modelled physics) and without any (every nucleus keeps
+/// its charge), limits using the higher of each quantity; for an SPE's secondary factor, the
+/// whole field and the primaries alone.
 struct GcrMarches {
     exposure::FragmentTransport& with_reactions;
     exposure::FragmentTransport& without_reactions;
@@ -243,6 +243,16 @@ gcr_quick_model_doses(const GcrMarches& marches, const MaterialResolver& materia
 gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
                const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
                const BodyDepths& body, std::span<const double> phis_MV);
+
+/// The organ doses of any incident fields (each IonField as from gcr_free_space_field(), on
+/// the marches' grid) at a location: each field marched through each direction's path and the
+/// tissue, both marches; the equal-weight mean over every `direction_stride`-th direction of
+/// `directions` (blocked ones as zero). Result [field][organ], organs in body.organs order.
+[[nodiscard]] std::vector<std::vector<exposure::BracketedDose>>
+field_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+                 const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+                 const BodyDepths& body, std::span<const exposure::IonField> fields,
+                 std::size_t direction_stride = 1);
 
 /// The layer path of one direction, outermost first, before any tissue: atmosphere (slant
 /// column, when the site has one), the scene's walls from outside in, any uniform shell, the suit.

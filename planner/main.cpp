@@ -111,7 +111,17 @@ int main(int argc, char** argv) {
                         "model")
             ->capture_default_str();
     };
+    std::string detector = "soft-tissue";
+    auto add_detector_option = [&](CLI::App* sub) {
+        sub->add_option("--detector", detector,
+                        "material the dose is scored in (after the shield and the tissue "
+                        "depth): soft-tissue for the body, or a detector's material such as "
+                        "silicon or water to compare with a measurement (see 'crewdose "
+                        "materials')")
+            ->capture_default_str();
+    };
     add_shield_options(depth, depths);
+    add_detector_option(depth);
     depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
@@ -124,11 +134,12 @@ int main(int argc, char** argv) {
         "gcr", "Galactic cosmic-ray (GCR) dose rate at a tissue depth behind a uniform shield (the "
                "dose at the centre of a spherical shell, in free space or, with --site, on the "
                "Moon or Mars), per shield areal density: absorbed dose, dose equivalent, "
-               "RBE-weighted dose and the mean quality factor with nuclear reactions (removal "
-               "and projectile fragments), the dose equivalent without any reaction (the higher "
-               "of the two is what 'check' uses for limits, because secondary nucleons, target "
-               "fragments and neutrons are not modelled), and each charge group's share of the "
-               "dose equivalent.\n"
+               "RBE-weighted dose and the mean quality factor of the whole field (the nuclei with "
+               "nuclear removal and projectile fragments, and the secondaries of nucleon "
+               "reactions: neutrons, protons, light ions, target fragments), the dose equivalent "
+               "without any reaction (for each quantity the higher of the two is what 'check' "
+               "uses for limits while the model is not validated) and of the primaries alone, "
+               "and the shares of the dose equivalent by charge and by source.\n"
                "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
                "--tissue-depth bfo --per-year");
     gcr->add_option("--phi,-p", gcr_phi,
@@ -147,6 +158,7 @@ int main(int argc, char** argv) {
                     "Mars only: surface pressure, 100 to 2000 Pa (about 600 at the mean datum, "
                     "750 to 900 in low-lying sites such as Gale crater)")
         ->capture_default_str();
+    add_detector_option(gcr);
     gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")
         ->capture_default_str();
 
@@ -302,8 +314,10 @@ int main(int argc, char** argv) {
             const auto& mat = planner::material_by_id(shield);
             const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
             const auto list = planner::parse_depth_list(depths, "--depths");
+            const auto& medium = planner::material_by_id(detector, "--detector");
             write_stdout(planner::format_depth_report(
-                spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list), fmt_choice));
+                spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list, medium), fmt_choice,
+                medium));
         } else if (gcr->parsed()) {
             const double phi = planner::parse_phi(gcr_phi, "--phi");
             const auto& mat = planner::material_by_id(shield);
@@ -313,9 +327,10 @@ int main(int argc, char** argv) {
             site.kind = planner::parse_site(gcr_site, "--site");
             site.surface_pressure_Pa =
                 planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
+            const auto& medium = planner::material_by_id(detector, "--detector");
             write_stdout(planner::format_gcr_depth_report(
-                phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list, site), fmt_choice,
-                per_year, site));
+                phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list, site, medium),
+                fmt_choice, per_year, site, medium));
         } else if (shielding->parsed()) {
             const planner::Study study(planner::load_scenario(scenario_path));
             write_stdout(planner::format_shielding_report(

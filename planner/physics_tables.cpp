@@ -90,11 +90,11 @@ std::vector<double> parse_energy_list(std::string_view text, std::string_view fi
     return out;
 }
 
-const exposure::Material& material_by_id(std::string_view id) {
+const exposure::Material& material_by_id(std::string_view id, std::string_view option) {
     if (const auto* m = exposure::find_builtin_material(id)) {
         return *m;
     }
-    throw InputError(kCommandLine, "--material",
+    throw InputError(kCommandLine, std::string(option),
                      fmt::format("no built-in material '{}'; allowed: {}", id, material_ids()));
 }
 

@@ -21,7 +21,8 @@ enum class OutputFormat { text, json, csv };
                                                     double min_MeV_per_n, double max_MeV_per_n);
 
 /// Built-in material by id, or InputError (field "--material") listing the ids allowed.
-[[nodiscard]] const exposure::Material& material_by_id(std::string_view id);
+[[nodiscard]] const exposure::Material& material_by_id(std::string_view id,
+                                                       std::string_view option = "--material");
 /// Particle by name, or InputError (field "--particle") saying what is allowed.
 [[nodiscard]] exposure::Particle particle_by_name_or_throw(std::string_view name);
 

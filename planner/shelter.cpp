@@ -132,10 +132,23 @@ constexpr double kShortfall = 0.995; // the answer's dose is within 0.5 % below 
 
 namespace {
 
+// The marches that add an event's secondaries to the sheltered doses (as Study does for the
+// scenario's locations): on the GCR grid, the whole field and the primaries alone.
+struct SecondaryMarches {
+    exposure::TableLibrary tables{gcr_grid()};
+    exposure::FragmentTransport whole{tables, gcr_march_options()};
+    exposure::FragmentTransport primaries{tables, [] {
+                                              exposure::MarchOptions o = gcr_march_options();
+                                              o.secondaries = false;
+                                              return o;
+                                          }()};
+};
+
 std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRequest& r,
                                              const std::string& material_id,
                                              double areal_density_g_cm2,
-                                             exposure::TableLibrary& tables) {
+                                             exposure::TableLibrary& tables,
+                                             SecondaryMarches& secondary) {
     const Scenario& sc = study.scenario();
     const exposure::Material& material = material_of(study, material_id, "--material");
     const LocationSpec& loc = location_of(study, r.location_id);
@@ -152,16 +165,30 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
     const MaterialResolver materials = [&](const std::string& id) -> const exposure::Material& {
         return material_of(study, id, "--material");
     };
+    // The event's secondaries behind the sheltered walls, on about 64 of the directions.
+    const auto& dirs = study.directions(loc.id);
+    const BodyDepths& body = study.body(loc.id);
+    const std::vector<exposure::IonField> field{
+        event_incident_field(secondary.whole, ev, sc.mission.sep_fluence_exponent)};
+    const auto marched =
+        field_body_doses({secondary.whole, secondary.primaries}, materials, where, dirs, body,
+                         field, std::max<std::size_t>(1, dirs.size() / 64));
     std::map<std::string, double> out;
-    for (const auto& o :
-         body_responses(tables, materials, where, study.directions(loc.id), study.body(loc.id))) {
+    for (const auto& o : body_responses(tables, materials, where, dirs, body)) {
         if (o.organ == "effective") {
             continue; // no 30-day limit
         }
         const auto fluences = event_node_fluences(ev, sc.mission.sep_fluence_exponent,
                                                   o.response.node_energies_MeV_per_n);
-        out[o.organ] = 1e3 * sc.limits.uncertainty_factor *
-                       exposure::fold(o.response, fluences).for_limits().rbe_weighted_GyEq;
+        auto folded = exposure::fold(o.response, fluences);
+        const auto k = static_cast<std::size_t>(
+            std::find(body.organs.begin(), body.organs.end(), o.organ) - body.organs.begin());
+        if (k < body.organs.size()) {
+            folded.with_removal = apply_secondary_factor(
+                folded.with_removal,
+                secondary_factor(marched[0][k].with_removal, marched[0][k].without_removal));
+        }
+        out[o.organ] = 1e3 * sc.limits.uncertainty_factor * folded.for_limits().rbe_weighted_GyEq;
     }
     return out;
 }
@@ -172,7 +199,8 @@ std::map<std::string, double> sheltered_event_dose(const Study& study, const She
                                                    const std::string& material_id,
                                                    double areal_density_g_cm2) {
     exposure::TableLibrary tables(spe_grid(location_of(study, r.location_id).body));
-    return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables);
+    SecondaryMarches secondary;
+    return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables, secondary);
 }
 
 void parse_shelter_target(const std::string& text, std::map<std::string, double>& targets) {
@@ -321,6 +349,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         rep.other_30d_mGyEq[organ] = worst;
     }
     exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
+    SecondaryMarches secondary;
     for (const auto& material_id : request.materials) {
         const exposure::Material& material = material_of(study, material_id, "--material");
         ShelterAnswer a;
@@ -346,7 +375,9 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
             auto it = seen.find(x);
             if (it == seen.end()) {
                 ++a.evaluations;
-                it = seen.emplace(x, sheltered_dose(study, request, material_id, x, tables)).first;
+                it = seen.emplace(x,
+                                  sheltered_dose(study, request, material_id, x, tables, secondary))
+                         .first;
             }
             double worst = 0.0;
             for (const auto& [o, target] : rep.target_mGyEq) {

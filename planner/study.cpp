@@ -36,6 +36,7 @@ exposure::EnergyGridSpec spe_grid(BodyModelKind body) {
 exposure::MarchOptions gcr_march_options() {
     exposure::MarchOptions o;
     o.max_step_g_cm2 = kGcrMarchStep_g_cm2;
+    o.secondaries = true;
     return o;
 }
 
@@ -138,12 +139,27 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
     std::vector<std::map<std::pair<std::string, double>, exposure::BracketedDose>> per_location(
         n_loc);
     std::vector<std::vector<OrganResponse>> spe_per_location(n_loc);
-    auto gcr_location = [&](std::size_t i, const GcrMarches& march) {
+    // Per location, event and organ: the events' secondaries as a factor on the primary dose.
+    std::vector<std::vector<std::vector<exposure::BracketedDose>>> spe_whole(n_loc);
+    auto gcr_location = [&](std::size_t i, const GcrMarches& march, const GcrMarches& spe_marches) {
         const auto& loc = sc_.locations[i];
         const LocationGeometry& where = geometries_.at(loc.id);
         const auto& g_dirs = where.imported ? location_directions_.at(loc.id) : gcr_dirs;
         per_location[i] =
             gcr_body_doses(march, materials, where, g_dirs, gcr_bodies_.at(loc.id), phis);
+        if (sc_.events.empty()) {
+            return;
+        }
+        // Each event's protons at the site (its fluence scaling applied), marched with and
+        // without their secondaries on every kSpeSecondaryStride-th GCR direction.
+        std::vector<exposure::IonField> fields;
+        for (const auto& ev : sc_.events) {
+            fields.push_back(event_incident_field(spe_marches.with_reactions, ev,
+                                                  sc_.mission.sep_fluence_exponent));
+        }
+        spe_whole[i] =
+            field_body_doses(spe_marches, materials, where, g_dirs, gcr_bodies_.at(loc.id), fields,
+                             where.imported ? 1 : kSpeSecondaryStride);
     };
     auto spe_location = [&](std::size_t i, exposure::TableLibrary& tables) {
         const auto& loc = sc_.locations[i];
@@ -178,12 +194,16 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             none.removal = false;
             exposure::FragmentTransport without_reactions(gcr_tables, none);
             const GcrMarches marches{with_reactions, without_reactions};
+            exposure::MarchOptions primaries_only = gcr_march_options();
+            primaries_only.secondaries = false;
+            exposure::FragmentTransport primaries(gcr_tables, primaries_only);
+            const GcrMarches spe_marches{with_reactions, primaries};
             std::optional<exposure::TableLibrary> spe_tables;         // quick locations
             std::optional<exposure::TableLibrary> phantom_spe_tables; // phantom ones
             for (std::size_t taken = next_job++; taken < 2 * n_loc; taken = next_job++) {
                 const std::size_t i = order[taken];
                 if (i < n_loc) {
-                    gcr_location(i, marches);
+                    gcr_location(i, marches, spe_marches);
                 } else {
                     const bool phantom = sc_.locations[i - n_loc].body == BodyModelKind::phantom;
                     auto& lib = phantom ? phantom_spe_tables : spe_tables;
@@ -237,12 +257,26 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             gcr_rates_[{sc_.locations[i].id, key.first, key.second}] = std::move(rates);
         }
     }
+    for (std::size_t i = 0; i < n_loc; ++i) {
+        const auto& organs = gcr_bodies_.at(sc_.locations[i].id).organs;
+        for (std::size_t e = 0; e < spe_whole[i].size(); ++e) {
+            for (std::size_t o = 0; o < organs.size(); ++o) {
+                const auto& d = spe_whole[i][e][o];
+                spe_factors_[{sc_.locations[i].id, organs[o], sc_.events[e].id}] =
+                    secondary_factor(d.with_removal, d.without_removal);
+            }
+        }
+    }
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
         for (const auto& [key, r] : responses_) {
             const auto fluences = event_node_fluences(ev, sc_.mission.sep_fluence_exponent,
                                                       r.response.node_energies_MeV_per_n);
-            const auto folded = exposure::fold(r.response, fluences);
+            auto folded = exposure::fold(r.response, fluences);
+            // The secondaries: the primary dose with reactions times the whole field's ratio to
+            // the primaries at this location and organ (the march of the event's protons).
+            folded.with_removal =
+                apply_secondary_factor(folded.with_removal, spe_factor(key.first, key.second, ev));
             if (!folded.with_removal.physical() || !folded.without_removal.physical()) {
                 throw InputError(ev.where, "event.spectrum",
                                  fmt::format("event '{}': its dose to organ {} at location '{}' "
@@ -306,6 +340,40 @@ double ArrivalGroups::fraction_between(double a_h, double b_h, const EventProfil
         f += share[k] * (p.fraction_by(b_h - delay_h[k]) - p.fraction_by(a_h - delay_h[k]));
     }
     return f;
+}
+
+exposure::DoseQuantities Study::spe_factor(const std::string& location, const std::string& organ,
+                                           const EventSpec& event) const {
+    const auto it = spe_factors_.find({location, organ, event.id});
+    return it == spe_factors_.end() ? exposure::DoseQuantities{1.0, 1.0, 1.0} : it->second;
+}
+
+exposure::IonField event_incident_field(const exposure::FragmentTransport& march,
+                                        const EventSpec& ev, double exponent) {
+    exposure::IonField f = march.empty_field();
+    const double scale = ev.fluence_scale(exponent);
+    const auto& E = march.energies();
+    for (std::size_t m = 0; m < E.size(); ++m) {
+        f.psi[0][m] = scale * E[m] * ev.spectrum.differential_fluence_per_cm2_MeV(E[m]);
+    }
+    return f;
+}
+
+exposure::DoseQuantities secondary_factor(const exposure::DoseQuantities& whole,
+                                          const exposure::DoseQuantities& primaries) {
+    auto ratio = [](double a, double b) {
+        return b > 0.0 && std::isfinite(a / b) ? a / b : 1.0;
+    };
+    return {ratio(whole.absorbed_Gy, primaries.absorbed_Gy),
+            ratio(whole.dose_equivalent_Sv, primaries.dose_equivalent_Sv),
+            ratio(whole.rbe_weighted_GyEq, primaries.rbe_weighted_GyEq)};
+}
+
+exposure::DoseQuantities apply_secondary_factor(const exposure::DoseQuantities& primaries,
+                                                const exposure::DoseQuantities& factor) {
+    return {primaries.absorbed_Gy * factor.absorbed_Gy,
+            primaries.dose_equivalent_Sv * factor.dose_equivalent_Sv,
+            primaries.rbe_weighted_GyEq * factor.rbe_weighted_GyEq};
 }
 
 const ArrivalGroups& Study::event_timing(const std::string& location, const std::string& organ,
