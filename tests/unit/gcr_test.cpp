@@ -14,6 +14,10 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <utility>
 #include <vector>
 
 using namespace crewdose::exposure;
@@ -260,6 +264,55 @@ TEST_CASE("the GCR energy grid is converged to 0.2 %", "[gcr]") {
                                    std::pair{coarse.without_removal, fine.without_removal}}) {
             CHECK(c.absorbed_Gy == Approx(f.absorbed_Gy).epsilon(2e-3));
             CHECK(c.dose_equivalent_Sv == Approx(f.dose_equivalent_Sv).epsilon(2e-3));
+        }
+    }
+}
+
+namespace {
+
+// T (GeV/n) and flux (per m2 s sr GeV/n) of a CRDB export in tests/data/crdb.
+std::vector<std::pair<double, double>> crdb_protons(const std::string& name) {
+    std::ifstream in(std::string(CREWDOSE_SOURCE_DIR) + "/tests/data/crdb/" + name);
+    REQUIRE(in);
+    std::vector<std::pair<double, double>> out;
+    std::string line;
+    bool header = true;
+    while (std::getline(in, line)) {
+        if (line.empty() || line[0] == '#') {
+            continue;
+        }
+        if (header) {
+            header = false;
+            continue;
+        }
+        std::stringstream s(line);
+        std::string T, J;
+        std::getline(s, T, ',');
+        std::getline(s, J, ',');
+        out.emplace_back(std::stod(T), std::stod(J));
+    }
+    return out;
+}
+
+} // namespace
+
+TEST_CASE("GCR protons against PAMELA 2006-08 and AMS-02 2011-13 at the fitted phi, within 15 %",
+          "[gcr][reference]") {
+    // Sources: Adriani et al. 2011, Science 332, 69 (PAMELA, 2006/07-2008/12) and Aguilar et
+    // al. 2015, PRL 114, 171103 (AMS-02, 2011/05-2013/11), as exported by the Cosmic-Ray
+    // DataBase (CRDB) into the public repository carmeloevoli/The_CR_Spectrum (commit
+    // fa788cd, data/protons; tests/data/crdb names the files). phi fitted to these points
+    // (least squares in log flux, 0.4-20 GeV): 501 MV (PAMELA) and 691 MV (AMS-02); the fit
+    // left at most 6.8 % and 12.1 % (the Burger LIS's shape: the ratio drifts with energy).
+    for (const auto& [file, phi] : {std::pair{"pamela_2006_2008_protons.csv", 501.0},
+                                    std::pair{"ams02_2011_2013_protons.csv", 691.0}}) {
+        const auto data = crdb_protons(file);
+        REQUIRE(data.size() > 20);
+        for (const auto& [T_GeV, J] : data) {
+            // Model per (m2 s sr MeV/n) -> per GeV/n.
+            const double model = 1e3 * gcr_modulated(proton(), 1e3 * T_GeV, phi);
+            INFO(file << " at " << T_GeV << " GeV: model " << model << ", measured " << J);
+            CHECK(model == Approx(J).epsilon(0.15));
         }
     }
 }

@@ -55,8 +55,9 @@ TEST_CASE("phantom: SPE organ doses converge in points, directions and energy gr
 
 TEST_CASE("phantom: GCR organ doses converge in march step and tissue grid", "[phantom][slow]") {
     // Convergence (by construction), phi = 650 MV, dose equivalent and absorbed dose, both
-    // marches: the check's march step (8 g/cm2) against 2 g/cm2, largest seen 0.21 %, gate
-    // 0.4 %;
+    // marches: the check's march step (8 g/cm2) against 2 g/cm2; with the secondaries the
+    // largest seen is 1.1 % (behind 150 g/cm2 of regolith: the secondaries' source is taken
+    // linear over each step), gate 1.5 % (without them it was 0.21 %);
     // the GCR tissue grid (12 nodes to 46 g/cm2) against the SPE grid (25 nodes to 160 g/cm2):
     // the coarser grid is higher (linear interpolation of a convex fall), largest seen 0.8 %,
     // gate 1.2 %.
@@ -65,7 +66,7 @@ TEST_CASE("phantom: GCR organ doses converge in march step and tissue grid", "[p
     for (const auto& where :
          {suited(), shelled("aluminium", 20.0), shelled("highland-regolith", 150.0)}) {
         exposure::TableLibrary tables(planner::gcr_grid());
-        exposure::MarchOptions fine_step;
+        exposure::MarchOptions fine_step = planner::gcr_march_options();
         fine_step.max_step_g_cm2 = 2.0;
         exposure::FragmentTransport check_march(tables, planner::gcr_march_options());
         exposure::FragmentTransport fine_march(tables, fine_step);
@@ -87,9 +88,9 @@ TEST_CASE("phantom: GCR organ doses converge in march step and tissue grid", "[p
         for (const auto& [key, d] : a) {
             INFO(key.first);
             CHECK(d.with_removal.dose_equivalent_Sv ==
-                  Approx(b.at(key).with_removal.dose_equivalent_Sv).epsilon(4e-3));
+                  Approx(b.at(key).with_removal.dose_equivalent_Sv).epsilon(1.5e-2));
             CHECK(d.with_removal.absorbed_Gy ==
-                  Approx(b.at(key).with_removal.absorbed_Gy).epsilon(4e-3));
+                  Approx(b.at(key).with_removal.absorbed_Gy).epsilon(1.5e-2));
             for (const bool with : {true, false}) {
                 const auto& x = with ? d.with_removal : d.without_removal;
                 const auto& y = with ? c.at(key).with_removal : c.at(key).without_removal;
