@@ -11,7 +11,6 @@
 #include <filesystem>
 #include <fstream>
 #include <optional>
-#include <regex>
 #include <sstream>
 #include <string>
 #include <sys/wait.h>
@@ -75,6 +74,26 @@ struct Run {
     std::string out;
 };
 
+// True when `text` holds "nan" or "inf" (any case, a minus allowed) as a word of its own: a
+// number that was not computed, as printf writes it. (std::regex trips a GCC 12 warning in the
+// sanitizer build.)
+bool has_non_finite(const std::string& text) {
+    auto letter = [](char c) {
+        return (c >= 'a' && c <= 'z') || (c >= 'A' && c <= 'Z');
+    };
+    auto lower = [](char c) {
+        return c >= 'A' && c <= 'Z' ? static_cast<char>(c - 'A' + 'a') : c;
+    };
+    for (std::size_t i = 0; i + 3 <= text.size(); ++i) {
+        const std::string word{lower(text[i]), lower(text[i + 1]), lower(text[i + 2])};
+        if ((word == "nan" || word == "inf") && (i == 0 || !letter(text[i - 1])) &&
+            (i + 3 == text.size() || !letter(text[i + 3]))) {
+            return true;
+        }
+    }
+    return false;
+}
+
 Run run(const std::string& args) {
     const std::string cmd = std::string(CREWDOSE_BINARY) + " " + args + " 2>&1";
     Run r{-1, {}};
@@ -105,7 +124,6 @@ TEST_CASE("malformed inputs: every fixture exits as stated, names where, writes 
     std::sort(cases.begin(), cases.end());
     // The issue asks for at least 60 named cases.
     REQUIRE(cases.size() >= 60);
-    const std::regex non_finite("(^|[^A-Za-z])-?(nan|inf)([^A-Za-z]|$)", std::regex::icase);
     const fs::path scratch = fs::temp_directory_path() / "crewdose-malformed-test";
     for (const auto& file : cases) {
         const Expectation e = read_header(file);
@@ -128,7 +146,7 @@ TEST_CASE("malformed inputs: every fixture exits as stated, names where, writes 
             CHECK(r.out.rfind("crewdose: ", 0) == 0);
         } else {
             // A report only ever shows finite numbers.
-            CHECK_FALSE(std::regex_search(r.out, non_finite));
+            CHECK_FALSE(has_non_finite(r.out));
         }
     }
     fs::remove_all(scratch);
