@@ -43,6 +43,50 @@ double DosePiece::fraction_by(const Time& t) const {
     return hours(t - start) / hours(end - start);
 }
 
+std::vector<double> cumulative_at(const std::vector<DosePiece>& pieces,
+                                  const std::vector<Time>& times) {
+    // A sweep in time: pieces that have ended count whole, those under way by their fraction.
+    // On a crew member's timeline pieces hardly overlap (one activity at a time), so the set
+    // under way stays small and the sweep is linear after the sorts.
+    std::vector<std::size_t> by_start(pieces.size());
+    for (std::size_t i = 0; i < pieces.size(); ++i) {
+        by_start[i] = i;
+    }
+    std::vector<std::size_t> by_end = by_start;
+    std::sort(by_start.begin(), by_start.end(),
+              [&](std::size_t a, std::size_t b) { return pieces[a].start < pieces[b].start; });
+    std::sort(by_end.begin(), by_end.end(),
+              [&](std::size_t a, std::size_t b) { return pieces[a].end < pieces[b].end; });
+    std::vector<double> out(times.size());
+    std::vector<std::size_t> under_way;
+    double done = 0.0;
+    std::size_t next_start = 0;
+    std::size_t next_end = 0;
+    for (std::size_t q = 0; q < times.size(); ++q) {
+        const Time& t = times[q];
+        if (q > 0 && t < times[q - 1]) {
+            throw std::logic_error("cumulative_at: times must be sorted");
+        }
+        while (next_start < by_start.size() && !(t < pieces[by_start[next_start]].start)) {
+            under_way.push_back(by_start[next_start++]);
+        }
+        while (next_end < by_end.size() && !(t < pieces[by_end[next_end]].end)) {
+            done += 1e3 * pieces[by_end[next_end++]].dose.rbe_weighted_GyEq;
+        }
+        double partial = 0.0;
+        std::size_t kept = 0;
+        for (const std::size_t i : under_way) {
+            if (t < pieces[i].end) {
+                partial += 1e3 * pieces[i].dose.rbe_weighted_GyEq * pieces[i].fraction_by(t);
+                under_way[kept++] = i;
+            }
+        }
+        under_way.resize(kept);
+        out[q] = done + partial;
+    }
+    return out;
+}
+
 WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration length,
                          time_duration step) {
     WindowMax best;
@@ -64,9 +108,22 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
             }
         }
     }
+    // The cumulative dose at every window end and start, in one sweep.
+    std::vector<Time> times;
+    times.reserve(2 * ends.size());
     for (const Time& e : ends) {
-        const double d = require_finite(cumulative(pieces, e) - cumulative(pieces, e - length),
-                                        "a rolling-window dose");
+        times.push_back(e);
+        times.push_back(e - length);
+    }
+    std::sort(times.begin(), times.end());
+    times.erase(std::unique(times.begin(), times.end()), times.end());
+    const std::vector<double> C = cumulative_at(pieces, times);
+    auto at = [&](const Time& t) {
+        return C[static_cast<std::size_t>(std::lower_bound(times.begin(), times.end(), t) -
+                                          times.begin())];
+    };
+    for (const Time& e : ends) {
+        const double d = require_finite(at(e) - at(e - length), "a rolling-window dose");
         if (d > best.dose_mGyEq) {
             best.dose_mGyEq = d;
             best.window_end = e;

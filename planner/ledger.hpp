@@ -150,8 +150,14 @@ struct LedgerResult {
 /// line) unless `options.allow_gaps`.
 [[nodiscard]] LedgerResult build_ledger(const Study& study, const LedgerOptions& options = {});
 
+/// The cumulative dose (mGy-Eq; for the effective dose, mSv) of the pieces by each of `times`
+/// (sorted, ascending): a sweep, linear in pieces and times after sorting the pieces.
+[[nodiscard]] std::vector<double> cumulative_at(const std::vector<DosePiece>& pieces,
+                                                const std::vector<Time>& times);
+
 /// The largest dose (mGy-Eq) in any window of `length` over the pieces, exact at piece
-/// boundaries and sampled at `step` inside event profiles.
+/// boundaries and sampled at `step` inside event profiles; O(n log n) in the pieces and
+/// window ends (cumulative_at()).
 [[nodiscard]] WindowMax window_maximum(const std::vector<DosePiece>& pieces,
                                        boost::posix_time::time_duration length,
                                        boost::posix_time::time_duration step);

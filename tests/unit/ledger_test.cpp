@@ -281,3 +281,49 @@ TEST_CASE("budget left: days of the timeline's GCR rate until the first limit bi
     bfo.gcr.mGyEq = 0.0;
     CHECK_FALSE(remaining_budget({check("career", 1000, 500)}, {bfo}, 60.0).binds);
 }
+
+TEST_CASE("the cumulative sweep and the rolling-window maximum equal the direct sums", "[ledger]") {
+    // By construction: the sweep (cumulative_at) against summing every piece at every time,
+    // on a timeline of back-to-back pieces, instantaneous ones and overlapping readings.
+    std::vector<DosePiece> p;
+    double t = 0.0;
+    for (int i = 0; i < 400; ++i) {
+        const double len = 0.1 + 0.37 * ((i * 7919) % 13);
+        p.push_back(uniform(t, t + len, 0.5 + (i * 104729) % 17));
+        if (i % 11 == 0) {
+            p.push_back(uniform(t + 0.5 * len, t + 0.5 * len, 3.0)); // instantaneous
+        }
+        if (i % 37 == 0) {
+            p.push_back(uniform(t, t + 20.0, 1.0)); // a long overlapping reading
+        }
+        t += len;
+    }
+    auto direct = [&](const Time& x) {
+        double sum = 0.0;
+        for (const auto& piece : p) {
+            sum += 1e3 * piece.dose.rbe_weighted_GyEq * piece.fraction_by(x);
+        }
+        return sum;
+    };
+    std::vector<Time> times;
+    for (double d = -1.0; d < t + 30.0; d += 0.173) {
+        times.push_back(day(d));
+    }
+    const auto C = cumulative_at(p, times);
+    for (std::size_t i = 0; i < times.size(); ++i) {
+        REQUIRE(C[i] == Approx(direct(times[i])).epsilon(1e-12).margin(1e-12));
+    }
+    // The window maximum against the direct search over the same candidate ends.
+    for (const int days : {1, 30, 365}) {
+        const auto L = hours(24 * days);
+        const WindowMax w = window_maximum(p, L, boost::posix_time::minutes(10));
+        double best = 0.0;
+        for (const auto& piece : p) {
+            for (const Time& e : {piece.start, piece.end, piece.start + L, piece.end + L}) {
+                best = std::max(best, direct(e) - direct(e - L));
+            }
+        }
+        CHECK(w.dose_mGyEq == Approx(best).epsilon(1e-12));
+        CHECK(w.dose_mGyEq == Approx(direct(w.window_end) - direct(w.window_start)).epsilon(1e-12));
+    }
+}
