@@ -555,6 +555,15 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     out.step = step;
     out.from = from;
     out.to = to;
+    // A bound on the work a command line can ask for (a year at 30 s is about 1.05 million).
+    const double count = static_cast<double>((to - from).total_seconds()) /
+                         static_cast<double>(step.total_seconds());
+    if (!(count <= static_cast<double>(kMaxSweepOnsets))) {
+        throw InputError({"command line", 0}, "--step",
+                         fmt::format("{} onsets from --from to --to; at most {} are swept: "
+                                     "give a longer --step or a shorter --from/--to",
+                                     static_cast<long long>(count), kMaxSweepOnsets));
+    }
     std::set<Time> onsets;
     for (Time t = from; t <= to; t += step) {
         onsets.insert(t);

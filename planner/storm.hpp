@@ -163,6 +163,9 @@ struct StormSweep {
     [[nodiscard]] bool any_exceeded() const;
 };
 
+/// The most regular onsets a sweep takes (InputError naming --step beyond).
+inline constexpr long long kMaxSweepOnsets = 2'000'000;
+
 [[nodiscard]] StormSweep sweep_storm(const StormContext& context, Time from, Time to,
                                      boost::posix_time::time_duration step,
                                      const std::function<void(double)>& progress = {});
