@@ -109,13 +109,14 @@ struct FragmentTransport::MaterialData {
     std::array<std::array<std::vector<std::size_t>, kLightParticles>, 2> spread_from;
     std::array<std::array<std::vector<std::size_t>, kLightParticles>, 2> spread_to;
     /// With secondaries: per projectile nucleon q and node, the energy deposited where the
-    /// reaction happens per unit fluence and per g/cm2, MeV cm2/g, with its Q- and RBE-
-    /// weighted forms for the proton RBE of the last dose call (see local_deposit()).
+    /// reaction happens per unit fluence and per g/cm2, MeV cm2/g; its Q-weighted form; and
+    /// the part of it carried by nuclei (Z >= 2), which dose_by_species() weighs with the heavy-
+    /// ion RBE (the rest with the proton's).
     std::array<std::vector<double>, 2> local_MeV;
     std::array<std::vector<double>, 2> local_Q_MeV;
-    std::array<std::vector<double>, 2> local_heavy_MeV; ///< the part of ions (RBE heavy_ion)
-    std::map<double, StepMap> maps;                     ///< by step length, reused ones
-    std::set<double> seen;                              ///< step lengths asked for once
+    std::array<std::vector<double>, 2> local_heavy_MeV;
+    std::map<double, StepMap> maps; ///< by step length, reused ones
+    std::set<double> seen;          ///< step lengths asked for once
     std::map<std::string, std::array<std::vector<DoseQuantities>, kSpecies>> doses;
 };
 
