@@ -18,8 +18,6 @@ namespace crewdose::exposure {
 
 namespace {
 
-constexpr std::size_t kSpecies = kFieldSpecies;
-
 const Particle& species(std::size_t j) {
     return field_species(j);
 }
@@ -79,28 +77,28 @@ struct FragmentTransport::StepMap {
     // Per species j and node m: the field at depth x + h, node m, is sum_k w[j][4m + k] times
     // the field at depth x, node base[j][m] + k (interpolation along the characteristic times
     // the Jacobian, the psi = E phi conversion and the survival).
-    std::array<std::vector<std::size_t>, kSpecies> base;
-    std::array<std::vector<double>, kSpecies> w;
+    std::array<std::vector<std::size_t>, kFieldSpecies> base;
+    std::array<std::vector<double>, kFieldSpecies> w;
     // With secondaries, for the light group: what a source constant over the step leaves at
     // x + h, integral over u from 0 to h of T(u) s, exact along the characteristics for a
     // source linear in ln E between nodes (see source_integral()). Row m holds columns m ..
     // upto[j][m], stored from u[j][start[j][m]] on.
-    std::array<std::vector<double>, kSpecies> u;
-    std::array<std::vector<std::size_t>, kSpecies> upto;
-    std::array<std::vector<std::size_t>, kSpecies> start;
+    std::array<std::vector<double>, kFieldSpecies> u;
+    std::array<std::vector<std::size_t>, kFieldSpecies> upto;
+    std::array<std::vector<std::size_t>, kFieldSpecies> start;
 };
 
 struct FragmentTransport::MaterialData {
     const Material* material = nullptr;
-    std::array<const RangeTable*, kSpecies> table{};   ///< none for the neutron
-    std::array<std::vector<double>, kSpecies> removal; ///< cm2/g per node
-    std::array<std::vector<double>, kSpecies> self;    ///< neutron removal back to itself
+    std::array<const RangeTable*, kFieldSpecies> table{};   ///< none for the neutron
+    std::array<std::vector<double>, kFieldSpecies> removal; ///< cm2/g per node
+    std::array<std::vector<double>, kFieldSpecies> self;    ///< neutron removal back to itself
     /// prod[p][f][m]: production of species f per g/cm2 by species p at the same energy per
     /// nucleon (fragments, breakup nucleons); empty where p makes no f.
-    std::array<std::array<std::vector<double>, kSpecies>, kSpecies> prod;
+    std::array<std::array<std::vector<double>, kFieldSpecies>, kFieldSpecies> prod;
     /// producers[f]: the species p whose production of f is not zero everywhere, ascending.
-    std::array<std::vector<std::size_t>, kSpecies> producers;
-    std::array<std::vector<double>, kSpecies> neutrons; ///< neutrons made per g/cm2 per node
+    std::array<std::vector<std::size_t>, kFieldSpecies> producers;
+    std::array<std::vector<double>, kFieldSpecies> neutrons; ///< neutrons made per g/cm2 per node
     /// With secondaries: spread[q][l], q = 0 the proton, 1 the neutron, l a light particle:
     /// an n x n matrix (row: the product's node, column: the projectile's), per g/cm2, with
     /// the incident ln E quadrature weight folded in, so that the source of l is spread x psi.
@@ -117,7 +115,7 @@ struct FragmentTransport::MaterialData {
     std::array<std::vector<double>, 2> local_heavy_MeV;
     std::map<double, StepMap> maps; ///< by step length, reused ones
     std::set<double> seen;          ///< step lengths asked for once
-    std::map<std::string, std::array<std::vector<DoseQuantities>, kSpecies>> doses;
+    std::map<std::string, std::array<std::vector<DoseQuantities>, kFieldSpecies>> doses;
 };
 
 FragmentTransport::FragmentTransport(TableLibrary& tables, MarchOptions options)
@@ -156,14 +154,14 @@ FragmentTransport::FragmentTransport(FragmentTransport&&) noexcept = default;
 
 IonField FragmentTransport::empty_field() const {
     IonField f;
-    f.psi.assign(kSpecies, std::vector<double>(energies_.size(), 0.0));
+    f.psi.assign(kFieldSpecies, std::vector<double>(energies_.size(), 0.0));
     f.charge_lost.assign(energies_.size(), 0.0);
     f.neutrons.assign(energies_.size(), 0.0);
     return f;
 }
 
 std::size_t FragmentTransport::active_species() const noexcept {
-    return secondaries() ? kSpecies : kIonSpecies;
+    return secondaries() ? kFieldSpecies : kIonSpecies;
 }
 
 bool FragmentTransport::secondaries() const noexcept {
@@ -648,7 +646,7 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     const bool light = secondaries();
     // The fields a source is made from: each species' psi (the current field, or for the
     // light group the predicted one).
-    using Fields = std::array<const std::vector<double>*, kSpecies>;
+    using Fields = std::array<const std::vector<double>*, kFieldSpecies>;
     Fields current{};
     for (std::size_t j = 0; j < active; ++j) {
         current[j] = &field.psi[j];
@@ -682,7 +680,7 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
             }
         }
     };
-    std::array<std::vector<double>, kSpecies> source;
+    std::array<std::vector<double>, kFieldSpecies> source;
     for (std::size_t j = 0; j < active; ++j) {
         sources_into(j, source[j], current);
     }
@@ -708,9 +706,9 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         }
     };
     std::vector<double> lost_old(n), neut_old(n), lost_new(n), neut_new(n);
-    std::array<std::vector<double>, kSpecies> predicted;
-    std::array<std::vector<double>, kSpecies> transported;
-    std::array<std::vector<double>, kSpecies> fresh_light;
+    std::array<std::vector<double>, kFieldSpecies> predicted;
+    std::array<std::vector<double>, kFieldSpecies> transported;
+    std::array<std::vector<double>, kFieldSpecies> fresh_light;
     auto substep = [&](double h) {
         const StepMap& map = cached_step_map(md, h);
         if (options_.tallies) {
@@ -877,7 +875,7 @@ FieldDose FragmentTransport::dose_by_species(const IonField& field, const Materi
     auto it = cache.find(key);
     const std::size_t active = active_species();
     if (it == cache.end()) {
-        std::array<std::vector<DoseQuantities>, kSpecies> per;
+        std::array<std::vector<DoseQuantities>, kFieldSpecies> per;
         for (std::size_t j = 0; j < active; ++j) {
             if (j == kNeutronSpecies) {
                 continue; // neutral: its dose is the local deposit of its reactions
