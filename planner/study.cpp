@@ -318,6 +318,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
             for (double& s : g.share) {
                 s /= grouped;
             }
+            g.prepare(ev.profile);
             event_timing_[{key.first, key.second, ev.id}] = std::move(g);
         }
     }
@@ -334,7 +335,57 @@ exposure::NodeFluences event_node_fluences(const EventSpec& ev, double exponent,
     return f;
 }
 
+void ArrivalGroups::prepare(const EventProfile& p) {
+    // The running sums need ascending delays: order the groups (their sum does not depend on it).
+    if (!std::is_sorted(delay_h.begin(), delay_h.end())) {
+        std::vector<std::pair<double, double>> groups;
+        for (std::size_t k = 0; k < delay_h.size(); ++k) {
+            groups.emplace_back(delay_h[k], share[k]);
+        }
+        std::sort(groups.begin(), groups.end());
+        for (std::size_t k = 0; k < groups.size(); ++k) {
+            delay_h[k] = groups[k].first;
+            share[k] = groups[k].second;
+        }
+    }
+    rise_h_ = p.rise_h;
+    decay_h_ = p.decay_h;
+    const double d = p.decay_h;
+    const double c = 1.0 / (1.0 / p.rise_h + 1.0 / p.decay_h);
+    const std::size_t n = delay_h.size();
+    sum_share_.assign(n, 0.0);
+    sum_decay_.assign(n, 0.0);
+    sum_fast_.assign(n, 0.0);
+    for (std::size_t k = 0; k < n; ++k) {
+        const double gap = k == 0 ? 0.0 : delay_h[k] - delay_h[k - 1];
+        sum_share_[k] = (k == 0 ? 0.0 : sum_share_[k - 1]) + share[k];
+        sum_decay_[k] = (k == 0 ? 0.0 : sum_decay_[k - 1] * std::exp(-gap / d)) + share[k];
+        sum_fast_[k] = (k == 0 ? 0.0 : sum_fast_[k - 1] * std::exp(-gap / c)) + share[k];
+    }
+}
+
+double ArrivalGroups::cumulative(double tau) const {
+    // Groups that have arrived: delay < tau (EventProfile::fraction_by is zero at t <= 0).
+    const auto k_end = static_cast<std::size_t>(
+        std::lower_bound(delay_h.begin(), delay_h.end(), tau) - delay_h.begin());
+    if (k_end == 0) {
+        return 0.0;
+    }
+    const std::size_t k = k_end - 1;
+    const double d = decay_h_;
+    const double c = 1.0 / (1.0 / rise_h_ + 1.0 / decay_h_);
+    const double dt = tau - delay_h[k];
+    // sum_g share_g [d (1 - e^{-t_g/d}) - c (1 - e^{-t_g/c})] / (d - c), t_g = tau - d_g, with
+    // d - c = d^2 / (rise + d) as in EventProfile::fraction_by.
+    const double part = d * (sum_share_[k] - std::exp(-dt / d) * sum_decay_[k]) -
+                        c * (sum_share_[k] - std::exp(-dt / c) * sum_fast_[k]);
+    return std::clamp(part / (d * d / (rise_h_ + d)), 0.0, sum_share_[k]);
+}
+
 double ArrivalGroups::fraction_between(double a_h, double b_h, const EventProfile& p) const {
+    if (rise_h_ > 0.0 && p.rise_h == rise_h_ && p.decay_h == decay_h_) {
+        return cumulative(b_h) - cumulative(a_h);
+    }
     double f = 0.0;
     for (std::size_t k = 0; k < delay_h.size(); ++k) {
         f += share[k] * (p.fraction_by(b_h - delay_h[k]) - p.fraction_by(a_h - delay_h[k]));

@@ -51,10 +51,26 @@ inline constexpr std::size_t kPhantomSpeNodesPerDecade = 32;
 /// is wider), each with its share of the dose. A fixed-arrival event has one group. Each
 /// group's share follows the event's time profile from its own arrival.
 struct ArrivalGroups {
-    std::vector<double> delay_h;
-    std::vector<double> share; ///< sums to 1 (all zero when the event gives no dose here)
-    /// Share of the dose received between a_h and b_h hours after flare_seen.
+    std::vector<double> delay_h; ///< ascending once prepared
+    std::vector<double> share;   ///< sums to 1 (all zero when the event gives no dose here)
+    /// Share of the dose received between a_h and b_h hours after flare_seen: the sum over
+    /// groups, or, once prepare() has run for `p`, the difference of cumulative() at both ends.
     [[nodiscard]] double fraction_between(double a_h, double b_h, const EventProfile& p) const;
+    /// Share of the dose received by tau_h hours after flare_seen for the prepared profile, in
+    /// O(log groups): the profile's closed form summed over the groups that have arrived, from
+    /// running sums of the shares weighted by exp(-(d_last - d_g) / T) for its two time constants
+    /// (bounded by 1: no overflow whatever the delays and time constants).
+    [[nodiscard]] double cumulative(double tau_h) const;
+    /// Builds the running sums for profile `p` (the ledger and the storm sweep then take
+    /// fraction_between() from them); orders the groups by delay first.
+    void prepare(const EventProfile& p);
+
+  private:
+    double rise_h_ = 0.0; ///< the prepared profile (0: none)
+    double decay_h_ = 0.0;
+    std::vector<double> sum_share_;
+    std::vector<double> sum_decay_; ///< sum_g share_g exp(-(d_k - d_g) / decay), g <= k
+    std::vector<double> sum_fast_;  ///< the same with c = 1 / (1 / rise + 1 / decay)
 };
 
 /// An event's node fluences for a response's nodes, scaled from the distance its spectrum is

@@ -1,6 +1,7 @@
 // The ledger: rolling windows, recorded and prior doses, and a timeline checked by hand.
 #include "planner/ledger.hpp"
 #include "planner/scenario.hpp"
+#include "planner/study.hpp"
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
@@ -325,5 +326,38 @@ TEST_CASE("the cumulative sweep and the rolling-window maximum equal the direct 
         }
         CHECK(w.dose_mGyEq == Approx(best).epsilon(1e-12));
         CHECK(w.dose_mGyEq == Approx(direct(w.window_end) - direct(w.window_start)).epsilon(1e-12));
+    }
+}
+
+TEST_CASE("an event's prepared arrival groups give the per-group sum in closed form", "[ledger]") {
+    // The fast path (running sums, O(log groups)) against the reference sum over groups, for
+    // many groups with uneven delays and shares, and profiles from a fast spike to a slow event.
+    for (const EventProfile p : {EventProfile{0.2, 3.0}, EventProfile{1.0, 12.0},
+                                 EventProfile{6.0, 48.0}, EventProfile{5.0, 5.0}}) {
+        ArrivalGroups g;
+        double total = 0.0;
+        for (int k = 0; k < 40; ++k) {
+            g.delay_h.push_back(0.5 * k + 0.37 * (k % 3) + (k > 20 ? 30.0 : 0.0));
+            g.share.push_back(1.0 + (k * 7 % 5));
+            total += g.share.back();
+        }
+        for (double& s : g.share) {
+            s /= total;
+        }
+        const ArrivalGroups reference = g;
+        g.prepare(p);
+        double previous = 0.0;
+        for (double a = -2.0; a < 400.0; a += 0.731) {
+            for (const double b : {a, a + 0.1, a + 5.0, a + 90.0}) {
+                const double exact = reference.fraction_between(a, b, p);
+                CHECK(g.fraction_between(a, b, p) == Approx(exact).margin(1e-12));
+            }
+            // The prepared cumulative share rises from 0 to 1.
+            const double c = g.cumulative(a);
+            CHECK(c >= previous - 1e-15);
+            previous = c;
+        }
+        CHECK(g.cumulative(-1.0) == 0.0);
+        CHECK(g.cumulative(1e5) == Approx(1.0).margin(1e-12));
     }
 }
