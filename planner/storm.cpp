@@ -9,8 +9,13 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <atomic>
 #include <cmath>
+#include <exception>
 #include <set>
+#include <span>
+#include <system_error>
+#include <thread>
 
 namespace crewdose::planner {
 namespace {
@@ -30,13 +35,24 @@ bool in_transit(const TimelineSpan& s) {
     return s.activity && s.activity->kind == ActivityKind::transit;
 }
 
-const TimelineSpan* span_at(const std::vector<TimelineSpan>& spans, Time t) {
+const TimelineSpan* span_at(std::span<const TimelineSpan> spans, Time t) {
     for (const auto& s : spans) {
         if (s.start <= t && t < s.end) {
             return &s;
         }
     }
     return nullptr;
+}
+
+// The spans of a crew member's timeline (sorted, not overlapping) that end after `from` and
+// start at or before `to`, found by bisection.
+std::span<const TimelineSpan> overlapping(const std::vector<TimelineSpan>& spans, Time from,
+                                          Time to) {
+    const auto lo = std::partition_point(spans.begin(), spans.end(),
+                                         [&](const TimelineSpan& s) { return s.end <= from; });
+    const auto hi =
+        std::partition_point(lo, spans.end(), [&](const TimelineSpan& s) { return s.start <= to; });
+    return {lo, hi};
 }
 
 } // namespace
@@ -70,7 +86,7 @@ struct Response {
 // Calls emit(a, b, location, kind, planned span) for the responded timeline in time order,
 // without building it: the planned spans outside the storm window pass through unchanged.
 template <class Emit>
-void respond_each(const std::vector<TimelineSpan>& planned, const StormPolicy& policy,
+void respond_each(std::span<const TimelineSpan> planned, const StormPolicy& policy,
                   const StormTimes& t, Emit&& emit) {
     auto pass_through = [&] {
         for (const auto& s : planned) {
@@ -317,6 +333,27 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     std::vector<Gap> gaps;
     for (const auto& c : sc.crew) {
         planned_.push_back(crew_timeline(sc, c, true, gaps));
+        // The sweep's fast path bisects the timeline: it must be in time order, not overlapping.
+        const auto& p = planned_.back();
+        for (std::size_t k = 0; k < p.size(); ++k) {
+            if (!(p[k].start <= p[k].end) || (k > 0 && p[k - 1].end > p[k].start)) {
+                throw std::logic_error("storm: a crew timeline out of time order");
+            }
+        }
+        // Crew members on the same timeline (an EVA pair, a crew that moves together) get the
+        // same event dose at every onset: the sweep computes it once.
+        const auto same = [](const TimelineSpan& x, const TimelineSpan& y) {
+            return x.start == y.start && x.end == y.end && x.location == y.location &&
+                   x.activity == y.activity;
+        };
+        std::size_t twin = planned_.size() - 1;
+        for (std::size_t j = 0; j + 1 < planned_.size(); ++j) {
+            if (std::equal(p.begin(), p.end(), planned_[j].begin(), planned_[j].end(), same)) {
+                twin = j;
+                break;
+            }
+        }
+        twin_.push_back(twin);
     }
     // BFO, lens and skin for everyone; heart and brain for a crew member when every location
     // the what-if can put them at gives them (the planned timeline, the shelter and the
@@ -442,9 +479,13 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
 
 void StormContext::add_piece(StormDoses& d, Time from, Time to, const std::string& location,
                              Time onset) const {
+    add_piece(d, from, to, by_location_.at(location), onset);
+}
+
+void StormContext::add_piece(StormDoses& d, Time from, Time to, const PerOrgan& c,
+                             Time onset) const {
     const double a = hours(from - onset);
     const double b = hours(to - onset);
-    const auto& c = by_location_.at(location);
     StormDoses fraction{};
     for (std::size_t k = 0; k < organs_.size(); ++k) {
         if (c[k].same_timing_as != k) {
@@ -456,7 +497,7 @@ void StormContext::add_piece(StormDoses& d, Time from, Time to, const std::strin
     }
 }
 
-StormDoses StormContext::doses_over(const std::vector<TimelineSpan>& spans, Time onset) const {
+StormDoses StormContext::doses_over(std::span<const TimelineSpan> spans, Time onset) const {
     const Time stop = onset + minutes_d(60.0 * horizon_h_);
     StormDoses d{};
     for (const auto& s : spans) {
@@ -485,30 +526,68 @@ StormTimes StormContext::times_at(Time onset) const {
 }
 
 double StormContext::worst_ratio_at(Time onset, std::size_t i, StormDoses* with_mGyEq) const {
-    const StormTimes t = times_at(onset);
-    StormDoses d{};
-    if (respond_) {
-        const Time stop = onset + minutes_d(60.0 * horizon_h_);
-        respond_each(planned_[i], study_.scenario().storm, t,
-                     [&](Time a, Time b, const std::string& location, Piece, const TimelineSpan&) {
-                         if (b <= onset || a >= stop) {
-                             return;
-                         }
-                         add_piece(d, std::max(a, onset), std::min(b, stop), location, onset);
-                     });
-    } else {
-        d = doses_over(planned_[i], onset);
+    const StormDoses d = doses_at(onset, i);
+    if (with_mGyEq) {
+        *with_mGyEq = d;
     }
+    return ratio_of(i, d);
+}
+
+double StormContext::ratio_of(std::size_t i, const StormDoses& d) const {
     double worst = 0.0;
     for (std::size_t k = 0; k < organs_.size(); ++k) {
         if (checked_[i][k]) {
             worst = std::max(worst, (d[k] + other_by_index_[i][k]) / limit_by_index_[k]);
         }
     }
-    if (with_mGyEq) {
-        *with_mGyEq = d;
-    }
     return worst;
+}
+
+StormDoses StormContext::doses_at(Time onset, std::size_t i) const {
+    const StormTimes t = times_at(onset);
+    StormDoses d{};
+    const Time stop = onset + minutes_d(60.0 * horizon_h_);
+    // Back-to-back pieces at one place are taken as one (the event's time course is evaluated
+    // at the ends of the run only): the same dose as piece by piece (at()) to rounding.
+    Time run_from;
+    Time run_to;
+    const PerOrgan* run_at = nullptr;
+    auto take = [&](Time a, Time b, const std::string& location) {
+        if (b <= onset || a >= stop) {
+            return;
+        }
+        a = std::max(a, onset);
+        b = std::min(b, stop);
+        const PerOrgan& here = by_location_.at(location);
+        if (run_at == &here && run_to == a) {
+            run_to = b;
+            return;
+        }
+        if (run_at) {
+            add_piece(d, run_from, run_to, *run_at, onset);
+        }
+        run_from = a;
+        run_to = b;
+        run_at = &here;
+    };
+    if (respond_) {
+        // Only the spans that meet [onset, stop) or the storm window (up to the span holding the
+        // all-clear) shape the response's pieces in [onset, stop): the same pieces, in the same
+        // order, as over the whole timeline, in time independent of the timeline's length.
+        respond_each(overlapping(planned_[i], onset, std::max(stop, t.all_clear)),
+                     study_.scenario().storm, t,
+                     [&](Time a, Time b, const std::string& location, Piece, const TimelineSpan&) {
+                         take(a, b, location);
+                     });
+    } else {
+        for (const auto& s : overlapping(planned_[i], onset, stop)) {
+            take(s.start, s.end, s.location);
+        }
+    }
+    if (run_at) {
+        add_piece(d, run_from, run_to, *run_at, onset);
+    }
+    return d;
 }
 
 StormWhatIf StormContext::at(Time onset) const {
@@ -614,52 +693,156 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     }
     out.onsets = onsets.size();
     out.worst.resize(sc.crew.size());
-    std::vector<double> worst_ratio(sc.crew.size(), -1.0);
+    const std::vector<Time> order(onsets.begin(), onsets.end());
+    const std::size_t n_crew = sc.crew.size();
+    // Each outside activity's onsets, as a range of indices into `order`, taken in order of
+    // their first onset (so an onset meets only the activities around it).
+    std::vector<std::pair<std::size_t, std::size_t>> inside(outside_activities.size());
+    std::vector<std::size_t> by_first(outside_activities.size());
+    for (std::size_t k = 0; k < outside_activities.size(); ++k) {
+        const ActivitySpec& a = *outside_activities[k].first;
+        const auto index = [&](Time x) {
+            return static_cast<std::size_t>(std::lower_bound(order.begin(), order.end(), x) -
+                                            order.begin());
+        };
+        inside[k] = {index(a.start), index(a.end)};
+        by_first[k] = k;
+    }
+    std::stable_sort(by_first.begin(), by_first.end(), [&](std::size_t x, std::size_t y) {
+        return inside[x].first < inside[y].first;
+    });
+    // The onsets are cut into fixed chunks, swept by the threads in any order and merged in
+    // chunk order: the earliest onset wins a tie, as in one pass, whatever the thread count.
+    struct EvaBest {
+        double ratio = -1.0;
+        std::size_t onset = 0;
+        std::size_t crew = 0;
+        std::size_t organ = 0;
+    };
+    struct Partial {
+        std::vector<double> worst_ratio;
+        std::vector<std::size_t> worst_onset;
+        std::map<Time, double> profile;
+        std::vector<EvaBest> evas;
+    };
     const time_duration bin = boost::posix_time::hours(6);
-    std::map<Time, double> profile;
-    std::size_t done = 0;
-    std::vector<Time> worst_onset(sc.crew.size(), from);
-    std::vector<double> ratio(sc.crew.size());
-    std::vector<StormDoses> doses(sc.crew.size());
-    for (const Time& o : onsets) {
-        for (std::size_t i = 0; i < sc.crew.size(); ++i) {
-            ratio[i] = require_dose(ctx.worst_ratio_at(o, i, &doses[i]),
-                                    "storm sweep share of a 30-day limit");
-            if (ratio[i] > worst_ratio[i]) {
-                worst_ratio[i] = ratio[i];
-                worst_onset[i] = o;
+    const std::size_t chunk = 4096;
+    const std::size_t n_chunks = (order.size() + chunk - 1) / chunk;
+    std::vector<Partial> partial(n_chunks);
+    auto sweep_chunk = [&](std::size_t c) {
+        Partial& p = partial[c];
+        p.worst_ratio.assign(n_crew, -1.0);
+        p.worst_onset.assign(n_crew, 0);
+        p.evas.assign(outside_activities.size(), {});
+        const std::size_t begin = c * chunk;
+        const std::size_t end = std::min(order.size(), begin + chunk);
+        std::vector<std::size_t> active;
+        std::size_t next = 0; // into by_first
+        for (; next < by_first.size() && inside[by_first[next]].first <= begin; ++next) {
+            if (inside[by_first[next]].second > begin) {
+                active.push_back(by_first[next]);
             }
-            const Time b =
-                from + bin * static_cast<int>((o - from).total_seconds() / bin.total_seconds());
-            profile[b] = std::max(profile[b], ratio[i]);
         }
-        for (std::size_t k = 0; k < outside_activities.size(); ++k) {
-            const auto& [a, members] = outside_activities[k];
-            auto& e = out.evas[k];
-            if (o < a->start || o >= a->end) {
-                continue;
-            }
-            for (const std::size_t i : members) {
-                if (ratio[i] <= e.ratio) {
-                    continue;
+        std::vector<double> ratio(n_crew);
+        std::vector<StormDoses> doses(n_crew);
+        for (std::size_t x = begin; x < end; ++x) {
+            const Time o = order[x];
+            for (std::size_t i = 0; i < n_crew; ++i) {
+                const std::size_t j = ctx.twin(i);
+                doses[i] = j < i ? doses[j] : ctx.doses_at(o, i);
+                ratio[i] =
+                    require_dose(ctx.ratio_of(i, doses[i]), "storm sweep share of a 30-day limit");
+                if (ratio[i] > p.worst_ratio[i]) {
+                    p.worst_ratio[i] = ratio[i];
+                    p.worst_onset[i] = x;
                 }
-                e.ratio = ratio[i];
-                e.worst_onset = o;
-                e.crew = sc.crew[i].id;
-                std::size_t worst_k = 0;
-                for (std::size_t q = 1; q < ctx.organs().size(); ++q) {
-                    if (ctx.checked(i, q) &&
-                        (doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
-                            (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
-                        worst_k = q;
+                const Time b =
+                    from + bin * static_cast<int>((o - from).total_seconds() / bin.total_seconds());
+                auto& in_bin = p.profile[b];
+                in_bin = std::max(in_bin, ratio[i]);
+            }
+            for (; next < by_first.size() && inside[by_first[next]].first <= x; ++next) {
+                active.push_back(by_first[next]);
+            }
+            std::erase_if(active, [&](std::size_t k) { return inside[k].second <= x; });
+            for (const std::size_t k : active) {
+                EvaBest& e = p.evas[k];
+                for (const std::size_t i : outside_activities[k].second) {
+                    if (ratio[i] <= e.ratio) {
+                        continue;
                     }
+                    std::size_t worst_k = 0;
+                    for (std::size_t q = 1; q < ctx.organs().size(); ++q) {
+                        if (ctx.checked(i, q) &&
+                            (doses[i][q] + ctx.other(i, q)) / ctx.limit(q) >
+                                (doses[i][worst_k] + ctx.other(i, worst_k)) / ctx.limit(worst_k)) {
+                            worst_k = q;
+                        }
+                    }
+                    e = {ratio[i], x, i, worst_k};
                 }
-                e.organ = ctx.organs()[worst_k];
             }
         }
-        ++done;
-        if (progress && done % 64 == 0) {
-            progress(static_cast<double>(done) / static_cast<double>(onsets.size()));
+    };
+    std::atomic<std::size_t> next_chunk{0};
+    std::atomic<std::size_t> chunks_done{0};
+    const std::size_t threads = std::clamp<std::size_t>(ctx.study().threads(), 1, n_chunks);
+    std::vector<std::exception_ptr> failures(threads);
+    auto worker = [&](std::size_t t) {
+        try {
+            for (std::size_t c = next_chunk++; c < n_chunks; c = next_chunk++) {
+                sweep_chunk(c);
+                const std::size_t done = ++chunks_done;
+                if (t == 0 && progress) {
+                    progress(static_cast<double>(done) / static_cast<double>(n_chunks));
+                }
+            }
+        } catch (...) {
+            failures[t] = std::current_exception();
+            next_chunk = n_chunks; // the others stop at their next chunk
+        }
+    };
+    {
+        std::vector<std::thread> pool;
+        try {
+            for (std::size_t t = 1; t < threads; ++t) {
+                pool.emplace_back(worker, t);
+            }
+        } catch (const std::system_error&) {
+            // No more threads to be had: the ones started, and this one, take every chunk.
+        }
+        worker(0);
+        for (auto& th : pool) {
+            th.join();
+        }
+    }
+    for (const auto& f : failures) {
+        if (f) {
+            std::rethrow_exception(f);
+        }
+    }
+    std::vector<double> worst_ratio(n_crew, -1.0);
+    std::vector<Time> worst_onset(n_crew, from);
+    std::map<Time, double> profile;
+    for (const Partial& p : partial) {
+        for (std::size_t i = 0; i < n_crew; ++i) {
+            if (p.worst_ratio[i] > worst_ratio[i]) {
+                worst_ratio[i] = p.worst_ratio[i];
+                worst_onset[i] = order[p.worst_onset[i]];
+            }
+        }
+        for (const auto& [b, r] : p.profile) {
+            auto& in_bin = profile[b];
+            in_bin = std::max(in_bin, r);
+        }
+        for (std::size_t k = 0; k < out.evas.size(); ++k) {
+            const EvaBest& e = p.evas[k];
+            if (e.ratio > out.evas[k].ratio) {
+                out.evas[k].ratio = e.ratio;
+                out.evas[k].worst_onset = order[e.onset];
+                out.evas[k].crew = sc.crew[e.crew].id;
+                out.evas[k].organ = ctx.organs()[e.organ];
+            }
         }
     }
     out.profile.assign(profile.begin(), profile.end());

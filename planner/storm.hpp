@@ -8,6 +8,7 @@
 #include <array>
 #include <functional>
 #include <optional>
+#include <span>
 #include <string>
 #include <unordered_map>
 #include <vector>
@@ -82,6 +83,15 @@ class StormContext {
     /// limit over the organs at `onset`; the same numbers as at(onset), fewer of them.
     [[nodiscard]] double worst_ratio_at(Time onset, std::size_t crew,
                                         StormDoses* with_mGyEq = nullptr) const;
+    /// The event's dose with the response (uncertainty factor applied, mGy-Eq) per organ of
+    /// organs() for crew member `crew` at `onset`, from the part of the timeline the event can
+    /// reach: time independent of the timeline's length.
+    [[nodiscard]] StormDoses doses_at(Time onset, std::size_t crew) const;
+    /// Crew member `crew`'s highest (event dose `d` + other) / limit over the checked organs.
+    [[nodiscard]] double ratio_of(std::size_t crew, const StormDoses& d) const;
+    /// The first crew member whose planned timeline is the same as `crew`'s (the same spans,
+    /// places and activities): their event doses are the same at every onset.
+    [[nodiscard]] std::size_t twin(std::size_t crew) const { return twin_.at(crew); }
 
     [[nodiscard]] const Study& study() const noexcept { return study_; }
     [[nodiscard]] const EventSpec& event() const noexcept { return *event_; }
@@ -107,7 +117,7 @@ class StormContext {
 
   private:
     /// The event's dose (uncertainty factor applied, mGy-Eq) per organ of organs() over `spans`.
-    [[nodiscard]] StormDoses doses_over(const std::vector<TimelineSpan>& spans, Time onset) const;
+    [[nodiscard]] StormDoses doses_over(std::span<const TimelineSpan> spans, Time onset) const;
     StormTimes times_at(Time onset) const;
     /// Adds the event's dose between `from` and `to` at `location` to `d`.
     void add_piece(StormDoses& d, Time from, Time to, const std::string& location,
@@ -120,7 +130,9 @@ class StormContext {
         /// reused: with a fixed arrival every organ has one group), or this organ's own index.
         std::size_t same_timing_as = 0;
     };
-    std::unordered_map<std::string, std::array<Cached, kMaxStormOrgans>> by_location_;
+    using PerOrgan = std::array<Cached, kMaxStormOrgans>;
+    void add_piece(StormDoses& d, Time from, Time to, const PerOrgan& at, Time onset) const;
+    std::unordered_map<std::string, PerOrgan> by_location_;
     std::vector<std::string> organs_;
     std::vector<std::array<bool, kMaxStormOrgans>> checked_; ///< per crew member, per organ
     std::string unchecked_note_;
@@ -128,6 +140,7 @@ class StormContext {
     const EventSpec* event_ = nullptr;
     bool respond_ = true;
     std::vector<std::vector<TimelineSpan>> planned_; ///< per crew member
+    std::vector<std::size_t> twin_;                  ///< per crew member, see twin()
     std::vector<StormDoses> other_by_index_;         ///< the same per organs() index
     StormDoses limit_by_index_{};                    ///< 30-day limits per organs() index
     double horizon_h_ = 0.0;         ///< after the onset, beyond which the event gives nothing

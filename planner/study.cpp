@@ -62,6 +62,7 @@ Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.miss
         wanted = static_cast<std::size_t>(std::max(1L, std::strtol(env, nullptr, 10)));
     }
     wanted = std::max<std::size_t>(wanted, 1);
+    threads_ = wanted;
     for (const auto& loc : sc_.locations) {
         LocationGeometry where;
         where.point = loc.point_m;
@@ -377,8 +378,10 @@ double ArrivalGroups::cumulative(double tau) const {
     const double dt = tau - delay_h[k];
     // sum_g share_g [d (1 - e^{-t_g/d}) - c (1 - e^{-t_g/c})] / (d - c), t_g = tau - d_g, with
     // d - c = d^2 / (rise + d) as in EventProfile::fraction_by.
-    const double part = d * (sum_share_[k] - std::exp(-dt / d) * sum_decay_[k]) -
-                        c * (sum_share_[k] - std::exp(-dt / c) * sum_fast_[k]);
+    // Past 40 of the fast time constants its term is below e^-40 of the shares: left out.
+    const double fast = dt < 40.0 * c ? std::exp(-dt / c) * sum_fast_[k] : 0.0;
+    const double part =
+        d * (sum_share_[k] - std::exp(-dt / d) * sum_decay_[k]) - c * (sum_share_[k] - fast);
     return std::clamp(part / (d * d / (rise_h_ + d)), 0.0, sum_share_[k]);
 }
 

@@ -120,6 +120,9 @@ class Study {
     [[nodiscard]] const LocationGeometry& geometry(const std::string& id) const;
     [[nodiscard]] const std::vector<habitats::Vector3>& directions(const std::string& id) const;
     [[nodiscard]] std::size_t direction_count() const noexcept { return directions_; }
+    /// The threads a run may use: the hardware's, or CREWDOSE_THREADS (at least 1). Results never
+    /// depend on it.
+    [[nodiscard]] std::size_t threads() const noexcept { return threads_; }
     /// The body model of a location, on its SPE directions.
     [[nodiscard]] const BodyDepths& body(const std::string& location) const;
     /// True when the location's body model gives `organ` (ledger_organs(): the quick model
@@ -151,6 +154,7 @@ class Study {
     std::map<std::string, BodyDepths> bodies_;
     std::map<std::string, BodyDepths> gcr_bodies_;
     std::size_t directions_ = 0;
+    std::size_t threads_ = 1;
     std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
     std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>
         spe_factors_;

@@ -10,6 +10,7 @@
 #include <fmt/format.h>
 
 #include <cmath>
+#include <cstdlib>
 
 using namespace crewdose;
 using namespace crewdose::planner;
@@ -531,4 +532,99 @@ TEST_CASE("storm: a refuge counts among a crew member's places only with a respo
     const StormContext without(study, "spe", false);
     CHECK(without.organs() == std::vector<std::string>{"bfo", "lens", "skin", "heart", "brain"});
     CHECK(without.unchecked_note().empty());
+}
+
+TEST_CASE("storm: the sweep's fast path, twins and threads agree with the full what-if",
+          "[storm]") {
+    // Crew members a and b share the timeline of kTimeline (b is a's twin: its doses are taken
+    // from a's); c walks out on another day. The sweep's windowed fast path is checked against
+    // the full what-if over the whole timeline (at()) at every regular onset, and the sweep does
+    // not depend on the thread count.
+    std::string text = plan(kTimeline, kPolicy);
+    const std::string crew_a = "[[crew]]\nid = \"a\"\n";
+    text.replace(text.find(crew_a), crew_a.size(),
+                 crew_a + "\n[[crew]]\nid = \"b\"\n\n[[crew]]\nid = \"c\"\n");
+    for (std::size_t at = text.find("crew = \"a\""); at != std::string::npos;
+         at = text.find("crew = \"a\"", at + 1)) {
+        text.replace(at, 10, "crew = [\"a\", \"b\"]");
+    }
+    text += R"(
+[[activity]]
+crew = "c"
+kind = "stay"
+location = "cabin"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-05T02:00:00Z
+
+[[activity]]
+crew = "c"
+kind = "eva"
+location = "outside"
+start = 2032-01-05T02:00:00Z
+end = 2032-01-05T06:00:00Z
+
+[[activity]]
+crew = "c"
+kind = "stay"
+location = "cabin"
+start = 2032-01-05T06:00:00Z
+end = 2032-01-11T00:00:00Z
+)";
+    const Time from = parse_command_time("2032-01-02T00:00:00Z", "--from");
+    const Time to = parse_command_time("2032-01-08T00:00:00Z", "--to");
+    // One-minute onsets: several of the sweep's chunks, merged in order.
+    const auto step = boost::posix_time::minutes(1);
+    const auto coarse = boost::posix_time::minutes(30);
+    const Time a_eva = parse_command_time("2032-01-03T08:00:00Z", "eva");
+    std::vector<StormSweep> sweeps;
+    for (const char* threads : {"1", "3"}) {
+        REQUIRE(setenv("CREWDOSE_THREADS", threads, 1) == 0);
+        const Study study(parse_scenario(text, "twins.toml"));
+        const StormContext ctx(study, "spe", true);
+        CHECK(ctx.twin(0) == 0);
+        CHECK(ctx.twin(1) == 0);
+        CHECK(ctx.twin(2) == 2);
+        sweeps.push_back(sweep_storm(ctx, from, to, step));
+        if (sweeps.size() > 1) {
+            continue;
+        }
+        const StormSweep& s = sweeps.back();
+        REQUIRE(s.worst.size() == 3);
+        REQUIRE(s.evas.size() == 2);
+        CHECK(s.onsets > 8640);
+        for (Time o = from; o <= to; o += coarse) {
+            const StormWhatIf full = ctx.at(o);
+            for (std::size_t i = 0; i < 3; ++i) {
+                StormDoses d{};
+                CHECK(ctx.worst_ratio_at(o, i, &d) ==
+                      Approx(full.crew[i].worst_ratio()).epsilon(1e-12));
+                CHECK(full.crew[i].worst_ratio() <= s.worst[i].second.worst_ratio() + 1e-12);
+            }
+            // Each EVA's worst is at least that of every regular onset inside it.
+            for (const auto& e : s.evas) {
+                if (o >= e.start && o < e.end) {
+                    const std::size_t who = e.start == a_eva ? 0 : 2;
+                    CHECK(full.crew[who].worst_ratio() <= e.ratio + 1e-12);
+                }
+            }
+        }
+        // The twins' worst onsets and ratios are the same; c's EVA is not theirs.
+        CHECK(s.worst[0].first == s.worst[1].first);
+        CHECK(s.worst[0].second.worst_ratio() == s.worst[1].second.worst_ratio());
+        CHECK(s.worst[2].second.worst_ratio() != s.worst[0].second.worst_ratio());
+    }
+    REQUIRE(unsetenv("CREWDOSE_THREADS") == 0);
+    REQUIRE(sweeps.size() == 2);
+    CHECK(sweeps[0].onsets == sweeps[1].onsets);
+    CHECK(sweeps[0].profile == sweeps[1].profile);
+    for (std::size_t i = 0; i < 3; ++i) {
+        CHECK(sweeps[0].worst[i].first == sweeps[1].worst[i].first);
+        CHECK(sweeps[0].worst[i].second.worst_ratio() == sweeps[1].worst[i].second.worst_ratio());
+    }
+    for (std::size_t k = 0; k < 2; ++k) {
+        CHECK(sweeps[0].evas[k].ratio == sweeps[1].evas[k].ratio);
+        CHECK(sweeps[0].evas[k].worst_onset == sweeps[1].evas[k].worst_onset);
+        CHECK(sweeps[0].evas[k].crew == sweeps[1].evas[k].crew);
+        CHECK(sweeps[0].evas[k].organ == sweeps[1].evas[k].organ);
+    }
 }
