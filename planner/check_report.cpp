@@ -411,10 +411,16 @@ std::string format_validation(const Scenario& sc) {
     out +=
         fmt::format("  mission: {} ({}, {} to {})\n", sc.mission.name, to_string(sc.mission.site),
                     format_time(sc.mission.start), format_time(sc.mission.end));
-    out += fmt::format("  {} user materials, {} solids, {} locations, {} events, {} crew, {} "
-                       "activities, {} recorded doses\n",
-                       sc.materials.size(), sc.solids.size(), sc.locations.size(), sc.events.size(),
-                       sc.crew.size(), sc.activities.size(), sc.recorded.size());
+    const auto count = [](std::size_t n, const char* one, const char* many) {
+        return fmt::format("{} {}", n, n == 1 ? one : many);
+    };
+    out += fmt::format("  {}, {}, {}, {}, {} crew, {}, {}\n",
+                       count(sc.materials.size(), "user material", "user materials"),
+                       count(sc.solids.size(), "solid", "solids"),
+                       count(sc.locations.size(), "location", "locations"),
+                       count(sc.events.size(), "event", "events"), sc.crew.size(),
+                       count(sc.activities.size(), "activity", "activities"),
+                       count(sc.recorded.size(), "recorded dose", "recorded doses"));
     for (const auto& l : sc.locations) {
         out += fmt::format(
             "  location {}: {}; body {}\n", l.id,

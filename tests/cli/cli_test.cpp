@@ -517,6 +517,7 @@ TEST_CASE("validate lists what the scenario defines", "[cli][check]") {
     CHECK(r.exit_code == 0);
     CHECK(r.out.find("valid") != std::string::npos);
     CHECK(r.out.find("4 crew, 31 activities") != std::string::npos);
+    CHECK(r.out.find(" 1 event, ") != std::string::npos); // a count of one in the singular
     const Run missing = run("validate /nonexistent/plan.toml");
     CHECK(missing.exit_code == 2);
     CHECK(missing.out.find("/nonexistent/plan.toml: file: does not exist") != std::string::npos);
