@@ -51,6 +51,57 @@ void solid_pieces(const Solid& solid, const Ray& ray, std::vector<Piece>& out) {
 
 } // namespace
 
+std::optional<Point3> overlap_point(const Solid& a, const Solid& b, int grid) {
+    // Unbounded shapes are cut at 20 km: every coordinate of a scenario lies within 10 km.
+    constexpr double kFar_m = 2.0e4;
+    const Bounds ba = bounds(a.shape, kFar_m);
+    const Bounds bb = bounds(b.shape, kFar_m);
+    const double lo[3] = {std::max(ba.lo.x, bb.lo.x), std::max(ba.lo.y, bb.lo.y),
+                          std::max(ba.lo.z, bb.lo.z)};
+    const double hi[3] = {std::min(ba.hi.x, bb.hi.x), std::min(ba.hi.y, bb.hi.y),
+                          std::min(ba.hi.z, bb.hi.z)};
+    for (int i = 0; i < 3; ++i) {
+        if (hi[i] - lo[i] <= kTolerance_m) {
+            return std::nullopt; // the bounds at most touch
+        }
+    }
+    std::vector<Piece> pa;
+    std::vector<Piece> pb;
+    for (int axis = 0; axis < 3; ++axis) {
+        const int i = (axis + 1) % 3;
+        const int j = (axis + 2) % 3;
+        double dir[3] = {0.0, 0.0, 0.0};
+        dir[axis] = 1.0;
+        for (int gi = 0; gi < grid; ++gi) {
+            for (int gj = 0; gj < grid; ++gj) {
+                double o[3];
+                o[axis] = lo[axis] - 1.0;
+                o[i] = lo[i] + (gi + 0.5) / grid * (hi[i] - lo[i]);
+                o[j] = lo[j] + (gj + 0.5) / grid * (hi[j] - lo[j]);
+                const Ray ray{Point3{o[0], o[1], o[2]}, Vector3{dir[0], dir[1], dir[2]}};
+                pa.clear();
+                pb.clear();
+                solid_pieces(a, ray, pa);
+                if (pa.empty()) {
+                    continue;
+                }
+                solid_pieces(b, ray, pb);
+                for (const auto& p : pa) {
+                    for (const auto& q : pb) {
+                        // Within the shared box (unbounded pieces are infinite).
+                        const double t0 = std::max({p.t0, q.t0, 1.0});
+                        const double t1 = std::min({p.t1, q.t1, 1.0 + hi[axis] - lo[axis]});
+                        if (t1 - t0 > kTolerance_m) {
+                            return ray(0.5 * (t0 + t1));
+                        }
+                    }
+                }
+            }
+        }
+    }
+    return std::nullopt;
+}
+
 Scene::Scene(std::vector<Solid> solids) : solids_(std::move(solids)) {}
 
 std::vector<PathSegment> Scene::trace(Point3 point, Vector3 direction) const {

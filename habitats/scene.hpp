@@ -46,6 +46,14 @@ class GeometryError : public std::runtime_error {
     std::string solid_id_;
 };
 
+/// A point where the material of two solids overlaps by more than the geometric tolerance, or
+/// nullopt. The test is the scene's own rule (the same pieces as `Scene::trace`) applied on a
+/// grid of `grid` x `grid` parallel rays along each of the three axes through the box that both
+/// solids' bounds share, so it finds an overlap wherever it lies, not only where a ray from a
+/// dose point crosses it; an overlap thinner than the grid spacing (1/`grid` of the shared box)
+/// across two axes at once can escape it.
+[[nodiscard]] std::optional<Point3> overlap_point(const Solid& a, const Solid& b, int grid = 64);
+
 /// A set of solids. Rule for overlaps: solids must not overlap; a ray that finds material of
 /// two solids at the same place throws GeometryError naming both (touching faces are fine).
 class Scene {

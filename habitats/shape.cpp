@@ -147,6 +147,59 @@ std::optional<Shape> inset(const Shape& shape, double d) {
         shape);
 }
 
+Bounds bounds(const Shape& shape, double far_m) {
+    const auto around = [](Point3 c, double r) {
+        return Bounds{{c.x - r, c.y - r, c.z - r}, {c.x + r, c.y + r, c.z + r}};
+    };
+    const Bounds everywhere{{-far_m, -far_m, -far_m}, {far_m, far_m, far_m}};
+    return std::visit(
+        Overloaded{
+            [&](const Sphere& s) { return around(s.center, s.radius); },
+            [&](const Cylinder& c) {
+                // Each end disc reaches r sqrt(1 - a_i^2) from its centre along axis i.
+                const Point3 top = c.base + c.height * c.axis;
+                const Vector3 e{c.radius * std::sqrt(std::max(0.0, 1.0 - c.axis.x * c.axis.x)),
+                                c.radius * std::sqrt(std::max(0.0, 1.0 - c.axis.y * c.axis.y)),
+                                c.radius * std::sqrt(std::max(0.0, 1.0 - c.axis.z * c.axis.z))};
+                return Bounds{{std::min(c.base.x, top.x) - e.x, std::min(c.base.y, top.y) - e.y,
+                               std::min(c.base.z, top.z) - e.z},
+                              {std::max(c.base.x, top.x) + e.x, std::max(c.base.y, top.y) + e.y,
+                               std::max(c.base.z, top.z) + e.z}};
+            },
+            [&](const Box& b) {
+                const auto reach = [&](double u, double v, double w) {
+                    return std::abs(b.half_extent.x * u) + std::abs(b.half_extent.y * v) +
+                           std::abs(b.half_extent.z * w);
+                };
+                const Vector3 e{reach(b.u.x, b.v.x, b.w.x), reach(b.u.y, b.v.y, b.w.y),
+                                reach(b.u.z, b.v.z, b.w.z)};
+                return Bounds{{b.center.x - e.x, b.center.y - e.y, b.center.z - e.z},
+                              {b.center.x + e.x, b.center.y + e.y, b.center.z + e.z}};
+            },
+            [&](const Dome& d) { return around(d.center, d.radius); },
+            [&](const Slab& s) {
+                // Bounded only along an axis the slab is perpendicular to.
+                Bounds b = everywhere;
+                const Point3 inner = s.outer_point + (-s.thickness) * s.normal;
+                const double n[3] = {s.normal.x, s.normal.y, s.normal.z};
+                double* lo[3] = {&b.lo.x, &b.lo.y, &b.lo.z};
+                double* hi[3] = {&b.hi.x, &b.hi.y, &b.hi.z};
+                const double p0[3] = {s.outer_point.x, s.outer_point.y, s.outer_point.z};
+                const double p1[3] = {inner.x, inner.y, inner.z};
+                for (int i = 0; i < 3; ++i) {
+                    if (std::abs(n[i]) > 1.0 - 1e-12) {
+                        *lo[i] = std::min(p0[i], p1[i]);
+                        *hi[i] = std::max(p0[i], p1[i]);
+                    }
+                }
+                return b;
+            },
+            [&](const HalfSpace&) {
+                return everywhere;
+            }},
+        shape);
+}
+
 bool contains(const Shape& shape, Point3 p) {
     // A zero-length probe: the chord of any ray from p covers t = 0 exactly when p is inside.
     const auto c = chord(shape, Ray{p, Vector3{0.0, 0.0, 1.0}});

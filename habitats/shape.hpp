@@ -73,6 +73,15 @@ struct Chord {
 /// half-space.
 [[nodiscard]] std::optional<double> volume_m3(const Shape& shape);
 
+/// Axis-aligned box holding a shape. Unbounded shapes (slab, half-space) reach to +-`far_m`
+/// along the axes they are unbounded on (a slab is bounded only along an axis it is
+/// perpendicular to).
+struct Bounds {
+    Point3 lo;
+    Point3 hi;
+};
+[[nodiscard]] Bounds bounds(const Shape& shape, double far_m);
+
 /// True if the point lies inside the shape (boundary included).
 [[nodiscard]] bool contains(const Shape& shape, Point3 p);
 

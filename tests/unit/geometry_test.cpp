@@ -172,3 +172,40 @@ TEST_CASE("Mars atmosphere: vertical column P/g, sec(theta) law, finite at the h
     CHECK(horizon ==
           Approx(mars.vertical_column_g_cm2 * std::sqrt(kPi * 3389.5 / (2 * 11.1))).epsilon(1e-2));
 }
+
+TEST_CASE("solids are tested against each other for overlaps, wherever the overlap lies",
+          "[geometry]") {
+    // By construction: two balls of radius 1 overlap exactly when their centres are closer
+    // than 2 (a lens 0.1 m thick at 1.9 m, whatever a dose point sees of it).
+    const SolidLayer water{"water", 0, 1.0};
+    const auto ball = [&](const char* id, double x) {
+        return Solid{id, Sphere{{x, 0, 0}, 1.0}, {}, water};
+    };
+    const auto lens = overlap_point(ball("a", 0.0), ball("b", 1.9));
+    REQUIRE(lens);
+    CHECK(lens->x > 0.9 - 1e-9);
+    CHECK(lens->x < 1.0 + 1e-9);
+    CHECK_FALSE(overlap_point(ball("a", 0.0), ball("b", 2.1)));
+    CHECK_FALSE(overlap_point(ball("a", 0.0), ball("b", 2.0))); // touching is not overlapping
+    // Boxes sharing a face do not overlap; pushed 1 mm into each other they do.
+    const auto block = [&](const char* id, double x) {
+        return Solid{id, Box{{x, 0, 0}, {0.5, 0.5, 0.5}}, {}, water};
+    };
+    CHECK_FALSE(overlap_point(block("a", 0.0), block("b", 1.0)));
+    CHECK(overlap_point(block("a", 0.0), block("b", 0.999)));
+    // A tank in the room of a walled hut is not an overlap; one through its wall is.
+    const Solid hut{"hut", Sphere{{0, 0, 0}, 3.0}, {{"aluminium", 0.05, 2.699}}, {}};
+    const Solid inside{"tank", Box{{1, 0, 0}, {0.5, 0.5, 0.5}}, {}, water};
+    const Solid through{"tank", Box{{2.9, 0, 0}, {0.5, 0.5, 0.5}}, {}, water};
+    CHECK_FALSE(overlap_point(hut, inside));
+    const auto wall = overlap_point(hut, through);
+    REQUIRE(wall);
+    CHECK(length(*wall - Point3{0, 0, 0}) > 2.95 - 1e-6);
+    CHECK(length(*wall - Point3{0, 0, 0}) < 3.0 + 1e-6);
+    // A slab (unbounded sideways) crossing a cylinder far from the origin.
+    const Solid floor{"floor", Slab{{0, 0, 0}, {0, 0, 1}, 0.2}, {}, water};
+    const Solid post{"post", Cylinder{{500, 40, -1}, {0, 0, 1}, 3.0, 0.1}, {}, water};
+    const Solid above{"post", Cylinder{{500, 40, 0.0}, {0, 0, 1}, 3.0, 0.1}, {}, water};
+    CHECK(overlap_point(floor, post));
+    CHECK_FALSE(overlap_point(floor, above));
+}
