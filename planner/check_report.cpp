@@ -425,13 +425,18 @@ std::string format_validation(const Scenario& sc) {
         out += fmt::format(
             "  location {}: {}; body {}\n", l.id,
             l.shielding_table_file ? "imported table " + *l.shielding_table_file
-                                   : fmt::format("{} solids", l.solids.size()),
+                                   : count(l.solids.size(), "solid", "solids"),
             l.body == BodyModelKind::phantom
                 ? (l.posture == habitats::Posture::lying ? "phantom (lying)" : "phantom (standing)")
                 : "quick");
     }
     for (const auto& c : sc.crew) {
         out += fmt::format("  crew {}: {}\n", c.id, c.name);
+    }
+    for (const auto& g : timeline_gaps(sc)) {
+        out += fmt::format("  gap: crew {} has no activity from {} to {} (after the activity at "
+                           "line {}); check --allow-gaps charges it at that activity's location\n",
+                           g.crew, format_time(g.from), format_time(g.to), g.where.line);
     }
     return out;
 }

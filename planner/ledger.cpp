@@ -169,7 +169,9 @@ std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew
         const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
         if (next > cursor) {
             if (!allow_gaps) {
-                throw InputError(crew.where, "activity",
+                // The loader's own check (refuse_timeline_gaps) names the same activity.
+                const auto& next_to = i > 0 ? spans[i - 1] : spans[0];
+                throw InputError(next_to.activity->where, "activity",
                                  fmt::format("crew member '{}' has no activity from {} to {}; "
                                              "cover the whole mission or run with "
                                              "--allow-gaps",

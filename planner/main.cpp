@@ -198,8 +198,15 @@ int main(int argc, char** argv) {
                     "accept gaps in a crew member's timeline; each gap is charged at the "
                     "location of the activity before it and listed in the report");
     auto* validate = app.add_subcommand(
-        "validate", "Parse and check a scenario file only, and list what it defines.");
+        "validate", "Parse and check a scenario file, without computing any dose, and list what "
+                    "it defines. It accepts exactly the files 'check' accepts: every section, "
+                    "key and reference, the solids against overlaps, each dose point against "
+                    "the walls, shielding tables read, and each crew member's timeline covering "
+                    "the mission (gaps refused unless --allow-gaps, as in 'check').\nExit 0: "
+                    "valid; 2: not valid (the message names the file, line and key).");
     validate->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+    validate->add_flag("--allow-gaps", allow_gaps,
+                       "accept gaps in a crew member's timeline, as 'check --allow-gaps' does");
 
     std::string location_id;
     std::string event_id;
@@ -213,7 +220,11 @@ int main(int argc, char** argv) {
     shielding->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
     shielding->add_option("--location,-l", location_id, "location id")->required();
     shielding->add_option("--event,-e", event_id, "event id: also show its organ doses there");
-    shielding->add_option("--format,-f", format, "text or json")->capture_default_str();
+    shielding
+        ->add_option("--format,-f", format,
+                     "text, json or csv (one row per organ; the location's figures on every "
+                     "row)")
+        ->capture_default_str();
 
     std::vector<std::string> shelter_materials;
     std::vector<std::string> shelter_targets;
@@ -409,9 +420,17 @@ int main(int argc, char** argv) {
             write_stdout(planner::format_storm_sweep(context, sweep, fmt_choice));
             return sweep.any_exceeded() ? 1 : 0;
         } else if (validate->parsed()) {
-            write_stdout(planner::format_validation(planner::load_scenario(scenario_path)));
+            const auto sc = planner::load_scenario(scenario_path);
+            if (!allow_gaps) {
+                planner::refuse_timeline_gaps(sc);
+            }
+            write_stdout(planner::format_validation(sc));
         } else if (check->parsed()) {
-            const planner::Study study(planner::load_scenario(scenario_path));
+            auto sc = planner::load_scenario(scenario_path);
+            if (!allow_gaps) {
+                planner::refuse_timeline_gaps(sc);
+            }
+            const planner::Study study(std::move(sc));
             std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
             for (const auto& loc : study.scenario().locations) {
                 if (loc.shielding_table_file) {

@@ -171,4 +171,46 @@ std::string to_string(ActivityKind kind) {
     return "?";
 }
 
+std::vector<TimelineGap> timeline_gaps(const Scenario& sc) {
+    std::vector<TimelineGap> gaps;
+    for (const auto& c : sc.crew) {
+        std::vector<const ActivitySpec*> mine;
+        for (const auto& a : sc.activities) {
+            if (std::find(a.crew.begin(), a.crew.end(), c.id) != a.crew.end()) {
+                mine.push_back(&a);
+            }
+        }
+        std::sort(mine.begin(), mine.end(),
+                  [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
+        Time cursor = sc.mission.start;
+        for (std::size_t i = 0; i <= mine.size(); ++i) {
+            const Time next = i < mine.size() ? mine[i]->start : sc.mission.end;
+            if (next > cursor && !mine.empty()) {
+                gaps.push_back({c.id, cursor, next, (i > 0 ? mine[i - 1] : mine[0])->where});
+            }
+            if (i < mine.size()) {
+                cursor = std::max(cursor, mine[i]->end);
+            }
+        }
+    }
+    return gaps;
+}
+
+void refuse_timeline_gaps(const Scenario& sc) {
+    const auto gaps = timeline_gaps(sc);
+    if (gaps.empty()) {
+        return;
+    }
+    const auto& g = gaps.front();
+    throw InputError(g.where, "activity",
+                     fmt::format("crew member '{}' has no activity from {} to {}{}; cover the "
+                                 "whole mission, or run with --allow-gaps to charge each gap at "
+                                 "the location of the activity before it",
+                                 g.crew, format_time(g.from), format_time(g.to),
+                                 gaps.size() > 1
+                                     ? fmt::format(" (and {} more gap{})", gaps.size() - 1,
+                                                   gaps.size() > 2 ? "s" : "")
+                                     : std::string()));
+}
+
 } // namespace crewdose::planner

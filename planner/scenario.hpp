@@ -227,6 +227,19 @@ struct Scenario {
                                                      const std::string& option) const;
 };
 
+/// A stretch of the mission that a crew member's activities leave uncovered.
+struct TimelineGap {
+    std::string crew;
+    Time from;
+    Time to;
+    SourceLocation where; ///< the activity before the gap (after it, for a gap at the start)
+};
+/// Every gap of every crew member's timeline, in crew order and then in time.
+[[nodiscard]] std::vector<TimelineGap> timeline_gaps(const Scenario& sc);
+/// InputError at the activity next to the first gap, unless the timelines have none. `check`
+/// and `validate` call it unless --allow-gaps.
+void refuse_timeline_gaps(const Scenario& sc);
+
 /// Planning-default limits (each labelled with its basis; never official).
 [[nodiscard]] std::vector<Limit> default_limits();
 

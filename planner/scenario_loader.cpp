@@ -812,6 +812,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         sc.crew.push_back(std::move(c));
     }
+    if (sc.crew.empty()) {
+        throw InputError({file, 0}, "crew",
+                         "the scenario has no [[crew]] entry; a plan needs at least one crew "
+                         "member, with activities covering the mission");
+    }
 
     // [[activity]]
     for (const auto* t : entries(root, "activity", file)) {
@@ -821,6 +826,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         ActivitySpec a;
         a.where = s.where();
         a.crew = s.strings("crew");
+        if (a.crew.empty()) {
+            s.fail("crew", "names no crew member; give a crew id or a list of ids");
+        }
         for (const auto& id : a.crew) {
             if (!crew_ids.count(id)) {
                 s.fail("crew", "unknown crew member '" + id + "'");
@@ -1004,6 +1012,12 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 mine.push_back(&a);
             }
         }
+        if (mine.empty()) {
+            throw InputError(c.where, "crew",
+                             fmt::format("crew member '{}' has no activities; add [[activity]] "
+                                         "entries that cover the mission",
+                                         c.id));
+        }
         std::sort(mine.begin(), mine.end(),
                   [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
         for (std::size_t i = 1; i < mine.size(); ++i) {
@@ -1017,7 +1031,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             }
         }
     }
-    const auto probe = habitats::fibonacci_directions(64);
+    // Solids a location lists together must not overlap anywhere (a test of the solids
+    // themselves, not of the rays from a dose point), and each dose point must lie outside
+    // every wall: traced along the very direction sets the study uses, so a file this accepts
+    // never fails on its geometry later.
+    std::set<std::pair<std::string, std::string>> pairs_checked;
     for (const auto& loc : sc.locations) {
         std::vector<habitats::Solid> around;
         for (const auto& s : sc.solids) {
@@ -1025,10 +1043,35 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 around.push_back(s);
             }
         }
+        for (std::size_t i = 0; i < around.size(); ++i) {
+            for (std::size_t j = i + 1; j < around.size(); ++j) {
+                if (!pairs_checked.insert({around[i].id, around[j].id}).second) {
+                    continue;
+                }
+                if (const auto p = habitats::overlap_point(around[i], around[j])) {
+                    throw InputError(
+                        sc.solid_lines.at(around[j].id), "solid",
+                        fmt::format("'{}' overlaps solid '{}' (line {}), for example at ({:.3g}, "
+                                    "{:.3g}, {:.3g}) m; solids that a location lists together "
+                                    "must not overlap (location '{}', line {})",
+                                    around[j].id, around[i].id,
+                                    sc.solid_lines.at(around[i].id).line, p->x, p->y, p->z, loc.id,
+                                    loc.where.line));
+                }
+            }
+        }
+        if (around.empty()) {
+            continue;
+        }
         const habitats::Scene scene(std::move(around));
+        const std::size_t spe_count = loc.body == BodyModelKind::phantom
+                                          ? sc.mission.phantom_directions
+                                          : sc.mission.directions;
         try {
-            for (const auto& d : probe) {
-                (void)scene.trace(loc.point_m, d);
+            for (const std::size_t n : {spe_count, sc.mission.gcr_directions}) {
+                for (const auto& d : habitats::fibonacci_directions(n)) {
+                    (void)scene.trace(loc.point_m, d);
+                }
             }
         } catch (const habitats::GeometryError& e) {
             throw InputError(loc.point_where, "location.point_m", e.what());

@@ -193,7 +193,8 @@ TEST_CASE("timeline gaps are errors unless allowed, then charged and listed", "[
         (void)build_ledger(study);
         FAIL("expected a gap error");
     } catch (const InputError& e) {
-        CHECK(std::string(e.what()).find("hand.toml:22: activity: crew member 'a' has no activity "
+        // The error names the activity before the gap (line 26), not the crew member's line.
+        CHECK(std::string(e.what()).find("hand.toml:26: activity: crew member 'a' has no activity "
                                          "from 2032-01-10T05:00Z to 2032-01-11T05:00Z") !=
               std::string::npos);
     }
