@@ -152,6 +152,38 @@ std::string format_shielding_report(const Study& study, const std::string& locat
         j["cautions"] = caution_text();
         return dump_checked(j);
     }
+    if (format == OutputFormat::csv) {
+        // One row per organ; the location's own figures repeat on every row so that each row
+        // stands alone. Doses per day at the mission's starting phi; the event's whole dose.
+        std::string out =
+            "location,body_model,directions,blocked_by_ground_share,external_mean_g_cm2,"
+            "external_p05_g_cm2,external_p50_g_cm2,external_p95_g_cm2,organ,mean_tissue_g_cm2,"
+            "total_p05_g_cm2,total_p50_g_cm2,total_p95_g_cm2,gcr_phi_MV,"
+            "gcr_dose_equivalent_with_reactions_mSv_per_day,"
+            "gcr_dose_equivalent_without_reactions_mSv_per_day,event,event_absorbed_mGy,"
+            "event_dose_equivalent_mSv,event_rbe_weighted_mGyEq\n";
+        for (std::size_t o = 0; o < body.organs.size(); ++o) {
+            const std::string& organ = body.organs[o];
+            const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
+            out += fmt::format(
+                "{},{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{},{:.10g},{:.10g},{:.10g},"
+                "{:.10g},{:.10g},{:.10g},{:.10g}",
+                location, body.model, dirs.size(), blocked_share, mean, percentile(external, 0.05),
+                percentile(external, 0.5), percentile(external, 0.95), organ, mean_tissue[o],
+                weighted_percentile(totals[o], 0.05), weighted_percentile(totals[o], 0.5),
+                weighted_percentile(totals[o], 0.95), sc.mission.gcr_phi_MV,
+                1e3 * g.with_removal.dose_equivalent_Sv,
+                1e3 * g.without_removal.dose_equivalent_Sv);
+            if (ev) {
+                const auto d = study.event_dose(location, organ, *ev);
+                out += fmt::format(",{},{:.10g},{:.10g},{:.10g}\n", ev->id, 1e3 * d.absorbed_Gy,
+                                   1e3 * d.dose_equivalent_Sv, 1e3 * d.rbe_weighted_GyEq);
+            } else {
+                out += ",,,,\n";
+            }
+        }
+        return out;
+    }
     std::string out =
         fmt::format("Shielding at {} ({}), {} directions\n", location, sc.file, dirs.size());
     out += fmt::format(

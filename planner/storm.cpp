@@ -1041,7 +1041,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             {"cautions", caution_text()},       {"event", s.event_id},
             {"from", format_time(s.from)},      {"to", format_time(s.to)},
             {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
-            {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()}};
+            {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
+            {"response", ctx.responds()}};
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
             cj["worst_onset"] = format_time(onset);
@@ -1073,17 +1074,20 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         }
         return out;
     }
+    const bool responds = ctx.responds();
     std::string out = fmt::format(
-        "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} policy "
+        "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} {}"
         "breakpoints\nscenario: {}\n\n",
         s.event_id, format_time(s.from), format_time(s.to), s.step.total_seconds() / 60,
         s.onsets -
             static_cast<std::size_t>((s.to - s.from).total_seconds() / s.step.total_seconds()) - 1,
-        sc.file);
+        responds ? "policy " : "timeline ", sc.file);
     out += caution_text() + "\n";
     out += wrap(model_note(ctx), 96);
-    out += wrap(policy_text(sc.storm), 96) + "\n";
-    out += "Worst onset per crew member (30-day dose with the response, mGy-Eq):\n";
+    out += responds ? wrap(policy_text(sc.storm), 96) + "\n"
+                    : "No response (--no-response): the crew keep to the planned timeline.\n\n";
+    out += fmt::format("Worst onset per crew member (30-day dose {}, mGy-Eq):\n",
+                       responds ? "with the response" : "without a response");
     for (const auto& [onset, c] : s.worst) {
         const StormOrgan* worst = nullptr;
         for (const auto& o : c.organs) {
@@ -1103,8 +1107,10 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                                 worst->exceeded() ? "  EXCEEDED" : ""),
                     100, "      ");
     }
-    out += "\n" + wrap("Go/no-go per EVA and rover drive (the design event starting at the worst "
-                       "moment of it, with the planned response):",
+    out += "\n" + wrap(fmt::format("Go/no-go per EVA and rover drive (the design event starting at "
+                                   "the worst moment of it, {}):",
+                                   responds ? "with the planned response"
+                                            : "the crew keeping to the planned timeline"),
                        100);
     for (const auto& e : s.evas) {
         if (!e.swept()) {

@@ -94,6 +94,8 @@ class StormContext {
     [[nodiscard]] std::size_t twin(std::size_t crew) const { return twin_.at(crew); }
 
     [[nodiscard]] const Study& study() const noexcept { return study_; }
+    /// True when the crew follow the [storm_response] policy; false under --no-response.
+    [[nodiscard]] bool responds() const noexcept { return respond_; }
     [[nodiscard]] const EventSpec& event() const noexcept { return *event_; }
     [[nodiscard]] const std::vector<TimelineSpan>& planned(std::size_t crew) const {
         return planned_.at(crew);

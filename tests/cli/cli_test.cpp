@@ -680,3 +680,67 @@ TEST_CASE("check: the same numbers, bit for bit, whatever the thread count", "[c
     CHECK(one.out == two.out);
     CHECK(one.out == three.out);
 }
+
+TEST_CASE("shielding: csv is a table of the same numbers as the json", "[cli][check]") {
+    // Regression: --format csv used to print the text report and exit 0.
+    const std::string base = "shielding " + demo() + " --location eva-site --event design-spe";
+    const Run c = run(base + " --format csv");
+    const Run j = run(base + " --format json");
+    REQUIRE(c.exit_code == 0);
+    REQUIRE(j.exit_code == 0);
+    const auto doc = nlohmann::json::parse(j.out);
+    std::vector<std::string> lines;
+    std::size_t at = 0;
+    while (at < c.out.size()) {
+        const auto nl = c.out.find('\n', at);
+        lines.push_back(c.out.substr(at, nl - at));
+        at = nl + 1;
+    }
+    REQUIRE(lines.size() == 1 + doc["organs"].size());
+    CHECK(lines[0].rfind("location,body_model,directions,", 0) == 0);
+    CHECK(lines[0].find("event_rbe_weighted_mGyEq") != std::string::npos);
+    for (std::size_t i = 1; i < lines.size(); ++i) {
+        INFO(lines[i]);
+        // Fields 9 and 15 (1-based): the organ and its GCR dose equivalent per day with
+        // reactions, which the json gives in Sv.
+        std::vector<std::string> f;
+        std::size_t p = 0;
+        for (std::size_t q = lines[i].find(',');; q = lines[i].find(',', p)) {
+            f.push_back(lines[i].substr(p, q - p));
+            if (q == std::string::npos) {
+                break;
+            }
+            p = q + 1;
+        }
+        REQUIRE(f.size() == 20);
+        CHECK(f[0] == "eva-site");
+        const auto& organ = doc["organs"][f[8]];
+        REQUIRE(organ.is_object());
+        CHECK(
+            std::stod(f[14]) ==
+            Approx(1e3 * organ["gcr_per_day"]["with_reactions"]["dose_equivalent_Sv"].get<double>())
+                .epsilon(1e-8));
+        CHECK(f[16] == "design-spe");
+        CHECK(std::stod(f[19]) ==
+              Approx(1e3 * organ["event"]["rbe_weighted_GyEq"].get<double>()).epsilon(1e-8));
+    }
+}
+
+TEST_CASE("storm: a sweep without a response says so, not 'with the response'", "[cli][storm]") {
+    // Regression: --no-response printed the response policy and "with the response" headings.
+    const std::string base = "storm " + demo() + " --event design-spe --sweep --step 24h";
+    const Run without = run(base + " --no-response");
+    INFO(without.out);
+    REQUIRE((without.exit_code == 0 || without.exit_code == 1));
+    CHECK(without.out.find("No response (--no-response)") != std::string::npos);
+    CHECK(without.out.find("without a response") != std::string::npos);
+    CHECK(without.out.find("Response: warning") == std::string::npos);
+    CHECK(without.out.find("with the response") == std::string::npos);
+    CHECK(without.out.find("with the planned") == std::string::npos);
+    const Run with = run(base);
+    CHECK(with.out.find("Response: warning") != std::string::npos);
+    CHECK(with.out.find("(30-day dose with the response") != std::string::npos);
+    CHECK(with.out.find("planned response):") != std::string::npos);
+    const Run j = run(base + " --no-response --format json");
+    CHECK(nlohmann::json::parse(j.out)["response"] == false);
+}
