@@ -8,6 +8,7 @@
 #include <algorithm>
 #include <cmath>
 #include <set>
+#include <stdexcept>
 
 namespace crewdose::planner {
 namespace {
@@ -283,6 +284,9 @@ void verify(const CrewResult& c) {
 } // namespace
 
 LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
+    if (study.partial()) {
+        throw std::logic_error("build_ledger: the study holds one location, the ledger needs all");
+    }
     const Scenario& sc = study.scenario();
     LedgerResult out;
     const double uf = sc.limits.uncertainty_factor;

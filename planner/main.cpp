@@ -343,7 +343,8 @@ int main(int argc, char** argv) {
                 phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list, site, medium),
                 fmt_choice, per_year, site, medium));
         } else if (shielding->parsed()) {
-            const planner::Study study(planner::load_scenario(scenario_path));
+            // One location's view computes that location alone.
+            const planner::Study study(planner::load_scenario(scenario_path), location_id);
             write_stdout(planner::format_shielding_report(
                 study, location_id,
                 event_id.empty() ? std::nullopt : std::optional<std::string>(event_id),

@@ -40,7 +40,13 @@ exposure::MarchOptions gcr_march_options() {
     return o;
 }
 
-Study::Study(Scenario scenario) : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
+Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
+    : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
+    if (only_location) {
+        const LocationSpec one = sc_.location_named(*only_location, "--location");
+        sc_.locations = {one};
+        partial_ = true;
+    }
     const MaterialResolver materials = [this](const std::string& id) -> const exposure::Material& {
         const auto* m = sc_.material(id);
         if (!m) {

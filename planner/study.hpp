@@ -8,6 +8,7 @@
 
 #include <map>
 #include <memory>
+#include <optional>
 #include <string>
 #include <tuple>
 
@@ -95,8 +96,10 @@ apply_secondary_factor(const exposure::DoseQuantities& primaries,
 class Study {
   public:
     /// Computes every response; InputError (naming the location or event) when the input
-    /// leads to a dose that is not a finite number >= 0.
-    explicit Study(Scenario scenario);
+    /// leads to a dose that is not a finite number >= 0. With `only_location` (a command-line
+    /// `--location`, InputError naming it if unknown) the study holds that one location alone:
+    /// a view of one place (`shielding`) computes one place; a partial study has no ledger.
+    explicit Study(Scenario scenario, const std::optional<std::string>& only_location = {});
     // Locations point into the scenario held here: a Study stays where it was built.
     Study(const Study&) = delete;
     Study& operator=(const Study&) = delete;
@@ -104,6 +107,8 @@ class Study {
     Study& operator=(Study&&) = delete;
 
     [[nodiscard]] const Scenario& scenario() const noexcept { return sc_; }
+    /// True when built for one location only (its scenario lists that location alone).
+    [[nodiscard]] bool partial() const noexcept { return partial_; }
     /// The organ response at a location (organ: bfo, lens, skin).
     [[nodiscard]] const OrganResponse& response(const std::string& location,
                                                 const std::string& organ) const;
@@ -154,6 +159,7 @@ class Study {
     std::map<std::string, BodyDepths> bodies_;
     std::map<std::string, BodyDepths> gcr_bodies_;
     std::size_t directions_ = 0;
+    bool partial_ = false;
     std::size_t threads_ = 1;
     std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
     std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>

@@ -362,3 +362,24 @@ TEST_CASE("an event's prepared arrival groups give the per-group sum in closed f
         CHECK(g.cumulative(1e5) == Approx(1.0).margin(1e-12));
     }
 }
+
+TEST_CASE("a study of one location gives that location's numbers and no ledger", "[ledger]") {
+    // `shielding --location` builds a study of one location: the same responses as the whole
+    // study there (each location is computed on its own), bit for bit.
+    const Study whole(parse_scenario(kPlan, "hand.toml"));
+    const Study one(parse_scenario(kPlan, "hand.toml"), std::string("free-too"));
+    CHECK(one.partial());
+    CHECK_FALSE(whole.partial());
+    REQUIRE(one.scenario().locations.size() == 1);
+    const auto& ev = whole.scenario().events[0];
+    for (const char* organ : {"skin", "lens", "bfo"}) {
+        CHECK(one.event_dose("free-too", organ, ev).rbe_weighted_GyEq ==
+              whole.event_dose("free-too", organ, ev).rbe_weighted_GyEq);
+        const double phi = whole.scenario().mission.gcr_phi_MV;
+        CHECK(one.gcr_daily_dose("free-too", organ, phi).for_limits().dose_equivalent_Sv ==
+              whole.gcr_daily_dose("free-too", organ, phi).for_limits().dose_equivalent_Sv);
+    }
+    CHECK_THROWS_AS(build_ledger(one), std::logic_error);
+    CHECK_THROWS_WITH(Study(parse_scenario(kPlan, "hand.toml"), std::string("attic")),
+                      Catch::Contains("--location") && Catch::Contains("attic"));
+}
