@@ -4,7 +4,7 @@
 # tests/fuzz/corpus, the demos and the malformed fixtures.
 #   scripts/fuzz.sh            30 s per harness (CI)
 #   scripts/fuzz.sh 600        ten minutes per harness (before a release, or after touching
-#                              the loader, the spectrum parser or planner/toml*)
+#                              the loader, the spectrum parser or planner/scenario/toml*)
 # A finding stops the run with exit 1 and leaves the input as build-fuzz/crash-*; reproduce it
 # with build-fuzz/tests/fuzz/crewdose_fuzz_loader build-fuzz/crash-... and add it as a
 # malformed fixture once fixed.

@@ -5,8 +5,8 @@
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
 #include "habitats/scene.hpp"
-#include "planner/location_response.hpp"
-#include "planner/study.hpp"
+#include "planner/study/location_response.hpp"
+#include "planner/study/study.hpp"
 
 #include <benchmark/benchmark.h>
 

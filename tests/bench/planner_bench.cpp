@@ -2,9 +2,9 @@
 // responses; here the Study is built per iteration) and shelter sizing for one material
 // (storm and shelter issue: under 0.5 s, the Study already built), and the storm sweep at one
 // onset per minute over the whole timeline, four crew (under 0.3 s once responses exist).
-#include "planner/ledger.hpp"
-#include "planner/shelter.hpp"
-#include "planner/storm.hpp"
+#include "planner/analyses/shelter.hpp"
+#include "planner/analyses/storm.hpp"
+#include "planner/study/ledger.hpp"
 
 #include <benchmark/benchmark.h>
 #include <boost/date_time/gregorian/gregorian_types.hpp>

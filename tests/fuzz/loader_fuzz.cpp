@@ -2,8 +2,8 @@
 // InputError (exposure::ParameterError is wrapped by it), never crash, hang or reach undefined
 // behaviour (the fuzz build runs under AddressSanitizer and UndefinedBehaviorSanitizer, with
 // toml++ compiled in). An accepted scenario must carry only finite, plausible numbers.
-#include "planner/input_error.hpp"
-#include "planner/scenario.hpp"
+#include "planner/scenario/input_error.hpp"
+#include "planner/scenario/scenario.hpp"
 
 #include <cmath>
 #include <cstdint>

@@ -1,8 +1,8 @@
 // libFuzzer harness: any bytes as a --spectrum text. parse_spectrum must answer with a spectrum
 // or an InputError, and every spectrum it accepts must be finite and non-negative (integral and
 // differential fluence) from 10 keV to 100 GeV, the whole transport grid.
-#include "planner/input_error.hpp"
-#include "planner/spectrum_spec.hpp"
+#include "planner/scenario/input_error.hpp"
+#include "planner/scenario/spectrum_spec.hpp"
 
 #include <cmath>
 #include <cstdint>

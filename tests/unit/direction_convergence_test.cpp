@@ -1,7 +1,7 @@
 // Convergence of organ doses with the number of directions on the hard cases (slow label).
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
-#include "planner/location_response.hpp"
+#include "planner/study/location_response.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -8,8 +8,8 @@
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "habitats/direction_set.hpp"
-#include "planner/location_response.hpp"
-#include "planner/study.hpp"
+#include "planner/study/location_response.hpp"
+#include "planner/study/study.hpp"
 
 #include "free_space_dose.hpp"
 

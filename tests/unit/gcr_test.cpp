@@ -7,7 +7,7 @@
 #include "exposure/response.hpp"
 #include "exposure/table_library.hpp"
 #include "exposure/units.hpp"
-#include "planner/study.hpp"
+#include "planner/study/study.hpp"
 
 #include "free_space_dose.hpp"
 

@@ -1,7 +1,7 @@
 // The ledger: rolling windows, recorded and prior doses, and a timeline checked by hand.
-#include "planner/ledger.hpp"
-#include "planner/scenario.hpp"
-#include "planner/study.hpp"
+#include "planner/scenario/scenario.hpp"
+#include "planner/study/ledger.hpp"
+#include "planner/study/study.hpp"
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>

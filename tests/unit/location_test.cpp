@@ -2,9 +2,9 @@
 #include "exposure/depth_dose.hpp"
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
-#include "planner/input_error.hpp"
-#include "planner/location_response.hpp"
-#include "planner/shielding_table_file.hpp"
+#include "planner/scenario/input_error.hpp"
+#include "planner/scenario/shielding_table_file.hpp"
+#include "planner/study/location_response.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -1,4 +1,4 @@
-#include "planner/number_format.hpp"
+#include "planner/report/number_format.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -6,10 +6,10 @@
 #include "exposure/table_library.hpp"
 #include "habitats/direction_set.hpp"
 #include "habitats/phantom.hpp"
-#include "planner/ledger.hpp"
-#include "planner/location_response.hpp"
-#include "planner/scenario.hpp"
-#include "planner/study.hpp"
+#include "planner/scenario/scenario.hpp"
+#include "planner/study/ledger.hpp"
+#include "planner/study/location_response.hpp"
+#include "planner/study/study.hpp"
 
 #include <algorithm>
 #include <cmath>

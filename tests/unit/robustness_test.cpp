@@ -5,12 +5,12 @@
 #include "exposure/material_library.hpp"
 #include "exposure/parameter_error.hpp"
 #include "exposure/spectrum.hpp"
-#include "planner/input_error.hpp"
-#include "planner/ledger.hpp"
-#include "planner/result_guard.hpp"
-#include "planner/scenario.hpp"
-#include "planner/storm.hpp"
-#include "planner/toml_text.hpp"
+#include "planner/analyses/storm.hpp"
+#include "planner/scenario/input_error.hpp"
+#include "planner/scenario/scenario.hpp"
+#include "planner/scenario/toml_text.hpp"
+#include "planner/study/ledger.hpp"
+#include "planner/study/result_guard.hpp"
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
@@ -197,8 +197,7 @@ TEST_CASE("the TOML text check: UTF-8, control characters, non-ASCII only where 
           std::string::npos);
     // Found by the fuzzer: a quote inside a bare word does not start a string for toml++,
     // which scans the word on (and tests each character for whitespace).
-    CHECK(toml_error("id =-\"hu\u03eb\"\n").find("outside a quoted string") !=
-          std::string::npos);
+    CHECK(toml_error("id =-\"hu\u03eb\"\n").find("outside a quoted string") != std::string::npos);
     CHECK(toml_error("a = [1, \"\u03eb\"]\n") == "no error");
     // Found by the fuzzer: blanks after a backslash are skipped by toml++, testing what comes
     // next for whitespace.

@@ -1,6 +1,6 @@
 // Scenario validation: every error names file:line: key, says what is wrong and what is
 // allowed (main-job issue, "Validation").
-#include "planner/scenario.hpp"
+#include "planner/scenario/scenario.hpp"
 
 #include <catch2/catch.hpp>
 

@@ -5,7 +5,7 @@
 #include "exposure/fragment_transport.hpp"
 #include "exposure/gcr.hpp"
 #include "exposure/material_library.hpp"
-#include "planner/study.hpp"
+#include "planner/study/study.hpp"
 
 #include <catch2/catch.hpp>
 

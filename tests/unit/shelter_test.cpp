@@ -1,6 +1,7 @@
 // Storm-shelter sizing: the answer put back into a plain study, materials compared, targets
 // that cannot be met, the added mass of a real layer, and the errors of the options.
-#include "planner/shelter.hpp"
+#include "planner/analyses/shelter.hpp"
+#include "planner/report/shelter_report.hpp"
 
 #include "exposure/material_library.hpp"
 

@@ -1,9 +1,10 @@
 // Storm what-ifs: scatter-free arrival, the response policy, equality with plain checks, the
 // rate-based all-clear, and the sweep on the lunar demo.
-#include "planner/storm.hpp"
+#include "planner/analyses/storm.hpp"
+#include "planner/report/storm_report.hpp"
 
 #include "exposure/arrival.hpp"
-#include "planner/time_format.hpp"
+#include "planner/scenario/time_format.hpp"
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>

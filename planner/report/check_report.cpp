@@ -1,0 +1,444 @@
+#include "planner/report/check_report.hpp"
+
+#include "planner/report/cautions.hpp"
+#include "planner/report/number_format.hpp"
+#include "planner/scenario/spectrum_spec.hpp"
+#include "planner/scenario/time_format.hpp"
+#include "planner/study/result_guard.hpp"
+
+#include <fmt/format.h>
+#include <fmt/ranges.h>
+#include <nlohmann/json.hpp>
+
+#include <set>
+
+namespace crewdose::planner {
+namespace {
+
+// The unit of an organ's ledger: the effective dose is in mSv, every organ dose in mGy-Eq.
+const char* unit_of(const std::string& organ) {
+    return organ == "effective" ? "mSv" : "mGy-Eq";
+}
+
+std::string body_text(const Study& study) {
+    const Scenario& sc = study.scenario();
+    std::vector<std::string> quick;
+    std::vector<std::string> phantom;
+    for (const auto& loc : sc.locations) {
+        (loc.body == BodyModelKind::phantom ? phantom : quick).push_back(loc.id);
+    }
+    std::string t;
+    if (!phantom.empty()) {
+        t += fmt::format(
+            "stylised adult phantom (MIRD-type hermaphrodite after MIRD Pamphlet 5, organ "
+            "tissue depths per direction from {} points per organ region (the skin {}), {} "
+            "directions for "
+            "SPEs; skin 0.07 mm below the body's surface, averaged over it; lens at 3 mm in every "
+            "direction (no eyes in the phantom); BFO = active marrow; effective dose with "
+            "ICRP 103 weights, oesophagus, salivary glands and bone surface by named proxies) "
+            "at {}",
+            kPhantomPointsPerDirection, kSkinPointsFactor * kPhantomPointsPerDirection,
+            sc.mission.phantom_directions, fmt::join(phantom, ", "));
+    }
+    if (!quick.empty()) {
+        t += fmt::format("{}quick screening model (skin 0.07 mm, lens 3 mm, BFO 5 cm of tissue in "
+                         "every direction; no heart, brain or effective dose) at {}",
+                         t.empty() ? "" : "; ", fmt::join(quick, ", "));
+    }
+    return t;
+}
+
+std::string phi_text(const Mission& m) {
+    std::string t = fmt::format("phi = {:.0f} MV from the mission start", m.gcr_phi_MV);
+    for (const auto& phase : m.gcr_phases) {
+        t += fmt::format(", {:.0f} MV from {}", phase.phi_MV, format_time(phase.from));
+    }
+    if (!m.gcr_phi_given) {
+        t += " (no value given: the solar-minimum example, the higher background)";
+    }
+    return t;
+}
+
+std::string model_text(const Study& study) {
+    const Scenario& sc = study.scenario();
+    return fmt::format(
+        "Model: body: {}; {} directions per quick-model location for SPEs, {} for GCR; "
+        "SPE primary protons by straight-ahead CSDA transport; GCR nuclei Z = 1-28 from the "
+        "Burger et al. 2000 local interstellar spectrum (protons, helium) and ISO 15390 spectral "
+        "shapes scaled to HEAO-3 abundances (heavier nuclei), force-field modulated with {}, "
+        "marched straight ahead through the same range tables with nucleus-nucleus removal "
+        "(Sihver et al. 1993), projectile fragmentation (EPAX 3.1 remnants; the charge they "
+        "lack leaves as protons, the nucleons left as neutrons, at the same velocity) and the "
+        "secondaries of nucleon reactions (neutrons, protons, deuterons, tritons, helions and "
+        "alphas from ENDF/B-VIII.1 to 150 MeV and a fit to measured neutron spectra above; "
+        "target fragments and slow light ions deposited where they are made), and again "
+        "without any nuclear reaction; as for the SPE protons, every dose is the higher of the "
+        "two, quantity by quantity. Against published in-situ measurements the GCR model is "
+        "still low (see the README). Not modelled: pions and the electromagnetic cascade, the "
+        "target fragments of nucleus-nucleus reactions, elastic scattering of neutrons on "
+        "hydrogen, neutrons emitted backwards. RBE-weighted dose with NCRP 132 values; "
+        "uncertainty factor {:.2f} applied to every dose. Window maxima are exact at "
+        "activity and event boundaries and sampled every 10 minutes inside event profiles.",
+        body_text(study), study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
+        sc.limits.uncertainty_factor);
+}
+
+nlohmann::json totals_json(const DoseTotals& t) {
+    return {{"mGyEq", t.mGyEq},
+            {"absorbed_mGy", t.absorbed_mGy},
+            {"dose_equivalent_mSv", t.dose_equivalent_mSv}};
+}
+
+nlohmann::json dose_json(const exposure::DoseQuantities& d) {
+    return {{"absorbed_mGy", 1e3 * d.absorbed_Gy},
+            {"dose_equivalent_mSv", 1e3 * d.dose_equivalent_Sv},
+            {"mGyEq", 1e3 * d.rbe_weighted_GyEq}};
+}
+
+nlohmann::json window_json(const WindowMax& w) {
+    return {{"dose_mGyEq", w.dose_mGyEq},
+            {"window_start", w.dose_mGyEq > 0 ? format_time(w.window_start) : ""},
+            {"window_end", w.dose_mGyEq > 0 ? format_time(w.window_end) : ""},
+            {"top_contributor", w.top_contributor}};
+}
+
+} // namespace
+
+std::string format_check_report(const Study& study, const LedgerResult& ledger, OutputFormat format,
+                                bool colour) {
+    const Scenario& sc = study.scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j;
+        j["mission"] = {{"name", sc.mission.name},
+                        {"site", to_string(sc.mission.site)},
+                        {"start", format_time(sc.mission.start)},
+                        {"end", format_time(sc.mission.end)}};
+        j["cautions"] = caution_text();
+        j["model"] = model_text(study);
+        j["uncertainty_factor"] = sc.limits.uncertainty_factor;
+        j["directions"] = study.direction_count();
+        j["phantom_directions"] = sc.mission.phantom_directions;
+        j["body_models"] = nlohmann::json::object();
+        for (const auto& loc : sc.locations) {
+            j["body_models"][loc.id] = to_string(loc.body);
+        }
+        j["any_limit_exceeded"] = ledger.any_exceeded;
+        {
+            nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
+                             {"phi_given", sc.mission.gcr_phi_given},
+                             {"composition", std::string(exposure::gcr_composition_source())},
+                             {"transport",
+                              "straight-ahead depth march of the whole field with nuclear "
+                              "reactions (removal, projectile fragmentation with EPAX 3.1 "
+                              "remnants, the secondaries of nucleon reactions: n, p, d, t, "
+                              "He-3, alpha, target fragments deposited locally) and without "
+                              "any; limits use the higher of each quantity; not modelled: "
+                              "pions and the electromagnetic cascade, target fragments of "
+                              "nucleus-nucleus reactions, elastic scattering of neutrons on "
+                              "hydrogen, neutrons emitted backwards"},
+                             {"directions", sc.mission.gcr_directions},
+                             {"phases", nlohmann::json::array()},
+                             {"daily_rates_at_start", nlohmann::json::object()}};
+            for (const auto& phase : sc.mission.gcr_phases) {
+                g["phases"].push_back(
+                    {{"from", format_time(phase.from)}, {"phi_MV", phase.phi_MV}});
+            }
+            for (const auto& loc : sc.locations) {
+                for (const auto& organ : study.body(loc.id).organs) {
+                    const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+                    g["daily_rates_at_start"][loc.id][organ] = {
+                        {"with_reactions", dose_json(d.with_removal)},
+                        {"without_reactions", dose_json(d.without_removal)},
+                        {"for_limits", dose_json(d.for_limits())}};
+                }
+            }
+            j["gcr"] = g;
+        }
+        j["events"] = nlohmann::json::array();
+        for (const auto& e : sc.events) {
+            j["events"].push_back({{"id", e.id},
+                                   {"flare_seen", format_time(e.flare_seen)},
+                                   {"arrival", format_time(e.arrival())},
+                                   {"spectrum", e.spectrum_text}});
+        }
+        j["crew"] = nlohmann::json::array();
+        for (const auto& c : ledger.crew) {
+            nlohmann::json cj{{"id", c.crew}, {"name", c.name}};
+            cj["not_evaluated"] = nlohmann::json::object();
+            for (const auto& [organ, where] : c.not_evaluated) {
+                cj["not_evaluated"][organ] = where;
+            }
+            for (const auto& o : c.organs) {
+                cj["organs"][o.organ] = {
+                    {"max_30d", window_json(o.max_30d)},
+                    {"max_365d", window_json(o.max_365d)},
+                    {"career_mGyEq", o.career_mGyEq},
+                    {"mission_mGyEq", o.mission_mGyEq},
+                    {"mission_absorbed_mGy", o.mission_absorbed_mGy},
+                    {"mission_dose_equivalent_mSv", o.mission_dose_equivalent_mSv},
+                    {"mission_by_source",
+                     {{"gcr", totals_json(o.gcr)},
+                      {"spe", totals_json(o.spe)},
+                      {"recorded", totals_json(o.other)}}}};
+            }
+            cj["budget"] = {{"binds", c.budget.binds},
+                            {"days_after_mission_end", c.budget.days},
+                            {"organ", c.budget.organ},
+                            {"window", c.budget.window},
+                            {"gcr_rate_mGyEq_per_day", c.budget.rate_mGyEq_per_day}};
+            for (const auto& chk : c.checks) {
+                cj["limits"].push_back({{"organ", chk.limit.organ},
+                                        {"unit", unit_of(chk.limit.organ)},
+                                        {"window", chk.limit.window},
+                                        {"limit", chk.limit.value},
+                                        {"basis", chk.limit.basis},
+                                        {"dose", chk.dose},
+                                        {"margin", chk.margin},
+                                        {"exceeded", chk.exceeded},
+                                        {"where", chk.window_text},
+                                        {"top_contributor", chk.top_contributor}});
+            }
+            j["crew"].push_back(cj);
+        }
+        j["gaps"] = nlohmann::json::array();
+        for (const auto& g : ledger.gaps) {
+            j["gaps"].push_back({{"crew", g.crew},
+                                 {"start", format_time(g.start)},
+                                 {"end", format_time(g.end)},
+                                 {"charged_at", g.charged_at}});
+        }
+        return dump_checked(j);
+    }
+    if (format == OutputFormat::csv) {
+        // The effective dose is in mSv, every organ dose in mGy-Eq: a unit column says which.
+        std::string out = "crew,organ,window,dose,limit,margin,unit,exceeded,basis\n";
+        for (const auto& c : ledger.crew) {
+            for (const auto& chk : c.checks) {
+                out += fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},\"{}\"\n", c.crew,
+                                   chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
+                                   chk.margin, unit_of(chk.limit.organ),
+                                   chk.exceeded ? "yes" : "no", chk.limit.basis);
+            }
+        }
+        return out;
+    }
+    const char* red = colour ? "\033[31m" : "";
+    const char* green = colour ? "\033[32m" : "";
+    const char* reset = colour ? "\033[0m" : "";
+    std::string out =
+        fmt::format("crewdose check: {} ({}, {} to {})\nscenario: {}\n\n", sc.mission.name,
+                    to_string(sc.mission.site), format_time(sc.mission.start),
+                    format_time(sc.mission.end), sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_text(study), 96) + "\n";
+    out += "GCR dose rate at the mission start, per day, with nuclear reactions (removal and "
+           "projectile\nfragments) / without any (the higher is used for limits):\n";
+    out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
+    for (const auto& loc : sc.locations) {
+        for (const auto& organ : study.body(loc.id).organs) {
+            if (organ == "effective") {
+                const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+                out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", loc.id, organ, "-",
+                                   significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
+                                       significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
+                continue;
+            }
+            const auto& d = study.gcr_daily_dose(loc.id, organ, sc.mission.gcr_phi_MV);
+            out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", loc.id, organ_label(organ),
+                               significant(1e3 * d.with_removal.rbe_weighted_GyEq, 3) + " / " +
+                                   significant(1e3 * d.without_removal.rbe_weighted_GyEq, 3),
+                               significant(1e3 * d.with_removal.dose_equivalent_Sv, 3) + " / " +
+                                   significant(1e3 * d.without_removal.dose_equivalent_Sv, 3));
+        }
+    }
+    out += "\n";
+    out += "Events:\n";
+    for (const auto& e : sc.events) {
+        out +=
+            wrap(fmt::format("  {}: flare seen {}, arrival {}; {}", e.id, format_time(e.flare_seen),
+                             format_time(e.arrival()), describe_spectrum(e.spectrum)),
+                 100, "    ");
+    }
+    if (sc.events.empty()) {
+        out += "  none\n";
+    }
+    out += "\n";
+    for (const auto& c : ledger.crew) {
+        out += fmt::format("{} ({})\n", c.name, c.crew);
+        out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {:>10}  {}\n", "organ", "window",
+                           "dose", "unit", "limit", "margin", "where the window lies");
+        const LimitCheck* lowest = nullptr;
+        for (const auto& chk : c.checks) {
+            if (!lowest || chk.margin / chk.limit.value < lowest->margin / lowest->limit.value) {
+                lowest = &chk;
+            }
+            out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {}{:>10}{}  {}\n",
+                               organ_label(chk.limit.organ), chk.limit.window,
+                               significant(chk.dose, 3), unit_of(chk.limit.organ),
+                               significant(chk.limit.value, 3), chk.exceeded ? red : "",
+                               significant(chk.margin, 3), chk.exceeded ? reset : "",
+                               chk.window_text.empty() ? "-" : chk.window_text);
+        }
+        if (!c.not_evaluated.empty()) {
+            std::vector<std::string> organs;
+            std::set<std::string> where;
+            for (const auto& [organ, locs] : c.not_evaluated) {
+                organs.push_back(organ_label(organ));
+                where.insert(locs.begin(), locs.end());
+            }
+            out += wrap(fmt::format("  not evaluated: {} (they need body = \"phantom\"; the quick "
+                                    "model is used at {})",
+                                    fmt::join(organs, ", "), fmt::join(where, ", ")),
+                        100, "    ");
+        }
+        if (lowest) {
+            out += wrap(fmt::format("  smallest margin: {} {} ({:.0f} % of the limit left){}",
+                                    organ_label(lowest->limit.organ), lowest->limit.window,
+                                    100.0 * lowest->margin / lowest->limit.value,
+                                    lowest->top_contributor.empty()
+                                        ? ""
+                                        : "; mostly " + lowest->top_contributor),
+                        100, "    ");
+        }
+        if (c.budget.binds && c.budget.days > 0.0) {
+            out += wrap(fmt::format("  budget left: {} {} binds first, after about {} more days "
+                                    "of this timeline's activity mix ({} {}/day of GCR; no "
+                                    "further events)",
+                                    organ_label(c.budget.organ), c.budget.window,
+                                    significant(c.budget.days, 3),
+                                    significant(c.budget.rate_mGyEq_per_day, 3),
+                                    unit_of(c.budget.organ)),
+                        100, "    ");
+        } else if (!c.budget.binds) {
+            out += "  budget left: no limit binds from the GCR background of this timeline alone\n";
+        }
+        out += fmt::format("  mission dose by source (mGy-Eq; dose equivalent in mSv; effective "
+                           "dose in mSv)\n");
+        out += fmt::format("  {:<9} {:>16} {:>16} {:>16}\n", "organ", "GCR", "SPE", "recorded");
+        for (const auto& o : c.organs) {
+            const bool effective = o.organ == "effective";
+            auto cell = [effective](const DoseTotals& t) {
+                if (effective) {
+                    return significant(t.dose_equivalent_mSv, 3);
+                }
+                return fmt::format("{} ({})", significant(t.mGyEq, 3),
+                                   significant(t.dose_equivalent_mSv, 3));
+            };
+            out += fmt::format("  {:<9} {:>16} {:>16} {:>16}\n", organ_label(o.organ), cell(o.gcr),
+                               cell(o.spe), cell(o.other));
+        }
+        out += "  largest BFO contributors:\n";
+        for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {
+            out +=
+                wrap(fmt::format("    {:>10} mGy-Eq  {}", significant(c.contributors[i].second, 3),
+                                 c.contributors[i].first),
+                     100, "                       ");
+        }
+        if (c.contributors.empty()) {
+            out += "    none (no modelled dose)\n";
+        }
+        out += "\n";
+    }
+    out += "Limits (planning values, not official; basis):\n";
+    std::set<std::string> bases;
+    for (const auto& l : sc.limits.limits) {
+        out += wrap(fmt::format("  {} {}: {} {} ({})", organ_label(l.organ), l.window,
+                                significant(l.value, 3), unit_of(l.organ), l.basis),
+                    100, "    ");
+    }
+    for (const auto& g : ledger.gaps) {
+        out += fmt::format("Gap filled: {} from {} to {}, charged at {}\n", g.crew,
+                           format_time(g.start), format_time(g.end), g.charged_at);
+    }
+    out += "\n";
+    if (ledger.any_exceeded) {
+        for (const auto& c : ledger.crew) {
+            for (const auto& chk : c.checks) {
+                if (chk.exceeded) {
+                    out +=
+                        fmt::format("{}PLANNING LIMIT EXCEEDED{}: {} ({}), {} {} limit, {} of {} "
+                                    "{}{}\n",
+                                    red, reset, c.name, c.crew, organ_label(chk.limit.organ),
+                                    chk.limit.window, significant(chk.dose, 3),
+                                    significant(chk.limit.value, 3), unit_of(chk.limit.organ),
+                                    chk.window_text.empty() ? "" : ", window " + chk.window_text);
+                }
+            }
+        }
+    } else {
+        out += fmt::format("{}Every evaluated planning limit is met.{}\n", green, reset);
+    }
+    return out;
+}
+
+std::string format_series(const Study& study, const LedgerResult& ledger) {
+    (void)study;
+    // Units per row: mGy-Eq for the organs, mSv for the effective dose.
+    std::string out = "crew,organ,unit,time,cumulative,rate_per_h\n";
+    for (const auto& [key, pieces] : ledger.pieces) {
+        std::set<Time> times;
+        for (const auto& p : pieces) {
+            times.insert(p.start);
+            times.insert(p.end);
+            if (p.event) {
+                for (Time t = p.start; t < p.end; t += boost::posix_time::hours(1)) {
+                    times.insert(t);
+                }
+            }
+        }
+        double previous = 0.0;
+        Time previous_t;
+        bool first = true;
+        for (const auto& t : times) {
+            double d = 0.0;
+            for (const auto& p : pieces) {
+                d += 1e3 * p.dose.rbe_weighted_GyEq * p.fraction_by(t);
+            }
+            const double rate =
+                first || t == previous_t ? 0.0 : (d - previous) / hours(t - previous_t);
+            out += fmt::format("{},{},{},{},{:.10g},{:.10g}\n", key.first, key.second,
+                               unit_of(key.second), format_time(t), d, rate);
+            previous = d;
+            previous_t = t;
+            first = false;
+        }
+    }
+    return out;
+}
+
+std::string format_validation(const Scenario& sc) {
+    std::string out = fmt::format("{}: valid\n", sc.file);
+    out +=
+        fmt::format("  mission: {} ({}, {} to {})\n", sc.mission.name, to_string(sc.mission.site),
+                    format_time(sc.mission.start), format_time(sc.mission.end));
+    const auto count = [](std::size_t n, const char* one, const char* many) {
+        return fmt::format("{} {}", n, n == 1 ? one : many);
+    };
+    out += fmt::format("  {}, {}, {}, {}, {} crew, {}, {}\n",
+                       count(sc.materials.size(), "user material", "user materials"),
+                       count(sc.solids.size(), "solid", "solids"),
+                       count(sc.locations.size(), "location", "locations"),
+                       count(sc.events.size(), "event", "events"), sc.crew.size(),
+                       count(sc.activities.size(), "activity", "activities"),
+                       count(sc.recorded.size(), "recorded dose", "recorded doses"));
+    for (const auto& l : sc.locations) {
+        out += fmt::format(
+            "  location {}: {}; body {}\n", l.id,
+            l.shielding_table_file ? "imported table " + *l.shielding_table_file
+                                   : count(l.solids.size(), "solid", "solids"),
+            l.body == BodyModelKind::phantom
+                ? (l.posture == habitats::Posture::lying ? "phantom (lying)" : "phantom (standing)")
+                : "quick");
+    }
+    for (const auto& c : sc.crew) {
+        out += fmt::format("  crew {}: {}\n", c.id, c.name);
+    }
+    for (const auto& g : timeline_gaps(sc)) {
+        out += fmt::format("  gap: crew {} has no activity from {} to {} (after the activity at "
+                           "line {}); check --allow-gaps charges it at that activity's location\n",
+                           g.crew, format_time(g.from), format_time(g.to), g.where.line);
+    }
+    return out;
+}
+
+} // namespace crewdose::planner

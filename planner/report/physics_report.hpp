@@ -1,0 +1,24 @@
+#pragma once
+// The `range` and `materials` reports: look-up tables of the stopping and range physics for
+// engineers who want to see the numbers behind a shielding result.
+#include "planner/analyses/physics_lookup.hpp"
+#include "planner/report/output_format.hpp"
+
+#include "exposure/material.hpp"
+#include "exposure/particle.hpp"
+
+#include <string>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// The range report in the chosen format (text: 4 significant figures; json: full precision).
+[[nodiscard]] std::string format_range_report(const exposure::Material& material,
+                                              const exposure::Particle& particle,
+                                              const std::vector<RangeRow>& rows,
+                                              OutputFormat format);
+
+/// The list of built-in materials in the chosen format.
+[[nodiscard]] std::string format_materials_report(OutputFormat format);
+
+} // namespace crewdose::planner

@@ -1,0 +1,260 @@
+#include "planner/report/storm_report.hpp"
+
+#include "planner/report/cautions.hpp"
+#include "planner/report/number_format.hpp"
+#include "planner/scenario/time_format.hpp"
+#include "planner/study/result_guard.hpp"
+
+#include <fmt/format.h>
+#include <nlohmann/json.hpp>
+
+#include <algorithm>
+#include <cmath>
+
+namespace crewdose::planner {
+
+namespace {
+
+nlohmann::json crew_json(const StormCrew& c) {
+    nlohmann::json j{{"id", c.crew}, {"name", c.name}, {"worst_ratio", c.worst_ratio()}};
+    for (const auto& o : c.organs) {
+        j["organs"][o.organ] = {{"without_response_mGyEq", o.without_response_mGyEq},
+                                {"with_response_mGyEq", o.with_response_mGyEq},
+                                {"saved_mGyEq", o.without_response_mGyEq - o.with_response_mGyEq},
+                                {"other_30d_mGyEq", o.other_30d_mGyEq},
+                                {"limit_30d_mGyEq", o.limit_30d_mGyEq},
+                                {"margin_30d_mGyEq", o.margin()},
+                                {"exceeded", o.exceeded()}};
+    }
+    for (const auto& s : c.responded) {
+        j["timeline"].push_back({{"start", format_time(s.start)},
+                                 {"end", format_time(s.end)},
+                                 {"location", s.location},
+                                 {"what", s.label}});
+    }
+    return j;
+}
+
+std::string model_note(const StormContext& ctx) {
+    const Scenario& sc = ctx.study().scenario();
+    const EventSpec& ev = ctx.event();
+    std::string arrival =
+        ev.fixed_arrival
+            ? fmt::format("every energy arrives {} h after t0 (fixed arrival_delay_h)",
+                          significant(ev.arrival_delay_h, 3))
+            : fmt::format("scatter-free arrival, the earliest possible: 10, 100 and 1000 MeV "
+                          "protons {}, {} and {} min after t0 (field line {} AU, site {} AU from "
+                          "the Sun)",
+                          significant(60 * ev.delay_h(10), 3), significant(60 * ev.delay_h(100), 3),
+                          significant(60 * ev.delay_h(1000), 3), significant(ev.path_length_AU, 3),
+                          significant(ev.sun_distance_AU, 3));
+    std::string organs;
+    for (std::size_t k = 0; k < ctx.organs().size(); ++k) {
+        organs += fmt::format("{}{}", k == 0 ? "" : (k + 1 == ctx.organs().size() ? " and " : ", "),
+                              organ_label(ctx.organs()[k]));
+    }
+    std::string unchecked;
+    if (!ctx.unchecked_note().empty()) {
+        unchecked = fmt::format(" Not checked: {}.", ctx.unchecked_note());
+    }
+    return fmt::format(
+        "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
+        "factor {:.2f}, the higher of with and without nuclear removal, each location's body "
+        "model; {}) plus the crew member's highest 30-day dose from everything else, wherever "
+        "it lies (conservative: as if both fell in one window).{}",
+        arrival, sc.limits.uncertainty_factor, organs, unchecked);
+}
+
+std::string policy_text(const StormPolicy& p) {
+    return fmt::format(
+        "Response: warning {} min after t0; crew inside reach {} within {} min; crew on EVA or "
+        "driving return in their activity's return_min (default {} min) to its refuge (default "
+        "the shelter); no EVA starts before the all-clear, {}; the rest of the timeline is "
+        "unchanged.",
+        significant(p.warning_delay_min, 3), p.shelter, significant(p.move_to_shelter_min, 3),
+        significant(p.eva_return_min, 3),
+        p.all_clear_above_MeV
+            ? fmt::format("which comes when the flux above {} MeV falls below {} /(cm2 s sr)",
+                          significant(*p.all_clear_above_MeV, 3),
+                          significant(p.all_clear_flux_per_cm2_s_sr, 3))
+            : fmt::format("which comes {} h after t0", significant(p.all_clear_h, 3)));
+}
+
+} // namespace
+
+std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
+                                OutputFormat format) {
+    const Scenario& sc = ctx.study().scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j{{"cautions", caution_text()},
+                         {"event", w.event_id},
+                         {"onset", format_time(w.times.onset)},
+                         {"warning", format_time(w.times.warning)},
+                         {"all_clear", format_time(w.times.all_clear)},
+                         {"respond", w.respond},
+                         {"model", model_note(ctx)},
+                         {"any_limit_exceeded", w.any_exceeded()}};
+        for (const auto& c : w.crew) {
+            j["crew"].push_back(crew_json(c));
+        }
+        return dump_checked(j);
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "crew,organ,without_response_mGyEq,with_response_mGyEq,saved_mGyEq,"
+                          "other_30d_mGyEq,limit_30d_mGyEq,margin_30d_mGyEq,exceeded\n";
+        for (const auto& c : w.crew) {
+            for (const auto& o : c.organs) {
+                out +=
+                    fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
+                                c.crew, o.organ, o.without_response_mGyEq, o.with_response_mGyEq,
+                                o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
+                                o.limit_30d_mGyEq, o.margin(), o.exceeded() ? "yes" : "no");
+            }
+        }
+        return out;
+    }
+    std::string out = fmt::format("crewdose storm: event {} with t0 at {}\nscenario: {}\n\n",
+                                  w.event_id, format_time(w.times.onset), sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_note(ctx), 96);
+    if (w.respond) {
+        out += wrap(policy_text(sc.storm), 96);
+        out += fmt::format("Warning {}, all-clear {}.\n", format_time(w.times.warning),
+                           format_time(w.times.all_clear));
+    } else {
+        out += "No response: the crew keep to the planned timeline.\n";
+    }
+    out += "\n";
+    for (const auto& c : w.crew) {
+        out += fmt::format("{} ({})\n", c.name, c.crew);
+        out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}\n", "organ",
+                           "no response", "response", "saved", "other 30d", "limit", "margin");
+        for (const auto& o : c.organs) {
+            out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}{}\n",
+                               organ_label(o.organ), significant(o.without_response_mGyEq, 3),
+                               significant(o.with_response_mGyEq, 3),
+                               significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
+                               significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
+                               significant(o.margin(), 3), o.exceeded() ? "  EXCEEDED" : "");
+        }
+        out += "  where (from t0):\n";
+        for (const auto& s : c.responded) {
+            out +=
+                wrap(fmt::format("    {} to {}  {}", format_time(std::max(s.start, w.times.onset)),
+                                 format_time(s.end), s.label),
+                     100, "      ");
+        }
+        out += "\n";
+    }
+    out += w.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if.\n"
+                            : "Every 30-day planning limit is met in this what-if.\n";
+    return out;
+}
+
+std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format) {
+    const Scenario& sc = ctx.study().scenario();
+    if (format == OutputFormat::json) {
+        nlohmann::json j{
+            {"cautions", caution_text()},       {"event", s.event_id},
+            {"from", format_time(s.from)},      {"to", format_time(s.to)},
+            {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
+            {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
+            {"response", ctx.responds()}};
+        for (const auto& [onset, c] : s.worst) {
+            auto cj = crew_json(c);
+            cj["worst_onset"] = format_time(onset);
+            j["worst"].push_back(cj);
+        }
+        for (const auto& e : s.evas) {
+            j["evas"].push_back({{"activity", e.label},
+                                 {"start", format_time(e.start)},
+                                 {"end", format_time(e.end)},
+                                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
+                                 {"crew", e.crew},
+                                 {"organ", e.organ},
+                                 {"ratio_to_30d_limit", e.ratio},
+                                 {"swept", e.swept()},
+                                 {"go", e.go()}});
+        }
+        for (const auto& [t, r] : s.profile) {
+            j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
+        }
+        return dump_checked(j);
+    }
+    if (format == OutputFormat::csv) {
+        std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
+        for (const auto& e : s.evas) {
+            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
+                               format_time(e.end), e.ratio >= 0 ? format_time(e.worst_onset) : "",
+                               e.crew, e.organ, e.ratio,
+                               !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
+        }
+        return out;
+    }
+    const bool responds = ctx.responds();
+    std::string out = fmt::format(
+        "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} {}"
+        "breakpoints\nscenario: {}\n\n",
+        s.event_id, format_time(s.from), format_time(s.to), s.step.total_seconds() / 60,
+        s.onsets -
+            static_cast<std::size_t>((s.to - s.from).total_seconds() / s.step.total_seconds()) - 1,
+        responds ? "policy " : "timeline ", sc.file);
+    out += caution_text() + "\n";
+    out += wrap(model_note(ctx), 96);
+    out += responds ? wrap(policy_text(sc.storm), 96) + "\n"
+                    : "No response (--no-response): the crew keep to the planned timeline.\n\n";
+    out += fmt::format("Worst onset per crew member (30-day dose {}, mGy-Eq):\n",
+                       responds ? "with the response" : "without a response");
+    for (const auto& [onset, c] : s.worst) {
+        const StormOrgan* worst = nullptr;
+        for (const auto& o : c.organs) {
+            if (!worst || o.ratio() > worst->ratio()) {
+                worst = &o;
+            }
+        }
+        if (!worst) {
+            continue;
+        }
+        out += wrap(fmt::format("  {} ({}): t0 {}; {} {} = {} event + {} other of {} ({:.0f} %){}",
+                                c.name, c.crew, format_time(onset), organ_label(worst->organ),
+                                significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
+                                significant(worst->with_response_mGyEq, 3),
+                                significant(worst->other_30d_mGyEq, 3),
+                                significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
+                                worst->exceeded() ? "  EXCEEDED" : ""),
+                    100, "      ");
+    }
+    out += "\n" + wrap(fmt::format("Go/no-go per EVA and rover drive (the design event starting at "
+                                   "the worst moment of it, {}):",
+                                   responds ? "with the planned response"
+                                            : "the crew keeping to the planned timeline"),
+                       100);
+    for (const auto& e : s.evas) {
+        if (!e.swept()) {
+            out += wrap(fmt::format("  NOT SWEPT {} to {}, {}: no onset of the sweep falls inside "
+                                    "it (widen --from/--to)",
+                                    format_time(e.start), format_time(e.end), e.label),
+                        100, "        ");
+            continue;
+        }
+        out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
+                                "30-day limit",
+                                e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
+                                e.label, format_time(e.worst_onset), e.crew, organ_label(e.organ),
+                                100.0 * e.ratio),
+                    100, "        ");
+    }
+    out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset "
+           "(each # is 5 %):\n";
+    for (const auto& [t, r] : s.profile) {
+        const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
+        out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r,
+                           std::string(static_cast<std::size_t>(n), '#'));
+    }
+    out += "\n";
+    out += s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.\n"
+                            : "Every 30-day planning limit is met at every onset tried.\n";
+    return out;
+}
+
+} // namespace crewdose::planner

@@ -1,0 +1,28 @@
+#include "planner/scenario/time_format.hpp"
+
+#include <cmath>
+#include <cstdint>
+
+namespace crewdose::planner {
+
+std::string format_time(const boost::posix_time::ptime& t) {
+    const auto d = t.date();
+    const auto tod = t.time_of_day();
+    std::string out = fmt::format("{:04d}-{:02d}-{:02d}T{:02d}:{:02d}", static_cast<int>(d.year()),
+                                  static_cast<int>(d.month()), static_cast<int>(d.day()),
+                                  tod.hours(), tod.minutes());
+    if (tod.seconds() != 0) {
+        out += fmt::format(":{:02d}", tod.seconds());
+    }
+    return out + "Z";
+}
+
+double hours(const boost::posix_time::time_duration& d) {
+    return static_cast<double>(d.total_microseconds()) / 3.6e9;
+}
+
+boost::posix_time::time_duration duration_from_hours(double h) {
+    return boost::posix_time::microseconds(static_cast<std::int64_t>(std::llround(h * 3.6e9)));
+}
+
+} // namespace crewdose::planner

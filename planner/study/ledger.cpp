@@ -1,0 +1,475 @@
+#include "planner/study/ledger.hpp"
+
+#include "planner/scenario/time_format.hpp"
+#include "planner/study/result_guard.hpp"
+
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <set>
+#include <stdexcept>
+
+namespace crewdose::planner {
+namespace {
+
+using boost::posix_time::time_duration;
+
+double cumulative(const std::vector<DosePiece>& pieces, const Time& t) {
+    double sum = 0.0;
+    for (const auto& p : pieces) {
+        sum += 1e3 * p.dose.rbe_weighted_GyEq * p.fraction_by(t);
+    }
+    return sum;
+}
+
+} // namespace
+
+double DosePiece::fraction_by(const Time& t) const {
+    if (t < start) {
+        return 0.0;
+    }
+    if (t >= end) {
+        return 1.0;
+    }
+    if (event && timing) {
+        const double a = hours(start - event->flare_seen);
+        const double whole =
+            timing->fraction_between(a, hours(end - event->flare_seen), event->profile);
+        return whole > 0.0
+                   ? timing->fraction_between(a, hours(t - event->flare_seen), event->profile) /
+                         whole
+                   : 1.0;
+    }
+    return hours(t - start) / hours(end - start);
+}
+
+std::vector<double> cumulative_at(const std::vector<DosePiece>& pieces,
+                                  const std::vector<Time>& times) {
+    // A sweep in time: pieces that have ended count whole, those under way by their fraction.
+    // On a crew member's timeline pieces hardly overlap (one activity at a time), so the set
+    // under way stays small and the sweep is linear after the sorts.
+    std::vector<std::size_t> by_start(pieces.size());
+    for (std::size_t i = 0; i < pieces.size(); ++i) {
+        by_start[i] = i;
+    }
+    std::vector<std::size_t> by_end = by_start;
+    std::sort(by_start.begin(), by_start.end(),
+              [&](std::size_t a, std::size_t b) { return pieces[a].start < pieces[b].start; });
+    std::sort(by_end.begin(), by_end.end(),
+              [&](std::size_t a, std::size_t b) { return pieces[a].end < pieces[b].end; });
+    std::vector<double> out(times.size());
+    std::vector<std::size_t> under_way;
+    double done = 0.0;
+    std::size_t next_start = 0;
+    std::size_t next_end = 0;
+    for (std::size_t q = 0; q < times.size(); ++q) {
+        const Time& t = times[q];
+        if (q > 0 && t < times[q - 1]) {
+            throw std::logic_error("cumulative_at: times must be sorted");
+        }
+        while (next_start < by_start.size() && !(t < pieces[by_start[next_start]].start)) {
+            under_way.push_back(by_start[next_start++]);
+        }
+        while (next_end < by_end.size() && !(t < pieces[by_end[next_end]].end)) {
+            done += 1e3 * pieces[by_end[next_end++]].dose.rbe_weighted_GyEq;
+        }
+        double partial = 0.0;
+        std::size_t kept = 0;
+        for (const std::size_t i : under_way) {
+            if (t < pieces[i].end) {
+                partial += 1e3 * pieces[i].dose.rbe_weighted_GyEq * pieces[i].fraction_by(t);
+                under_way[kept++] = i;
+            }
+        }
+        under_way.resize(kept);
+        out[q] = done + partial;
+    }
+    return out;
+}
+
+WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration length,
+                         time_duration step) {
+    WindowMax best;
+    if (pieces.empty()) {
+        return best;
+    }
+    // Candidate window ends: every piece boundary and the same plus the window length (the
+    // maxima of a piecewise-smooth running window lie there), and steps inside event pieces.
+    std::set<Time> ends;
+    for (const auto& p : pieces) {
+        for (const Time& t : {p.start, p.end}) {
+            ends.insert(t);
+            ends.insert(t + length);
+        }
+        if (p.event) {
+            for (Time t = p.start; t < p.end; t += step) {
+                ends.insert(t);
+                ends.insert(t + length);
+            }
+        }
+    }
+    // The cumulative dose at every window end and start, in one sweep.
+    std::vector<Time> times;
+    times.reserve(2 * ends.size());
+    for (const Time& e : ends) {
+        times.push_back(e);
+        times.push_back(e - length);
+    }
+    std::sort(times.begin(), times.end());
+    times.erase(std::unique(times.begin(), times.end()), times.end());
+    const std::vector<double> C = cumulative_at(pieces, times);
+    auto at = [&](const Time& t) {
+        return C[static_cast<std::size_t>(std::lower_bound(times.begin(), times.end(), t) -
+                                          times.begin())];
+    };
+    for (const Time& e : ends) {
+        const double d = require_finite(at(e) - at(e - length), "a rolling-window dose");
+        if (d > best.dose_mGyEq) {
+            best.dose_mGyEq = d;
+            best.window_end = e;
+            best.window_start = e - length;
+        }
+    }
+    if (best.dose_mGyEq > 0.0) {
+        double top = 0.0;
+        for (const auto& p : pieces) {
+            const double part = 1e3 * p.dose.rbe_weighted_GyEq *
+                                (p.fraction_by(best.window_end) - p.fraction_by(best.window_start));
+            if (part > top) {
+                top = part;
+                best.top_contributor = p.source + " during " + p.activity;
+            }
+        }
+    }
+    return best;
+}
+
+std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew, bool allow_gaps,
+                                        std::vector<Gap>& gaps) {
+    std::vector<TimelineSpan> spans;
+    for (const auto& a : sc.activities) {
+        if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
+            spans.push_back(
+                {a.start, a.end, a.location,
+                 fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line),
+                 &a});
+        }
+    }
+    std::sort(spans.begin(), spans.end(),
+              [](const TimelineSpan& x, const TimelineSpan& y) { return x.start < y.start; });
+    if (spans.empty()) {
+        throw InputError(crew.where, "crew",
+                         fmt::format("crew member '{}' has no activities; "
+                                     "the timeline must cover the mission",
+                                     crew.id));
+    }
+    std::vector<TimelineSpan> filled;
+    Time cursor = sc.mission.start;
+    for (std::size_t i = 0; i <= spans.size(); ++i) {
+        const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
+        if (next > cursor) {
+            if (!allow_gaps) {
+                // The loader's own check (refuse_timeline_gaps) names the same activity.
+                const auto& next_to = i > 0 ? spans[i - 1] : spans[0];
+                throw InputError(next_to.activity->where, "activity",
+                                 fmt::format("crew member '{}' has no activity from {} to {}; "
+                                             "cover the whole mission or run with "
+                                             "--allow-gaps",
+                                             crew.id, format_time(cursor), format_time(next)));
+            }
+            const std::string at = i > 0 ? spans[i - 1].location : spans[0].location;
+            gaps.push_back({crew.id, cursor, next, at});
+            filled.push_back({cursor, next, at, fmt::format("gap charged at {}", at), nullptr});
+        }
+        if (i < spans.size()) {
+            filled.push_back(spans[i]);
+            cursor = std::max(cursor, spans[i].end);
+        }
+    }
+    return filled;
+}
+
+double highest_30d_without(const LedgerResult& ledger, const std::string& crew,
+                           const std::string& organ, const EventSpec* excluded) {
+    const auto it = ledger.pieces.find({crew, organ});
+    if (it == ledger.pieces.end()) {
+        return 0.0;
+    }
+    std::vector<DosePiece> others;
+    for (const auto& p : it->second) {
+        if (!excluded || p.event == nullptr || p.event->id != excluded->id) {
+            others.push_back(p);
+        }
+    }
+    return window_maximum(others, boost::posix_time::hours(24 * 30), LedgerOptions{}.profile_step)
+        .dose_mGyEq;
+}
+
+Budget remaining_budget(const std::vector<LimitCheck>& checks,
+                        const std::vector<OrganResult>& organs, double mission_days) {
+    Budget best;
+    for (const auto& c : checks) {
+        const auto organ = std::find_if(organs.begin(), organs.end(), [&](const OrganResult& o) {
+            return o.organ == c.limit.organ;
+        });
+        if (organ == organs.end() || !(mission_days > 0.0)) {
+            continue;
+        }
+        const double rate = organ->gcr.mGyEq / mission_days;
+        double days = 0.0;
+        if (!c.exceeded) {
+            if (!(rate > 0.0)) {
+                continue;
+            }
+            days = c.margin / rate;
+            const double window_days =
+                c.limit.window == "30-day" ? 30.0 : (c.limit.window == "annual" ? 365.0 : 0.0);
+            if (window_days > 0.0 && days > window_days) {
+                continue; // the background alone never fills this window
+            }
+        }
+        if (!best.binds || days < best.days) {
+            best = {true, days, c.limit.organ, c.limit.window, rate};
+        }
+    }
+    return best;
+}
+
+namespace {
+
+// A dose given in the scenario for an organ (mGy-Eq) or, for "effective", in mSv.
+std::optional<double> stated_dose(const OrganDoses& d, const std::string& organ) {
+    if (organ == "effective") {
+        return d.effective_mSv;
+    }
+    if (const auto it = d.mGyEq.find(organ); it != d.mGyEq.end()) {
+        return it->second;
+    }
+    return std::nullopt;
+}
+
+} // namespace
+
+namespace {
+
+// Every number of a crew member's result is one that was computed (result_guard.hpp).
+void verify(const CrewResult& c) {
+    const std::string who = "crew member '" + c.crew + "': ";
+    for (const auto& o : c.organs) {
+        const std::string what = who + o.organ;
+        for (const DoseTotals* t : {&o.gcr, &o.spe, &o.other}) {
+            require_dose(t->mGyEq, what + " mission dose");
+            require_dose(t->absorbed_mGy, what + " absorbed dose");
+            require_dose(t->dose_equivalent_mSv, what + " dose equivalent");
+        }
+        require_dose(o.max_30d.dose_mGyEq, what + " highest 30-day dose");
+        require_dose(o.max_365d.dose_mGyEq, what + " highest 365-day dose");
+        require_dose(o.career_mGyEq, what + " career dose");
+        require_dose(o.mission_mGyEq, what + " mission dose");
+        require_dose(o.mission_absorbed_mGy, what + " mission absorbed dose");
+        require_dose(o.mission_dose_equivalent_mSv, what + " mission dose equivalent");
+    }
+    for (const auto& chk : c.checks) {
+        require_dose(chk.dose, who + chk.limit.organ + " " + chk.limit.window + " dose");
+        require_finite(chk.margin, who + chk.limit.organ + " " + chk.limit.window + " margin");
+    }
+    require_finite(c.budget.days, who + "budget left");
+    require_dose(c.budget.rate_mGyEq_per_day, who + "GCR rate");
+    for (const auto& [name, dose] : c.contributors) {
+        require_dose(dose, who + "contribution of " + name);
+    }
+}
+
+} // namespace
+
+LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
+    if (study.partial()) {
+        throw std::logic_error("build_ledger: the study holds one location, the ledger needs all");
+    }
+    const Scenario& sc = study.scenario();
+    LedgerResult out;
+    const double uf = sc.limits.uncertainty_factor;
+    for (const auto& crew : sc.crew) {
+        const std::vector<TimelineSpan> filled =
+            crew_timeline(sc, crew, options.allow_gaps, out.gaps);
+
+        CrewResult result;
+        result.crew = crew.id;
+        result.name = crew.name;
+        double lowest_margin = 1e300;
+        for (const auto& organ : ledger_organs()) {
+            std::vector<std::string> lacking;
+            for (const auto& span : filled) {
+                if (!study.has_organ(span.location, organ) &&
+                    std::find(lacking.begin(), lacking.end(), span.location) == lacking.end()) {
+                    lacking.push_back(span.location);
+                }
+            }
+            if (!lacking.empty()) {
+                result.not_evaluated[organ] = lacking;
+                continue;
+            }
+            // The effective dose is limited in mSv: its pieces carry the dose equivalent in
+            // every field, so that the window arithmetic (on the RBE-weighted field) sums it.
+            const bool effective = organ == "effective";
+            auto as_limited = [effective](exposure::DoseQuantities d) {
+                if (effective) {
+                    d.rbe_weighted_GyEq = d.dose_equivalent_Sv;
+                    d.absorbed_Gy = d.dose_equivalent_Sv;
+                }
+                return d;
+            };
+            std::vector<DosePiece> pieces;
+            for (const auto& span : filled) {
+                for (const auto& ev : sc.events) {
+                    const ArrivalGroups& timing = study.event_timing(span.location, organ, ev);
+                    const double f =
+                        timing.fraction_between(hours(span.start - ev.flare_seen),
+                                                hours(span.end - ev.flare_seen), ev.profile);
+                    if (f <= 0.0) {
+                        continue;
+                    }
+                    const auto full = study.event_dose(span.location, organ, ev);
+                    pieces.push_back({span.start, span.end, as_limited(full).scaled(f * uf), &ev,
+                                      "SPE " + ev.id, span.label, &timing});
+                }
+                // GCR: the location's daily rate over the span, cut where phi changes.
+                std::vector<Time> cuts{span.start};
+                for (const auto& phase : sc.mission.gcr_phases) {
+                    if (phase.from > span.start && phase.from < span.end) {
+                        cuts.push_back(phase.from);
+                    }
+                }
+                cuts.push_back(span.end);
+                for (std::size_t c = 0; c + 1 < cuts.size(); ++c) {
+                    const double phi = sc.mission.gcr_phi_at(cuts[c]);
+                    const double days =
+                        static_cast<double>((cuts[c + 1] - cuts[c]).total_seconds()) / 86400.0;
+                    const auto rate = study.gcr_daily_dose(span.location, organ, phi).for_limits();
+                    pieces.push_back({cuts[c], cuts[c + 1], as_limited(rate).scaled(days * uf),
+                                      nullptr, kGcrSource, span.label});
+                }
+            }
+            // Recorded doses: replace the modelled dose of their period (the pieces are cut
+            // there) or add to it (doses the tool does not model).
+            for (const auto& rec : sc.recorded) {
+                if (rec.crew != crew.id) {
+                    continue;
+                }
+                // A reading replaces the model only for the organs it gives: an organ it is
+                // silent on keeps its modelled dose (dropping it would not be conservative).
+                if (rec.replaces_model && stated_dose(rec.doses, organ)) {
+                    std::vector<DosePiece> kept;
+                    for (const auto& p : pieces) {
+                        const double before = p.fraction_by(rec.start);
+                        const double after = 1.0 - p.fraction_by(rec.end);
+                        if (before > 0.0) {
+                            DosePiece q = p;
+                            q.end = std::min(p.end, rec.start);
+                            q.dose = p.dose.scaled(before);
+                            kept.push_back(q);
+                        }
+                        if (after > 0.0) {
+                            DosePiece q = p;
+                            q.start = std::max(p.start, rec.end);
+                            q.dose = p.dose.scaled(after);
+                            kept.push_back(q);
+                        }
+                    }
+                    pieces = std::move(kept);
+                }
+                if (const auto value = stated_dose(rec.doses, organ)) {
+                    const double gyeq = *value * 1e-3;
+                    pieces.push_back({rec.start,
+                                      rec.end,
+                                      {gyeq, gyeq, gyeq},
+                                      nullptr,
+                                      "recorded (" + rec.source + ")",
+                                      fmt::format("line {}", rec.where.line)});
+                }
+            }
+            for (const auto& p : pieces) {
+                require_dose(p.dose,
+                             fmt::format("the {} dose of crew member '{}' from {} during {}", organ,
+                                         crew.id, p.source, p.activity));
+            }
+            OrganResult r;
+            r.organ = organ;
+            for (const auto& p : pieces) {
+                if (p.source == kGcrSource) {
+                    r.gcr.add(p.dose);
+                } else if (p.event) {
+                    r.spe.add(p.dose);
+                } else {
+                    r.other.add(p.dose);
+                }
+                r.mission_mGyEq += 1e3 * p.dose.rbe_weighted_GyEq;
+                r.mission_absorbed_mGy += 1e3 * p.dose.absorbed_Gy;
+                r.mission_dose_equivalent_mSv += 1e3 * p.dose.dose_equivalent_Sv;
+                if (organ == "bfo") {
+                    result.contributors.emplace_back(p.source + " during " + p.activity,
+                                                     1e3 * p.dose.rbe_weighted_GyEq);
+                }
+            }
+            for (const auto& prior : crew.prior) {
+                if (const auto value = stated_dose(prior.doses, organ)) {
+                    const double gyeq = *value * 1e-3;
+                    pieces.push_back({prior.start,
+                                      prior.end,
+                                      {gyeq, gyeq, gyeq},
+                                      nullptr,
+                                      "prior dose",
+                                      fmt::format("line {}", prior.where.line)});
+                }
+            }
+            r.career_mGyEq = cumulative(pieces, sc.mission.end);
+            r.max_30d =
+                window_maximum(pieces, boost::posix_time::hours(24 * 30), options.profile_step);
+            r.max_365d =
+                window_maximum(pieces, boost::posix_time::hours(24 * 365), options.profile_step);
+            for (const auto& limit : sc.limits.limits) {
+                if (limit.organ != organ) {
+                    continue;
+                }
+                LimitCheck c;
+                c.limit = limit;
+                const WindowMax* w = nullptr;
+                if (limit.window == "30-day") {
+                    w = &r.max_30d;
+                    c.dose = r.max_30d.dose_mGyEq;
+                } else if (limit.window == "annual") {
+                    w = &r.max_365d;
+                    c.dose = r.max_365d.dose_mGyEq;
+                } else {
+                    c.dose = r.career_mGyEq;
+                }
+                c.margin = limit.value - c.dose;
+                // Written so that a dose that is not a number can never read as within.
+                c.exceeded = !(c.dose <= limit.value);
+                if (w && w->dose_mGyEq > 0.0) {
+                    c.window_text =
+                        format_time(w->window_start) + " to " + format_time(w->window_end);
+                    c.top_contributor = w->top_contributor;
+                }
+                out.any_exceeded = out.any_exceeded || c.exceeded;
+                if (c.margin / limit.value < lowest_margin) {
+                    lowest_margin = c.margin / limit.value;
+                    result.pieces = pieces;
+                }
+                result.checks.push_back(c);
+            }
+            out.pieces[{crew.id, organ}] = pieces;
+            result.organs.push_back(r);
+        }
+        std::sort(result.contributors.begin(), result.contributors.end(),
+                  [](const auto& a, const auto& b) { return a.second > b.second; });
+        result.budget = remaining_budget(result.checks, result.organs,
+                                         hours(sc.mission.end - sc.mission.start) / 24.0);
+        verify(result);
+        out.crew.push_back(std::move(result));
+    }
+    return out;
+}
+
+} // namespace crewdose::planner

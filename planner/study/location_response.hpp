@@ -1,0 +1,231 @@
+#pragma once
+// The bridge between geometry and physics: per organ, the response of a location as the
+// equal-weight mean over directions of the response along each direction's combined path
+// (atmosphere, scene walls, suit, tissue). DESIGN.md items 5 and 7: the fields are isotropic,
+// every direction receives the full omnidirectional fluence, and directions blocked by the
+// ground count as zero.
+#include "planner/scenario/location_model.hpp"
+
+#include "exposure/fragment_transport.hpp"
+#include "exposure/response.hpp"
+#include "exposure/table_library.hpp"
+#include "habitats/directional_shielding.hpp"
+#include "habitats/phantom.hpp"
+#include "habitats/scene.hpp"
+#include "habitats/surroundings.hpp"
+
+#include <functional>
+#include <map>
+#include <optional>
+#include <span>
+#include <string>
+#include <string_view>
+#include <vector>
+
+namespace crewdose::planner {
+
+/// An organ of the quick screening body model: the same tissue depth in every direction
+/// (conservative; common practice depths skin 0.07 mm, lens 3 mm, BFO 5 cm).
+struct QuickOrgan {
+    std::string name;
+    double depth_g_cm2;
+};
+[[nodiscard]] std::vector<QuickOrgan> quick_body_model();
+
+/// How a body model puts tissue in front of its organs: a grid of tissue areal densities shared
+/// by every organ and, per direction and organ, weights on that grid that sum to 1 (the tissue
+/// depths of the organ's sample points along the direction, each split between its two
+/// neighbouring nodes in proportion to its distance from them). The dose of an organ along a
+/// direction is then the weighted sum of the doses at the grid depths. The quick model has one
+/// node per organ and the same weights in every direction; the phantom's depend on direction.
+struct BodyDepths {
+    std::string model;               ///< "quick" or "phantom"
+    std::vector<std::string> organs; ///< organ ids, in output order
+    std::vector<double> grid_g_cm2;  ///< increasing tissue areal densities
+    std::size_t directions = 0;      ///< 0: one block of weights for every direction
+    /// Row-major [direction][organ][grid node] (only [organ][node] when `directions` is 0).
+    std::vector<double> weights;
+
+    /// The weights of one organ along direction `k` (grid-sized).
+    [[nodiscard]] std::span<const double> of(std::size_t k, std::size_t organ) const {
+        const std::size_t block = organs.size() * grid_g_cm2.size();
+        const std::size_t base = (directions == 0 ? 0 : k * block) + organ * grid_g_cm2.size();
+        return {weights.data() + base, grid_g_cm2.size()};
+    }
+    /// The grid nodes some organ has weight on along direction `k`, increasing, into `nodes`.
+    void needed_nodes(std::size_t k, std::vector<std::size_t>& nodes) const {
+        nodes.clear();
+        for (std::size_t g = 0; g < grid_g_cm2.size(); ++g) {
+            for (std::size_t o = 0; o < organs.size(); ++o) {
+                if (of(k, o)[g] != 0.0) {
+                    nodes.push_back(g);
+                    break;
+                }
+            }
+        }
+    }
+};
+
+/// The quick model as BodyDepths: skin, lens and BFO each at its one depth.
+[[nodiscard]] BodyDepths quick_body_depths();
+
+/// Phantom points each direction uses per organ region (of the 512 each region has).
+/// Convergence: tests/unit/phantom_test.
+inline constexpr std::size_t kPhantomPointsPerDirection = 32;
+/// The skin takes this many times as many points per direction (whether a surface point faces
+/// the direction decides its dose; convergence: tests/unit/phantom_convergence_test).
+inline constexpr std::size_t kSkinPointsFactor = 4;
+
+/// The phantom's tissue-depth grid, g/cm2: the skin and lens depths, then nodes from 0.5 to
+/// 160 g/cm2 (the longest path through the body) about 20 % apart. Convergence against a grid
+/// twice as fine and against every sample point's own depth: tests/unit/phantom_test.
+[[nodiscard]] std::vector<double> phantom_depth_grid();
+
+/// The organs a phantom location reports: "skin", the mean over the body's surface of the
+/// dose 0.07 mm below it (each point with the body behind it), "lens" at the quick model's
+/// 3 mm in every direction (the phantom has no eyes), "bfo" the active marrow, "heart" and "brain"
+/// (the circulatory and CNS limits), and "effective": the ICRP 103 tissue-weighted sum of the
+/// phantom's organs (exposure::icrp103_tissue_weights), so that its dose equivalent is the
+/// effective dose. Tissues the phantom lacks take a named proxy: oesophagus -> thymus, salivary
+/// glands -> thyroid, bone surface -> active marrow; the remainder is the mean of the remainder
+/// tissues it has.
+///
+/// Each direction uses `points_per_direction` of each organ region's points (the skin four
+/// times as many), a different block of them for each direction in turn (stratified sampling:
+/// over all directions every point is used); 0 uses every point in every direction (the
+/// reference).
+[[nodiscard]] BodyDepths
+phantom_body_depths(const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
+                    const std::vector<habitats::Vector3>& directions,
+                    const std::vector<double>& grid_g_cm2,
+                    std::size_t points_per_direction = kPhantomPointsPerDirection);
+
+/// A coarser grid for the GCR marches (the GCR dose changes slowly with depth; every node is a
+/// step boundary of the march): the skin and lens depths, then 1 to 46 g/cm2 about 45 % apart;
+/// deeper points count at 46 g/cm2 (the GCR dose falls with depth: the higher value; 0.2 % on
+/// the organ doses against nodes to 160 g/cm2). Against phantom_depth_grid():
+/// tests/unit/phantom_test.
+[[nodiscard]] std::vector<double> phantom_gcr_depth_grid();
+
+/// The adult phantom every phantom location shares (built once, thread-safe).
+[[nodiscard]] const habitats::Phantom& shared_phantom();
+
+/// One sample point's tissue along one direction, for reports: the direction's index, the
+/// tissue areal density (g/cm2) and the point's weight in the reported organ (the weights of
+/// one direction sum to 1 per organ).
+struct DepthSample {
+    std::size_t direction = 0;
+    double tissue_g_cm2 = 0.0;
+    double weight = 0.0;
+};
+
+/// The same on several grids at once (one ray trace per point and direction for all), the
+/// directions shared among `threads` threads (the result does not depend on their number).
+/// With `samples`, also every traced depth before it is split onto the grid, per reported
+/// organ (then on one thread).
+[[nodiscard]] std::vector<BodyDepths> phantom_body_depths(
+    const habitats::Phantom& phantom, habitats::Posture posture, double heading_deg,
+    const std::vector<habitats::Vector3>& directions, std::span<const std::vector<double>> grids,
+    std::size_t points_per_direction = kPhantomPointsPerDirection, std::size_t threads = 1,
+    std::vector<std::vector<DepthSample>>* samples = nullptr);
+
+/// Which phantom organ stands for an ICRP 103 tissue (the tissue itself where the phantom has
+/// it), or "" for "remainder".
+[[nodiscard]] std::string phantom_organ_for(std::string_view icrp_tissue);
+
+/// Everything that sets the shielding around one dose point.
+struct LocationGeometry {
+    const habitats::Scene* scene = nullptr; ///< may be null: no structures
+    /// Imported shielding instead of a scene (each direction takes the nearest table row);
+    /// evaluate such a location over the table's own directions.
+    const habitats::DirectionalShielding* imported = nullptr;
+    habitats::Point3 point; ///< dose point, m
+    habitats::Surroundings surroundings;
+    std::string atmosphere_material_id = "mars-atmosphere";
+    std::optional<SuitModel> suit; ///< no suit when empty
+    double heading_deg = 0.0;      ///< compass azimuth the person faces
+    /// Lying on the back puts a suit's pack under the wearer instead of behind.
+    habitats::Posture posture = habitats::Posture::standing;
+    /// A uniform shell around the dose point, the same in every direction that is not blocked,
+    /// inside the walls and outside the suit (shelter sizing adds one), outermost first.
+    std::vector<habitats::PathSegment> shell;
+};
+
+/// The response of one organ at a location, and what the directions saw.
+struct OrganResponse {
+    std::string organ;
+    exposure::PathResponse response; ///< mean over directions (blocked ones as zero)
+    double blocked_fraction = 0.0;   ///< share of directions ending in the ground
+};
+
+/// Maps a material id from the geometry to a material; throws InputError when unknown.
+using MaterialResolver = std::function<const exposure::Material&(const std::string&)>;
+
+/// Responses for the quick body model's organs at a location, over `directions` (unit
+/// vectors, equal weight).
+[[nodiscard]] std::vector<OrganResponse>
+quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& materials,
+                      const LocationGeometry& where,
+                      const std::vector<habitats::Vector3>& directions);
+
+/// The same for any transported particle (the GCR nuclei): the tables of `particle` in every
+/// material crossed, tissue as the dose medium.
+[[nodiscard]] std::vector<OrganResponse>
+quick_model_responses(exposure::TableLibrary& tables, const MaterialResolver& materials,
+                      const LocationGeometry& where,
+                      const std::vector<habitats::Vector3>& directions,
+                      const exposure::Particle& particle);
+
+/// Responses of a body model's organs at a location: per direction, one path response for each
+/// grid depth some organ needs, combined with the organs' weights (BodyDepths). `body` must
+/// have been built for `directions` (or be direction-independent).
+[[nodiscard]] std::vector<OrganResponse>
+body_responses(exposure::TableLibrary& tables, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, const exposure::Particle& particle = exposure::proton());
+
+/// Two marches of one field: for the GCR bracket, with nuclear reactions (removal, projectile
+/// fragments and the secondaries: the modelled physics) and without any (every nucleus keeps
+/// its charge), limits using the higher of each quantity; for an SPE's secondary factor, the
+/// whole field and the primaries alone.
+struct GcrMarches {
+    exposure::FragmentTransport& with_reactions;
+    exposure::FragmentTransport& without_reactions;
+};
+
+/// GCR dose rates per day of the quick body model's organs at a location, per modulation
+/// potential: the whole ion field (exposure::gcr_free_space_field) marched through each
+/// direction's combined path, the organs scored one after the other along the tissue (so the
+/// external path is crossed once per direction, phi and march), the equal-weight mean over
+/// `directions` with blocked ones as zero. Keyed by (organ, phi); with_removal is the march
+/// with reactions, without_removal the one without.
+[[nodiscard]] std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_quick_model_doses(const GcrMarches& marches, const MaterialResolver& materials,
+                      const LocationGeometry& where,
+                      const std::vector<habitats::Vector3>& directions,
+                      std::span<const double> phis_MV);
+
+/// The same for any body model: along each direction the field is marched through the tissue
+/// grid depths the organs need, in increasing order, and each organ takes its weights of the
+/// doses there.
+[[nodiscard]] std::map<std::pair<std::string, double>, exposure::BracketedDose>
+gcr_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+               const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+               const BodyDepths& body, std::span<const double> phis_MV);
+
+/// The organ doses of any incident fields (each IonField as from gcr_free_space_field(), on
+/// the marches' grid) at a location: each field marched through each direction's path and the
+/// tissue, both marches; the equal-weight mean over every `direction_stride`-th direction of
+/// `directions` (blocked ones as zero). Result [field][organ], organs in body.organs order.
+[[nodiscard]] std::vector<std::vector<exposure::BracketedDose>>
+field_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
+                 const LocationGeometry& where, const std::vector<habitats::Vector3>& directions,
+                 const BodyDepths& body, std::span<const exposure::IonField> fields,
+                 std::size_t direction_stride = 1);
+
+/// The layer path of one direction, outermost first, before any tissue: atmosphere (slant
+/// column, when the site has one), the scene's walls from outside in, any uniform shell, the suit.
+[[nodiscard]] std::vector<habitats::PathSegment> external_path(const LocationGeometry& where,
+                                                               habitats::Vector3 direction);
+
+} // namespace crewdose::planner
