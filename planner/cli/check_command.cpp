@@ -1,0 +1,114 @@
+// The check command: every crew member's doses along the timeline against the limits.
+#include "planner/cli/atomic_file.hpp"
+#include "planner/cli/command.hpp"
+#include "planner/report/check_report.hpp"
+#include "planner/study/ledger.hpp"
+
+#include <cstdlib>
+#include <filesystem>
+#include <unistd.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace crewdose::cli {
+
+Command add_check_command(CLI::App& app) {
+    struct Options {
+        std::string format = "text";
+        std::string scenario_path;
+        std::string out_path;
+        std::string series_path;
+        bool allow_gaps = false;
+    };
+    auto o = std::make_shared<Options>();
+    CLI::App* const sub = [&] {
+        auto& format = o->format;
+        auto& scenario_path = o->scenario_path;
+        auto& out_path = o->out_path;
+        auto& series_path = o->series_path;
+        auto& allow_gaps = o->allow_gaps;
+        auto* check = app.add_subcommand(
+            "check",
+            "Check every crew member's doses along the scenario's timeline against the "
+            "30-day, annual and career planning limits; report margins and where they are "
+            "smallest. Doses are SPE plus the galactic cosmic-ray (GCR) background, "
+            "shown apart.\nBody: each location's body = \"phantom\" (the stylised adult "
+            "phantom: BFO as the active marrow, heart, brain, lens, skin and the ICRP 103 "
+            "effective dose, each organ shielded by the body as placed: posture standing "
+            "or lying, heading_deg) or \"quick\" (default; skin, lens and BFO at 0.07 mm, "
+            "3 mm and 5 cm of tissue in every direction, a conservative screen without "
+            "heart, brain or effective dose).\nGCR: set the modulation potential with "
+            "mission.gcr_phi_MV "
+            "(and [[mission.gcr_modulation]] for later changes); about 400 MV near solar "
+            "minimum, 1000 MV or more near maximum, for the Burger et al. 2000 interstellar "
+            "spectrum the model uses: a phi derived with another spectrum is not "
+            "interchangeable. Without a value the solar-minimum example (400 MV) is used.\n"
+            "Example: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
+            "evaluated limits met; 1: a limit exceeded; 2: bad input; 3: internal fault.");
+        check
+            ->add_option("scenario", scenario_path, "scenario file (TOML; see scenarios/README.md)")
+            ->required();
+        check->add_option("--format,-f", format, "text, json (full precision) or csv")
+            ->capture_default_str();
+        check->add_option("--out,-o", out_path,
+                          "write the report to this file (atomically) "
+                          "instead of standard output");
+        check->add_option(
+            "--series", series_path,
+            "also write cumulative dose and dose rate against time per crew member "
+            "and organ to this CSV file (a unit column: mGy-Eq, or mSv for the effective dose)");
+        check->add_flag("--allow-gaps", allow_gaps,
+                        "accept gaps in a crew member's timeline; each gap is charged at the "
+                        "location of the activity before it and listed in the report");
+        return check;
+    }();
+    return {sub, [o] {
+                auto& format = o->format;
+                auto& scenario_path = o->scenario_path;
+                auto& out_path = o->out_path;
+                auto& series_path = o->series_path;
+                auto& allow_gaps = o->allow_gaps;
+                const auto fmt_choice = planner::parse_output_format(format);
+
+                auto sc = planner::load_scenario(scenario_path);
+                if (!allow_gaps) {
+                    planner::refuse_timeline_gaps(sc);
+                }
+                const planner::Study study(std::move(sc));
+                std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
+                for (const auto& loc : study.scenario().locations) {
+                    if (loc.shielding_table_file) {
+                        inputs.push_back({"shielding table",
+                                          (std::filesystem::path(scenario_path).parent_path() /
+                                           *loc.shielding_table_file)
+                                              .string()});
+                    }
+                }
+                planner::refuse_clashing_outputs(inputs,
+                                                 {{"--out", out_path}, {"--series", series_path}});
+                planner::LedgerOptions options;
+                options.allow_gaps = allow_gaps;
+                const auto ledger = planner::build_ledger(study, options);
+                const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
+                                    isatty(fileno(stdout)) != 0 &&
+                                    std::getenv("NO_COLOR") == nullptr;
+                const std::string report =
+                    planner::format_check_report(study, ledger, fmt_choice, colour);
+                // Both files are prepared before either is written, so bad input writes nothing.
+                const std::string series =
+                    series_path.empty() ? "" : planner::format_series(study, ledger);
+                if (!series_path.empty()) {
+                    planner::write_file_atomically(series_path, series, "--series");
+                }
+                if (out_path.empty()) {
+                    write_stdout(report);
+                } else {
+                    planner::write_file_atomically(out_path, report, "--out");
+                }
+                return ledger.any_exceeded ? 1 : 0;
+            }};
+}
+
+} // namespace crewdose::cli

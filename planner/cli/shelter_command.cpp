@@ -1,0 +1,101 @@
+// The shelter command: the least areal density that keeps a design event within the targets.
+#include "planner/cli/command.hpp"
+#include "planner/report/shelter_report.hpp"
+#include "planner/study/study.hpp"
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace crewdose::cli {
+
+Command add_shelter_command(CLI::App& app) {
+    struct Options {
+        std::string format = "text";
+        std::string scenario_path;
+        std::string location_id;
+        std::string event_id;
+        std::vector<std::string> shelter_materials;
+        std::vector<std::string> shelter_targets;
+        std::string shelter_layer;
+        double shelter_max = 200.0;
+    };
+    auto o = std::make_shared<Options>();
+    CLI::App* const sub = [&] {
+        auto& format = o->format;
+        auto& scenario_path = o->scenario_path;
+        auto& location_id = o->location_id;
+        auto& event_id = o->event_id;
+        auto& shelter_materials = o->shelter_materials;
+        auto& shelter_targets = o->shelter_targets;
+        auto& shelter_layer = o->shelter_layer;
+        auto& shelter_max = o->shelter_max;
+        auto* shelter = app.add_subcommand(
+            "shelter",
+            "Size a storm shelter: the least areal density of each material that keeps the design "
+            "event, received whole in the shelter, plus the crew's highest other 30-day dose "
+            "within "
+            "every target (default: the 30-day planning limits; uncertainty factor and the removal "
+            "bracket applied; the location's body model: at a phantom location the heart and brain "
+            "limits are targets too). Without --layer a uniform shell "
+            "is added around the dose point; with --layer SOLID:LAYER the material is added "
+            "directly "
+            "inside that layer of the solid and the added mass is given for its real geometry. "
+            "Prints the answer per material and a dose-thickness table around it; a target that no "
+            "thickness up to --max-g-cm2 meets is reported as not achievable.\nExample: crewdose "
+            "shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter "
+            "--material water --material polyethylene --target bfo=150");
+        shelter->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+        shelter->add_option("--event,-e", event_id, "the design event (an event id)")->required();
+        shelter->add_option("--location,-l", location_id, "the shelter's location id")->required();
+        shelter->add_option("--material,-m", shelter_materials,
+                            "material to add (repeat for several; default water)");
+        shelter->add_option("--target,-t", shelter_targets,
+                            "ORGAN=VALUE in mGy-Eq, e.g. bfo=250mGyEq (repeat; organs bfo, lens, "
+                            "skin; others keep their 30-day planning limit)");
+        shelter->add_option("--layer", shelter_layer,
+                            "SOLID:LAYER, the wall layer to back with the material (LAYER: its "
+                            "number, 1 = outermost, or its material)");
+        shelter->add_option("--max-g-cm2", shelter_max, "largest areal density to try")
+            ->capture_default_str();
+        shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+
+        return shelter;
+    }();
+    return {sub, [o] {
+                auto& format = o->format;
+                auto& scenario_path = o->scenario_path;
+                auto& location_id = o->location_id;
+                auto& event_id = o->event_id;
+                auto& shelter_materials = o->shelter_materials;
+                auto& shelter_targets = o->shelter_targets;
+                auto& shelter_layer = o->shelter_layer;
+                auto& shelter_max = o->shelter_max;
+                const auto fmt_choice = planner::parse_output_format(format);
+
+                const planner::Study study(planner::load_scenario(scenario_path));
+                planner::ShelterRequest request;
+                request.event_id = event_id;
+                request.location_id = location_id;
+                if (!shelter_materials.empty()) {
+                    request.materials = shelter_materials;
+                }
+                for (const auto& t : shelter_targets) {
+                    planner::parse_shelter_target(t, request.targets);
+                }
+                if (!shelter_layer.empty()) {
+                    planner::parse_shelter_layer(study, shelter_layer, request);
+                }
+                request.max_g_cm2 = shelter_max;
+                const auto report = planner::size_shelter(study, request);
+                write_stdout(planner::format_shelter_report(study, report, fmt_choice));
+                for (const auto& a : report.answers) {
+                    if (!a.achievable) {
+                        return 1;
+                    }
+                }
+                return 0;
+            }};
+}
+
+} // namespace crewdose::cli

@@ -1,0 +1,142 @@
+// The storm command: one what-if of an event's onset, or a sweep of onsets.
+#include "planner/cli/command.hpp"
+#include "planner/report/storm_report.hpp"
+#include "planner/scenario/time_format.hpp"
+#include "planner/study/study.hpp"
+
+#include <chrono>
+#include <cstdio>
+#include <unistd.h>
+
+#include <memory>
+#include <string>
+#include <vector>
+
+namespace crewdose::cli {
+
+Command add_storm_command(CLI::App& app) {
+    struct Options {
+        std::string format = "text";
+        std::string scenario_path;
+        std::string event_id;
+        std::string storm_onset;
+        bool storm_sweep = false;
+        std::string storm_step = "10min";
+        std::string storm_from;
+        std::string storm_to;
+        bool no_response = false;
+    };
+    auto o = std::make_shared<Options>();
+    CLI::App* const sub = [&] {
+        auto& format = o->format;
+        auto& scenario_path = o->scenario_path;
+        auto& event_id = o->event_id;
+        auto& storm_onset = o->storm_onset;
+        auto& storm_sweep = o->storm_sweep;
+        auto& storm_step = o->storm_step;
+        auto& storm_from = o->storm_from;
+        auto& storm_to = o->storm_to;
+        auto& no_response = o->no_response;
+        auto* storm = app.add_subcommand(
+            "storm",
+            "What if a solar particle event starts at a given moment? t0 is when the flare is seen "
+            "at the site (its light has arrived); protons of each energy then arrive scatter-free "
+            "along the field line, L/v(E) - r/c later: the earliest possible arrival (an event "
+            "with "
+            "a fixed arrival_delay_h in the scenario arrives at once). The crew respond by the "
+            "scenario's [storm_response] policy (warning delay, return from EVA, move to the "
+            "shelter, all-clear). Per crew member and organ: the event's dose with and without the "
+            "response, what the response saved, and the 30-day margin. Organs: BFO, lens and skin; "
+            "heart and brain too for a crew member whose every possible place (timeline, shelter, "
+            "refuges) uses the phantom body model.\n"
+            "--onset T: one what-if. --sweep: t0 swept over the timeline every --step (default "
+            "10min, --from/--to default the mission), plus the onsets where the policy changes; "
+            "per "
+            "crew member the worst onset, per EVA a go/no-go, and a text profile.\n"
+            "Example: crewdose storm scenarios/lunar-demo.toml --event design-spe --sweep\n"
+            "Exit 0: every 30-day limit met; 1: some what-if breaks one; 2: bad input; 3: internal "
+            "fault.");
+        storm->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
+        storm->add_option("--event,-e", event_id, "the design event (an event id)")->required();
+        auto* onset_opt = storm->add_option("--onset", storm_onset,
+                                            "t0 of one what-if, RFC 3339 (2032-03-11T10:30:00Z)");
+        auto* sweep_opt = storm->add_flag("--sweep", storm_sweep, "sweep t0 over the timeline");
+        onset_opt->excludes(sweep_opt);
+        storm->add_option("--step", storm_step, "sweep step: 10min, 1min, 30s, 2h ...")
+            ->capture_default_str()
+            ->needs(sweep_opt);
+        storm->add_option("--from", storm_from, "first t0 of the sweep (default: mission start)")
+            ->needs(sweep_opt);
+        storm->add_option("--to", storm_to, "last t0 of the sweep (default: mission end)")
+            ->needs(sweep_opt);
+        storm->add_flag("--no-response", no_response,
+                        "the crew keep to the planned timeline (for comparison)");
+        storm->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+
+        return storm;
+    }();
+    return {sub, [o] {
+                auto& format = o->format;
+                auto& scenario_path = o->scenario_path;
+                auto& event_id = o->event_id;
+                auto& storm_onset = o->storm_onset;
+                auto& storm_sweep = o->storm_sweep;
+                auto& storm_step = o->storm_step;
+                auto& storm_from = o->storm_from;
+                auto& storm_to = o->storm_to;
+                auto& no_response = o->no_response;
+                const auto fmt_choice = planner::parse_output_format(format);
+
+                if (storm_onset.empty() && !storm_sweep) {
+                    throw InputError({"command line", 0}, "storm",
+                                     "give --onset TIME for one what-if or --sweep");
+                }
+                const planner::Study study(planner::load_scenario(scenario_path));
+                const planner::StormContext context(study, event_id, !no_response);
+                const auto& mission = study.scenario().mission;
+                // A time option inside the mission, or its default.
+                auto mission_time = [&](const std::string& text, const char* option,
+                                        planner::Time fallback) {
+                    if (text.empty()) {
+                        return fallback;
+                    }
+                    const auto t = planner::parse_command_time(text, option);
+                    if (t < mission.start || t > mission.end) {
+                        throw InputError({"command line", 0}, option,
+                                         "lies outside the mission (" +
+                                             planner::format_time(mission.start) + " to " +
+                                             planner::format_time(mission.end) + ")");
+                    }
+                    return t;
+                };
+                if (!storm_onset.empty()) {
+                    const auto w = context.at(mission_time(storm_onset, "--onset", mission.start));
+                    write_stdout(planner::format_storm_whatif(context, w, fmt_choice));
+                    return w.any_exceeded() ? 1 : 0;
+                }
+                const auto step = planner::parse_duration(storm_step, "--step");
+                const auto from = mission_time(storm_from, "--from", mission.start);
+                const auto to = mission_time(storm_to, "--to", mission.end);
+                if (!(to > from)) {
+                    throw InputError({"command line", 0}, "--to", "must be after --from");
+                }
+                const bool tty = isatty(fileno(stderr)) != 0;
+                const auto started = std::chrono::steady_clock::now();
+                bool shown = false;
+                auto progress = [&](double f) {
+                    if (tty &&
+                        std::chrono::steady_clock::now() - started > std::chrono::seconds(1)) {
+                        std::fprintf(stderr, "\rsweeping onsets: %3.0f %%", 100.0 * f);
+                        shown = true;
+                    }
+                };
+                const auto sweep = planner::sweep_storm(context, from, to, step, progress);
+                if (shown) {
+                    std::fprintf(stderr, "\r%30s\r", "");
+                }
+                write_stdout(planner::format_storm_sweep(context, sweep, fmt_choice));
+                return sweep.any_exceeded() ? 1 : 0;
+            }};
+}
+
+} // namespace crewdose::cli
