@@ -46,8 +46,13 @@ double parse_surface_pressure(std::string_view text, std::string_view field) {
 }
 
 GcrSite parse_site(std::string_view text, std::string_view field) {
+    if (text == "deep-space") {
+        return GcrSite::deep_space;
+    }
     if (text == "free-space") {
-        return GcrSite::free_space;
+        throw InputError(kCommandLine, std::string(field),
+                         "'free-space' is now spelt 'deep-space', the name scenario files use "
+                         "for a site without ground; allowed: deep-space, moon, mars");
     }
     if (text == "moon") {
         return GcrSite::moon;
@@ -56,7 +61,7 @@ GcrSite parse_site(std::string_view text, std::string_view field) {
         return GcrSite::mars;
     }
     throw InputError(kCommandLine, std::string(field),
-                     fmt::format("'{}' is not a site; allowed: free-space, moon, mars", text));
+                     fmt::format("'{}' is not a site; allowed: deep-space, moon, mars", text));
 }
 
 std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material& shield,
@@ -80,7 +85,7 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     // The site is an empty location: external_path() gives each direction's atmosphere.
     std::vector<habitats::Vector3> directions{{0.0, 0.0, 1.0}};
     LocationGeometry where;
-    if (site.kind != GcrSite::free_space) {
+    if (site.kind != GcrSite::deep_space) {
         directions = habitats::fibonacci_directions(site.directions);
         where.surroundings.ground = true;
         if (site.kind == GcrSite::mars) {

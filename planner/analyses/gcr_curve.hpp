@@ -49,14 +49,14 @@ struct GcrDepthRow {
 };
 
 /// Where the shield stands.
-enum class GcrSite { free_space, moon, mars };
+enum class GcrSite { deep_space, moon, mars };
 struct GcrSiteSpec {
-    GcrSite kind = GcrSite::free_space;
+    GcrSite kind = GcrSite::deep_space;
     double surface_pressure_Pa = 750.0; ///< Mars only
     double scale_height_km = 11.1;      ///< Mars only (the scenario default)
     std::size_t directions = 256;       ///< on a surface: the direction set's size
 };
-/// "free-space", "moon" or "mars"; InputError naming `field` otherwise.
+/// "deep-space", "moon" or "mars"; InputError naming `field` otherwise.
 [[nodiscard]] GcrSite parse_site(std::string_view text, std::string_view field);
 
 /// The Martian surface pressure from the command line: 100 to 2000 Pa; InputError naming
@@ -70,7 +70,7 @@ struct GcrSiteSpec {
 /// Computes the rows with the physics of `check` (the whole field with nuclear reactions and
 /// their secondaries, and the march without any reaction; the march's default 4 g/cm2 step),
 /// scored in `detector` (soft tissue, or silicon or water to compare with detectors), in the
-/// order given, at `site`: free space (one path: the shell is the same everywhere) or a
+/// order given, at `site`: deep space (one path: the shell is the same everywhere) or a
 /// planetary surface (the mean over a direction set, the ground below the horizon as zero,
 /// on Mars the slant column of atmosphere before the shield).
 [[nodiscard]] std::vector<GcrDepthRow>

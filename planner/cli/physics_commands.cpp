@@ -176,7 +176,7 @@ Command add_gcr_command(CLI::App& app) {
         std::string gcr_phi = "400";
         std::string gcr_depths = "0,1,2,5,10,20,50,100";
         bool per_year = false;
-        std::string gcr_site = "free-space";
+        std::string gcr_site = "deep-space";
         std::string gcr_pressure = "750";
         ShieldOptions s;
     };
@@ -191,7 +191,7 @@ Command add_gcr_command(CLI::App& app) {
         auto* gcr = app.add_subcommand(
             "gcr",
             "Galactic cosmic-ray (GCR) dose rate at a tissue depth behind a uniform shield (the "
-            "dose at the centre of a spherical shell, in free space or, with --site, on the "
+            "dose at the centre of a spherical shell, in deep space or, with --site, on the "
             "Moon or Mars), per shield areal density: absorbed dose, dose equivalent, "
             "RBE-weighted dose and the mean quality factor of the whole field (the nuclei with "
             "nuclear removal and projectile fragments, and the secondaries of nucleon "
@@ -209,7 +209,8 @@ Command add_gcr_command(CLI::App& app) {
         add_shield_options(gcr, o->s, gcr_depths);
         gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");
         gcr->add_option("--site", gcr_site,
-                        "free-space (the shield all round), moon (the ground blocks the lower half "
+                        "deep-space (the shield all round, no ground), moon (the ground blocks the "
+                        "lower half "
                         "of the sky) or mars (ground, and the atmosphere's slant column above the "
                         "shield); on a surface the mean over 256 directions")
             ->capture_default_str();

@@ -179,7 +179,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                     {"mission_by_source",
                      {{"gcr", totals_json(o.gcr)},
                       {"spe", totals_json(o.spe)},
-                      {"recorded", totals_json(o.other)}}}};
+                      {"recorded", totals_json(o.recorded)}}}};
             }
             cj["budget"] = {{"binds", c.budget.binds},
                             {"days_after_mission_end", c.budget.days},
@@ -325,7 +325,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                                    significant(t.dose_equivalent_mSv, 3));
             };
             out += fmt::format("  {:<9} {:>16} {:>16} {:>16}\n", organ_label(o.organ), cell(o.gcr),
-                               cell(o.spe), cell(o.other));
+                               cell(o.spe), cell(o.recorded));
         }
         out += "  largest BFO contributors:\n";
         for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {

@@ -64,10 +64,10 @@ std::string site_text(const GcrSiteSpec& site) {
                            "the atmosphere ({:g} Pa, scale height {:g} km) lies along every "
                            "slant path above ({} directions)",
                            site.surface_pressure_Pa, site.scale_height_km, site.directions);
-    case GcrSite::free_space:
+    case GcrSite::deep_space:
         break;
     }
-    return "in free space";
+    return "in deep space";
 }
 
 std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
@@ -84,7 +84,7 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         j["tissue"] = "soft-tissue";
         j["detector"] = detector.id();
         j["per"] = per;
-        j["site"] = site.kind == GcrSite::free_space ? "free-space"
+        j["site"] = site.kind == GcrSite::deep_space ? "deep-space"
                     : site.kind == GcrSite::moon     ? "moon"
                                                      : "mars";
         if (site.kind == GcrSite::mars) {

@@ -82,7 +82,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
     out += wrap(fmt::format(
                     "Sizing rule: the crew receive the whole event in the shelter; its dose ({} "
                     "body model at the shelter; the higher "
-                    "of with and without nuclear removal; uncertainty factor {:.2f}) plus the "
+                    "of with and without nuclear reactions; uncertainty factor {:.2f}) plus the "
                     "highest 30-day dose any crew member has from everything else must stay "
                     "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
                     "below its target and within 0.5 % of it.",

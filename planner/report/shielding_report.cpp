@@ -232,7 +232,7 @@ std::string format_shielding_report(const Study& study, const std::string& locat
                        sc.mission.gcr_phi_MV);
     if (ev) {
         out += "  (event doses: the whole event at this location, no uncertainty factor, the "
-               "higher of the\n  removal bracket)\n";
+               "higher of the\n  reactions bracket)\n";
     }
     out += "\n" + caution_text();
     return out;

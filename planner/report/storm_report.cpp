@@ -59,7 +59,7 @@ std::string model_note(const StormContext& ctx) {
     }
     return fmt::format(
         "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
-        "factor {:.2f}, the higher of with and without nuclear removal, each location's body "
+        "factor {:.2f}, the higher of with and without nuclear reactions, each location's body "
         "model; {}) plus the crew member's highest 30-day dose from everything else, wherever "
         "it lies (conservative: as if both fell in one window).{}",
         arrival, sc.limits.uncertainty_factor, organs, unchecked);

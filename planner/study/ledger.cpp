@@ -258,7 +258,7 @@ void verify(const CrewResult& c) {
     const std::string who = "crew member '" + c.crew + "': ";
     for (const auto& o : c.organs) {
         const std::string what = who + o.organ;
-        for (const DoseTotals* t : {&o.gcr, &o.spe, &o.other}) {
+        for (const DoseTotals* t : {&o.gcr, &o.spe, &o.recorded}) {
             require_dose(t->mGyEq, what + " mission dose");
             require_dose(t->absorbed_mGy, what + " absorbed dose");
             require_dose(t->dose_equivalent_mSv, what + " dose equivalent");
@@ -402,7 +402,7 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                 } else if (p.event) {
                     r.spe.add(p.dose);
                 } else {
-                    r.other.add(p.dose);
+                    r.recorded.add(p.dose);
                 }
                 r.mission_mGyEq += 1e3 * p.dose.rbe_weighted_GyEq;
                 r.mission_absorbed_mGy += 1e3 * p.dose.absorbed_Gy;

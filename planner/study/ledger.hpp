@@ -74,9 +74,9 @@ struct DoseTotals {
 /// the others hold mGy-Eq: its limit is in mSv.
 struct OrganResult {
     std::string organ;
-    DoseTotals gcr;   ///< mission GCR part
-    DoseTotals spe;   ///< mission SPE part
-    DoseTotals other; ///< recorded doses of the mission period
+    DoseTotals gcr;      ///< mission GCR part
+    DoseTotals spe;      ///< mission SPE part
+    DoseTotals recorded; ///< recorded doses of the mission period
     WindowMax max_30d;
     WindowMax max_365d;
     double career_mGyEq = 0.0;  ///< prior + mission

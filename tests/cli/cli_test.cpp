@@ -265,6 +265,8 @@ TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input",
           std::pair{"gcr --material cheese", "--material: no built-in material 'cheese'"},
           std::pair{"gcr --tissue-depth liver", "--tissue-depth: 'liver' is not a tissue depth"},
           std::pair{"gcr --site venus", "--site: 'venus' is not a site; allowed"},
+          // One name per concept: the site without ground is deep-space, as in scenarios.
+          std::pair{"gcr --site free-space", "'free-space' is now spelt 'deep-space'"},
           std::pair{"gcr --site mars --surface-pressure-Pa 5",
                     "--surface-pressure-Pa: '5' is not a Martian surface pressure; allowed"}}) {
         const Run bad = run(args);
