@@ -1,4 +1,5 @@
 // The ledger: rolling windows, recorded and prior doses, and a timeline checked by hand.
+#include "fixture.hpp"
 #include "planner/scenario/scenario.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
@@ -53,48 +54,7 @@ TEST_CASE("a mission longer than a year: annual window against the career total"
 
 namespace {
 
-const std::string kPlan = R"([mission]
-name = "hand"
-site = "deep-space"
-start = 2032-01-01T00:00:00Z
-end = 2032-03-01T00:00:00Z
-directions = 16
-
-[[location]]
-id = "free"
-
-[[location]]
-id = "free-too"
-
-[[event]]
-id = "spe"
-flare_seen = 2032-01-10T00:00:00Z
-arrival_delay_h = 1.0
-spectrum = "exp-energy:J0=1e9,E0_MeV=30"
-rise_h = 2.0
-decay_h = 10.0
-
-[[crew]]
-id = "a"
-prior_totals = { bfo_mGyEq = 7.0 }
-
-[[activity]]
-crew = "a"
-kind = "stay"
-location = "free"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-10T05:00:00Z
-
-[[activity]]
-crew = "a"
-kind = "eva"
-location = "free-too"
-start = 2032-01-10T05:00:00Z
-end = 2032-03-01T00:00:00Z
-
-[limits]
-uncertainty_factor = 1.5
-)";
+const std::string kPlan = read_fixture("ledger-hand.toml");
 
 } // namespace
 

@@ -2,6 +2,7 @@
 // phantom body model (depth grid, points per direction, directions, SPE energy grid, GCR grid
 // and march step), each against a finer or exact reference; the convergence studies that take
 // long are in phantom_convergence_test.cpp (label slow).
+#include "fixture.hpp"
 #include "phantom_helpers.hpp"
 
 #include <catch2/catch.hpp>
@@ -269,51 +270,7 @@ TEST_CASE("phantom: organs behind the body get less than the quick model's fixed
 namespace {
 
 // A two-location plan (invented): one phantom, one quick location.
-const std::string kMixed = R"([mission]
-name = "mixed"
-site = "deep-space"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-21T00:00:00Z
-directions = 64
-phantom_directions = 64
-gcr_directions = 32
-
-[[location]]
-id = "cabin"
-body = "phantom"
-
-[[location]]
-id = "other"
-body = "quick"
-
-[[crew]]
-id = "a"
-prior_totals = { bfo_mGyEq = 7.0, effective_mSv = 11.0 }
-
-[[crew]]
-id = "b"
-
-[[activity]]
-crew = "a"
-kind = "stay"
-location = "cabin"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-21T00:00:00Z
-
-[[activity]]
-crew = "b"
-kind = "stay"
-location = "cabin"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-
-[[activity]]
-crew = "b"
-kind = "stay"
-location = "other"
-start = 2032-01-11T00:00:00Z
-end = 2032-01-21T00:00:00Z
-)";
+const std::string kMixed = read_fixture("phantom-mixed.toml");
 
 } // namespace
 

@@ -1,5 +1,6 @@
 // Scenario validation: every error names file:line: key, says what is wrong and what is
 // allowed (main-job issue, "Validation").
+#include "fixture.hpp"
 #include "planner/scenario/scenario.hpp"
 
 #include <catch2/catch.hpp>
@@ -12,40 +13,7 @@ using namespace crewdose::planner;
 namespace {
 
 // A small valid scenario (invented), line numbers matter for the tests below.
-const std::string kBase = R"([mission]
-name = "test"
-site = "moon"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-directions = 16
-
-[[solid]]
-id = "hut"
-shape = "sphere"
-center_m = [0.0, 0.0, 2.0]
-radius_m = 2.0
-layers = [ { material = "aluminium", thickness_m = 0.01 } ]
-
-[[location]]
-id = "inside"
-point_m = [0.0, 0.0, 2.0]
-solids = ["hut"]
-
-[[event]]
-id = "spe"
-flare_seen = 2032-01-05T00:00:00Z
-spectrum = "exp-energy:J0=1e9,E0_MeV=30"
-
-[[crew]]
-id = "a"
-
-[[activity]]
-crew = "a"
-kind = "stay"
-location = "inside"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-)";
+const std::string kBase = read_fixture("scenario-base.toml");
 
 std::string replace(std::string s, const std::string& from, const std::string& to) {
     const auto at = s.find(from);

@@ -1,5 +1,6 @@
 // Storm-shelter sizing: the answer put back into a plain study, materials compared, targets
 // that cannot be met, the added mass of a real layer, and the errors of the options.
+#include "fixture.hpp"
 #include "planner/analyses/shelter.hpp"
 #include "planner/report/shelter_report.hpp"
 
@@ -18,45 +19,7 @@ namespace {
 // A hut: an aluminium spherical shell of 2 m radius around the dose point, in deep space (no
 // ground), 64 directions to keep the test quick. The event is invented.
 std::string plan(const std::string& extra_layer = "") {
-    return fmt::format(R"([mission]
-name = "shelter test"
-site = "deep-space"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-directions = 64
-gcr_directions = 16
-
-[[solid]]
-id = "hut"
-shape = "sphere"
-center_m = [0.0, 0.0, 0.0]
-radius_m = 2.0
-layers = [ {{ material = "aluminium", thickness_m = 0.01 }}{} ]
-
-[[location]]
-id = "inside"
-point_m = [0.0, 0.0, 0.0]
-solids = ["hut"]
-
-[[event]]
-id = "spe"
-flare_seen = 2032-01-05T00:00:00Z
-spectrum = "exp-energy:J0=3e9,E0_MeV=40"
-
-[[crew]]
-id = "a"
-
-[[activity]]
-crew = "a"
-kind = "stay"
-location = "inside"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-
-[limits]
-uncertainty_factor = 1.5
-)",
-                       extra_layer);
+    return fill(read_fixture("shelter-hut.toml.in"), {{"@EXTRA_LAYERS@", extra_layer}});
 }
 
 ShelterRequest request(std::vector<std::string> materials, double bfo_target) {

@@ -1,5 +1,6 @@
 // Storm what-ifs: scatter-free arrival, the response policy, equality with plain checks, the
 // rate-based all-clear, and the sweep on the lunar demo.
+#include "fixture.hpp"
 #include "planner/analyses/storm.hpp"
 #include "planner/report/storm_report.hpp"
 
@@ -40,88 +41,13 @@ namespace {
 // spacewalk (kind eva) from day 2 08:00 to 14:00, else in the cabin. The event arrives
 // energy by energy (no arrival_delay_h). Invented values.
 std::string plan(const std::string& timeline, const std::string& policy) {
-    return fmt::format(R"([mission]
-name = "storm test"
-site = "deep-space"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-11T00:00:00Z
-directions = 32
-gcr_directions = 16
-
-[[solid]]
-id = "cabin-wall"
-shape = "sphere"
-center_m = [0.0, 0.0, 0.0]
-radius_m = 3.0
-layers = [ {{ material = "aluminium", thickness_m = 0.01 }} ]
-
-[[solid]]
-id = "bunker"
-shape = "sphere"
-center_m = [0.0, 0.0, 0.0]
-radius_m = 1.0
-layers = [ {{ material = "polyethylene", thickness_m = 0.3 }} ]
-
-[[location]]
-id = "cabin"
-point_m = [0.0, 0.0, 2.0]
-solids = ["cabin-wall", "bunker"]
-
-[[location]]
-id = "shelter"
-point_m = [0.0, 0.0, 0.0]
-solids = ["cabin-wall", "bunker"]
-
-[[location]]
-id = "outside"
-point_m = [0.0, 10.0, 0.0]
-suit = true
-
-[[event]]
-id = "spe"
-flare_seen = 2032-01-05T00:00:00Z
-spectrum = "exp-energy:J0=3e9,E0_MeV=40"
-rise_h = 1.0
-decay_h = 6.0
-
-[[crew]]
-id = "a"
-
-{}
-{}
-)",
-                       timeline, policy);
+    return fill(read_fixture("storm-deep-space.toml.in"),
+                {{"@TIMELINE@", timeline}, {"@POLICY@", policy}});
 }
 
-const std::string kTimeline = R"([[activity]]
-crew = "a"
-kind = "stay"
-location = "cabin"
-start = 2032-01-01T00:00:00Z
-end = 2032-01-03T08:00:00Z
+const std::string kTimeline = read_fixture("storm-timeline.toml");
 
-[[activity]]
-crew = "a"
-kind = "eva"
-location = "outside"
-start = 2032-01-03T08:00:00Z
-end = 2032-01-03T14:00:00Z
-return_min = 40
-
-[[activity]]
-crew = "a"
-kind = "stay"
-location = "cabin"
-start = 2032-01-03T14:00:00Z
-end = 2032-01-11T00:00:00Z
-)";
-
-const std::string kPolicy = R"([storm_response]
-shelter = "shelter"
-warning_delay_min = 10
-move_to_shelter_min = 15
-all_clear_h = 30
-)";
+const std::string kPolicy = read_fixture("storm-policy.toml");
 
 std::string moved_event(std::string text, const std::string& when) {
     const std::string from = "flare_seen = 2032-01-05T00:00:00Z";
