@@ -4,6 +4,8 @@
 #include "planner/report/check_report.hpp"
 #include "planner/study/ledger.hpp"
 
+#include <fmt/format.h>
+
 #include <cstdlib>
 #include <filesystem>
 #include <unistd.h>
@@ -21,6 +23,7 @@ Command add_check_command(CLI::App& app) {
         std::string out_path;
         std::string series_path;
         bool allow_gaps = false;
+        double near_percent = 100.0 * planner::kDefaultNearShare;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -59,6 +62,11 @@ Command add_check_command(CLI::App& app) {
             "--series", series_path,
             "also write cumulative dose and dose rate against time per crew member "
             "and organ to this CSV file (a unit column: mGy-Eq, or mSv for the effective dose)");
+        check
+            ->add_option("--near", o->near_percent,
+                         "a dose at this percentage of its limit or more is flagged 'near' in the "
+                         "verdict (1 to 100)")
+            ->capture_default_str();
         check->add_flag("--allow-gaps", allow_gaps,
                         "accept gaps in a crew member's timeline; each gap is charged at the "
                         "location of the activity before it and listed in the report");
@@ -71,6 +79,12 @@ Command add_check_command(CLI::App& app) {
                 auto& series_path = o->series_path;
                 auto& allow_gaps = o->allow_gaps;
                 const auto fmt_choice = planner::parse_output_format(format);
+                if (!(o->near_percent >= 1.0 && o->near_percent <= 100.0)) {
+                    throw InputError({"command line", 0}, "--near",
+                                     fmt::format("{:g} is not a percentage of the limit; "
+                                                 "allowed: 1 to 100",
+                                                 o->near_percent));
+                }
 
                 auto sc = planner::load_scenario(scenario_path);
                 if (!allow_gaps) {
@@ -94,8 +108,8 @@ Command add_check_command(CLI::App& app) {
                 const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
                                     isatty(fileno(stdout)) != 0 &&
                                     std::getenv("NO_COLOR") == nullptr;
-                const std::string report =
-                    planner::format_check_report(study, ledger, fmt_choice, colour);
+                const std::string report = planner::format_check_report(
+                    study, ledger, fmt_choice, colour, o->near_percent / 100.0);
                 // Both files are prepared before either is written, so bad input writes nothing.
                 const std::string series =
                     series_path.empty() ? "" : planner::format_series(study, ledger);

@@ -102,10 +102,86 @@ nlohmann::json window_json(const WindowMax& w) {
             {"top_contributor", w.top_contributor}};
 }
 
+// The answer first: one line per crew member with the limit that binds (the highest share of
+// its limit), where the dose stands, and the budget left.
+std::string verdict_block(const LedgerResult& ledger, double near_share, bool colour) {
+    const char* red = colour ? "\033[31m" : "";
+    const char* yellow = colour ? "\033[33m" : "";
+    const char* green = colour ? "\033[32m" : "";
+    const char* reset = colour ? "\033[0m" : "";
+    std::size_t width = std::string("crew member").size();
+    for (const auto& c : ledger.crew) {
+        width =
+            std::max(width, c.name == c.crew ? c.crew.size() : c.name.size() + c.crew.size() + 3);
+    }
+    std::size_t exceeded = 0;
+    std::size_t near = 0;
+    std::string rows;
+    std::string unevaluated;
+    for (const auto& c : ledger.crew) {
+        const LimitCheck* b = binding_check(c);
+        const std::string who = c.name == c.crew ? c.crew : fmt::format("{} ({})", c.name, c.crew);
+        if (!b) {
+            rows += fmt::format("  {:<{}}  no limit evaluated\n", who, width);
+            continue;
+        }
+        const LimitStatus st = status_of(*b, near_share);
+        exceeded += st == LimitStatus::exceeded ? 1U : 0U;
+        near += st == LimitStatus::near ? 1U : 0U;
+        const char* on = st == LimitStatus::exceeded ? red
+                         : st == LimitStatus::near   ? yellow
+                                                     : green;
+        std::string budget = "none";
+        if (st != LimitStatus::exceeded && c.budget.binds && c.budget.days > 0.0) {
+            budget = fmt::format("{} days, {} {}", significant(c.budget.days, 3),
+                                 organ_label(c.budget.organ), c.budget.window);
+        } else if (st != LimitStatus::exceeded && !c.budget.binds) {
+            budget = "not bound by the GCR background";
+        }
+        const std::string word = st == LimitStatus::exceeded ? "EXCEEDED" : to_string(st);
+        rows += fmt::format(
+            "  {:<{}}  {:<16} {:>6} {:<6} of {:>5} {:>5}  {}{:<8}{}  {}\n", who, width,
+            organ_label(b->limit.organ) + " " + b->limit.window, significant(b->dose, 3),
+            unit_of(b->limit.organ), significant(b->limit.value, 3),
+            fmt::format("{:.0f} %", 100.0 * b->dose / b->limit.value), on, word, reset, budget);
+        if (!c.not_evaluated.empty()) {
+            std::vector<std::string> organs;
+            for (const auto& [organ, locs] : c.not_evaluated) {
+                organs.push_back(organ_label(organ));
+            }
+            unevaluated += wrap(fmt::format("  not evaluated for {}: {} (the quick body model; "
+                                            "see below)",
+                                            c.crew, fmt::join(organs, ", ")),
+                                100, "    ");
+        }
+    }
+    std::string out;
+    if (exceeded > 0) {
+        out = fmt::format("Verdict: {}A PLANNING LIMIT IS EXCEEDED{} for {} of {} crew member{}.\n",
+                          red, reset, exceeded, ledger.crew.size(),
+                          ledger.crew.size() == 1 ? "" : "s");
+    } else if (near > 0) {
+        out = fmt::format("Verdict: every evaluated planning limit is met; {}{} crew member{} near "
+                          "a limit{}.\n",
+                          yellow, near, near == 1 ? "" : "s", reset);
+    } else {
+        out = fmt::format("Verdict: {}every evaluated planning limit is met{}.\n", green, reset);
+    }
+    out += fmt::format("  {:<{}}  {:<16} {:>22} {:>5}  {:<8}  {}\n", "crew member", width,
+                       "binding limit", "dose", "used", "status", "budget left");
+    out += rows + unevaluated;
+    out += wrap(fmt::format("  binding: the limit with the highest share used; near: {:.0f} % of "
+                            "its limit or more (--near); budget left: days more of this "
+                            "timeline's activity mix at its GCR rate, no further events.",
+                            100.0 * near_share),
+                100, "    ");
+    return out + "\n";
+}
+
 } // namespace
 
 std::string format_check_report(const Study& study, const LedgerResult& ledger, OutputFormat format,
-                                bool colour) {
+                                bool colour, double near_share) {
     const Scenario& sc = study.scenario();
     if (format == OutputFormat::json) {
         nlohmann::json j;
@@ -123,6 +199,25 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             j["body_models"][loc.id] = to_string(loc.body);
         }
         j["any_limit_exceeded"] = ledger.any_exceeded;
+        j["near_share"] = near_share;
+        j["headline"] = nlohmann::json::array();
+        for (const auto& c : ledger.crew) {
+            const LimitCheck* b = binding_check(c);
+            if (!b) {
+                continue;
+            }
+            j["headline"].push_back(
+                {{"crew", c.crew},
+                 {"organ", b->limit.organ},
+                 {"window", b->limit.window},
+                 {"dose", b->dose},
+                 {"limit", b->limit.value},
+                 {"unit", unit_of(b->limit.organ)},
+                 {"share_of_limit", b->dose / b->limit.value},
+                 {"status", to_string(status_of(*b, near_share))},
+                 {"budget_days", c.budget.binds ? nlohmann::json(c.budget.days) : nullptr},
+                 {"budget_binds", c.budget.binds ? c.budget.organ + " " + c.budget.window : ""}});
+        }
         {
             nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
                              {"phi_given", sc.mission.gcr_phi_given},
@@ -211,13 +306,19 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     }
     if (format == OutputFormat::csv) {
         // The effective dose is in mSv, every organ dose in mGy-Eq: a unit column says which.
-        std::string out = "crew,organ,window,dose,limit,margin,unit,exceeded,basis\n";
+        // status: within, near (from near_share of the limit) or exceeded; binding: the crew
+        // member's highest share of a limit.
+        std::string out =
+            "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis\n";
         for (const auto& c : ledger.crew) {
+            const LimitCheck* b = binding_check(c);
             for (const auto& chk : c.checks) {
-                out += fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},\"{}\"\n", c.crew,
-                                   chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
-                                   chk.margin, unit_of(chk.limit.organ),
-                                   chk.exceeded ? "yes" : "no", chk.limit.basis);
+                out +=
+                    fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},{},{},\"{}\"\n", c.crew,
+                                chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
+                                chk.margin, unit_of(chk.limit.organ), chk.exceeded ? "yes" : "no",
+                                to_string(status_of(chk, near_share)), &chk == b ? "yes" : "no",
+                                chk.limit.basis);
             }
         }
         return out;
@@ -229,8 +330,12 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         fmt::format("crewdose check: {} ({}, {} to {})\nscenario: {}\n\n", sc.mission.name,
                     to_string(sc.mission.site), format_time(sc.mission.start),
                     format_time(sc.mission.end), sc.file);
+    out += verdict_block(ledger, near_share, colour);
     out += caution_text() + "\n";
-    out += wrap(model_text(study), 96) + "\n";
+    out += "Model: SPE and GCR doses through the shielding and the body, the higher of with and "
+           "without\nnuclear reactions, uncertainty factor " +
+           fmt::format("{:.2f}", sc.limits.uncertainty_factor) +
+           " applied; the whole description is at the end.\n\n";
     out += "GCR dose rate at the mission start, per day, with nuclear reactions (removal and "
            "projectile\nfragments) / without any (the higher is used for limits):\n";
     out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
@@ -368,6 +473,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     } else {
         out += fmt::format("{}Every evaluated planning limit is met.{}\n", green, reset);
     }
+    out += "\n" + wrap(model_text(study), 96);
     return out;
 }
 

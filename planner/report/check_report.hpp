@@ -7,9 +7,13 @@
 
 namespace crewdose::planner {
 
-/// The check report. `colour` adds ANSI colour to the verdict lines (terminals only).
+/// The check report: the verdict first (a headline per crew member: the binding limit, the dose,
+/// the share of the limit used, within / near / exceeded with "near" from `near_share` of the
+/// limit, and the budget left), then the detail, the limits and the model. `colour` adds ANSI
+/// colour to the verdict words (terminals only; the words carry the meaning).
 [[nodiscard]] std::string format_check_report(const Study& study, const LedgerResult& ledger,
-                                              OutputFormat format, bool colour);
+                                              OutputFormat format, bool colour,
+                                              double near_share = kDefaultNearShare);
 
 /// Cumulative dose and dose rate against time per crew member and organ, CSV.
 [[nodiscard]] std::string format_series(const Study& study, const LedgerResult& ledger);

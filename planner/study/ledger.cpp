@@ -283,6 +283,43 @@ void verify(const CrewResult& c) {
 
 } // namespace
 
+LimitStatus status_of(const LimitCheck& check, double near_share) {
+    // Written so that NaN reads as exceeded: a dose that was not computed is never within.
+    if (check.exceeded || !(check.dose >= 0.0) || !(check.dose <= check.limit.value)) {
+        return LimitStatus::exceeded;
+    }
+    return check.dose >= near_share * check.limit.value ? LimitStatus::near : LimitStatus::within;
+}
+
+std::string to_string(LimitStatus status) {
+    switch (status) {
+    case LimitStatus::within:
+        return "within";
+    case LimitStatus::near:
+        return "near";
+    case LimitStatus::exceeded:
+        break;
+    }
+    return "exceeded";
+}
+
+const LimitCheck* binding_check(const CrewResult& crew) {
+    const LimitCheck* best = nullptr;
+    for (const auto& chk : crew.checks) {
+        // NaN shares first: a dose that was not computed binds.
+        const double share = chk.dose / chk.limit.value;
+        if (!best) {
+            best = &chk;
+            continue;
+        }
+        const double best_share = best->dose / best->limit.value;
+        if (!std::isnan(best_share) && !(share <= best_share)) {
+            best = &chk;
+        }
+    }
+    return best;
+}
+
 LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     if (study.partial()) {
         throw std::logic_error("build_ledger: the study holds one location, the ledger needs all");

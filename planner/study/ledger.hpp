@@ -121,6 +121,16 @@ struct CrewResult {
     std::map<std::string, std::vector<std::string>> not_evaluated;
 };
 
+/// Where a dose stands against its limit: `near` from `near_share` of the limit (0.9 by
+/// default) up to the limit. A dose that is not a finite number >= 0 is `exceeded`, never
+/// within.
+enum class LimitStatus { within, near, exceeded };
+inline constexpr double kDefaultNearShare = 0.9;
+[[nodiscard]] LimitStatus status_of(const LimitCheck& check, double near_share);
+[[nodiscard]] std::string to_string(LimitStatus status);
+/// The crew member's binding check: the highest share of its limit (nullptr if none).
+[[nodiscard]] const LimitCheck* binding_check(const CrewResult& crew);
+
 struct LedgerOptions {
     bool allow_gaps = false;
     /// Resolution inside smooth event profiles when searching window maxima.

@@ -746,3 +746,33 @@ TEST_CASE("storm: a sweep without a response says so, not 'with the response'", 
     const Run j = run(base + " --no-response --format json");
     CHECK(nlohmann::json::parse(j.out)["response"] == false);
 }
+
+TEST_CASE("check: the verdict comes first, one line per crew member", "[cli][check]") {
+    const Run r = run("check " + demo());
+    INFO(r.out);
+    REQUIRE(r.exit_code == 0);
+    const auto verdict = r.out.find("Verdict: every evaluated planning limit is met.");
+    REQUIRE(verdict != std::string::npos);
+    // Before the cautions, the model and the detail; the cautions stay on the first screen.
+    CHECK(verdict < r.out.find("Cautions:"));
+    CHECK(r.out.find("Cautions:") < r.out.find("GCR dose rate at the mission start"));
+    CHECK(r.out.find("Kenji Marlow (marlow)") < r.out.find("Cautions:"));
+    // The demo's binding limit for Marlow: lens 30-day at 57 % (the same as the detail's
+    // "smallest margin: lens 30-day (43 % of the limit left)").
+    CHECK(r.out.find("lens 30-day") < r.out.find("Cautions:"));
+    CHECK(r.out.find("43 % of the limit left") != std::string::npos);
+    const Run n = run("check " + demo() + " --near 50");
+    CHECK(n.exit_code == 0); // "near" never changes the exit code
+    CHECK(n.out.find("2 crew members near a limit") != std::string::npos);
+    const Run j = run("check " + demo() + " --near 50 --format json");
+    const auto doc = nlohmann::json::parse(j.out);
+    REQUIRE(doc["headline"].size() == doc["crew"].size());
+    for (const auto& h : doc["headline"]) {
+        const double share = h["share_of_limit"].get<double>();
+        CHECK(share == Approx(h["dose"].get<double>() / h["limit"].get<double>()));
+        CHECK(h["status"] == (share >= 0.5 ? "near" : "within"));
+    }
+    const Run bad = run("check " + demo() + " --near 0");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("--near: 0 is not a percentage of the limit") != std::string::npos);
+}

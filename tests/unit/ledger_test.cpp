@@ -343,3 +343,46 @@ TEST_CASE("a study of one location gives that location's numbers and no ledger",
     CHECK_THROWS_WITH(Study(parse_scenario(kPlan, "hand.toml"), std::string("attic")),
                       Catch::Contains("--location") && Catch::Contains("attic"));
 }
+
+TEST_CASE("a limit's status: within, near from a share of the limit, exceeded; NaN is exceeded",
+          "[ledger]") {
+    // By construction: a 250 mGy-Eq limit; near from 90 % (225) up to the limit.
+    LimitCheck c;
+    c.limit.organ = "bfo";
+    c.limit.window = "30-day";
+    c.limit.value = 250.0;
+    const auto at = [&](double dose) {
+        c.dose = dose;
+        c.margin = c.limit.value - dose;
+        c.exceeded = !(dose <= c.limit.value);
+        return status_of(c, kDefaultNearShare);
+    };
+    CHECK(at(0.0) == LimitStatus::within);
+    CHECK(at(224.9) == LimitStatus::within);
+    CHECK(at(225.0) == LimitStatus::near);
+    CHECK(at(250.0) == LimitStatus::near);
+    CHECK(at(250.1) == LimitStatus::exceeded);
+    CHECK(at(std::nan("")) == LimitStatus::exceeded);
+    CHECK(at(-1.0) == LimitStatus::exceeded);
+    c.dose = 100.0;
+    c.exceeded = false;
+    CHECK(status_of(c, 0.4) == LimitStatus::near);
+    CHECK(to_string(LimitStatus::near) == "near");
+
+    // The binding check is the highest share of its limit, and a dose not computed binds.
+    CrewResult crew;
+    LimitCheck small = c;
+    small.dose = 100.0; // 40 % of 250
+    LimitCheck large = c;
+    large.limit.value = 1000.0;
+    large.dose = 500.0; // 50 % of 1000
+    crew.checks = {small, large};
+    REQUIRE(binding_check(crew) != nullptr);
+    CHECK(binding_check(crew)->limit.value == 1000.0);
+    LimitCheck broken = c;
+    broken.dose = std::nan("");
+    crew.checks = {small, broken, large};
+    CHECK(std::isnan(binding_check(crew)->dose));
+    crew.checks.clear();
+    CHECK(binding_check(crew) == nullptr);
+}
