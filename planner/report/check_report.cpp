@@ -109,10 +109,18 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
     const char* yellow = colour ? "\033[33m" : "";
     const char* green = colour ? "\033[32m" : "";
     const char* reset = colour ? "\033[0m" : "";
+    // Crew members by name, or by id when a name would push the lines past 100 characters.
+    bool by_name = true;
     std::size_t width = std::string("crew member").size();
     for (const auto& c : ledger.crew) {
-        width =
-            std::max(width, c.name == c.crew ? c.crew.size() : c.name.size() + c.crew.size() + 3);
+        width = std::max(width, c.name.size());
+    }
+    if (width > 24) {
+        by_name = false;
+        width = std::string("crew member").size();
+        for (const auto& c : ledger.crew) {
+            width = std::max(width, c.crew.size());
+        }
     }
     std::size_t exceeded = 0;
     std::size_t near = 0;
@@ -120,7 +128,7 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
     std::string unevaluated;
     for (const auto& c : ledger.crew) {
         const LimitCheck* b = binding_check(c);
-        const std::string who = c.name == c.crew ? c.crew : fmt::format("{} ({})", c.name, c.crew);
+        const std::string who = by_name ? c.name : c.crew;
         if (!b) {
             rows += fmt::format("  {:<{}}  no limit evaluated\n", who, width);
             continue;
@@ -133,14 +141,14 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
                                                      : green;
         std::string budget = "none";
         if (st != LimitStatus::exceeded && c.budget.binds && c.budget.days > 0.0) {
-            budget = fmt::format("{} days, {} {}", significant(c.budget.days, 3),
+            budget = fmt::format("{} days ({} {})", significant(c.budget.days, 3),
                                  organ_label(c.budget.organ), c.budget.window);
         } else if (st != LimitStatus::exceeded && !c.budget.binds) {
-            budget = "not bound by the GCR background";
+            budget = "not bound by GCR alone";
         }
         const std::string word = st == LimitStatus::exceeded ? "EXCEEDED" : to_string(st);
         rows += fmt::format(
-            "  {:<{}}  {:<16} {:>6} {:<6} of {:>5} {:>5}  {}{:<8}{}  {}\n", who, width,
+            "  {:<{}}  {:<16} {:>6} {:<6} / {:<5} {:>5}  {}{:<8}{} {}\n", who, width,
             organ_label(b->limit.organ) + " " + b->limit.window, significant(b->dose, 3),
             unit_of(b->limit.organ), significant(b->limit.value, 3),
             fmt::format("{:.0f} %", 100.0 * b->dose / b->limit.value), on, word, reset, budget);
@@ -167,8 +175,8 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
     } else {
         out = fmt::format("Verdict: {}every evaluated planning limit is met{}.\n", green, reset);
     }
-    out += fmt::format("  {:<{}}  {:<16} {:>22} {:>5}  {:<8}  {}\n", "crew member", width,
-                       "binding limit", "dose", "used", "status", "budget left");
+    out += fmt::format("  {:<{}}  {:<16} {:>6} {:<14} {:>5}  {:<8} {}\n", "crew member", width,
+                       "binding limit", "dose", "unit / limit", "used", "status", "budget left");
     out += rows + unevaluated;
     out += wrap(fmt::format("  binding: the limit with the highest share used; near: {:.0f} % of "
                             "its limit or more (--near); budget left: days more of this "

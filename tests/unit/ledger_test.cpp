@@ -344,7 +344,7 @@ TEST_CASE("a study of one location gives that location's numbers and no ledger",
                       Catch::Contains("--location") && Catch::Contains("attic"));
 }
 
-TEST_CASE("a limit's status: within, near from a share of the limit, exceeded; NaN is exceeded",
+TEST_CASE("a limit's status: within, near from a share of the limit, exceeded, and NaN is exceeded",
           "[ledger]") {
     // By construction: a 250 mGy-Eq limit; near from 90 % (225) up to the limit.
     LimitCheck c;
