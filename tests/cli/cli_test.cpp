@@ -1,4 +1,6 @@
 // End-to-end runs of the crewdose binary.
+#include "shell_run.hpp"
+
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
 
@@ -13,25 +15,11 @@
 
 namespace {
 
-struct Run {
-    int exit_code;
-    std::string out; // stdout and stderr together
-};
+using Run = ShellResult; // stdout and stderr together
 
 // Runs the binary with `args`; `env` is prefixed to the shell command ("NAME=value ").
 Run run(const std::string& args, const std::string& env = "") {
-    const std::string cmd = env + std::string(CREWDOSE_BINARY) + " " + args + " 2>&1";
-    Run r{-1, {}};
-    FILE* pipe = popen(cmd.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::array<char, 4096> buf{};
-    std::size_t n = 0;
-    while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) {
-        r.out.append(buf.data(), n);
-    }
-    const int status = pclose(pipe);
-    r.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    return r;
+    return run_shell(env + std::string(CREWDOSE_BINARY) + " " + args + " 2>&1");
 }
 
 } // namespace

@@ -11,6 +11,8 @@
 // strings and booleans, numbers within the tolerance below; key order is not compared).
 // Normalised: nothing at present (no output holds a time of run, a version or an absolute
 // path); a replacement added to normalise() must be added to scripts/update-expected.sh too.
+#include "shell_run.hpp"
+
 #include <catch2/catch.hpp>
 #include <nlohmann/json.hpp>
 
@@ -130,16 +132,10 @@ Run run(const Case& c) {
         }
     }
     cmd += " 2>" + shell_quote(err_file.string());
+    const ShellResult shell = run_shell(cmd);
     Run r;
-    FILE* pipe = popen(cmd.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::array<char, 4096> buf{};
-    std::size_t n = 0;
-    while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) {
-        r.out.append(buf.data(), n);
-    }
-    const int status = pclose(pipe);
-    r.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
+    r.out = shell.out;
+    r.exit_code = shell.exit_code;
     if (fs::exists(err_file)) {
         r.err = read_file(err_file);
     }

@@ -3,6 +3,8 @@
 // file, line and key it states, write nothing when it refuses, leave its inputs as they were,
 // and never print a number that is not finite. (Expected values: by construction of each
 // case; the reasons are in the case files.)
+#include "shell_run.hpp"
+
 #include <catch2/catch.hpp>
 
 #include <algorithm>
@@ -69,10 +71,7 @@ std::string substitute(std::string s, const std::string& file, const std::string
     return s;
 }
 
-struct Run {
-    int exit_code;
-    std::string out;
-};
+using Run = ShellResult; // stdout and stderr together
 
 // True when `text` holds "nan" or "inf" (any case, a minus allowed) as a word of its own: a
 // number that was not computed, as printf writes it. (std::regex trips a GCC 12 warning in the
@@ -95,18 +94,7 @@ bool has_non_finite(const std::string& text) {
 }
 
 Run run(const std::string& args) {
-    const std::string cmd = std::string(CREWDOSE_BINARY) + " " + args + " 2>&1";
-    Run r{-1, {}};
-    FILE* pipe = popen(cmd.c_str(), "r");
-    REQUIRE(pipe != nullptr);
-    std::array<char, 4096> buf{};
-    std::size_t n = 0;
-    while ((n = std::fread(buf.data(), 1, buf.size(), pipe)) > 0) {
-        r.out.append(buf.data(), n);
-    }
-    const int status = pclose(pipe);
-    r.exit_code = WIFEXITED(status) ? WEXITSTATUS(status) : -1;
-    return r;
+    return run_shell(std::string(CREWDOSE_BINARY) + " " + args + " 2>&1");
 }
 
 } // namespace
