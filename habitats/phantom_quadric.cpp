@@ -9,7 +9,6 @@ namespace crewdose::habitats {
 namespace {
 
 constexpr double kInf = std::numeric_limits<double>::infinity();
-constexpr double kPi = 3.14159265358979323846;
 
 struct Interval {
     double lo;
