@@ -170,13 +170,10 @@ std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew
         const Time next = i < spans.size() ? spans[i].start : sc.mission.end;
         if (next > cursor) {
             if (!allow_gaps) {
-                // The loader's own check (refuse_timeline_gaps) names the same activity.
-                const auto& next_to = i > 0 ? spans[i - 1] : spans[0];
-                throw InputError(next_to.activity->where, "activity",
-                                 fmt::format("crew member '{}' has no activity from {} to {}; "
-                                             "cover the whole mission or run with "
-                                             "--allow-gaps",
-                                             crew.id, format_time(cursor), format_time(next)));
+                // One message for gaps, the scenario stage's (it names the activity before
+                // the gap); it finds this gap, or an earlier one of the crew before.
+                refuse_timeline_gaps(sc);
+                throw std::logic_error("crew_timeline: a gap the scenario's check missed");
             }
             const std::string at = i > 0 ? spans[i - 1].location : spans[0].location;
             gaps.push_back({crew.id, cursor, next, at});
