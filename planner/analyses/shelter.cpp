@@ -142,6 +142,23 @@ struct SecondaryMarches {
                                           }()};
 };
 
+} // namespace
+
+double shelter_sun_distance(const Study& study, const std::string& location_id) {
+    const Scenario& sc = study.scenario();
+    const LocationSpec& loc = study.location(location_id);
+    const bool in_space = sc.mission.site == SiteKind::deep_space || loc.deep_space;
+    double r = sc.mission.sun_distance_AU;
+    if (in_space) {
+        for (const auto& track : sc.sun_tracks) {
+            r = std::min(r, track.lowest_AU());
+        }
+    }
+    return r;
+}
+
+namespace {
+
 std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRequest& r,
                                              const std::string& material_id,
                                              double areal_density_g_cm2,
@@ -171,6 +188,9 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
     const auto marched =
         field_body_doses({secondary.whole, secondary.primaries}, materials, where, dirs, body,
                          field, std::max<std::size_t>(1, dirs.size() / 64));
+    // The event where the shelter is nearest the Sun (shelter_sun_distance).
+    const double factor =
+        ev.distance_factor(shelter_sun_distance(study, loc.id), sc.mission.sep_fluence_exponent);
     std::map<std::string, double> out;
     for (const auto& o : body_responses(tables, materials, where, dirs, body)) {
         if (o.organ == "effective") {
@@ -186,7 +206,8 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
                 folded.with_removal,
                 secondary_factor(marched[0][k].with_removal, marched[0][k].without_removal));
         }
-        out[o.organ] = 1e3 * sc.limits.uncertainty_factor * folded.for_limits().rbe_weighted_GyEq;
+        out[o.organ] =
+            1e3 * sc.limits.uncertainty_factor * factor * folded.for_limits().rbe_weighted_GyEq;
     }
     return out;
 }
@@ -346,6 +367,8 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
         }
         rep.other_30d_mGyEq[organ] = worst;
     }
+    rep.sun_distance_AU = shelter_sun_distance(study, loc.id);
+    rep.fluence_scale = ev.fluence_scale_at(rep.sun_distance_AU, sc.mission.sep_fluence_exponent);
     exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
     SecondaryMarches secondary;
     for (const auto& material_id : request.materials) {

@@ -55,7 +55,16 @@ struct ShelterReport {
     std::map<std::string, double> target_mGyEq;
     std::map<std::string, double> other_30d_mGyEq;
     std::vector<ShelterAnswer> answers;
+    /// The heliocentric distance the event is taken at (shelter_sun_distance) and the factor on
+    /// its spectrum as written there.
+    double sun_distance_AU = 1.0;
+    double fluence_scale = 1.0;
 };
+
+/// Where a shelter meets an event: a shelter on the surface at the site's distance; one in space
+/// (a deep-space location, or any on a deep-space mission) at the nearest distance to the Sun
+/// that any crew member reaches, where the event is strongest.
+[[nodiscard]] double shelter_sun_distance(const Study& study, const std::string& location_id);
 
 /// Reads one --target value, "ORGAN=VALUE" with an optional unit "mGyEq" (bfo=250mGyEq) into
 /// `targets`; InputError naming --target otherwise.

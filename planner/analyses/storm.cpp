@@ -318,6 +318,19 @@ bool StormSweep::any_exceeded() const {
                        [](const auto& w) { return w.second.exceeded(); });
 }
 
+namespace {
+
+// The arrival_bin()s a piece of a distance track passes through.
+void add_bins(std::vector<long>& bins, const DistancePiece& piece) {
+    const long a = arrival_bin(piece.r_from_AU);
+    const long b = arrival_bin(piece.r_to_AU);
+    for (long k = std::min(a, b); k <= std::max(a, b); ++k) {
+        bins.push_back(k);
+    }
+}
+
+} // namespace
+
 StormContext::StormContext(const Study& study, const std::string& event_id, bool respond)
     : study_(study), respond_(respond) {
     const Scenario& sc = study.scenario();
@@ -346,7 +359,8 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
         };
         std::size_t twin = planned_.size() - 1;
         for (std::size_t j = 0; j + 1 < planned_.size(); ++j) {
-            if (std::equal(p.begin(), p.end(), planned_[j].begin(), planned_[j].end(), same)) {
+            if (std::equal(p.begin(), p.end(), planned_[j].begin(), planned_[j].end(), same) &&
+                (sc.sun_tracks.empty() || sc.sun_tracks[j] == sc.sun_tracks[planned_.size() - 1])) {
                 twin = j;
                 break;
             }
@@ -434,54 +448,118 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
         }
     }
     const double uf = sc.limits.uncertainty_factor;
-    for (const auto& loc : sc.locations) {
-        auto& c = by_location_[loc.id];
-        for (std::size_t k = 0; k < organs_.size(); ++k) {
-            if (!study.has_organ(loc.id, organs_[k])) {
-                c[k] = {0.0, nullptr, k}; // no crew member checked for it can be here
-                continue;
+    // Per location and organ: the whole event at the site (its dose, how it arrives), and, for
+    // a dispersed event, how it arrives at each distance of the 0.01 AU grid the crew reach.
+    std::vector<long> bins;
+    if (!event_->fixed_arrival) {
+        for (const auto& track : sc.sun_tracks) {
+            for (const auto& piece : track.pieces()) {
+                add_bins(bins, piece);
             }
-            c[k] = {1e3 * uf * study.event_dose(loc.id, organs_[k], *event_).rbe_weighted_GyEq,
-                    &study.event_timing(loc.id, organs_[k], *event_), k};
-            for (std::size_t q = 0; q < k; ++q) {
-                if (c[q].timing && c[q].timing->delay_h == c[k].timing->delay_h &&
-                    c[q].timing->share == c[k].timing->share) {
-                    c[k].same_timing_as = q;
-                    break;
+        }
+        std::sort(bins.begin(), bins.end());
+        bins.erase(std::unique(bins.begin(), bins.end()), bins.end());
+    }
+    double last = 0.0; // the last group's arrival, anywhere
+    auto fill = [&](std::unordered_map<std::string, PerOrgan>& table,
+                    const std::function<const ArrivalGroups&(const std::string&,
+                                                             const std::string&)>& timing) {
+        for (const auto& loc : sc.locations) {
+            auto& c = table[loc.id];
+            for (std::size_t k = 0; k < organs_.size(); ++k) {
+                if (!study.has_organ(loc.id, organs_[k])) {
+                    c[k] = {0.0, nullptr, k}; // no crew member checked for it can be here
+                    continue;
+                }
+                c[k] = {1e3 * uf * study.event_dose(loc.id, organs_[k], *event_).rbe_weighted_GyEq,
+                        &timing(loc.id, organs_[k]), k};
+                if (!c[k].timing->delay_h.empty()) {
+                    last = std::max(last, c[k].timing->delay_h.back());
+                }
+                for (std::size_t q = 0; q < k; ++q) {
+                    if (c[q].timing && c[q].timing->delay_h == c[k].timing->delay_h &&
+                        c[q].timing->share == c[k].timing->share) {
+                        c[k].same_timing_as = q;
+                        break;
+                    }
                 }
             }
         }
+    };
+    fill(by_location_,
+         [&](const std::string& loc, const std::string& organ) -> const ArrivalGroups& {
+             return study.event_timing(loc, organ, *event_);
+         });
+    for (const long b : bins) {
+        const double r = static_cast<double>(b) / kArrivalBinsPerAU;
+        fill(by_bin_[b],
+             [&](const std::string& loc, const std::string& organ) -> const ArrivalGroups& {
+                 return study.event_timing(loc, organ, *event_, r);
+             });
     }
     // Beyond the last group's arrival plus 40 decay times the profile has delivered all but
     // e^-40 of the event.
-    double last = 0.0;
-    for (const auto& loc : sc.locations) {
-        for (const auto& organ : organs_) {
-            if (!study.has_organ(loc.id, organ)) {
-                continue;
-            }
-            const auto& g = study.event_timing(loc.id, organ, *event_);
-            if (!g.delay_h.empty()) {
-                last = std::max(last, g.delay_h.back());
-            }
-        }
-    }
     horizon_h_ = last + event_->profile.rise_h + 40.0 * event_->profile.decay_h;
-    // The event's time course relative to t0 does not depend on t0: one all-clear search.
+    // The event's time course relative to t0 does not depend on t0: one all-clear search at the
+    // site, and one per grid distance when the all-clear follows the flux (which depends on how
+    // strong the event is there and when it arrives).
     if (respond_) {
         all_clear_after_h_ = hours(
             all_clear_time(sc.storm, *event_, sc.mission.start, sc.mission.sep_fluence_exponent) -
             sc.mission.start);
+        if (sc.storm.all_clear_above_MeV) {
+            std::vector<long> all_bins = bins;
+            for (const auto& track : sc.sun_tracks) {
+                for (const auto& piece : track.pieces()) {
+                    add_bins(all_bins, piece);
+                }
+            }
+            std::sort(all_bins.begin(), all_bins.end());
+            all_bins.erase(std::unique(all_bins.begin(), all_bins.end()), all_bins.end());
+            for (const long b : all_bins) {
+                const double r = static_cast<double>(b) / kArrivalBinsPerAU;
+                const EventSpec there = event_->seen_at(r, sc.mission.path_length_at(r));
+                all_clear_by_bin_[b] = hours(all_clear_time(sc.storm, there, sc.mission.start,
+                                                            sc.mission.sep_fluence_exponent) -
+                                             sc.mission.start);
+            }
+        }
     }
 }
 
-void StormContext::add_piece(StormDoses& d, Time from, Time to, const std::string& location,
-                             Time onset) const {
-    add_piece(d, from, to, by_location_.at(location), onset);
+StormContext::Where StormContext::where(std::size_t crew, Time onset) const {
+    const Scenario& sc = study_.scenario();
+    Where w;
+    w.table = &by_location_;
+    w.r_AU = sc.sun_distance(crew, onset);
+    if (w.r_AU == event_->sun_distance_AU) {
+        return w; // at the site: the site's table, factor 1
+    }
+    w.factor = event_->distance_factor(w.r_AU, sc.mission.sep_fluence_exponent);
+    if (!event_->fixed_arrival) {
+        w.table = &by_bin_.at(arrival_bin(w.r_AU));
+    }
+    return w;
 }
 
-void StormContext::add_piece(StormDoses& d, Time from, Time to, const PerOrgan& c,
-                             Time onset) const {
+double StormContext::all_clear_after_h(Time onset) const {
+    if (all_clear_by_bin_.empty()) {
+        return all_clear_after_h_;
+    }
+    // The all-clear is given when it holds for every crew member: the latest of their own.
+    const Scenario& sc = study_.scenario();
+    double latest = 0.0;
+    for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+        const double r = sc.sun_distance(i, onset);
+        latest =
+            std::max(latest, r == event_->sun_distance_AU ? all_clear_after_h_
+                                                          : all_clear_by_bin_.at(arrival_bin(r)));
+    }
+    return latest;
+}
+
+void StormContext::add_piece(StormDoses& d, Time from, Time to, const PerOrgan& c, Time onset,
+                             double factor) const {
     const double a = hours(from - onset);
     const double b = hours(to - onset);
     StormDoses fraction{};
@@ -491,18 +569,21 @@ void StormContext::add_piece(StormDoses& d, Time from, Time to, const PerOrgan& 
         } else if (c[k].timing) {
             fraction[k] = c[k].timing->fraction_between(a, b, event_->profile);
         }
-        d[k] += c[k].mGyEq * fraction[k];
+        d[k] += factor * c[k].mGyEq * fraction[k];
     }
 }
 
-StormDoses StormContext::doses_over(std::span<const TimelineSpan> spans, Time onset) const {
+StormDoses StormContext::doses_over(std::span<const TimelineSpan> spans, Time onset,
+                                    std::size_t crew) const {
     const Time stop = onset + minutes_d(60.0 * horizon_h_);
+    const Where at = where(crew, onset);
     StormDoses d{};
     for (const auto& s : spans) {
         if (s.end <= onset || s.start >= stop) {
             continue;
         }
-        add_piece(d, std::max(s.start, onset), std::min(s.end, stop), s.location, onset);
+        add_piece(d, std::max(s.start, onset), std::min(s.end, stop), at.table->at(s.location),
+                  onset, at.factor);
     }
     return d;
 }
@@ -519,7 +600,7 @@ StormTimes StormContext::times_at(Time onset) const {
     StormTimes t;
     t.onset = onset;
     t.warning = onset + minutes_d(study_.scenario().storm.warning_delay_min);
-    t.all_clear = respond_ ? onset + minutes_d(60.0 * all_clear_after_h_) : t.warning;
+    t.all_clear = respond_ ? onset + minutes_d(60.0 * all_clear_after_h(onset)) : t.warning;
     return t;
 }
 
@@ -545,6 +626,7 @@ StormDoses StormContext::doses_at(Time onset, std::size_t i) const {
     const StormTimes t = times_at(onset);
     StormDoses d{};
     const Time stop = onset + minutes_d(60.0 * horizon_h_);
+    const Where at = where(i, onset);
     // Back-to-back pieces at one place are taken as one (the event's time course is evaluated
     // at the ends of the run only): the same dose as piece by piece (at()) to rounding.
     Time run_from;
@@ -556,13 +638,13 @@ StormDoses StormContext::doses_at(Time onset, std::size_t i) const {
         }
         a = std::max(a, onset);
         b = std::min(b, stop);
-        const PerOrgan& here = by_location_.at(location);
+        const PerOrgan& here = at.table->at(location);
         if (run_at == &here && run_to == a) {
             run_to = b;
             return;
         }
         if (run_at) {
-            add_piece(d, run_from, run_to, *run_at, onset);
+            add_piece(d, run_from, run_to, *run_at, onset, at.factor);
         }
         run_from = a;
         run_to = b;
@@ -583,7 +665,7 @@ StormDoses StormContext::doses_at(Time onset, std::size_t i) const {
         }
     }
     if (run_at) {
-        add_piece(d, run_from, run_to, *run_at, onset);
+        add_piece(d, run_from, run_to, *run_at, onset, at.factor);
     }
     return d;
 }
@@ -599,8 +681,15 @@ StormWhatIf StormContext::at(Time onset) const {
         c.crew = sc.crew[i].id;
         c.name = sc.crew[i].name;
         const auto spans = respond_ ? respond(planned_[i], sc.storm, w.times) : planned_[i];
-        const auto without = doses_over(planned_[i], onset);
-        const auto with = doses_over(spans, onset);
+        const auto without = doses_over(planned_[i], onset, i);
+        const auto with = doses_over(spans, onset, i);
+        const Where here = where(i, onset);
+        c.sun_distance_AU = here.r_AU;
+        c.fluence_scale = event_->fluence_scale_at(here.r_AU, sc.mission.sep_fluence_exponent);
+        if (i < sc.sun_tracks.size()) {
+            const auto& piece = sc.sun_tracks[i].piece_at(onset);
+            c.distance_basis = describe(piece.source, piece.where);
+        }
         for (std::size_t k = 0; k < organs_.size(); ++k) {
             if (!checked_[i][k]) {
                 continue;
@@ -668,6 +757,15 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         for (const Time edge : {a.start, a.end}) {
             for (const auto& lead : leads) {
                 add(edge - lead);
+            }
+            // Away from the site the first particles arrive sooner or later than there.
+            for (std::size_t i = 0; i < sc.crew.size(); ++i) {
+                const double r = sc.sun_distance(i, edge);
+                if (!ev.fixed_arrival && r != ev.sun_distance_AU &&
+                    std::find(a.crew.begin(), a.crew.end(), sc.crew[i].id) != a.crew.end()) {
+                    add(edge -
+                        minutes_d(60.0 * ev.seen_at(r, sc.mission.path_length_at(r)).delay_h(1e4)));
+                }
             }
         }
         if (!out_of_doors) {

@@ -6,6 +6,7 @@
 
 #include <array>
 #include <functional>
+#include <map>
 #include <optional>
 #include <span>
 #include <string>
@@ -54,6 +55,11 @@ struct StormCrew {
     std::string name;
     std::vector<StormOrgan> organs;
     std::vector<TimelineSpan> responded; ///< the spans that overlap the event
+    /// Where the crew member is in the heliosphere at the onset, why, and the factor on the
+    /// event's spectrum as written there.
+    double sun_distance_AU = 1.0;
+    std::string distance_basis = "at the site";
+    double fluence_scale = 1.0;
     [[nodiscard]] double worst_ratio() const;
     [[nodiscard]] bool exceeded() const { return !(worst_ratio() <= 1.0); }
 };
@@ -99,8 +105,11 @@ class StormContext {
     [[nodiscard]] const std::vector<TimelineSpan>& planned(std::size_t crew) const {
         return planned_.at(crew);
     }
-    /// Hours from t0 to the all-clear (the same for every onset).
+    /// Hours from t0 to the all-clear at the site.
     [[nodiscard]] double all_clear_after_h() const noexcept { return all_clear_after_h_; }
+    /// Hours from t0 to the all-clear for an onset: the site's, or, when the all-clear follows
+    /// the flux and crew are elsewhere in the heliosphere, the latest of the crew's.
+    [[nodiscard]] double all_clear_after_h(Time onset) const;
     /// The organs checked against their 30-day limits: BFO, lens and skin, and heart and brain
     /// when, for some crew member, every location the what-if can put them at gives them (the
     /// phantom body model).
@@ -117,12 +126,11 @@ class StormContext {
     [[nodiscard]] double limit(std::size_t k) const;
 
   private:
-    /// The event's dose (uncertainty factor applied, mGy-Eq) per organ of organs() over `spans`.
-    [[nodiscard]] StormDoses doses_over(std::span<const TimelineSpan> spans, Time onset) const;
+    /// The event's dose (uncertainty factor applied, mGy-Eq) per organ of organs() over `spans`
+    /// of crew member `crew`.
+    [[nodiscard]] StormDoses doses_over(std::span<const TimelineSpan> spans, Time onset,
+                                        std::size_t crew) const;
     StormTimes times_at(Time onset) const;
-    /// Adds the event's dose between `from` and `to` at `location` to `d`.
-    void add_piece(StormDoses& d, Time from, Time to, const std::string& location,
-                   Time onset) const;
 
     struct Cached {
         double mGyEq = 0.0; ///< the whole event there, factor applied
@@ -132,8 +140,21 @@ class StormContext {
         std::size_t same_timing_as = 0;
     };
     using PerOrgan = std::array<Cached, kMaxStormOrgans>;
-    void add_piece(StormDoses& d, Time from, Time to, const PerOrgan& at, Time onset) const;
-    std::unordered_map<std::string, PerOrgan> by_location_;
+    /// Adds `factor` times the event's dose between `from` and `to` at a place to `d`.
+    void add_piece(StormDoses& d, Time from, Time to, const PerOrgan& at, Time onset,
+                   double factor) const;
+    std::unordered_map<std::string, PerOrgan> by_location_; ///< at the site
+    /// A dispersed event's arrival at each grid distance (arrival_bin) the crew reach.
+    std::map<long, std::unordered_map<std::string, PerOrgan>> by_bin_;
+    std::map<long, double> all_clear_by_bin_;
+    /// A crew member's place in the heliosphere at an onset: the table of their distance and
+    /// the factor on the site's dose.
+    struct Where {
+        double r_AU = 1.0;
+        double factor = 1.0;
+        const std::unordered_map<std::string, PerOrgan>* table = nullptr;
+    };
+    [[nodiscard]] Where where(std::size_t crew, Time onset) const;
     std::vector<std::string> organs_;
     std::vector<std::array<bool, kMaxStormOrgans>> checked_; ///< per crew member, per organ
     std::string unchecked_note_;

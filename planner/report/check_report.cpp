@@ -258,11 +258,25 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             j["gcr"] = g;
         }
         j["events"] = nlohmann::json::array();
-        for (const auto& e : sc.events) {
-            j["events"].push_back({{"id", e.id},
-                                   {"flare_seen", format_time(e.flare_seen)},
-                                   {"arrival", format_time(e.arrival())},
-                                   {"spectrum", e.spectrum_text}});
+        for (std::size_t k = 0; k < sc.events.size(); ++k) {
+            const auto& e = sc.events[k];
+            nlohmann::json ej{{"id", e.id},
+                              {"flare_seen", format_time(e.flare_seen)},
+                              {"arrival", format_time(e.arrival())},
+                              {"spectrum", e.spectrum_text},
+                              {"spectrum_at_AU", e.spectrum_at_AU.value_or(e.sun_distance_AU)},
+                              {"fluence_exponent", sc.mission.sep_fluence_exponent}};
+            ej["crew"] = nlohmann::json::array();
+            for (const auto& c : ledger.crew) {
+                if (k < c.event_distances.size()) {
+                    const auto& d = c.event_distances[k];
+                    ej["crew"].push_back({{"id", c.crew},
+                                          {"sun_distance_AU", d.r_AU},
+                                          {"basis", d.basis},
+                                          {"fluence_scale", d.fluence_scale}});
+                }
+            }
+            j["events"].push_back(ej);
         }
         j["crew"] = nlohmann::json::array();
         for (const auto& c : ledger.crew) {
@@ -366,11 +380,40 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     }
     out += "\n";
     out += "Events:\n";
-    for (const auto& e : sc.events) {
-        out +=
-            wrap(fmt::format("  {}: flare seen {}, arrival {}; {}", e.id, format_time(e.flare_seen),
-                             format_time(e.arrival()), describe_spectrum(e.spectrum)),
-                 100, "    ");
+    for (std::size_t k = 0; k < sc.events.size(); ++k) {
+        const auto& e = sc.events[k];
+        out += wrap(fmt::format("  {}: flare seen {}, arrival at the site {}; {}", e.id,
+                                format_time(e.flare_seen), format_time(e.arrival()),
+                                describe_spectrum(e.spectrum)),
+                    100, "    ");
+        out += wrap(fmt::format("    spectrum as written at {} AU from the Sun ({}); the fluence "
+                                "scales as distance^-{}",
+                                significant(e.spectrum_at_AU.value_or(e.sun_distance_AU), 3),
+                                e.spectrum_at_AU ? "spectrum_at_AU" : "the site's distance",
+                                significant(sc.mission.sep_fluence_exponent, 3)),
+                    100, "      ");
+        // The crew grouped by where they meet the event.
+        std::vector<std::pair<const CrewResult::EventDistance*, std::string>> groups;
+        for (const auto& c : ledger.crew) {
+            if (k >= c.event_distances.size()) {
+                continue;
+            }
+            const auto& d = c.event_distances[k];
+            const auto g = std::find_if(groups.begin(), groups.end(), [&](const auto& x) {
+                return x.first->r_AU == d.r_AU && x.first->basis == d.basis;
+            });
+            if (g == groups.end()) {
+                groups.emplace_back(&d, c.crew);
+            } else {
+                g->second += ", " + c.crew;
+            }
+        }
+        for (const auto& [d, who] : groups) {
+            out += wrap(fmt::format("    {}: {} AU ({}), fluence {} times the spectrum as written",
+                                    who, significant(d->r_AU, 3), d->basis,
+                                    significant(d->fluence_scale, 3)),
+                        100, "      ");
+        }
     }
     if (sc.events.empty()) {
         out += "  none\n";

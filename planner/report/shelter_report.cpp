@@ -31,6 +31,8 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["max_g_cm2"] = r.max_g_cm2;
         j["targets_mGyEq"] = rep.target_mGyEq;
         j["other_30d_mGyEq"] = rep.other_30d_mGyEq;
+        j["sun_distance_AU"] = rep.sun_distance_AU;
+        j["fluence_scale"] = rep.fluence_scale;
         j["answers"] = nlohmann::json::array();
         for (const auto& a : rep.answers) {
             nlohmann::json aj{{"material", a.material},
@@ -85,9 +87,14 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                     "of with and without nuclear reactions; uncertainty factor {:.2f}) plus the "
                     "highest 30-day dose any crew member has from everything else must stay "
                     "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
-                    "below its target and within 0.5 % of it.",
+                    "below its target and within 0.5 % of it. The event is taken at {} AU from "
+                    "the Sun ({}), its fluence {} times the spectrum as written.",
                     to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor,
-                    significant(r.max_g_cm2, 3)),
+                    significant(r.max_g_cm2, 3), significant(rep.sun_distance_AU, 3),
+                    rep.sun_distance_AU == sc.mission.sun_distance_AU
+                        ? "the site's distance"
+                        : "the nearest to the Sun a crew member comes: a shelter in space",
+                    significant(rep.fluence_scale, 3)),
                 96) +
            "\n";
     out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");

@@ -16,7 +16,12 @@ namespace crewdose::planner {
 namespace {
 
 nlohmann::json crew_json(const StormCrew& c) {
-    nlohmann::json j{{"id", c.crew}, {"name", c.name}, {"worst_ratio", c.worst_ratio()}};
+    nlohmann::json j{{"id", c.crew},
+                     {"name", c.name},
+                     {"worst_ratio", c.worst_ratio()},
+                     {"sun_distance_AU", c.sun_distance_AU},
+                     {"distance_basis", c.distance_basis},
+                     {"fluence_scale", c.fluence_scale}};
     for (const auto& o : c.organs) {
         j["organs"][o.organ] = {{"without_response_mGyEq", o.without_response_mGyEq},
                                 {"with_response_mGyEq", o.with_response_mGyEq},
@@ -52,6 +57,18 @@ std::string model_note(const StormContext& ctx) {
     for (std::size_t k = 0; k < ctx.organs().size(); ++k) {
         organs += fmt::format("{}{}", k == 0 ? "" : (k + 1 == ctx.organs().size() ? " and " : ", "),
                               organ_label(ctx.organs()[k]));
+    }
+    bool elsewhere = false;
+    for (const auto& track : sc.sun_tracks) {
+        elsewhere = elsewhere || track.lowest_AU() != ev.sun_distance_AU ||
+                    track.highest_AU() != ev.sun_distance_AU;
+    }
+    if (elsewhere) {
+        arrival += fmt::format("; crew away from the site (transits) meet the event at their own "
+                               "distance from the Sun, its fluence scaled as distance^-{} from "
+                               "where its spectrum is given and arriving along the field line "
+                               "there (arrival on a 0.01 AU grid)",
+                               significant(sc.mission.sep_fluence_exponent, 3));
     }
     std::string unchecked;
     if (!ctx.unchecked_note().empty()) {
@@ -127,6 +144,13 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
     out += "\n";
     for (const auto& c : w.crew) {
         out += fmt::format("{} ({})\n", c.name, c.crew);
+        if (c.sun_distance_AU != ctx.event().sun_distance_AU || c.fluence_scale != 1.0) {
+            out += wrap(fmt::format("  at {} AU from the Sun ({}): the event's fluence is {} times "
+                                    "its spectrum as written",
+                                    significant(c.sun_distance_AU, 3), c.distance_basis,
+                                    significant(c.fluence_scale, 3)),
+                        100, "    ");
+        }
         out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}\n", "organ",
                            "no response", "response", "saved", "other 30d", "limit", "margin");
         for (const auto& o : c.organs) {

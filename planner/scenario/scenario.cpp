@@ -63,6 +63,31 @@ double EventSpec::fluence_scale(double exponent) const {
     return std::pow(sun_distance_AU / *spectrum_at_AU, -exponent);
 }
 
+double EventSpec::fluence_scale_at(double r_AU, double exponent) const {
+    return std::pow(r_AU / spectrum_at_AU.value_or(sun_distance_AU), -exponent);
+}
+
+double EventSpec::distance_factor(double r_AU, double exponent) const {
+    return r_AU == sun_distance_AU ? 1.0 : std::pow(r_AU / sun_distance_AU, -exponent);
+}
+
+EventSpec EventSpec::seen_at(double r_AU, double path_AU) const {
+    EventSpec there = *this;
+    there.spectrum_at_AU = spectrum_at_AU.value_or(sun_distance_AU);
+    there.sun_distance_AU = r_AU;
+    there.path_length_AU = path_AU;
+    return there;
+}
+
+double Mission::path_length_at(double r_AU) const {
+    return sep_path_length_AU * exposure::parker_spiral_length_AU(r_AU) /
+           exposure::parker_spiral_length_AU(sun_distance_AU);
+}
+
+double Scenario::sun_distance(std::size_t crew_index, const Time& t) const {
+    return crew_index < sun_tracks.size() ? sun_tracks[crew_index].at(t) : mission.sun_distance_AU;
+}
+
 const exposure::Material* Scenario::material(const std::string& id) const {
     for (const auto& m : materials) {
         if (m.id() == id) {

@@ -3,6 +3,7 @@
 // file and line where the user wrote it (scenarios/README.md documents every key).
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/location_model.hpp"
+#include "planner/scenario/sun_distance.hpp"
 
 #include "habitats/directional_shielding.hpp"
 #include "habitats/phantom.hpp"
@@ -57,6 +58,17 @@ struct Mission {
     /// Fluence of an event scales as (r / r_spectrum)^-exponent from the distance its spectrum
     /// is given at to the site (default 2, inverse square: uncertain; observed values spread).
     double sep_fluence_exponent = 2.0;
+    /// Optional heliocentric distance by date ([[mission.trajectory]]), for crew in space
+    /// (transits, deep-space locations) between its first and last date; interpolated linearly.
+    struct TrajectoryPoint {
+        SourceLocation where;
+        Time at;
+        double r_AU;
+    };
+    std::vector<TrajectoryPoint> trajectory;
+    /// The field-line length for a crew member at heliocentric distance r: the Parker spiral at
+    /// r, times the ratio of a given sep_path_length_AU to the spiral at the site (1 without).
+    [[nodiscard]] double path_length_at(double r_AU) const;
     /// Directions for the GCR responses (the GCR dose varies slowly with direction).
     std::size_t gcr_directions = kDefaultGcrDirections;
     /// Directions for the SPE responses of phantom locations (each direction costs one path
@@ -119,6 +131,14 @@ struct EventSpec {
     [[nodiscard]] Time arrival() const;
     /// Factor on the spectrum's fluence for the site's distance (1 when given at the site).
     [[nodiscard]] double fluence_scale(double exponent) const;
+    /// Factor on the spectrum's fluence at heliocentric distance r: (r / r_spectrum)^-exponent,
+    /// r_spectrum being spectrum_at_AU or, without it, the site's distance.
+    [[nodiscard]] double fluence_scale_at(double r_AU, double exponent) const;
+    /// The dose at distance r over the dose at the site (exactly 1 at the site's distance).
+    [[nodiscard]] double distance_factor(double r_AU, double exponent) const;
+    /// The event as met at heliocentric distance r along a field line of `path_AU`: the same
+    /// spectrum and source distance, scaled and arriving there.
+    [[nodiscard]] EventSpec seen_at(double r_AU, double path_AU) const;
 };
 
 /// Organ doses as the scenario gives them for prior history and recorded periods, mGy-Eq for
@@ -160,6 +180,9 @@ struct ActivitySpec {
     /// Or: how far from cover the EVA goes, km; the return time is then distance / the policy's
     /// traverse speed.
     std::optional<double> distance_km;
+    /// Heliocentric distance during the activity, AU, at its start and end (interpolated);
+    /// without it, see build_sun_distance_tracks.
+    std::optional<std::pair<double, double>> sun_distance_AU;
 };
 
 /// What the crew do when a storm warning comes ([storm_response]): the policy of the storm
@@ -219,7 +242,13 @@ struct Scenario {
     std::vector<ActivitySpec> activities;
     std::vector<RecordedSpec> recorded;
     LimitsSpec limits;
+    /// Each crew member's heliocentric distance along the mission (crew order), built by the
+    /// loader once the timeline is checked.
+    std::vector<SunDistanceTrack> sun_tracks;
 
+    /// Crew member `crew`'s (index into crew) heliocentric distance at t, AU: the site's when
+    /// the scenario was not built by the loader.
+    [[nodiscard]] double sun_distance(std::size_t crew_index, const Time& t) const;
     /// A material by id: the scenario's own first, then the built-in library; nullptr if none.
     [[nodiscard]] const exposure::Material* material(const std::string& id) const;
     /// The event or location a command-line option names; InputError naming `option` and the

@@ -47,6 +47,11 @@ constexpr double kMaxDoseEntry = 10000.0;
 /// An event's fixed arrival delay: particles arrive within hours to a day or two of the flare
 /// (common practice); 10 days is the bound.
 constexpr double kMaxArrivalDelay_h = 240.0;
+/// Heliocentric distances (the site, a spectrum's, a crew member's): from inside Mercury's orbit
+/// to beyond Neptune's; the fluence scaling and the Parker spiral are uncertain far outside.
+constexpr double kMinSunDistance_AU = 0.1;
+constexpr double kMaxSunDistance_AU = 40.0;
+constexpr const char* kSunDistanceRange = "must be a heliocentric distance from 0.1 to 40 AU";
 /// Response times (warnings, moves, returns): two days.
 constexpr double kMaxMinutes = 2880.0;
 /// Largest scenario file read (a 3-year plan of 10,000 activities is about 1 MiB).
@@ -400,7 +405,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                         {"name", "site", "start", "end", "directions", "terrain_mask",
                          "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
                          "gcr_directions", "phantom_directions", "sun_distance_AU",
-                         "sep_path_length_AU", "sep_fluence_exponent"});
+                         "sep_path_length_AU", "sep_fluence_exponent", "trajectory"});
         sc.mission.where = m.where();
         sc.mission.name = m.text("name");
         const std::string site = m.text("site");
@@ -466,8 +471,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (m.has("sun_distance_AU")) {
             const double r = m.number("sun_distance_AU");
-            if (!(r >= 0.1 && r <= 40.0)) {
-                m.fail("sun_distance_AU", "must be a heliocentric distance from 0.1 to 40 AU");
+            if (!(r >= kMinSunDistance_AU && r <= kMaxSunDistance_AU)) {
+                m.fail("sun_distance_AU", kSunDistanceRange);
             }
             sc.mission.sun_distance_AU = r;
         }
@@ -481,6 +486,32 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                        "at most 100 AU");
             }
             sc.mission.sep_path_length_AU = l;
+        }
+        if (m.has("trajectory")) {
+            const auto* a = m.need("trajectory").as_array();
+            if (!a || !a->is_array_of_tables()) {
+                m.fail("trajectory", "must be an array of tables [[mission.trajectory]] with at "
+                                     "and sun_distance_AU");
+            }
+            for (const auto& e : *a) {
+                const Section g(*e.as_table(), file, "mission.trajectory",
+                                {"at", "sun_distance_AU"});
+                Mission::TrajectoryPoint p{g.where(), g.time("at"), g.number("sun_distance_AU")};
+                if (!(p.r_AU >= kMinSunDistance_AU && p.r_AU <= kMaxSunDistance_AU)) {
+                    g.fail("sun_distance_AU", kSunDistanceRange);
+                }
+                if (p.at < sc.mission.start || p.at > sc.mission.end) {
+                    g.fail("at", "lies outside the mission (mission.start to mission.end)");
+                }
+                if (!sc.mission.trajectory.empty() && !(p.at > sc.mission.trajectory.back().at)) {
+                    g.fail("at", "must be later than the previous entry's at");
+                }
+                sc.mission.trajectory.push_back(p);
+            }
+            if (sc.mission.trajectory.size() < 2) {
+                m.fail("trajectory", "needs at least two [[mission.trajectory]] entries (a "
+                                     "distance is interpolated between dates)");
+            }
         }
         if (m.has("sep_fluence_exponent")) {
             const double x = m.number("sep_fluence_exponent");
@@ -758,8 +789,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         ev.sun_distance_AU = sc.mission.sun_distance_AU;
         if (s.has("spectrum_at_AU")) {
             const double r = s.number("spectrum_at_AU");
-            if (!(r >= 0.1 && r <= 40.0)) {
-                s.fail("spectrum_at_AU", "must be a heliocentric distance from 0.1 to 40 AU");
+            if (!(r >= kMinSunDistance_AU && r <= kMaxSunDistance_AU)) {
+                s.fail("spectrum_at_AU", kSunDistanceRange);
             }
             ev.spectrum_at_AU = r;
         }
@@ -820,9 +851,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
 
     // [[activity]]
     for (const auto* t : entries(root, "activity", file)) {
-        const Section s(
-            *t, file, "activity",
-            {"crew", "kind", "location", "start", "end", "return_min", "refuge", "distance_km"});
+        const Section s(*t, file, "activity",
+                        {"crew", "kind", "location", "start", "end", "return_min", "refuge",
+                         "distance_km", "sun_distance_AU"});
         ActivitySpec a;
         a.where = s.where();
         a.crew = s.strings("crew");
@@ -880,6 +911,27 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             if (!location_ids.count(*a.refuge)) {
                 s.fail("refuge", "unknown location '" + *a.refuge + "'");
             }
+        }
+        if (s.has("sun_distance_AU")) {
+            const auto& node = s.need("sun_distance_AU");
+            std::vector<double> r;
+            if (node.is_number()) {
+                r.push_back(s.number("sun_distance_AU"));
+            } else if (const auto* pair = node.as_array(); pair && pair->size() == 2 &&
+                                                           (*pair)[0].is_number() &&
+                                                           (*pair)[1].is_number()) {
+                for (const auto& x : *pair) {
+                    r.push_back(x.value<double>().value_or(-1.0));
+                }
+            } else {
+                s.fail("sun_distance_AU", "must be a distance in AU, or [at start, at end]");
+            }
+            for (const double x : r) {
+                if (!(x >= kMinSunDistance_AU && x <= kMaxSunDistance_AU)) {
+                    s.fail("sun_distance_AU", kSunDistanceRange);
+                }
+            }
+            a.sun_distance_AU = {r.front(), r.back()};
         }
         sc.activities.push_back(std::move(a));
     }
@@ -1077,6 +1129,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             throw InputError(loc.point_where, "location.point_m", e.what());
         }
     }
+    sc.sun_tracks = build_sun_distance_tracks(sc);
     return sc;
 }
 

@@ -324,13 +324,28 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
     const Scenario& sc = study.scenario();
     LedgerResult out;
     const double uf = sc.limits.uncertainty_factor;
-    for (const auto& crew : sc.crew) {
+    for (std::size_t ci = 0; ci < sc.crew.size(); ++ci) {
+        const CrewSpec& crew = sc.crew[ci];
         const std::vector<TimelineSpan> filled =
             crew_timeline(sc, crew, options.allow_gaps, out.gaps);
 
         CrewResult result;
         result.crew = crew.id;
         result.name = crew.name;
+        // Each event as this crew member meets it: at their heliocentric distance when its
+        // flare is seen (on a transit leg an event is stronger near the Sun and arrives sooner).
+        std::vector<double> event_r;
+        for (const auto& ev : sc.events) {
+            const double r = sc.sun_distance(ci, ev.flare_seen);
+            event_r.push_back(r);
+            result.event_distances.push_back(
+                {ev.id, r,
+                 ci < sc.sun_tracks.size()
+                     ? describe(sc.sun_tracks[ci].piece_at(ev.flare_seen).source,
+                                sc.sun_tracks[ci].piece_at(ev.flare_seen).where)
+                     : "at the site",
+                 ev.fluence_scale_at(r, sc.mission.sep_fluence_exponent)});
+        }
         double lowest_margin = 1e300;
         for (const auto& organ : ledger_organs()) {
             std::vector<std::string> lacking;
@@ -356,15 +371,17 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
             };
             std::vector<DosePiece> pieces;
             for (const auto& span : filled) {
-                for (const auto& ev : sc.events) {
-                    const ArrivalGroups& timing = study.event_timing(span.location, organ, ev);
+                for (std::size_t e = 0; e < sc.events.size(); ++e) {
+                    const EventSpec& ev = sc.events[e];
+                    const ArrivalGroups& timing =
+                        study.event_timing(span.location, organ, ev, event_r[e]);
                     const double f =
                         timing.fraction_between(hours(span.start - ev.flare_seen),
                                                 hours(span.end - ev.flare_seen), ev.profile);
                     if (f <= 0.0) {
                         continue;
                     }
-                    const auto full = study.event_dose(span.location, organ, ev);
+                    const auto full = study.event_dose(span.location, organ, ev, event_r[e]);
                     pieces.push_back({span.start, span.end, as_limited(full).scaled(f * uf), &ev,
                                       "SPE " + ev.id, span.label, &timing});
                 }

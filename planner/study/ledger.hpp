@@ -119,6 +119,15 @@ struct CrewResult {
     /// Organs not evaluated for this crew member (heart, brain, effective), with the locations
     /// of the timeline whose body model does not give them (the quick model).
     std::map<std::string, std::vector<std::string>> not_evaluated;
+    /// Where the crew member is in the heliosphere when each event's flare is seen (scenario
+    /// event order): the distance, why, and the factor on the spectrum's fluence as written.
+    struct EventDistance {
+        std::string event;
+        double r_AU = 1.0;
+        std::string basis;
+        double fluence_scale = 1.0;
+    };
+    std::vector<EventDistance> event_distances;
 };
 
 /// Where a dose stands against its limit: `near` from `near_share` of the limit (0.9 by

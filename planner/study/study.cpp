@@ -274,6 +274,22 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
             }
         }
     }
+    // The 0.01 AU grid of distances the crew reach away from the site (see event_timing).
+    long lowest_bin = 0;
+    long highest_bin = -1;
+    if (!sc_.sun_tracks.empty()) {
+        double lo = 1e300;
+        double hi = 0.0;
+        for (const auto& t : sc_.sun_tracks) {
+            lo = std::min(lo, t.lowest_AU());
+            hi = std::max(hi, t.highest_AU());
+        }
+        lowest_bin = std::lround(lo * kArrivalBinsPerAU);
+        highest_bin = std::lround(hi * kArrivalBinsPerAU);
+        if (lo == hi && lo == sc_.mission.sun_distance_AU) {
+            highest_bin = lowest_bin - 1; // everyone at the site: no grid needed
+        }
+    }
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
         for (const auto& [key, r] : responses_) {
@@ -296,39 +312,57 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
             const bool with =
                 folded.with_removal.rbe_weighted_GyEq >= folded.without_removal.rbe_weighted_GyEq;
             const auto& weights = with ? r.response.with_removal : r.response.without_removal;
-            std::vector<std::pair<double, double>> nodes; // (delay, dose share)
+            std::vector<std::pair<double, double>> nodes; // (energy, dose share)
             for (std::size_t j = 0; j < weights.size(); ++j) {
                 const double d =
                     weights[j].rbe_weighted_GyEq * fluences.per_unit_log_energy_per_cm2[j];
                 if (d > 0.0) {
-                    nodes.emplace_back(ev.delay_h(r.response.node_energies_MeV_per_n[j]), d);
+                    nodes.emplace_back(r.response.node_energies_MeV_per_n[j], d);
                 }
             }
-            std::sort(nodes.begin(), nodes.end());
-            ArrivalGroups g;
-            for (const auto& [delay, d] : nodes) {
-                const double width_h = std::max(1.0 / 60.0, 0.01 * delay);
-                if (g.delay_h.empty() || delay - g.delay_h.back() > width_h) {
-                    g.delay_h.push_back(delay);
-                    g.share.push_back(0.0);
-                }
-                // The group's delay is that of its first (fastest) node: never later than any
-                // member's own arrival.
-                g.share.back() += d;
+            event_timing_[{key.first, key.second, ev.id}] = arrival_groups(nodes, ev);
+            // Crew in space away from the site: the arrival at their distance, on the 0.01 AU
+            // grid (a dispersed event only; a fixed arrival does not depend on the distance).
+            if (ev.fixed_arrival) {
+                continue;
             }
-            // Shares of the grouped sums (a single group is exactly 1: organs with the same
-            // grouping then have equal timings, which the storm sweep reuses).
-            double grouped = 0.0;
-            for (const double s : g.share) {
-                grouped += s;
+            for (long bin = lowest_bin; bin <= highest_bin; ++bin) {
+                const double r_AU = static_cast<double>(bin) / kArrivalBinsPerAU;
+                const EventSpec there = ev.seen_at(r_AU, sc_.mission.path_length_at(r_AU));
+                event_timing_off_site_[{key.first, key.second, ev.id, bin}] =
+                    arrival_groups(nodes, there);
             }
-            for (double& s : g.share) {
-                s /= grouped;
-            }
-            g.prepare(ev.profile);
-            event_timing_[{key.first, key.second, ev.id}] = std::move(g);
         }
     }
+}
+
+ArrivalGroups arrival_groups(std::vector<std::pair<double, double>> nodes, const EventSpec& ev) {
+    for (auto& [energy, d] : nodes) {
+        energy = ev.delay_h(energy);
+    }
+    std::sort(nodes.begin(), nodes.end());
+    ArrivalGroups g;
+    for (const auto& [delay, d] : nodes) {
+        const double width_h = std::max(1.0 / 60.0, 0.01 * delay);
+        if (g.delay_h.empty() || delay - g.delay_h.back() > width_h) {
+            g.delay_h.push_back(delay);
+            g.share.push_back(0.0);
+        }
+        // The group's delay is that of its first (fastest) node: never later than any
+        // member's own arrival.
+        g.share.back() += d;
+    }
+    // Shares of the grouped sums (a single group is exactly 1: organs with the same grouping
+    // then have equal timings, which the storm sweep reuses).
+    double grouped = 0.0;
+    for (const double s : g.share) {
+        grouped += s;
+    }
+    for (double& s : g.share) {
+        s /= grouped;
+    }
+    g.prepare(ev.profile);
+    return g;
 }
 
 exposure::NodeFluences event_node_fluences(const EventSpec& ev, double exponent,
@@ -439,6 +473,28 @@ exposure::DoseQuantities apply_secondary_factor(const exposure::DoseQuantities& 
 const ArrivalGroups& Study::event_timing(const std::string& location, const std::string& organ,
                                          const EventSpec& event) const {
     return event_timing_.at({location, organ, event.id});
+}
+
+const ArrivalGroups& Study::event_timing(const std::string& location, const std::string& organ,
+                                         const EventSpec& event, double r_AU) const {
+    if (event.fixed_arrival || r_AU == event.sun_distance_AU) {
+        return event_timing(location, organ, event);
+    }
+    const auto it = event_timing_off_site_.find({location, organ, event.id, arrival_bin(r_AU)});
+    if (it == event_timing_off_site_.end()) {
+        throw std::logic_error("Study::event_timing: a distance no crew member's track reaches");
+    }
+    return it->second;
+}
+
+long arrival_bin(double r_AU) {
+    return std::lround(r_AU * kArrivalBinsPerAU);
+}
+
+exposure::DoseQuantities Study::event_dose(const std::string& location, const std::string& organ,
+                                           const EventSpec& event, double r_AU) const {
+    return event_dose(location, organ, event)
+        .scaled(event.distance_factor(r_AU, sc_.mission.sep_fluence_exponent));
 }
 
 const exposure::BracketedDose&
