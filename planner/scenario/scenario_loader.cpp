@@ -3,6 +3,7 @@
 #include "planner/scenario/scenario.hpp"
 
 #include "exposure/arrival.hpp"
+#include "planner/scenario/routine.hpp"
 #include "planner/scenario/shielding_table_file.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
 #include "planner/scenario/time_format.hpp"
@@ -178,7 +179,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     }
     const Section top(root, file, "scenario",
                       {"mission", "material", "solid", "location", "event", "crew", "activity",
-                       "recorded", "limits", "storm_response"});
+                       "routine", "recorded", "limits", "storm_response"});
     Scenario sc;
     sc.file = file;
 
@@ -606,11 +607,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                          "member, with activities covering the mission");
     }
 
-    // [[activity]]
-    for (const auto* t : entries(root, "activity", file)) {
-        const Section s(
-            *t, file, "activity",
-            {"crew", "kind", "location", "start", "end", "return_min", "refuge", "distance_km"});
+    // [[activity]], and each instance of every [[routine]]'s activities (routine.hpp)
+    const std::set<std::string> activity_keys{"crew", "kind",       "location", "start",
+                                              "end",  "return_min", "refuge",   "distance_km"};
+    for (const auto& e : activity_tables(root, file, sc.mission, activity_keys)) {
+        const Section s(e.table(), file, e.name, activity_keys, e.origin);
         ActivitySpec a;
         a.where = s.where();
         a.crew = s.strings("crew");
@@ -810,12 +811,14 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                   [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
         for (std::size_t i = 1; i < mine.size(); ++i) {
             if (mine[i]->start < mine[i - 1]->end) {
-                throw InputError(mine[i]->where, "activity.start",
-                                 fmt::format("crew member '{}' is already busy until {} (the "
-                                             "activity at line {}); activities of one crew "
-                                             "member must not overlap",
-                                             c.id, format_time(mine[i - 1]->end),
-                                             mine[i - 1]->where.line));
+                throw InputError(
+                    mine[i]->where, "activity.start",
+                    fmt::format("crew member '{}' is already busy until {} (the "
+                                "activity at line {}, from {}) when this one "
+                                "starts at {}; activities of one crew member must "
+                                "not overlap",
+                                c.id, format_time(mine[i - 1]->end), mine[i - 1]->where.line,
+                                format_time(mine[i - 1]->start), format_time(mine[i]->start)));
             }
         }
     }

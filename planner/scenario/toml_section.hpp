@@ -1,5 +1,5 @@
 #pragma once
-// Reading one TOML table of a scenario (the loader's one reader):
+// Reading one TOML table of a scenario (the loader's and the routine expansion's one reader):
 // each error names the file, the line and the key, says what is wrong and what is allowed;
 // unknown keys are errors. Included only by planner/scenario/ sources (it includes toml++).
 #include "planner/scenario/scenario.hpp"
@@ -33,10 +33,19 @@ inline std::optional<Time> from_toml(const toml::date_time& v) {
     }
 }
 
+/// Where a table made at load was written (an instance of a [[routine]]'s activity, whose
+/// nodes have no lines of their own): every error names this line and ends with `note`.
+struct Origin {
+    SourceLocation where;
+    std::string note; ///< e.g. " (the instance of 2035-06-10T09:00Z of the routine at line 80)"
+};
+
 class Section {
   public:
-    Section(const toml::table& t, std::string file, std::string name, std::set<std::string> allowed)
-        : t_(t), file_(std::move(file)), name_(std::move(name)), allowed_(std::move(allowed)) {
+    Section(const toml::table& t, std::string file, std::string name, std::set<std::string> allowed,
+            std::optional<Origin> origin = std::nullopt)
+        : t_(t), file_(std::move(file)), name_(std::move(name)), allowed_(std::move(allowed)),
+          origin_(std::move(origin)) {
         for (const auto& [key, node] : t_) {
             const std::string k(key.str());
             if (!allowed_.count(k)) {
@@ -44,14 +53,16 @@ class Section {
                 for (const auto& a : allowed_) {
                     list += (list.empty() ? "" : ", ") + a;
                 }
-                throw InputError(at(node), name_ + "." + k, "unknown key; allowed here: " + list);
+                throw InputError(at(node), name_ + "." + k,
+                                 "unknown key; allowed here: " + list + note());
             }
         }
     }
 
     [[nodiscard]] SourceLocation where() const { return at(t_); }
     [[nodiscard]] SourceLocation at(const toml::node& n) const {
-        return {file_, static_cast<int>(n.source().begin.line)};
+        return origin_ ? origin_->where
+                       : SourceLocation{file_, static_cast<int>(n.source().begin.line)};
     }
     [[nodiscard]] std::string field(const std::string& key) const { return name_ + "." + key; }
     [[nodiscard]] bool has(const std::string& key) const { return t_.contains(key); }
@@ -59,13 +70,13 @@ class Section {
 
     [[noreturn]] void fail(const std::string& key, const std::string& problem) const {
         const toml::node* n = t_.get(key);
-        throw InputError(n ? at(*n) : where(), field(key), problem);
+        throw InputError(n ? at(*n) : where(), field(key), problem + note());
     }
 
     const toml::node& need(const std::string& key) const {
         const toml::node* n = t_.get(key);
         if (!n) {
-            throw InputError(where(), field(key), "is required here");
+            throw InputError(where(), field(key), "is required here" + note());
         }
         return *n;
     }
@@ -209,10 +220,13 @@ class Section {
     }
 
   private:
+    [[nodiscard]] std::string note() const { return origin_ ? origin_->note : std::string(); }
+
     const toml::table& t_;
     std::string file_;
     std::string name_;
     std::set<std::string> allowed_;
+    std::optional<Origin> origin_;
 };
 
 // Each [[name]] entry, or an error if `name` is not an array of tables.
