@@ -166,10 +166,10 @@ void expand(const toml::table& r, const std::string& file, const Mission& missio
     // Bounded before anything is built: an absurd period or date fails here, not in memory.
     const auto kept = static_cast<std::size_t>(count) - skipped.size();
     if (kept > kMaxRoutineActivities || kept * steps.size() > kMaxRoutineActivities - total) {
-        s.fail("every", fmt::format("the routine has {} instances of its {} activities; all "
-                                    "routines together may expand to at most {} activities "
+        s.fail("every", fmt::format("the routine would expand to {} activities ({} instances); "
+                                    "all routines together may expand to at most {} activities "
                                     "(check from, until and every)",
-                                    kept, steps.size(), kMaxRoutineActivities));
+                                    kept * steps.size(), kept, kMaxRoutineActivities));
     }
     total += kept * steps.size();
 

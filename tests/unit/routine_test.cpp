@@ -309,7 +309,7 @@ end = 2032-01-05T13:00:00Z
                          "\"1min\"\n[[routine.activity]]\nkind = \"stay\"\nlocation = "
                          "\"cabin\"\nfor = \"1min\"\n"),
                     "end = 2032-01-11T00:00:00Z", "end = 2232-01-11T00:00:00Z");
-        expect(many, "routine.every: the routine has 105203520 instances of its 1 activities; "
-                     "all routines together may expand to at most 100000 activities");
+        expect(many, "routine.every: the routine would expand to 105203520 activities (105203520 "
+                     "instances); all routines together may expand to at most 100000 activities");
     }
 }
