@@ -2,11 +2,11 @@
 // stands for, and every fault names the rule's line, its key and the instance's date.
 #include "fixture.hpp"
 #include "planner/scenario/number_parse.hpp"
-#include "planner/scenario/routine.hpp"
 #include "planner/scenario/scenario.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
+#include "scenario_errors.hpp"
 
 #include <catch2/catch.hpp>
 #include <fmt/format.h>
@@ -104,27 +104,6 @@ int line_of(const std::string& text, const std::string& needle, int nth = 1) {
     }
     return 1 + static_cast<int>(
                    std::count(text.begin(), text.begin() + static_cast<std::ptrdiff_t>(at), '\n'));
-}
-
-std::string replace(std::string s, const std::string& from, const std::string& to) {
-    const auto at = s.find(from);
-    REQUIRE(at != std::string::npos);
-    return s.replace(at, from.size(), to);
-}
-
-std::string error_of(const std::string& text) {
-    try {
-        (void)parse_scenario(text, "plan.toml");
-    } catch (const InputError& e) {
-        return e.what();
-    }
-    return "no error";
-}
-
-void expect(const std::string& text, const std::string& must_say) {
-    const std::string e = error_of(text);
-    INFO(e);
-    CHECK(e.find(must_say) != std::string::npos);
 }
 
 bool same_activity(const ActivitySpec& x, const ActivitySpec& y) {
