@@ -28,16 +28,16 @@ std::string duration_text(std::int64_t s) {
     return fmt::format("{}s", s);
 }
 
-// The duration `key` ("2d", "90min"), whole seconds from `lo_s` to `hi_s`.
+// The duration `key` ("2d", "90min"), whole seconds from `lo_s` to `hi_s`; `range` says so in
+// the message.
 std::int64_t duration_key(const Section& s, const std::string& key, std::int64_t lo_s,
-                          std::int64_t hi_s, std::string_view what) {
+                          std::int64_t hi_s, std::string_view what, std::string_view range) {
     const std::string text = s.text(key);
     const auto v = parse_duration_s(text);
     if (!v || *v < lo_s || *v > hi_s) {
         s.fail(key, fmt::format("'{}': write {} as a number and a unit (s, min, h or d), a whole "
-                                "number of seconds from {} to {}; for example 1d, 7d, 12h, "
-                                "90min",
-                                text, what, duration_text(lo_s), duration_text(hi_s)));
+                                "number of seconds {}; for example 1d, 7d, 12h, 90min",
+                                text, what, range));
     }
     return *v;
 }
@@ -71,7 +71,9 @@ void expand(const toml::table& r, const std::string& file, const Mission& missio
     const int line = s.where().line;
     const Time from = s.time("from");
     const std::int64_t every_s =
-        duration_key(s, "every", kMinRoutinePeriod_s, kMaxRoutinePeriod_s, "the period");
+        duration_key(s, "every", kMinRoutinePeriod_s, kMaxRoutinePeriod_s, "the period",
+                     fmt::format("from {} to {}", duration_text(kMinRoutinePeriod_s),
+                                 duration_text(kMaxRoutinePeriod_s)));
     const Time until = s.has("until") ? s.time("until") : mission.end;
     if (!(until > from)) {
         s.fail(s.has("until") ? "until" : "from",
@@ -111,10 +113,14 @@ void expand(const toml::table& r, const std::string& file, const Mission& missio
         const toml::table& t = *node.as_table();
         const Section a(t, file, "routine.activity", step_keys);
         const std::int64_t at_s =
-            a.has("at") ? duration_key(a, "at", 0, every_s - 1,
-                                       "the start within the period (less than every)")
-                        : next_at_s;
-        const std::int64_t for_s = duration_key(a, "for", 1, kMaxRoutinePeriod_s, "the duration");
+            a.has("at")
+                ? duration_key(
+                      a, "at", 0, every_s - 1, "the start within the period (less than every)",
+                      fmt::format("from 0 to less than every = {}", duration_text(every_s)))
+                : next_at_s;
+        const std::int64_t for_s =
+            duration_key(a, "for", 1, kMaxRoutinePeriod_s, "the duration",
+                         fmt::format("more than 0, at most every = {}", duration_text(every_s)));
         if (at_s + for_s > every_s) {
             const std::string next = count > 1 ? fmt::format(" when the next starts at {}",
                                                              format_time(instance_start(1)))
