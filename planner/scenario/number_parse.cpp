@@ -2,6 +2,7 @@
 
 #include <charconv>
 #include <cmath>
+#include <utility>
 
 namespace crewdose::planner {
 
@@ -13,6 +14,30 @@ std::optional<double> parse_finite(std::string_view text) {
         return std::nullopt;
     }
     return v;
+}
+
+std::optional<std::int64_t> parse_duration_s(std::string_view text) {
+    static constexpr std::pair<std::string_view, double> kUnits[] = {
+        {"min", 60.0}, {"s", 1.0}, {"h", 3600.0}, {"d", 86400.0}};
+    // 1000 years: far beyond any mission, and exact in a double and in microseconds.
+    constexpr double kMax_s = 1000.0 * 366.0 * 86400.0;
+    for (const auto& [unit, seconds] : kUnits) {
+        if (text.size() <= unit.size() || !text.ends_with(unit)) {
+            continue;
+        }
+        const auto v = parse_finite(text.substr(0, text.size() - unit.size()));
+        if (!v || !(*v >= 0.0) || !(*v * seconds <= kMax_s)) {
+            return std::nullopt;
+        }
+        const double s = *v * seconds;
+        // A whole number of seconds (to rounding: "0.1h" is 360 s).
+        const double whole = std::round(s);
+        if (std::abs(s - whole) > 1e-6) {
+            return std::nullopt;
+        }
+        return static_cast<std::int64_t>(whole);
+    }
+    return std::nullopt;
 }
 
 std::vector<std::string_view> split_commas(std::string_view text) {

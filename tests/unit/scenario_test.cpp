@@ -2,6 +2,7 @@
 // allowed (main-job issue, "Validation").
 #include "fixture.hpp"
 #include "planner/scenario/scenario.hpp"
+#include "scenario_errors.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -14,33 +15,6 @@ namespace {
 
 // A small valid scenario (invented), line numbers matter for the tests below.
 const std::string kBase = read_fixture("scenario-base.toml");
-
-std::string replace(std::string s, const std::string& from, const std::string& to) {
-    const auto at = s.find(from);
-    REQUIRE(at != std::string::npos);
-    return s.replace(at, from.size(), to);
-}
-
-std::string replace_last(std::string s, const std::string& from, const std::string& to) {
-    const auto at = s.rfind(from);
-    REQUIRE(at != std::string::npos);
-    return s.replace(at, from.size(), to);
-}
-
-std::string error_of(const std::string& text) {
-    try {
-        (void)parse_scenario(text, "plan.toml");
-    } catch (const InputError& e) {
-        return e.what();
-    }
-    return "no error";
-}
-
-void expect(const std::string& text, const std::string& must_say) {
-    const std::string e = error_of(text);
-    INFO(e);
-    CHECK(e.find(must_say) != std::string::npos);
-}
 
 } // namespace
 
