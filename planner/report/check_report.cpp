@@ -162,6 +162,12 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
                                             c.crew, fmt::join(organs, ", ")),
                                 100, "    ");
         }
+        for (const auto& [organ, locs] : c.estimated) {
+            unevaluated += wrap(fmt::format("  {} dose of {}: an upper bound where the quick body "
+                                            "model stands ({}; see below)",
+                                            organ, c.crew, fmt::join(locs, ", ")),
+                                100, "    ");
+        }
     }
     std::string out;
     if (exceeded > 0) {
@@ -284,6 +290,10 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
             cj["not_evaluated"] = nlohmann::json::object();
             for (const auto& [organ, where] : c.not_evaluated) {
                 cj["not_evaluated"][organ] = where;
+            }
+            cj["bounded_from_above"] = nlohmann::json::object();
+            for (const auto& [organ, where] : c.estimated) {
+                cj["bounded_from_above"][organ] = where;
             }
             for (const auto& o : c.organs) {
                 cj["organs"][o.organ] = {
@@ -446,6 +456,16 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                                     "model is used at {})",
                                     fmt::join(organs, ", "), fmt::join(where, ", ")),
                         100, "    ");
+        }
+        for (const auto& [organ, locs] : c.estimated) {
+            out += wrap(
+                fmt::format("  {}: bounded from above at {}, where the quick body model "
+                            "stands: the effective dose, a weighted mean of organ dose equivalents "
+                            "(ICRP 103), is bounded there by the skin at its weight 0.01 "
+                            "and the higher of lens and BFO for the rest (conservative; "
+                            "body = \"phantom\" computes it)",
+                            organ, fmt::join(locs, ", ")),
+                100, "    ");
         }
         if (lowest) {
             out += wrap(fmt::format("  smallest margin: {} {} ({:.0f} % of the limit left){}",

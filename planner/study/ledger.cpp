@@ -3,6 +3,8 @@
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/result_guard.hpp"
 
+#include "exposure/effective_dose.hpp"
+
 #include <fmt/format.h>
 
 #include <algorithm>
@@ -24,6 +26,30 @@ double cumulative(const std::vector<DosePiece>& pieces, const Time& t) {
 }
 
 } // namespace
+
+exposure::DoseQuantities
+effective_upper_bound(const std::function<exposure::DoseQuantities(const std::string&)>& dose,
+                      std::string* deeper) {
+    double w_skin = 0.0;
+    for (const auto& t : exposure::icrp103_tissue_weights()) {
+        if (t.tissue == "skin") {
+            w_skin = t.w_T;
+        }
+    }
+    const auto skin = dose("skin");
+    const auto lens = dose("lens");
+    const auto bfo = dose("bfo");
+    // The deeper bound of the two; a dose that is not a number is taken (it then fails the
+    // result checks downstream).
+    const bool lens_higher = !(lens.dose_equivalent_Sv <= bfo.dose_equivalent_Sv);
+    const auto& under = lens_higher ? lens : bfo;
+    if (deeper) {
+        *deeper = lens_higher ? "lens" : "bfo";
+    }
+    return {w_skin * skin.absorbed_Gy + (1.0 - w_skin) * under.absorbed_Gy,
+            w_skin * skin.dose_equivalent_Sv + (1.0 - w_skin) * under.dose_equivalent_Sv,
+            w_skin * skin.rbe_weighted_GyEq + (1.0 - w_skin) * under.rbe_weighted_GyEq};
+}
 
 double DosePiece::fraction_by(const Time& t) const {
     if (t < start) {
@@ -355,10 +381,24 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     lacking.push_back(span.location);
                 }
             }
-            if (!lacking.empty()) {
+            // The career effective dose is not dropped where the quick model stands: there it is
+            // bounded from above by the model's organs (effective_upper_bound).
+            const bool bounded =
+                organ == "effective" && !lacking.empty() &&
+                std::all_of(lacking.begin(), lacking.end(), [&](const std::string& loc) {
+                    return std::all_of(
+                        limited_organs().begin(), limited_organs().end(),
+                        [&](const std::string& o) { return study.has_organ(loc, o); });
+                });
+            if (bounded) {
+                result.estimated[organ] = lacking;
+            } else if (!lacking.empty()) {
                 result.not_evaluated[organ] = lacking;
                 continue;
             }
+            auto lacks = [&](const std::string& loc) {
+                return std::find(lacking.begin(), lacking.end(), loc) != lacking.end();
+            };
             // The effective dose is limited in mSv: its pieces carry the dose equivalent in
             // every field, so that the window arithmetic (on the RBE-weighted field) sums it.
             const bool effective = organ == "effective";
@@ -373,15 +413,27 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
             for (const auto& span : filled) {
                 for (std::size_t e = 0; e < sc.events.size(); ++e) {
                     const EventSpec& ev = sc.events[e];
+                    // Where the organ is bounded (effective_upper_bound), the event arrives
+                    // as at the deeper organ of the bound.
+                    std::string here = organ;
+                    std::optional<exposure::DoseQuantities> bound;
+                    if (lacks(span.location)) {
+                        bound = effective_upper_bound(
+                            [&](const std::string& o) {
+                                return study.event_dose(span.location, o, ev, event_r[e]);
+                            },
+                            &here);
+                    }
                     const ArrivalGroups& timing =
-                        study.event_timing(span.location, organ, ev, event_r[e]);
+                        study.event_timing(span.location, here, ev, event_r[e]);
                     const double f =
                         timing.fraction_between(hours(span.start - ev.flare_seen),
                                                 hours(span.end - ev.flare_seen), ev.profile);
                     if (f <= 0.0) {
                         continue;
                     }
-                    const auto full = study.event_dose(span.location, organ, ev, event_r[e]);
+                    const auto full =
+                        bound ? *bound : study.event_dose(span.location, organ, ev, event_r[e]);
                     pieces.push_back({span.start, span.end, as_limited(full).scaled(f * uf), &ev,
                                       "SPE " + ev.id, span.label, &timing});
                 }
@@ -397,7 +449,11 @@ LedgerResult build_ledger(const Study& study, const LedgerOptions& options) {
                     const double phi = sc.mission.gcr_phi_at(cuts[c]);
                     const double days =
                         static_cast<double>((cuts[c + 1] - cuts[c]).total_seconds()) / 86400.0;
-                    const auto rate = study.gcr_daily_dose(span.location, organ, phi).for_limits();
+                    auto gcr = [&](const std::string& o) {
+                        return study.gcr_daily_dose(span.location, o, phi).for_limits();
+                    };
+                    const auto rate =
+                        lacks(span.location) ? effective_upper_bound(gcr, nullptr) : gcr(organ);
                     pieces.push_back({cuts[c], cuts[c + 1], as_limited(rate).scaled(days * uf),
                                       nullptr, kGcrSource, span.label});
                 }

@@ -4,6 +4,8 @@
 // totals, and the margins to every planning limit.
 #include "planner/study/study.hpp"
 
+#include <functional>
+#include <map>
 #include <optional>
 #include <string>
 #include <vector>
@@ -119,6 +121,9 @@ struct CrewResult {
     /// Organs not evaluated for this crew member (heart, brain, effective), with the locations
     /// of the timeline whose body model does not give them (the quick model).
     std::map<std::string, std::vector<std::string>> not_evaluated;
+    /// Organs bounded from above rather than computed at some locations (the career effective
+    /// dose where the quick model stands: effective_upper_bound), with those locations.
+    std::map<std::string, std::vector<std::string>> estimated;
     /// Where the crew member is in the heliosphere when each event's flare is seen (scenario
     /// event order): the distance, why, and the factor on the spectrum's fluence as written.
     struct EventDistance {
@@ -129,6 +134,17 @@ struct CrewResult {
     };
     std::vector<EventDistance> event_distances;
 };
+
+/// An upper bound of the effective dose from the quick model's organs, `dose` giving each of
+/// skin, lens and BFO: w_skin H_skin + (1 - w_skin) max(H_lens, H_BFO), w_skin = 0.01 the ICRP
+/// 103 skin weight, every quantity alike. The effective dose is sum_T w_T H_T with weights
+/// summing to 1; every other weighted tissue lies deeper than the lens (3 mm), where an SPE's
+/// dose is lower, and the GCR dose equivalent varies little with depth: checked against the
+/// phantom's effective dose at every location of both demos (ledger_test). `deeper` receives
+/// the organ of the max ("lens" or "bfo").
+[[nodiscard]] exposure::DoseQuantities
+effective_upper_bound(const std::function<exposure::DoseQuantities(const std::string&)>& dose,
+                      std::string* deeper);
 
 /// Where a dose stands against its limit: `near` from `near_share` of the limit (0.9 by
 /// default) up to the limit. A dose that is not a finite number >= 0 is `exceeded`, never

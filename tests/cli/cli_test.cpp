@@ -492,13 +492,15 @@ TEST_CASE("check: --out never writes through a planted link and keeps the file's
             0);
     const Run r = run("check " + small + " --out " + dir + "/report.txt");
     INFO(r.out);
-    CHECK(r.exit_code == 0);
+    // A verdict either way (0 or 1: the fixture's quick-model effective dose is an upper bound
+    // near its limit); what matters here is where the report went.
+    CHECK((r.exit_code == 0 || r.exit_code == 1));
     CHECK(read_file(dir + "/victim.txt") == "precious\n");
     CHECK(std::filesystem::is_regular_file(std::filesystem::symlink_status(dir + "/report.txt")));
     CHECK(read_file(dir + "/report.txt").rfind("crewdose check:", 0) == 0);
     // Replacing a file keeps its permissions.
     std::filesystem::permissions(dir + "/report.txt", std::filesystem::perms(0640));
-    CHECK(run("check " + small + " --out " + dir + "/report.txt").exit_code == 0);
+    CHECK(run("check " + small + " --out " + dir + "/report.txt").exit_code <= 1);
     CHECK(std::filesystem::status(dir + "/report.txt").permissions() ==
           std::filesystem::perms(0640));
 }

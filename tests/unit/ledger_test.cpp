@@ -7,7 +7,10 @@
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
+#include <fstream>
+#include <sstream>
 
 using namespace crewdose;
 using namespace crewdose::planner;
@@ -385,4 +388,72 @@ TEST_CASE("a limit's status: within, near from a share of the limit, exceeded, a
     CHECK(std::isnan(binding_check(crew)->dose));
     crew.checks.clear();
     CHECK(binding_check(crew) == nullptr);
+}
+
+namespace {
+
+std::string demo_text(const std::string& name) {
+    std::ifstream in(std::string(CREWDOSE_SOURCE_DIR) + "/scenarios/" + name, std::ios::binary);
+    std::ostringstream text;
+    text << in.rdbuf();
+    return text.str();
+}
+
+} // namespace
+
+TEST_CASE("where the quick model stands, its highest organ dose equivalent bounds the effective "
+          "dose",
+          "[ledger][effective]") {
+    // The effective dose is a weighted mean of organ dose equivalents (ICRP 103: the tissue
+    // weights sum to 1). The bound the ledger uses at quick-model locations (skin at its ICRP 103
+    // weight, 0.01, the rest at the higher of lens and BFO) is checked against the phantom's
+    // effective dose at every location of both demos: the same points with body = "quick".
+    for (const std::string demo : {"lunar-demo.toml", "mars-demo.toml"}) {
+        INFO(demo);
+        std::string quick_text = demo_text(demo);
+        REQUIRE(quick_text.find("body = \"phantom\"") != std::string::npos);
+        for (auto at = quick_text.find("body = \"phantom\""); at != std::string::npos;
+             at = quick_text.find("body = \"phantom\"")) {
+            quick_text.replace(at, 16, "body = \"quick\"");
+        }
+        const Study phantom(parse_scenario(demo_text(demo), demo));
+        const Study quick(parse_scenario(quick_text, demo));
+        const Scenario& sc = phantom.scenario();
+        for (const auto& loc : sc.locations) {
+            INFO(loc.id);
+            REQUIRE(!quick.has_organ(loc.id, "effective"));
+            const double phi = sc.mission.gcr_phi_MV;
+            const auto gcr = effective_upper_bound(
+                [&](const std::string& o) {
+                    return quick.gcr_daily_dose(loc.id, o, phi).for_limits();
+                },
+                nullptr);
+            const double e_gcr =
+                phantom.gcr_daily_dose(loc.id, "effective", phi).for_limits().dose_equivalent_Sv;
+            INFO("GCR: phantom E " << e_gcr << " Sv/d, bound " << gcr.dose_equivalent_Sv);
+            CHECK(e_gcr <= gcr.dose_equivalent_Sv);
+            for (const auto& ev : sc.events) {
+                const auto bound = effective_upper_bound(
+                    [&](const std::string& o) { return quick.event_dose(loc.id, o, ev); }, nullptr);
+                const double e_spe = phantom.event_dose(loc.id, "effective", ev).dose_equivalent_Sv;
+                INFO("SPE: phantom E " << e_spe << " Sv, bound " << bound.dose_equivalent_Sv);
+                CHECK(e_spe <= bound.dose_equivalent_Sv);
+            }
+        }
+    }
+}
+
+TEST_CASE("a crew member at a quick-model location keeps a career effective-dose check",
+          "[ledger][effective]") {
+    // ledger-hand.toml uses the quick model everywhere: the effective dose is bounded there, not
+    // dropped, and its career check is present.
+    const Study study(parse_scenario(kPlan, "plan.toml"));
+    const LedgerResult r = build_ledger(study, {});
+    const auto& c = r.crew.at(0);
+    CHECK(c.estimated.count("effective") == 1);
+    CHECK(c.not_evaluated.count("effective") == 0);
+    const bool career = std::any_of(c.checks.begin(), c.checks.end(), [](const LimitCheck& k) {
+        return k.limit.organ == "effective" && k.limit.window == "career";
+    });
+    CHECK(career);
 }
