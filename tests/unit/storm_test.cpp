@@ -10,6 +10,7 @@
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
 #include <fmt/format.h>
+#include <nlohmann/json.hpp>
 
 #include <cmath>
 #include <cstdlib>
@@ -621,4 +622,33 @@ TEST_CASE("storm: on the lunar demo a warning at an EVA's start equals one a sec
                   before.crew[i].organs[k].with_response_mGyEq * (1.0 + 1e-4));
         }
     }
+}
+
+TEST_CASE("storm: the sweep prints its step in a unit that reads right", "[storm]") {
+    // Regression: --step 5s printed "every 0 min" (whole minutes by integer division).
+    using boost::posix_time::hours;
+    using boost::posix_time::minutes;
+    using boost::posix_time::seconds;
+    CHECK(format_duration(seconds(5)) == "5 s");
+    CHECK(format_duration(seconds(90)) == "90 s");
+    CHECK(format_duration(minutes(10)) == "10 min");
+    CHECK(format_duration(minutes(90)) == "90 min");
+    CHECK(format_duration(hours(12)) == "12 h");
+    CHECK(format_duration(hours(48)) == "2 d");
+    CHECK(format_duration(boost::posix_time::milliseconds(1500)) == "1.5 s");
+    // What is printed is what --step reads back (without the space).
+    for (const std::string step : {"5s", "90s", "10min", "1.5h", "12h", "1d"}) {
+        std::string printed = format_duration(parse_duration(step, "--step"));
+        printed.erase(printed.find(' '), 1);
+        CHECK(parse_duration(printed, "--step") == parse_duration(step, "--step"));
+    }
+    const Study study(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    const Time from = parse_command_time("2032-01-02T00:00:00Z", "x");
+    const auto s = sweep_storm(ctx, from, from + minutes(1), seconds(5));
+    const std::string text = format_storm_sweep(ctx, s, OutputFormat::text);
+    INFO(text.substr(0, 200));
+    CHECK(text.find(", every 5 s plus ") != std::string::npos);
+    CHECK(text.find("every 0 min") == std::string::npos);
+    CHECK(nlohmann::json::parse(format_storm_sweep(ctx, s, OutputFormat::json))["step_s"] == 5);
 }
