@@ -202,10 +202,11 @@ Command add_gcr_command(CLI::App& app) {
             "and the shares of the dose equivalent by charge and by source.\n"
             "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
             "--tissue-depth bfo --per-year");
-        gcr->add_option("--phi,-p", gcr_phi,
-                        "modulation potential in MV, 0 to 3000, for the Burger et al. 2000 "
-                        "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
-                        "maximum; a phi derived with another spectrum is not interchangeable)")
+        gcr->add_option(
+               "--phi,-p", gcr_phi,
+               "modulation potential in MV (not GV), 100 to 3000, for the Burger et al. 2000 "
+               "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
+               "maximum; a phi derived with another spectrum is not interchangeable)")
             ->capture_default_str();
         add_shield_options(gcr, o->s, gcr_depths);
         gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");

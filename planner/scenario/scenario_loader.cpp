@@ -500,9 +500,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         auto phi_value = [](const Section& s, const std::string& key) {
             const double phi = s.number(key);
-            if (!(phi >= 0.0 && phi <= 3000.0)) {
-                s.fail(key, "must be a modulation potential from 0 to 3000 MV (for this LIS about "
-                            "400 at solar minimum, 1000 or more at maximum)");
+            if (const auto problem = implausible_phi(phi, fmt::format("{:g}", phi))) {
+                s.fail(key, *problem);
             }
             return phi;
         };
