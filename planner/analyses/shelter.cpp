@@ -342,7 +342,10 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
     for (const auto& [organ, target] : rep.target_mGyEq) {
         double worst = 0.0;
         for (const auto& crew : sc.crew) {
-            worst = std::max(worst, highest_30d_without(ledger, crew.id, organ, &ev));
+            // Checked before std::max, which would drop a NaN, and the sort below.
+            worst = std::max(worst, require_dose(highest_30d_without(ledger, crew.id, organ, &ev),
+                                                 "shelter: the other 30-day " + organ +
+                                                     " dose of crew member '" + crew.id + "'"));
         }
         rep.other_30d_mGyEq[organ] = worst;
         // Written so that a dose that is not a number reads as beyond the target.
