@@ -2,6 +2,7 @@
 
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/number_parse.hpp"
+#include "planner/scenario/scenario.hpp"
 #include "planner/study/location_response.hpp"
 #include "planner/study/result_guard.hpp"
 #include "planner/study/study.hpp"
@@ -14,6 +15,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cmath>
 
 namespace crewdose::planner {
 namespace {
@@ -24,12 +26,9 @@ const SourceLocation kCommandLine{"command line", 0};
 
 double parse_phi(std::string_view text, std::string_view field) {
     const auto v = parse_finite(text);
-    if (!v || *v < 0.0 || *v > 3000.0) {
-        throw InputError(kCommandLine, std::string(field),
-                         fmt::format("'{}' is not a modulation potential; allowed: a number of "
-                                     "MV from 0 to 3000 (about 400 near solar minimum, 1000 or "
-                                     "more near maximum)",
-                                     text));
+    // Not a number reads as out of range (NaN fails every comparison).
+    if (const auto problem = implausible_phi(v.value_or(std::nan("")), fmt::format("'{}'", text))) {
+        throw InputError(kCommandLine, std::string(field), *problem);
     }
     return *v;
 }

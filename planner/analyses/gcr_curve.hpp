@@ -63,8 +63,8 @@ struct GcrSiteSpec {
 /// `field` otherwise.
 [[nodiscard]] double parse_surface_pressure(std::string_view text, std::string_view field);
 
-/// The modulation potential from the command line: a number of MV from 0 to 3000; InputError
-/// naming `field` otherwise.
+/// The modulation potential from the command line: a number of MV from kMinPhi_MV (100) to
+/// kMaxPhi_MV (3000); InputError naming `field` otherwise (saying so when it looks like GV).
 [[nodiscard]] double parse_phi(std::string_view text, std::string_view field);
 
 /// Computes the rows with the physics of `check` (the whole field with nuclear reactions and

@@ -363,12 +363,25 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
     for (const auto& [organ, target] : rep.target_mGyEq) {
         double worst = 0.0;
         for (const auto& crew : sc.crew) {
-            worst = std::max(worst, highest_30d_without(ledger, crew.id, organ, &ev));
+            // Checked before std::max, which would drop a NaN, and the sort below.
+            worst = std::max(worst, require_dose(highest_30d_without(ledger, crew.id, organ, &ev),
+                                                 "shelter: the other 30-day " + organ +
+                                                     " dose of crew member '" + crew.id + "'"));
         }
         rep.other_30d_mGyEq[organ] = worst;
+        // Written so that a dose that is not a number reads as beyond the target.
+        if (!(worst < target)) {
+            rep.other_alone_exceeds.push_back(organ);
+        }
     }
     rep.sun_distance_AU = shelter_sun_distance(study, loc.id);
     rep.fluence_scale = ev.fluence_scale_at(rep.sun_distance_AU, sc.mission.sep_fluence_exponent);
+    // The organ whose other dose is furthest beyond its target names the answer.
+    std::stable_sort(rep.other_alone_exceeds.begin(), rep.other_alone_exceeds.end(),
+                     [&](const std::string& x, const std::string& y) {
+                         return rep.other_30d_mGyEq.at(x) / rep.target_mGyEq.at(x) >
+                                rep.other_30d_mGyEq.at(y) / rep.target_mGyEq.at(y);
+                     });
     exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
     SecondaryMarches secondary;
     for (const auto& material_id : request.materials) {
@@ -416,11 +429,15 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
             }
             return worst;
         };
+        const bool beyond_reach = !rep.other_alone_exceeds.empty();
         std::string organ;
         double lo = 0.0;
-        double f_lo = evaluate(lo, &organ);
-        a.binding_organ = organ;
-        if (f_lo <= 1.0) {
+        double f_lo = beyond_reach ? 0.0 : evaluate(lo, &organ);
+        a.binding_organ = beyond_reach ? rep.other_alone_exceeds.front() : organ;
+        if (beyond_reach) {
+            // The other dose alone is at or beyond a target: no thickness can meet it, and none
+            // is searched for (the curve below still shows the event's dose).
+        } else if (f_lo <= 1.0) {
             a.achievable = true;
             a.none_needed = true;
             a.binding_organ = organ;

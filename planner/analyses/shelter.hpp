@@ -54,6 +54,9 @@ struct ShelterReport {
     /// (the other dose that shares the window; the highest crew member, wherever it lies).
     std::map<std::string, double> target_mGyEq;
     std::map<std::string, double> other_30d_mGyEq;
+    /// Organs whose other 30-day dose alone already reaches or exceeds the target (or is not a
+    /// number): no shelter can meet those targets, and no thickness is searched for.
+    std::vector<std::string> other_alone_exceeds;
     std::vector<ShelterAnswer> answers;
     /// The heliocentric distance the event is taken at (shelter_sun_distance) and the factor on
     /// its spectrum as written there.

@@ -33,21 +33,31 @@ bool in_transit(const TimelineSpan& s) {
     return s.activity && s.activity->kind == ActivityKind::transit;
 }
 
-const TimelineSpan* span_at(std::span<const TimelineSpan> spans, Time t) {
-    for (const auto& s : spans) {
-        if (s.start <= t && t < s.end) {
+// The span a crew member is in when the warning comes (spans sorted, not overlapping). A
+// warning at the very instant an EVA or drive starts counts as before it: the crew have not
+// gone out, so they are in the span that ends there (the same response as a warning a second
+// earlier, never a walk back from a place they were about to leave). An EVA that opens the
+// timeline has no span before it: there the crew are taken as out.
+const TimelineSpan* warned_in(std::span<const TimelineSpan> spans, Time warning) {
+    for (std::size_t k = 0; k < spans.size(); ++k) {
+        const TimelineSpan& s = spans[k];
+        if (s.start <= warning && warning < s.end) {
+            if (outside(s) && s.start == warning && k > 0 && spans[k - 1].end == warning) {
+                return &spans[k - 1];
+            }
             return &s;
         }
     }
     return nullptr;
 }
 
-// The spans of a crew member's timeline (sorted, not overlapping) that end after `from` and
-// start at or before `to`, found by bisection.
+// The spans of a crew member's timeline (sorted, not overlapping) that end at or after `from`
+// and start at or before `to`, found by bisection. (A span ending at `from` is kept: it is
+// where the crew are when warned at the start of an EVA that begins at `from`.)
 std::span<const TimelineSpan> overlapping(const std::vector<TimelineSpan>& spans, Time from,
                                           Time to) {
     const auto lo = std::partition_point(spans.begin(), spans.end(),
-                                         [&](const TimelineSpan& s) { return s.end <= from; });
+                                         [&](const TimelineSpan& s) { return s.end < from; });
     const auto hi =
         std::partition_point(lo, spans.end(), [&](const TimelineSpan& s) { return s.start <= to; });
     return {lo, hi};
@@ -95,7 +105,7 @@ void respond_each(std::span<const TimelineSpan> planned, const StormPolicy& poli
         pass_through();
         return;
     }
-    const TimelineSpan* at_warning = span_at(planned, t.warning);
+    const TimelineSpan* at_warning = warned_in(planned, t.warning);
     if (!at_warning) {
         pass_through(); // the warning comes after the timeline ends
         return;
@@ -211,7 +221,7 @@ void respond_each(std::span<const TimelineSpan> planned, const StormPolicy& poli
 std::vector<TimelineSpan> respond(const std::vector<TimelineSpan>& planned,
                                   const StormPolicy& policy, const StormTimes& t) {
     std::vector<TimelineSpan> out;
-    const TimelineSpan* at_warning = span_at(planned, t.warning);
+    const TimelineSpan* at_warning = warned_in(planned, t.warning);
     respond_each(
         planned, policy, t,
         [&](Time a, Time b, const std::string& location, Piece kind, const TimelineSpan& p) {
@@ -771,6 +781,9 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         if (!out_of_doors) {
             continue;
         }
+        // A warning at the activity's very start keeps the crew in (warned_in), one a second
+        // later finds them out: that side of the edge too.
+        add(a.start - warn + boost::posix_time::seconds(1));
         // The warning plus the return time meeting the activity's end: from there on the
         // response keeps the crew out as long as the plan does.
         add(a.end - warn - return_time(a, sc.storm));

@@ -178,6 +178,7 @@ Command add_gcr_command(CLI::App& app) {
         bool per_year = false;
         std::string gcr_site = "deep-space";
         std::string gcr_pressure = "750";
+        CLI::Option* pressure_option = nullptr; ///< to tell a given pressure from the default
         ShieldOptions s;
     };
     auto o = std::make_shared<Options>();
@@ -201,10 +202,11 @@ Command add_gcr_command(CLI::App& app) {
             "and the shares of the dose equivalent by charge and by source.\n"
             "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
             "--tissue-depth bfo --per-year");
-        gcr->add_option("--phi,-p", gcr_phi,
-                        "modulation potential in MV, 0 to 3000, for the Burger et al. 2000 "
-                        "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
-                        "maximum; a phi derived with another spectrum is not interchangeable)")
+        gcr->add_option(
+               "--phi,-p", gcr_phi,
+               "modulation potential in MV (not GV), 100 to 3000, for the Burger et al. 2000 "
+               "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
+               "maximum; a phi derived with another spectrum is not interchangeable)")
             ->capture_default_str();
         add_shield_options(gcr, o->s, gcr_depths);
         gcr->add_flag("--per-year", per_year, "rates per year of 365.25 days instead of per day");
@@ -214,10 +216,12 @@ Command add_gcr_command(CLI::App& app) {
                         "of the sky) or mars (ground, and the atmosphere's slant column above the "
                         "shield); on a surface the mean over 256 directions")
             ->capture_default_str();
-        gcr->add_option("--surface-pressure-Pa", gcr_pressure,
-                        "Mars only: surface pressure, 100 to 2000 Pa (about 600 at the mean datum, "
-                        "750 to 900 in low-lying sites such as Gale crater)")
-            ->capture_default_str();
+        o->pressure_option =
+            gcr->add_option("--surface-pressure-Pa", gcr_pressure,
+                            "with --site mars only: surface pressure, 100 to 2000 Pa (about 600 "
+                            "at the mean datum, 750 to 900 in low-lying sites such as Gale "
+                            "crater)")
+                ->capture_default_str();
         add_detector_option(gcr, o->s);
         gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")
             ->capture_default_str();
@@ -240,6 +244,14 @@ Command add_gcr_command(CLI::App& app) {
                 const auto list = planner::parse_depth_list(gcr_depths, "--depths");
                 planner::GcrSiteSpec site;
                 site.kind = planner::parse_site(gcr_site, "--site");
+                // Elsewhere there is no atmosphere: a pressure given would be ignored.
+                if (o->pressure_option->count() > 0 && site.kind != planner::GcrSite::mars) {
+                    throw InputError({"command line", 0}, "--surface-pressure-Pa",
+                                     fmt::format("applies only with --site mars (the Martian "
+                                                 "atmosphere); the site here is '{}', which has "
+                                                 "no atmosphere: leave it out or give --site mars",
+                                                 gcr_site));
+                }
                 site.surface_pressure_Pa =
                     planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
                 const auto& medium = planner::material_by_id(detector, "--detector");

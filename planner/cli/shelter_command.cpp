@@ -43,7 +43,9 @@ Command add_shelter_command(CLI::App& app) {
             "directly "
             "inside that layer of the solid and the added mass is given for its real geometry. "
             "Prints the answer per material and a dose-thickness table around it; a target that no "
-            "thickness up to --max-g-cm2 meets is reported as not achievable.\nExample: crewdose "
+            "thickness up to --max-g-cm2 meets is reported as not achievable, and one that the "
+            "crew's other 30-day dose alone already reaches is said so (no shelter can meet it; "
+            "exit 1).\nExample: crewdose "
             "shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter "
             "--material water --material polyethylene --target bfo=150");
         shelter->add_option("scenario", scenario_path, "scenario file (TOML)")->required();

@@ -33,6 +33,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["other_30d_mGyEq"] = rep.other_30d_mGyEq;
         j["sun_distance_AU"] = rep.sun_distance_AU;
         j["fluence_scale"] = rep.fluence_scale;
+        j["other_alone_exceeds_target"] = rep.other_alone_exceeds;
         j["answers"] = nlohmann::json::array();
         for (const auto& a : rep.answers) {
             nlohmann::json aj{{"material", a.material},
@@ -109,6 +110,24 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
             out += fmt::format("  no added material needed: every target is met as built "
                                "(closest: {})\n",
                                organ_label(a.binding_organ));
+        } else if (!rep.other_alone_exceeds.empty()) {
+            // Nothing was searched: the crew's other dose alone is already beyond a target.
+            std::string doses;
+            bool all_above = true;
+            for (std::size_t k = 0; k < rep.other_alone_exceeds.size(); ++k) {
+                const std::string& organ = rep.other_alone_exceeds[k];
+                const double other = rep.other_30d_mGyEq.at(organ);
+                const double target = rep.target_mGyEq.at(organ);
+                all_above = all_above && other > target;
+                doses += fmt::format(
+                    "{}{} {} mGy-Eq, target {}",
+                    k == 0 ? "" : (k + 1 == rep.other_alone_exceeds.size() ? " and " : ", "),
+                    organ_label(organ), significant(other, 3), significant(target, 3));
+            }
+            out += wrap(fmt::format("  NOT ACHIEVABLE: the crew's other 30-day dose alone ({}) "
+                                    "{} its target, so no shelter can meet it",
+                                    doses, all_above ? "exceeds" : "reaches or exceeds"),
+                        100, "    ");
         } else if (!a.achievable) {
             out += wrap(fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its "
                                     "target",

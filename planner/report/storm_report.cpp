@@ -217,9 +217,9 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     }
     const bool responds = ctx.responds();
     std::string out = fmt::format(
-        "crewdose storm sweep: event {} with t0 from {} to {}, every {} min plus {} {}"
+        "crewdose storm sweep: event {} with t0 from {} to {}, every {} plus {} {}"
         "breakpoints\nscenario: {}\n\n",
-        s.event_id, format_time(s.from), format_time(s.to), s.step.total_seconds() / 60,
+        s.event_id, format_time(s.from), format_time(s.to), format_duration(s.step),
         s.onsets -
             static_cast<std::size_t>((s.to - s.from).total_seconds() / s.step.total_seconds()) - 1,
         responds ? "policy " : "timeline ", sc.file);

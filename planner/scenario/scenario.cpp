@@ -12,6 +12,23 @@
 
 namespace crewdose::planner {
 
+std::optional<std::string> implausible_phi(double phi_MV, const std::string& as_typed) {
+    if (phi_MV >= kMinPhi_MV && phi_MV <= kMaxPhi_MV) {
+        return std::nullopt;
+    }
+    const std::string allowed =
+        fmt::format("allowed: a number of MV from {:g} to {:g} (for this LIS about 400 near "
+                    "solar minimum, 1000 or more near maximum)",
+                    kMinPhi_MV, kMaxPhi_MV);
+    const double as_MV = 1000.0 * phi_MV;
+    if (as_MV >= kMinPhi_MV && as_MV <= kMaxPhi_MV) {
+        return fmt::format("{} looks like GV; give {:g} (phi is in MV, not GV); {}", as_typed,
+                           as_MV, allowed);
+    }
+    return fmt::format("{} is not a modulation potential; {} (phi is in MV, not GV)", as_typed,
+                       allowed);
+}
+
 double Mission::gcr_phi_at(const Time& t) const {
     double phi = gcr_phi_MV;
     for (const auto& phase : gcr_phases) {

@@ -28,6 +28,21 @@ using Time = boost::posix_time::ptime;
 
 enum class SiteKind { moon, mars, deep_space };
 
+/// The GCR modulation potential phi a scenario or a command line may give, MV, in the
+/// convention of the Burger et al. 2000 LIS (Usoskin et al. 2005). The floor, 100 MV, is half
+/// the lowest modulation of the space era: monthly values in the deep minimum of 2009 were
+/// about 200 to 250 MV in this convention (from memory). So no real value is refused, while phi
+/// typed in GV (a number of at most 3) is. The ceiling, 3000 MV, is far above the strongest maxima
+/// (about 1500 MV, from memory).
+inline constexpr double kMinPhi_MV = 100.0;
+inline constexpr double kMaxPhi_MV = 3000.0;
+
+/// Why `phi_MV` is not a plausible modulation potential, or nullopt when it is: the allowed
+/// range and, for a value that reads as GV, the value in MV ("0.45 looks like GV; give 450").
+/// `as_typed` is how the value is named in the message (the number, or the option's text).
+[[nodiscard]] std::optional<std::string> implausible_phi(double phi_MV,
+                                                         const std::string& as_typed);
+
 struct Mission {
     SourceLocation where;
     std::string name;

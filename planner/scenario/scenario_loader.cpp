@@ -249,6 +249,15 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 m.fail("terrain_mask", e.what());
             }
         }
+        // The Martian atmosphere's keys: on another site they would be read and ignored.
+        for (const char* key : {"surface_pressure_Pa", "scale_height_km"}) {
+            if (m.has(key) && sc.mission.site != SiteKind::mars) {
+                m.fail(key, fmt::format("applies only to site = \"mars\" (the Martian "
+                                        "atmosphere); this mission's site is '{}', which has "
+                                        "no atmosphere: remove the key or set site = \"mars\"",
+                                        site));
+            }
+        }
         if (m.has("surface_pressure_Pa")) {
             sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", 10.0, 2000.0, "Pa");
         }
@@ -311,9 +320,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         auto phi_value = [](const Section& s, const std::string& key) {
             const double phi = s.number(key);
-            if (!(phi >= 0.0 && phi <= 3000.0)) {
-                s.fail(key, "must be a modulation potential from 0 to 3000 MV (for this LIS about "
-                            "400 at solar minimum, 1000 or more at maximum)");
+            if (const auto problem = implausible_phi(phi, fmt::format("{:g}", phi))) {
+                s.fail(key, *problem);
             }
             return phi;
         };

@@ -2,6 +2,7 @@
 
 #include <cmath>
 #include <cstdint>
+#include <utility>
 
 namespace crewdose::planner {
 
@@ -19,6 +20,20 @@ std::string format_time(const boost::posix_time::ptime& t) {
 
 double hours(const boost::posix_time::time_duration& d) {
     return static_cast<double>(d.total_microseconds()) / 3.6e9;
+}
+
+std::string format_duration(const boost::posix_time::time_duration& d) {
+    const std::int64_t us = d.total_microseconds();
+    if (us != 0 && us % 1'000'000 == 0) {
+        const std::int64_t s = us / 1'000'000;
+        for (const auto& [unit, seconds] : {std::pair{"d", 86400}, std::pair{"h", 3600},
+                                            std::pair{"min", 60}, std::pair{"s", 1}}) {
+            if (s % seconds == 0) {
+                return fmt::format("{} {}", s / seconds, unit);
+            }
+        }
+    }
+    return fmt::format("{} s", static_cast<double>(us) / 1e6);
 }
 
 boost::posix_time::time_duration duration_from_hours(double h) {

@@ -12,6 +12,10 @@ namespace crewdose::planner {
 [[nodiscard]] std::string format_time(const boost::posix_time::ptime& t);
 /// A duration in hours, for reports.
 [[nodiscard]] double hours(const boost::posix_time::time_duration& d);
+/// A duration in the largest of the units d, h, min and s that holds it a whole number of
+/// times ("10 min", "5 s", "90 s", "12 h", "2 d"), as --step spells it (with a space); below a
+/// second or not whole seconds, in seconds with their decimals.
+[[nodiscard]] std::string format_duration(const boost::posix_time::time_duration& d);
 /// The duration of `h` hours, to the microsecond.
 [[nodiscard]] boost::posix_time::time_duration duration_from_hours(double h);
 

@@ -609,9 +609,22 @@ TEST_CASE("shelter: sizes per material, says when a target cannot be met, reject
     CHECK(layer.exit_code == 0);
     const auto doc = nlohmann::json::parse(layer.out);
     CHECK(doc["answers"][0]["added_mass_kg"].get<double>() > 0.0);
-    const Run no = run(base + " --target bfo=1 --max-g-cm2 5");
+    // A target just above the crew's other 30-day dose: 5 g/cm2 cannot bring the event's
+    // dose (tens of mGy-Eq as built) under the 1 mGy-Eq left.
+    const double other = doc["other_30d_mGyEq"]["bfo"].get<double>();
+    REQUIRE(other > 0.0);
+    const Run no = run(base + " --target bfo=" + std::to_string(other + 1.0) + " --max-g-cm2 5");
     CHECK(no.exit_code == 1);
     CHECK(no.out.find("NOT ACHIEVABLE: 5.00 g/cm2") != std::string::npos);
+    // A target below the crew's other 30-day dose: no shelter can meet it, and the report says
+    // why instead of blaming the thickness searched (exit 1, a target not met).
+    const Run beyond = run(base + " --max-g-cm2 5 --target bfo=" + std::to_string(other / 2.0));
+    INFO(beyond.out);
+    CHECK(beyond.exit_code == 1);
+    CHECK(beyond.out.find("NOT ACHIEVABLE: the crew's other 30-day dose alone (BFO ") !=
+          std::string::npos);
+    CHECK(beyond.out.find("so no shelter can meet it") != std::string::npos);
+    CHECK(beyond.out.find("does not bring") == std::string::npos);
     const Run bad = run(base + " --target bfo:40");
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("crewdose: command line: --target: 'bfo:40': write ORGAN=VALUE") !=

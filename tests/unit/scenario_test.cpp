@@ -1,6 +1,7 @@
 // Scenario validation: every error names file:line: key, says what is wrong and what is
 // allowed (main-job issue, "Validation").
 #include "fixture.hpp"
+#include "planner/analyses/gcr_curve.hpp"
 #include "planner/scenario/scenario.hpp"
 #include "scenario_errors.hpp"
 
@@ -140,7 +141,32 @@ TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenar
     CHECK(s.mission.gcr_phi_at(s.mission.gcr_phases[0].from) == 700.0);
     CHECK(s.mission.gcr_phi_at(s.mission.end) == 900.0);
     expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_MV = -5"),
-           "plan.toml:7: mission.gcr_phi_MV: must be a modulation potential from 0 to 3000 MV");
+           "plan.toml:7: mission.gcr_phi_MV: -5 is not a modulation potential; allowed: a "
+           "number of MV from 100 to 3000");
+    // Regression: phi typed in GV (0.45) was accepted and printed as "phi = 0 MV". The floor
+    // (kMinPhi_MV, 100 MV) is below the lowest modulation of the space era; at it, accepted.
+    expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_MV = 0.45"),
+           "plan.toml:7: mission.gcr_phi_MV: 0.45 looks like GV; give 450 (phi is in MV, not GV)");
+    expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_MV = 99.5"),
+           "mission.gcr_phi_MV: 99.5 is not a modulation potential; allowed: a number of MV from "
+           "100 to 3000");
+    CHECK(parse_scenario(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_MV = 100"),
+                         "plan.toml")
+              .mission.gcr_phi_MV == kMinPhi_MV);
+    expect(replace(phased, "phi_MV = 700", "phi_MV = 0.7"),
+           "mission.gcr_modulation.phi_MV: 0.7 looks like GV; give 700 (phi is in MV, not GV)");
+    CHECK(parse_phi("450", "--phi") == 450.0);
+    for (const auto& [typed, says] :
+         {std::pair{"0.45", "--phi: '0.45' looks like GV; give 450"},
+          std::pair{"99", "--phi: '99' is not a modulation potential; allowed: a number of MV"},
+          std::pair{"nan", "--phi: 'nan' is not a modulation potential"}}) {
+        try {
+            (void)parse_phi(typed, "--phi");
+            FAIL("accepted --phi " << typed);
+        } catch (const InputError& e) {
+            CHECK(std::string(e.what()).find(says) != std::string::npos);
+        }
+    }
     expect(replace(phased, "from = 2032-01-08T00:00:00Z", "from = 2032-01-02T00:00:00Z"),
            "mission.gcr_modulation.from: must be later than the previous entry's from");
     expect(replace(phased, "from = 2032-01-04T00:00:00Z", "from = 2031-01-04T00:00:00Z"),

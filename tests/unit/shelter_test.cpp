@@ -2,11 +2,13 @@
 // that cannot be met, the added mass of a real layer, and the errors of the options.
 #include "fixture.hpp"
 #include "planner/analyses/shelter.hpp"
+#include "planner/report/number_format.hpp"
 #include "planner/report/shelter_report.hpp"
 
 #include "exposure/material_library.hpp"
 
 #include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
 
 #include <cmath>
 #include <fmt/format.h>
@@ -122,13 +124,6 @@ TEST_CASE("shelter: polyethylene needs less areal density than aluminium", "[she
 TEST_CASE("shelter: unreachable and already-met targets are said so, not given a number",
           "[shelter]") {
     const Study study(parse_scenario(plan(), "hut.toml"));
-    ShelterRequest r = request({"water"}, 1e-6);
-    r.max_g_cm2 = 20.0;
-    const ShelterReport no = size_shelter(study, r);
-    CHECK_FALSE(no.answers[0].achievable);
-    CHECK(no.answers[0].searched_to_g_cm2 == 20.0);
-    CHECK(format_shelter_report(study, no, OutputFormat::text).find("NOT ACHIEVABLE: 20.0 g/cm2") !=
-          std::string::npos);
     ShelterRequest generous = request({"water"}, 1e6);
     generous.targets["lens"] = 1e6; // organs not named keep their 30-day planning limits
     generous.targets["skin"] = 1e6;
@@ -136,6 +131,55 @@ TEST_CASE("shelter: unreachable and already-met targets are said so, not given a
     CHECK(yes.answers[0].achievable);
     CHECK(yes.answers[0].none_needed);
     CHECK(yes.answers[0].areal_density_g_cm2 == 0.0);
+    CHECK(yes.other_alone_exceeds.empty());
+    // A target just above the other dose, which 20 g/cm2 cannot reach.
+    const double other = yes.other_30d_mGyEq.at("bfo");
+    ShelterRequest r = request({"water"}, other + 1e-6);
+    r.max_g_cm2 = 20.0;
+    const ShelterReport no = size_shelter(study, r);
+    CHECK(no.other_alone_exceeds.empty());
+    CHECK_FALSE(no.answers[0].achievable);
+    CHECK(no.answers[0].searched_to_g_cm2 == 20.0);
+    CHECK(format_shelter_report(study, no, OutputFormat::text).find("NOT ACHIEVABLE: 20.0 g/cm2") !=
+          std::string::npos);
+}
+
+TEST_CASE("shelter: a target that the other dose alone exceeds is said so, not searched",
+          "[shelter]") {
+    // Regression: a target below the crew's other 30-day dose read "NOT ACHIEVABLE: 200 g/cm2
+    // does not bring BFO within its target", as if more material might have helped.
+    const Study study(parse_scenario(plan(), "hut.toml"));
+    const ShelterReport low = size_shelter(study, request({"water", "polyethylene"}, 1e-3));
+    const double other = low.other_30d_mGyEq.at("bfo");
+    REQUIRE(other > 1e-3); // the GCR of the stay shares the window
+    CHECK(low.other_alone_exceeds == std::vector<std::string>{"bfo"});
+    REQUIRE(low.answers.size() == 2);
+    for (const auto& a : low.answers) {
+        CHECK_FALSE(a.achievable);
+        CHECK(a.binding_organ == "bfo");
+    }
+    auto unwrapped = [&](const ShelterReport& rep) {
+        std::string text = format_shelter_report(study, rep, OutputFormat::text);
+        for (auto at = text.find("\n    "); at != std::string::npos; at = text.find("\n    ")) {
+            text.replace(at, 5, " ");
+        }
+        return text;
+    };
+    const std::string text = unwrapped(low);
+    INFO(text);
+    CHECK(text.find(fmt::format("NOT ACHIEVABLE: the crew's other 30-day dose alone (BFO {} "
+                                "mGy-Eq, target {}) exceeds its target, so no shelter can meet "
+                                "it",
+                                significant(other, 3), significant(1e-3, 3))) != std::string::npos);
+    CHECK(text.find("does not bring") == std::string::npos);
+    const auto doc = nlohmann::json::parse(format_shelter_report(study, low, OutputFormat::json));
+    CHECK(doc["other_alone_exceeds_target"] == nlohmann::json::array({"bfo"}));
+    CHECK(doc["answers"][0]["achievable"] == false);
+    // A target equal to the other dose leaves nothing for the event: also out of reach.
+    const ShelterReport equal = size_shelter(study, request({"water"}, other));
+    CHECK(equal.other_alone_exceeds == std::vector<std::string>{"bfo"});
+    CHECK_FALSE(equal.answers[0].achievable);
+    CHECK(unwrapped(equal).find("reaches or exceeds its target") != std::string::npos);
 }
 
 TEST_CASE("shelter: option errors name the option and what is allowed", "[shelter]") {
