@@ -834,7 +834,7 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         std::map<Time, double> profile;
         std::vector<EvaBest> evas;
     };
-    const time_duration bin = boost::posix_time::hours(6);
+    const time_duration bin = boost::posix_time::hours(kSweepProfileBin_h);
     const std::size_t chunk = 4096;
     const std::size_t n_chunks = (order.size() + chunk - 1) / chunk;
     std::vector<Partial> partial(n_chunks);

@@ -193,10 +193,14 @@ struct StormSweep {
         [[nodiscard]] bool go() const { return swept() && ratio <= 1.0; }
     };
     std::vector<Eva> evas;
-    /// Coarse profile: per onset bin (6 hours), the highest ratio over the crew.
+    /// Coarse profile: per onset bin (kSweepProfileBin_h from `from`; only bins an onset falls
+    /// in), the highest ratio over the crew.
     std::vector<std::pair<Time, double>> profile;
     [[nodiscard]] bool any_exceeded() const;
 };
+
+/// The width of the sweep profile's onset bins, hours.
+inline constexpr long kSweepProfileBin_h = 6;
 
 /// The most regular onsets a sweep takes (InputError naming --step beyond).
 inline constexpr long long kMaxSweepOnsets = 2'000'000;

@@ -10,6 +10,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <optional>
 
 namespace crewdose::planner {
 
@@ -270,7 +271,15 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     }
     out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset "
            "(each # is 5 %):\n";
+    const boost::posix_time::time_duration bin = boost::posix_time::hours(kSweepProfileBin_h);
+    std::optional<Time> last;
     for (const auto& [t, r] : s.profile) {
+        // A bin no onset fell in (a step longer than the bin) is said so, never left out.
+        for (Time gap = last ? *last + bin : t; gap < t; gap += bin) {
+            out += fmt::format("  {}    - no onset in this bin (--step {} is longer)\n",
+                               format_time(gap), format_duration(s.step));
+        }
+        last = t;
         const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
         out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r,
                            std::string(static_cast<std::size_t>(n), '#'));

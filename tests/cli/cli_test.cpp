@@ -780,3 +780,18 @@ TEST_CASE("check: the verdict comes first, one line per crew member", "[cli][che
     CHECK(bad.exit_code == 2);
     CHECK(bad.out.find("--near: 0 is not a percentage of the limit") != std::string::npos);
 }
+
+TEST_CASE("storm: a profile bin no onset falls in is said so, not left out", "[cli][storm]") {
+    // Regression: with a step longer than the profile's 6-hour bins the empty bins vanished from
+    // the text profile, which then read as continuous.
+    const Run r = run("storm " + demo() +
+                      " --event design-spe --sweep --step 10h --no-response --from "
+                      "2032-03-01T00:00:00Z --to 2032-03-02T00:00:00Z");
+    INFO(r.out);
+    REQUIRE((r.exit_code == 0 || r.exit_code == 1));
+    // Onsets at 00:00, 10:00 and 20:00 (and the timeline's breakpoints, none on that day before
+    // noon): the 12:00 bin holds none.
+    CHECK(r.out.find("2032-03-01T12:00Z    - no onset in this bin (--step 10 h is longer)") !=
+          std::string::npos);
+    CHECK(r.out.find("2032-03-01T00:00Z  ") != std::string::npos);
+}
