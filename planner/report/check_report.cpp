@@ -141,7 +141,7 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
                                                      : green;
         std::string budget = "none";
         if (st != LimitStatus::exceeded && c.budget.binds && c.budget.days > 0.0) {
-            budget = fmt::format("{} days ({} {})", significant(c.budget.days, 3),
+            budget = fmt::format("{} d ({} {})", significant(c.budget.days, 3),
                                  organ_label(c.budget.organ), c.budget.window);
         } else if (st != LimitStatus::exceeded && !c.budget.binds) {
             budget = "not bound by GCR alone";
@@ -185,7 +185,7 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
                        "binding limit", "dose", "unit / limit", "used", "status", "budget left");
     out += rows + unevaluated;
     out += wrap(fmt::format("  binding: the limit with the highest share used; near: {:.0f} % of "
-                            "its limit or more (--near); budget left: days more of this "
+                            "its limit or more (--near); budget left (d: days): days more of this "
                             "timeline's activity mix at its GCR rate, no further events.",
                             100.0 * near_share),
                 100, "    ");
@@ -358,10 +358,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     const char* red = colour ? "\033[31m" : "";
     const char* green = colour ? "\033[32m" : "";
     const char* reset = colour ? "\033[0m" : "";
-    std::string out =
-        fmt::format("crewdose check: {} ({}, {} to {})\nscenario: {}\n\n", sc.mission.name,
-                    to_string(sc.mission.site), format_time(sc.mission.start),
-                    format_time(sc.mission.end), sc.file);
+    std::string out = wrap(fmt::format("crewdose check: {} ({}, {} to {})", sc.mission.name,
+                                       to_string(sc.mission.site), format_time(sc.mission.start),
+                                       format_time(sc.mission.end)),
+                           100, "  ") +
+                      fmt::format("scenario: {}\n\n", sc.file);
     out += verdict_block(ledger, near_share, colour);
     out += caution_text() + "\n";
     out += "Model: SPE and GCR doses through the shielding and the body, the higher of with and "
@@ -431,14 +432,14 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
     out += "\n";
     for (const auto& c : ledger.crew) {
         out += fmt::format("{} ({})\n", c.name, c.crew);
-        out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {:>10}  {}\n", "organ", "window",
-                           "dose", "unit", "limit", "margin", "where the window lies");
+        out += fmt::format("  {:<9} {:<8} {:>8} {:<6} {:>7} {:>8}  {}\n", "organ", "window", "dose",
+                           "unit", "limit", "margin", "where the window lies");
         const LimitCheck* lowest = nullptr;
         for (const auto& chk : c.checks) {
             if (!lowest || chk.margin / chk.limit.value < lowest->margin / lowest->limit.value) {
                 lowest = &chk;
             }
-            out += fmt::format("  {:<9} {:<8} {:>10} {:<6} {:>8} {}{:>10}{}  {}\n",
+            out += fmt::format("  {:<9} {:<8} {:>8} {:<6} {:>7} {}{:>8}{}  {}\n",
                                organ_label(chk.limit.organ), chk.limit.window,
                                significant(chk.dose, 3), unit_of(chk.limit.organ),
                                significant(chk.limit.value, 3), chk.exceeded ? red : "",

@@ -217,13 +217,18 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         return out;
     }
     const bool responds = ctx.responds();
-    std::string out = fmt::format(
-        "crewdose storm sweep: event {} with t0 from {} to {}, every {} plus {} {}"
-        "breakpoints\nscenario: {}\n\n",
-        s.event_id, format_time(s.from), format_time(s.to), format_duration(s.step),
-        s.onsets -
-            static_cast<std::size_t>((s.to - s.from).total_seconds() / s.step.total_seconds()) - 1,
-        responds ? "policy " : "timeline ", sc.file);
+    std::string out =
+        wrap(fmt::format("crewdose storm sweep: event {} with t0 from {} to {}, every {} plus {} {}"
+                         "breakpoints",
+                         s.event_id, format_time(s.from), format_time(s.to),
+                         format_duration(s.step),
+                         s.onsets -
+                             static_cast<std::size_t>((s.to - s.from).total_seconds() /
+                                                      s.step.total_seconds()) -
+                             1,
+                         responds ? "policy " : "timeline "),
+             100, "  ") +
+        fmt::format("scenario: {}\n\n", sc.file);
     out += caution_text() + "\n";
     out += wrap(model_note(ctx), 96);
     out += responds ? wrap(policy_text(sc.storm), 96) + "\n"

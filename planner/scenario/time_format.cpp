@@ -9,13 +9,10 @@ namespace crewdose::planner {
 std::string format_time(const boost::posix_time::ptime& t) {
     const auto d = t.date();
     const auto tod = t.time_of_day();
-    std::string out = fmt::format("{:04d}-{:02d}-{:02d}T{:02d}:{:02d}", static_cast<int>(d.year()),
-                                  static_cast<int>(d.month()), static_cast<int>(d.day()),
-                                  tod.hours(), tod.minutes());
-    if (tod.seconds() != 0) {
-        out += fmt::format(":{:02d}", tod.seconds());
-    }
-    return out + "Z";
+    // Always with seconds: RFC 3339 as the command line and the scenario read it back.
+    return fmt::format("{:04d}-{:02d}-{:02d}T{:02d}:{:02d}:{:02d}Z", static_cast<int>(d.year()),
+                       static_cast<int>(d.month()), static_cast<int>(d.day()), tod.hours(),
+                       tod.minutes(), tod.seconds());
 }
 
 double hours(const boost::posix_time::time_duration& d) {

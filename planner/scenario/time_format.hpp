@@ -1,5 +1,5 @@
 #pragma once
-// Printing times: RFC 3339 in UTC to the minute ("2031-05-09T14:00Z"), and a fmt::formatter
+// Printing times: RFC 3339 in UTC to the second ("2031-05-09T14:00:00Z"), and a fmt::formatter
 // so that fmt can print boost::posix_time::ptime (fmt 9 does not use operator<<).
 #include <boost/date_time/posix_time/posix_time_types.hpp>
 #include <fmt/format.h>
@@ -8,7 +8,8 @@
 
 namespace crewdose::planner {
 
-/// "YYYY-MM-DDTHH:MMZ" (seconds shown only when not zero).
+/// "YYYY-MM-DDTHH:MM:SSZ": RFC 3339 in UTC, whole seconds, as --onset, --from and the scenario
+/// read it back.
 [[nodiscard]] std::string format_time(const boost::posix_time::ptime& t);
 /// A duration in hours, for reports.
 [[nodiscard]] double hours(const boost::posix_time::time_duration& d);

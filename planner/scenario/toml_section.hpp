@@ -37,7 +37,7 @@ inline std::optional<Time> from_toml(const toml::date_time& v) {
 /// nodes have no lines of their own): every error names this line and ends with `note`.
 struct Origin {
     SourceLocation where;
-    std::string note; ///< e.g. " (the instance of 2035-06-10T09:00Z of the routine at line 80)"
+    std::string note; ///< e.g. " (the instance of 2035-06-10T09:00:00Z of the routine at line 80)"
 };
 
 class Section {

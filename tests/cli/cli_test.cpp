@@ -791,7 +791,22 @@ TEST_CASE("storm: a profile bin no onset falls in is said so, not left out", "[c
     REQUIRE((r.exit_code == 0 || r.exit_code == 1));
     // Onsets at 00:00, 10:00 and 20:00 (and the timeline's breakpoints, none on that day before
     // noon): the 12:00 bin holds none.
-    CHECK(r.out.find("2032-03-01T12:00Z    - no onset in this bin (--step 10 h is longer)") !=
+    CHECK(r.out.find("2032-03-01T12:00:00Z    - no onset in this bin (--step 10 h is longer)") !=
           std::string::npos);
-    CHECK(r.out.find("2032-03-01T00:00Z  ") != std::string::npos);
+    CHECK(r.out.find("2032-03-01T00:00:00Z  ") != std::string::npos);
+}
+
+TEST_CASE("storm: a printed time is accepted back as --onset", "[cli][storm]") {
+    // Every printed time is RFC 3339 with seconds: the sweep's worst onset pastes back into
+    // --onset (it used to print 2032-03-11T07:50Z, which --onset refused).
+    const std::string base = "storm " + demo() + " --event design-spe";
+    const Run sweep = run(base + " --sweep --step 24h --format json");
+    REQUIRE((sweep.exit_code == 0 || sweep.exit_code == 1));
+    const auto j = nlohmann::json::parse(sweep.out);
+    const std::string onset = j["worst"][0]["worst_onset"].get<std::string>();
+    CHECK(onset.size() == std::string("2032-03-11T07:50:00Z").size());
+    const Run again = run(base + " --onset " + onset);
+    INFO(again.out);
+    CHECK((again.exit_code == 0 || again.exit_code == 1));
+    CHECK(again.out.find("with t0 at " + onset) != std::string::npos);
 }

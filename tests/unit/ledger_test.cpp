@@ -158,7 +158,7 @@ TEST_CASE("timeline gaps are errors unless allowed, then charged and listed", "[
     } catch (const InputError& e) {
         // The error names the activity before the gap (line 26), not the crew member's line.
         CHECK(std::string(e.what()).find("hand.toml:26: activity: crew member 'a' has no activity "
-                                         "from 2032-01-10T05:00Z to 2032-01-11T05:00Z") !=
+                                         "from 2032-01-10T05:00:00Z to 2032-01-11T05:00:00Z") !=
               std::string::npos);
     }
     LedgerOptions options;

@@ -203,35 +203,35 @@ TEST_CASE("a routine's faults name the file, the rule's line and key, and the in
     SECTION("until before from") {
         expect(replace(base, "every = \"2d\"", "every = \"2d\"\nuntil = 2032-01-01T00:00:00Z"),
                fmt::format("plan.toml:{}: routine.until: the routine would end (until = "
-                           "2032-01-01T00:00Z) before it starts (from = 2032-01-01T00:00Z)",
+                           "2032-01-01T00:00:00Z) before it starts (from = 2032-01-01T00:00:00Z)",
                            every + 1));
     }
     SECTION("instances that would overlap the next one") {
         const std::string text = replace(base, "for = \"16h\"", "for = \"20h\"");
         expect(text, fmt::format("plan.toml:{}: routine.activity.for: the activity ends 52h after "
                                  "the start of its instance, after the period every = 2d: the "
-                                 "instance of 2032-01-01T00:00Z would still run when the next "
-                                 "starts at 2032-01-03T00:00Z",
+                                 "instance of 2032-01-01T00:00:00Z would still run when the next "
+                                 "starts at 2032-01-03T00:00:00Z",
                                  line_of(text, "for = \"20h\"")));
     }
     SECTION("an instance outside the mission") {
         expect(replace(base, "from = 2032-01-01T00:00:00Z", "from = 2031-12-30T00:00:00Z"),
-               fmt::format("plan.toml:{}: routine.from: the instance of 2031-12-30T00:00Z lies "
+               fmt::format("plan.toml:{}: routine.from: the instance of 2031-12-30T00:00:00Z lies "
                            "outside the mission",
                            rule + 2));
         // An until after the mission's end: the last instance does not fit.
         expect(replace(replace(base, "from = 2032-01-01T00:00:00Z", "from = 2032-01-02T00:00:00Z"),
                        "every = \"2d\"", "every = \"2d\"\nuntil = 2032-01-12T00:00:00Z"),
-               fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-10T00:00Z lies "
+               fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-10T00:00:00Z lies "
                            "outside the mission: its activity at line",
                            every + 1));
     }
     SECTION("an activity of an instance that runs past until") {
         const std::string text =
             replace(base, "every = \"2d\"", "every = \"2d\"\nuntil = 2032-01-09T12:00:00Z");
-        expect(text, fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-09T00:00Z: "
-                                 "its activity at line {} runs from 2032-01-09T10:00Z to "
-                                 "2032-01-09T15:00Z, past until",
+        expect(text, fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-09T00:00:00Z: "
+                                 "its activity at line {} runs from 2032-01-09T10:00:00Z to "
+                                 "2032-01-09T15:00:00Z, past until",
                                  every + 1, line_of(text, "kind = \"eva\"") - 1));
     }
     SECTION("one instance overlapping a one-off activity") {
@@ -244,20 +244,20 @@ start = 2032-01-05T12:00:00Z
 end = 2032-01-05T13:00:00Z
 )";
         expect(text, fmt::format("plan.toml:{}: activity.start: crew member 'b' is already busy "
-                                 "until 2032-01-05T15:00Z (the activity at line {}, from "
-                                 "2032-01-05T10:00Z) when this one starts at 2032-01-05T12:00Z",
+                                 "until 2032-01-05T15:00:00Z (the activity at line {}, from "
+                                 "2032-01-05T10:00:00Z) when this one starts at 2032-01-05T12:00:00Z",
                                  line_of(text, "kind = \"shelter\"") - 2,
                                  line_of(text, "kind = \"eva\"") - 1));
     }
     SECTION("the activities themselves, checked as [[activity]] entries are, per instance") {
         const std::string text = replace(base, "location = \"outside\"", "location = \"moon\"");
         expect(text, fmt::format("plan.toml:{}: routine.activity.location: unknown location "
-                                 "'moon' (the instance of 2032-01-01T00:00Z of the routine at "
+                                 "'moon' (the instance of 2032-01-01T00:00:00Z of the routine at "
                                  "line {})",
                                  line_of(text, "kind = \"eva\"") - 1, rule));
         expect(replace(base, "return_min = 40", "return_min = 4000"),
                "routine.activity.return_min: 4000 is outside the allowed range 0 to 2880 minutes "
-               "(the instance of 2032-01-01T00:00Z");
+               "(the instance of 2032-01-01T00:00:00Z");
         expect(replace(base, "for = \"5h\"", "for = \"5h\"\nstart = 2032-01-01T10:00:00Z"),
                "routine.activity.start: unknown key; allowed here: at, crew, distance_km, for, "
                "kind, location, refuge, return_min");
@@ -270,13 +270,13 @@ end = 2032-01-05T13:00:00Z
     }
     SECTION("except names instances") {
         expect(replace(base, "every = \"2d\"", "every = \"2d\"\nexcept = [2032-01-04T00:00:00Z]"),
-               fmt::format("plan.toml:{}: routine.except: 2032-01-04T00:00Z is not the start of an "
-                           "instance; instances start at from = 2032-01-01T00:00Z and every 2d "
-                           "after it, the last at 2032-01-09T00:00Z",
+               fmt::format("plan.toml:{}: routine.except: 2032-01-04T00:00:00Z is not the start of an "
+                           "instance; instances start at from = 2032-01-01T00:00:00Z and every 2d "
+                           "after it, the last at 2032-01-09T00:00:00Z",
                            every + 1));
         expect(replace(base, "every = \"2d\"",
                        "every = \"2d\"\nexcept = [2032-01-03T00:00:00Z, 2032-01-03T00:00:00Z]"),
-               "routine.except: lists 2032-01-03T00:00Z twice");
+               "routine.except: lists 2032-01-03T00:00:00Z twice");
         expect(replace(base, "every = \"2d\"", "every = \"2d\"\nexcept = [\"2032-01-03\"]"),
                "routine.except: must hold RFC 3339 date-times");
     }
