@@ -1,5 +1,8 @@
 // [[routine]]: a repeating block of activities expands at load to exactly the activities it
 // stands for, and every fault names the rule's line, its key and the instance's date.
+// Reference values: by construction. Every dose here is compared with the same plan written
+// out activity by activity (no external source is needed: the rule only rewrites the input),
+// and every date and line number follows from the fixture's text.
 #include "fixture.hpp"
 #include "planner/scenario/number_parse.hpp"
 #include "planner/scenario/scenario.hpp"
