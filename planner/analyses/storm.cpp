@@ -1,5 +1,6 @@
 #include "planner/analyses/storm.hpp"
 
+#include "planner/scenario/number_parse.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/result_guard.hpp"
 
@@ -328,19 +329,6 @@ bool StormSweep::any_exceeded() const {
                        [](const auto& w) { return w.second.exceeded(); });
 }
 
-namespace {
-
-// The arrival_bin()s a piece of a distance track passes through.
-void add_bins(std::vector<long>& bins, const DistancePiece& piece) {
-    const long a = arrival_bin(piece.r_from_AU);
-    const long b = arrival_bin(piece.r_to_AU);
-    for (long k = std::min(a, b); k <= std::max(a, b); ++k) {
-        bins.push_back(k);
-    }
-}
-
-} // namespace
-
 StormContext::StormContext(const Study& study, const std::string& event_id, bool respond)
     : study_(study), respond_(respond) {
     const Scenario& sc = study.scenario();
@@ -460,16 +448,8 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
     const double uf = sc.limits.uncertainty_factor;
     // Per location and organ: the whole event at the site (its dose, how it arrives), and, for
     // a dispersed event, how it arrives at each distance of the 0.01 AU grid the crew reach.
-    std::vector<long> bins;
-    if (!event_->fixed_arrival) {
-        for (const auto& track : sc.sun_tracks) {
-            for (const auto& piece : track.pieces()) {
-                add_bins(bins, piece);
-            }
-        }
-        std::sort(bins.begin(), bins.end());
-        bins.erase(std::unique(bins.begin(), bins.end()), bins.end());
-    }
+    const std::vector<long> track_bins = arrival_bins(sc);
+    const std::vector<long> bins = event_->fixed_arrival ? std::vector<long>{} : track_bins;
     double last = 0.0; // the last group's arrival, anywhere
     auto fill = [&](std::unordered_map<std::string, PerOrgan>& table,
                     const std::function<const ArrivalGroups&(const std::string&,
@@ -518,15 +498,7 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
             all_clear_time(sc.storm, *event_, sc.mission.start, sc.mission.sep_fluence_exponent) -
             sc.mission.start);
         if (sc.storm.all_clear_above_MeV) {
-            std::vector<long> all_bins = bins;
-            for (const auto& track : sc.sun_tracks) {
-                for (const auto& piece : track.pieces()) {
-                    add_bins(all_bins, piece);
-                }
-            }
-            std::sort(all_bins.begin(), all_bins.end());
-            all_bins.erase(std::unique(all_bins.begin(), all_bins.end()), all_bins.end());
-            for (const long b : all_bins) {
+            for (const long b : track_bins) {
                 const double r = static_cast<double>(b) / kArrivalBinsPerAU;
                 const EventSpec there = event_->seen_at(r, sc.mission.path_length_at(r));
                 all_clear_by_bin_[b] = hours(all_clear_time(sc.storm, there, sc.mission.start,
@@ -981,27 +953,14 @@ Time parse_command_time(const std::string& text, const std::string& option) {
 }
 
 time_duration parse_duration(const std::string& text, const std::string& option) {
-    static const std::vector<std::pair<std::string, double>> kUnits{
-        {"min", 60.0}, {"s", 1.0}, {"h", 3600.0}, {"d", 86400.0}};
-    for (const auto& [unit, seconds] : kUnits) {
-        if (text.size() > unit.size() && text.ends_with(unit)) {
-            const std::string number = text.substr(0, text.size() - unit.size());
-            std::size_t used = 0;
-            double v = 0.0;
-            try {
-                v = std::stod(number, &used);
-            } catch (const std::exception&) {
-                used = 0;
-            }
-            if (used == number.size() && v > 0.0 && v * seconds >= 1.0 && v * seconds <= 864000) {
-                return boost::posix_time::seconds(static_cast<long>(std::llround(v * seconds)));
-            }
-            break;
-        }
+    // The scenario stage's reading of a duration, in the command line's narrower range.
+    const auto s = parse_duration_s(text);
+    if (s && *s >= 1 && *s <= 864000) {
+        return boost::posix_time::seconds(static_cast<long>(*s));
     }
     throw InputError({"command line", 0}, option,
-                     fmt::format("'{}': write a duration from 1 s to 10 days with its unit, for "
-                                 "example 10min, 1min, 30s, 2h, 1d",
+                     fmt::format("'{}': write a duration from 1 s to 10 days with its unit, in "
+                                 "whole seconds, for example 10min, 1min, 30s, 2h, 1d",
                                  text));
 }
 } // namespace crewdose::planner

@@ -213,17 +213,23 @@ std::string to_string(ActivityKind kind) {
     return "?";
 }
 
+std::vector<const ActivitySpec*> activities_of(const Scenario& sc, std::string_view crew_id) {
+    std::vector<const ActivitySpec*> mine;
+    for (const auto& a : sc.activities) {
+        if (std::find(a.crew.begin(), a.crew.end(), crew_id) != a.crew.end()) {
+            mine.push_back(&a);
+        }
+    }
+    std::stable_sort(mine.begin(), mine.end(), [](const ActivitySpec* x, const ActivitySpec* y) {
+        return x->start < y->start;
+    });
+    return mine;
+}
+
 std::vector<TimelineGap> timeline_gaps(const Scenario& sc) {
     std::vector<TimelineGap> gaps;
     for (const auto& c : sc.crew) {
-        std::vector<const ActivitySpec*> mine;
-        for (const auto& a : sc.activities) {
-            if (std::find(a.crew.begin(), a.crew.end(), c.id) != a.crew.end()) {
-                mine.push_back(&a);
-            }
-        }
-        std::sort(mine.begin(), mine.end(),
-                  [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
+        const std::vector<const ActivitySpec*> mine = activities_of(sc, c.id);
         Time cursor = sc.mission.start;
         for (std::size_t i = 0; i <= mine.size(); ++i) {
             const Time next = i < mine.size() ? mine[i]->start : sc.mission.end;

@@ -20,6 +20,7 @@
 #include <memory>
 #include <optional>
 #include <string>
+#include <string_view>
 #include <vector>
 
 namespace crewdose::planner {
@@ -273,6 +274,12 @@ struct Scenario {
     [[nodiscard]] const LocationSpec& location_named(const std::string& id,
                                                      const std::string& option) const;
 };
+
+/// The activities crew member `crew_id` takes part in, ordered by start (activities that start
+/// at the same instant keep their order in the file). Every walk along one crew member's
+/// timeline starts here.
+[[nodiscard]] std::vector<const ActivitySpec*> activities_of(const Scenario& sc,
+                                                             std::string_view crew_id);
 
 /// A stretch of the mission that a crew member's activities leave uncovered.
 struct TimelineGap {

@@ -856,20 +856,13 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
     // Semantic checks that need everything: overlapping activities of one crew member,
     // dose points inside walls or between overlapping solids.
     for (const auto& c : sc.crew) {
-        std::vector<const ActivitySpec*> mine;
-        for (const auto& a : sc.activities) {
-            if (std::find(a.crew.begin(), a.crew.end(), c.id) != a.crew.end()) {
-                mine.push_back(&a);
-            }
-        }
+        const std::vector<const ActivitySpec*> mine = activities_of(sc, c.id);
         if (mine.empty()) {
             throw InputError(c.where, "crew",
                              fmt::format("crew member '{}' has no activities; add [[activity]] "
                                          "entries that cover the mission",
                                          c.id));
         }
-        std::sort(mine.begin(), mine.end(),
-                  [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
         for (std::size_t i = 1; i < mine.size(); ++i) {
             if (mine[i]->start < mine[i - 1]->end) {
                 throw InputError(

@@ -95,14 +95,7 @@ std::vector<SunDistanceTrack> build_sun_distance_tracks(const Scenario& sc) {
     const double site = m.sun_distance_AU;
     std::vector<SunDistanceTrack> tracks;
     for (const auto& crew : sc.crew) {
-        std::vector<const ActivitySpec*> mine;
-        for (const auto& a : sc.activities) {
-            if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
-                mine.push_back(&a);
-            }
-        }
-        std::sort(mine.begin(), mine.end(),
-                  [](const ActivitySpec* x, const ActivitySpec* y) { return x->start < y->start; });
+        const std::vector<const ActivitySpec*> mine = activities_of(sc, crew.id);
         auto in_space = [&](const ActivitySpec& a) {
             if (m.site == SiteKind::deep_space || a.kind == ActivityKind::transit) {
                 return true;

@@ -275,21 +275,7 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
         }
     }
     // The 0.01 AU grid of distances the crew reach away from the site (see event_timing).
-    long lowest_bin = 0;
-    long highest_bin = -1;
-    if (!sc_.sun_tracks.empty()) {
-        double lo = 1e300;
-        double hi = 0.0;
-        for (const auto& t : sc_.sun_tracks) {
-            lo = std::min(lo, t.lowest_AU());
-            hi = std::max(hi, t.highest_AU());
-        }
-        lowest_bin = std::lround(lo * kArrivalBinsPerAU);
-        highest_bin = std::lround(hi * kArrivalBinsPerAU);
-        if (lo == hi && lo == sc_.mission.sun_distance_AU) {
-            highest_bin = lowest_bin - 1; // everyone at the site: no grid needed
-        }
-    }
+    const std::vector<long> bins = arrival_bins(sc_);
     // Every event folded once with every response: the ledger asks for these per activity.
     for (const auto& ev : sc_.events) {
         for (const auto& [key, r] : responses_) {
@@ -326,7 +312,7 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
             if (ev.fixed_arrival) {
                 continue;
             }
-            for (long bin = lowest_bin; bin <= highest_bin; ++bin) {
+            for (const long bin : bins) {
                 const double r_AU = static_cast<double>(bin) / kArrivalBinsPerAU;
                 const EventSpec there = ev.seen_at(r_AU, sc_.mission.path_length_at(r_AU));
                 event_timing_off_site_[{key.first, key.second, ev.id, bin}] =
@@ -489,6 +475,28 @@ const ArrivalGroups& Study::event_timing(const std::string& location, const std:
 
 long arrival_bin(double r_AU) {
     return std::lround(r_AU * kArrivalBinsPerAU);
+}
+
+std::vector<long> arrival_bins(const Scenario& sc) {
+    std::vector<long> bins;
+    const double site = sc.mission.sun_distance_AU;
+    bool away = false;
+    for (const auto& track : sc.sun_tracks) {
+        for (const auto& piece : track.pieces()) {
+            away = away || piece.r_from_AU != site || piece.r_to_AU != site;
+            const long a = arrival_bin(piece.r_from_AU);
+            const long b = arrival_bin(piece.r_to_AU);
+            for (long k = std::min(a, b); k <= std::max(a, b); ++k) {
+                bins.push_back(k);
+            }
+        }
+    }
+    if (!away) {
+        return {}; // everyone at the site: the site's own tables serve
+    }
+    std::sort(bins.begin(), bins.end());
+    bins.erase(std::unique(bins.begin(), bins.end()), bins.end());
+    return bins;
 }
 
 exposure::DoseQuantities Study::event_dose(const std::string& location, const std::string& organ,

@@ -85,6 +85,10 @@ struct ArrivalGroups {
 inline constexpr double kArrivalBinsPerAU = 100.0;
 /// The grid point of a distance.
 [[nodiscard]] long arrival_bin(double r_AU);
+/// The grid points the crew's distance tracks pass through (Scenario::sun_tracks), ascending:
+/// the distances at which an event's arrival (and its flux all-clear) is tabulated. Empty when
+/// every crew member stays at the site's distance for the whole mission.
+[[nodiscard]] std::vector<long> arrival_bins(const Scenario& scenario);
 
 /// An event's node fluences for a response's nodes, scaled from the distance its spectrum is
 /// given at to the site (EventSpec::fluence_scale).
