@@ -1,6 +1,8 @@
 #include "effective_dose.hpp"
 
 #include <array>
+#include <cmath>
+#include <limits>
 #include <stdexcept>
 
 namespace crewdose::exposure {
@@ -57,6 +59,31 @@ double effective_dose_Sv(const std::map<std::string, double>& H) {
         E += w.w_T * it->second;
     }
     return E;
+}
+
+EffectiveDoseBound effective_dose_upper_bound(const DoseQuantities& skin,
+                                              const DoseQuantities& lens,
+                                              const DoseQuantities& bfo) {
+    auto finite = [](const DoseQuantities& d) {
+        return std::isfinite(d.absorbed_Gy) && std::isfinite(d.dose_equivalent_Sv) &&
+               std::isfinite(d.rbe_weighted_GyEq);
+    };
+    if (!finite(skin) || !finite(lens) || !finite(bfo)) {
+        const double nan = std::numeric_limits<double>::quiet_NaN();
+        return {{nan, nan, nan}, DeeperOrgan::bfo};
+    }
+    double w_skin = 0.0;
+    for (const auto& t : kWeights) {
+        if (t.tissue == "skin") {
+            w_skin = t.w_T;
+        }
+    }
+    const bool lens_deeper = lens.dose_equivalent_Sv > bfo.dose_equivalent_Sv;
+    const DoseQuantities& under = lens_deeper ? lens : bfo;
+    return {{w_skin * skin.absorbed_Gy + (1.0 - w_skin) * under.absorbed_Gy,
+             w_skin * skin.dose_equivalent_Sv + (1.0 - w_skin) * under.dose_equivalent_Sv,
+             w_skin * skin.rbe_weighted_GyEq + (1.0 - w_skin) * under.rbe_weighted_GyEq},
+            lens_deeper ? DeeperOrgan::lens : DeeperOrgan::bfo};
 }
 
 } // namespace crewdose::exposure

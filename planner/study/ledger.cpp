@@ -30,25 +30,12 @@ double cumulative(const std::vector<DosePiece>& pieces, const Time& t) {
 exposure::DoseQuantities
 effective_upper_bound(const std::function<exposure::DoseQuantities(const std::string&)>& dose,
                       std::string* deeper) {
-    double w_skin = 0.0;
-    for (const auto& t : exposure::icrp103_tissue_weights()) {
-        if (t.tissue == "skin") {
-            w_skin = t.w_T;
-        }
-    }
-    const auto skin = dose("skin");
-    const auto lens = dose("lens");
-    const auto bfo = dose("bfo");
-    // The deeper bound of the two; a dose that is not a number is taken (it then fails the
-    // result checks downstream).
-    const bool lens_higher = !(lens.dose_equivalent_Sv <= bfo.dose_equivalent_Sv);
-    const auto& under = lens_higher ? lens : bfo;
+    const auto bound =
+        exposure::effective_dose_upper_bound(dose("skin"), dose("lens"), dose("bfo"));
     if (deeper) {
-        *deeper = lens_higher ? "lens" : "bfo";
+        *deeper = bound.deeper == exposure::DeeperOrgan::lens ? "lens" : "bfo";
     }
-    return {w_skin * skin.absorbed_Gy + (1.0 - w_skin) * under.absorbed_Gy,
-            w_skin * skin.dose_equivalent_Sv + (1.0 - w_skin) * under.dose_equivalent_Sv,
-            w_skin * skin.rbe_weighted_GyEq + (1.0 - w_skin) * under.rbe_weighted_GyEq};
+    return bound.dose;
 }
 
 double DosePiece::fraction_by(const Time& t) const {
@@ -174,16 +161,11 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
 std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew, bool allow_gaps,
                                         std::vector<Gap>& gaps) {
     std::vector<TimelineSpan> spans;
-    for (const auto& a : sc.activities) {
-        if (std::find(a.crew.begin(), a.crew.end(), crew.id) != a.crew.end()) {
-            spans.push_back(
-                {a.start, a.end, a.location,
-                 fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line),
-                 &a});
-        }
+    for (const ActivitySpec* a : activities_of(sc, crew.id)) {
+        spans.push_back(
+            {a->start, a->end, a->location,
+             fmt::format("{} at {} (line {})", to_string(a->kind), a->location, a->where.line), a});
     }
-    std::sort(spans.begin(), spans.end(),
-              [](const TimelineSpan& x, const TimelineSpan& y) { return x.start < y.start; });
     if (spans.empty()) {
         throw InputError(crew.where, "crew",
                          fmt::format("crew member '{}' has no activities; "

@@ -135,13 +135,9 @@ struct CrewResult {
     std::vector<EventDistance> event_distances;
 };
 
-/// An upper bound of the effective dose from the quick model's organs, `dose` giving each of
-/// skin, lens and BFO: w_skin H_skin + (1 - w_skin) max(H_lens, H_BFO), w_skin = 0.01 the ICRP
-/// 103 skin weight, every quantity alike. The effective dose is sum_T w_T H_T with weights
-/// summing to 1; every other weighted tissue lies deeper than the lens (3 mm), where an SPE's
-/// dose is lower, and the GCR dose equivalent varies little with depth: checked against the
-/// phantom's effective dose at every location of both demos (ledger_test). `deeper` receives
-/// the organ of the max ("lens" or "bfo").
+/// exposure::effective_dose_upper_bound with `dose` giving each of skin, lens and BFO; `deeper`
+/// receives the organ of the max ("lens" or "bfo"). Checked against the phantom's effective
+/// dose at every location of both demos (ledger_test).
 [[nodiscard]] exposure::DoseQuantities
 effective_upper_bound(const std::function<exposure::DoseQuantities(const std::string&)>& dose,
                       std::string* deeper);
