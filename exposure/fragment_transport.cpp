@@ -3,6 +3,7 @@
 #include "element.hpp"
 #include "fragmentation.hpp"
 #include "material_library.hpp"
+#include "np_elastic.hpp"
 #include "nuclear.hpp"
 #include "nucleon_production.hpp"
 #include "quality_factor.hpp"
@@ -60,6 +61,19 @@ double dot(const double* a, const double* b, std::size_t from, std::size_t to) {
         s0 += a[k] * b[k];
     }
     return (s0 + s1) + (s2 + s3);
+}
+
+// Hydrogen atoms per gram of `material` times 1e-27 (cm2 per mb): times a cross section in mb,
+// reactions per g/cm2.
+double hydrogen_per_g_mb(const Material& material) {
+    double per_g = 0.0;
+    for (const auto& share : material.composition()) {
+        if (share.Z == 1) {
+            per_g += share.mass_fraction * kAvogadro_per_mol / element_by_Z(1)->atomic_mass_g_mol *
+                     1e-27;
+        }
+    }
+    return per_g;
 }
 
 // The light group, marched together with a predictor-corrector step: protons, alphas,
@@ -190,6 +204,14 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             std::fill(r.begin(), r.end(), 0.0);
         }
     }
+    if (secondaries()) {
+        // Elastic scattering on hydrogen takes a neutron out of its energy cell too; what it
+        // makes (the recoil proton, the slower neutron) is in build_nucleon_production().
+        const double per_g = hydrogen_per_g_mb(material);
+        for (std::size_t m = 0; m < n && per_g > 0.0; ++m) {
+            md->removal[kNeutronSpecies][m] += per_g * np_elastic_cross_section_mb(energies_[m]);
+        }
+    }
     auto production = [&](std::size_t p, std::size_t f) -> std::vector<double>& {
         auto& v = md->prod[p][f];
         if (v.empty()) {
@@ -288,6 +310,51 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
         md.local_Q_MeV[q].assign(n, 0.0);
         md.local_heavy_MeV[q].assign(n, 0.0);
     }
+    // Particles of light species l made by projectile nucleon q (0 proton, 1 neutron) at node
+    // m, `rate` reactions per g/cm2 each making `all` of them (`fwd` forward) with energies per
+    // nucleon uniform in [lo, hi]: charged ones below local_below_MeV_per_n deposit their
+    // energy where they are made; faster forward ones are spread over the march's cells.
+    auto emit = [&](std::size_t q, std::size_t m, std::size_t l, double lo, double hi, double fwd,
+                    double all, double rate) {
+        const std::size_t n_cells = n;
+        const double w_in = (m == 0 || m + 1 == n_cells ? 0.5 : 1.0) * step;
+        const auto lp = static_cast<LightParticle>(l);
+        const double A_l = light_particle_A(lp);
+        const bool charged = light_particle_Z(lp) > 0;
+        const std::size_t f = species_of(lp);
+        auto& mat = md.spread[q][l];
+        const double mid = 0.5 * (lo + hi);
+        if (charged && mid < options_.local_below_MeV_per_n) {
+            // Deposited where it is made, both hemispheres (kerma).
+            const double e = all * mid * A_l;
+            md.local_MeV[q][m] += rate * e;
+            md.local_Q_MeV[q][m] += rate * e * track_quality(f, mid);
+            if (light_particle_Z(lp) > 1) {
+                md.local_heavy_MeV[q][m] += rate * e;
+            }
+            return;
+        }
+        if (!(fwd > 0.0) || hi <= energies_.front() * std::exp(-0.5 * step)) {
+            return; // backward: leaves; neutrons below the lowest cell: lost
+        }
+        // Spread the forward particles (uniform in energy) over the cells [lo, hi] overlaps;
+        // psi at node k = particles in cell k / step.
+        const double log_lo = std::log(std::max(lo, 1e-300));
+        const double log_hi = std::log(hi);
+        auto k0 = static_cast<std::ptrdiff_t>(std::floor((log_lo - log_first) / step + 0.5));
+        auto k1 = static_cast<std::ptrdiff_t>(std::floor((log_hi - log_first) / step + 0.5));
+        k0 = std::max<std::ptrdiff_t>(k0, 0);
+        k1 = std::min<std::ptrdiff_t>(k1, static_cast<std::ptrdiff_t>(n_cells) - 1);
+        for (std::ptrdiff_t k = k0; k <= k1; ++k) {
+            const auto ku = static_cast<std::size_t>(k);
+            const double c_lo = energies_[ku] * std::exp(-0.5 * step);
+            const double c_hi = energies_[ku] * std::exp(0.5 * step);
+            const double overlap = std::min(hi, c_hi) - std::max(lo, c_lo);
+            if (overlap > 0.0) {
+                mat[ku * n_cells + m] += rate * fwd * overlap / (hi - lo) / step * w_in;
+            }
+        }
+    };
     for (const auto& share : md.material->composition()) {
         const auto element = element_by_Z(share.Z);
         const double A = element->atomic_mass_g_mol;
@@ -301,60 +368,42 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
                     continue;
                 }
                 const ReactionYield y = nucleon_reaction_yield(share.Z, q == 1, E);
-                // Incident quadrature weight in ln E (trapezoid).
-                const double w_in = (m == 0 || m + 1 == n ? 0.5 : 1.0) * step;
                 md.local_MeV[q][m] += rate * y.recoil_MeV;
                 md.local_Q_MeV[q][m] += rate * y.recoil_MeV * q_recoil;
                 md.local_heavy_MeV[q][m] += rate * y.recoil_MeV;
                 for (std::size_t l = 0; l < kLightParticles; ++l) {
-                    const auto lp = static_cast<LightParticle>(l);
-                    const double A_l = light_particle_A(lp);
-                    const bool charged = light_particle_Z(lp) > 0;
-                    const std::size_t f = species_of(lp);
-                    auto& mat = md.spread[q][l];
                     for (std::size_t i = 0; i + 1 < edges.size(); ++i) {
                         const double all = y.forward[l][i] + y.backward[l][i];
                         if (!(all > 0.0)) {
                             continue;
                         }
-                        const double lo = edges[i] / A_l; // per nucleon
-                        const double hi = edges[i + 1] / A_l;
-                        const double mid = 0.5 * (lo + hi);
-                        if (charged && mid < options_.local_below_MeV_per_n) {
-                            // Deposited where it is made, both hemispheres (kerma).
-                            const double e = all * mid * A_l;
-                            md.local_MeV[q][m] += rate * e;
-                            md.local_Q_MeV[q][m] += rate * e * track_quality(f, mid);
-                            if (light_particle_Z(lp) > 1) {
-                                md.local_heavy_MeV[q][m] += rate * e;
-                            }
-                            continue;
-                        }
-                        const double fwd = y.forward[l][i];
-                        if (!(fwd > 0.0) || hi <= energies_.front() * std::exp(-0.5 * step)) {
-                            continue; // backward: leaves; neutrons below the lowest cell: lost
-                        }
-                        // Spread the bin's forward particles (uniform in energy) over the
-                        // cells it overlaps; psi at node k = particles in cell k / step.
-                        const double log_lo = std::log(std::max(lo, 1e-300));
-                        const double log_hi = std::log(hi);
-                        auto k0 = static_cast<std::ptrdiff_t>(
-                            std::floor((log_lo - log_first) / step + 0.5));
-                        auto k1 = static_cast<std::ptrdiff_t>(
-                            std::floor((log_hi - log_first) / step + 0.5));
-                        k0 = std::max<std::ptrdiff_t>(k0, 0);
-                        k1 = std::min<std::ptrdiff_t>(k1, static_cast<std::ptrdiff_t>(n) - 1);
-                        for (std::ptrdiff_t k = k0; k <= k1; ++k) {
-                            const auto ku = static_cast<std::size_t>(k);
-                            const double c_lo = energies_[ku] * std::exp(-0.5 * step);
-                            const double c_hi = energies_[ku] * std::exp(0.5 * step);
-                            const double overlap = std::min(hi, c_hi) - std::max(lo, c_lo);
-                            if (overlap > 0.0) {
-                                mat[ku * n + m] += rate * fwd * overlap / (hi - lo) / step * w_in;
-                            }
-                        }
+                        const double A_l = light_particle_A(static_cast<LightParticle>(l));
+                        emit(q, m, l, edges[i] / A_l, edges[i + 1] / A_l, y.forward[l][i], all,
+                             rate);
                     }
                 }
+            }
+        }
+    }
+    // Elastic scattering of neutrons on hydrogen (np_elastic.hpp): per scattering one recoil
+    // proton and one neutron, each uniform in kinetic energy from 0 to E (their energies add
+    // up to E), both forward.
+    const double per_g_H = hydrogen_per_g_mb(*md.material);
+    if (!(per_g_H > 0.0)) {
+        return;
+    }
+    for (std::size_t m = 0; m < n; ++m) {
+        const double E = energies_[m];
+        const double rate = per_g_H * np_elastic_cross_section_mb(E);
+        if (!(rate > 0.0)) {
+            continue;
+        }
+        for (std::size_t i = 0; i + 1 < edges.size() && edges[i] < E; ++i) {
+            const double lo = edges[i];
+            const double hi = std::min(edges[i + 1], E);
+            const double share = (hi - lo) / E;
+            for (const LightParticle lp : {LightParticle::proton, LightParticle::neutron}) {
+                emit(1, m, static_cast<std::size_t>(lp), lo, hi, share, share, rate);
             }
         }
     }

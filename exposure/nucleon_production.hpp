@@ -17,7 +17,8 @@
 //    with neutrons and protons, tritons and helions exchanged (charge symmetry);
 //  - an element without a usable table (none, or one ending below 100 MeV) takes the nearest
 //    element's by atomic number, per reaction;
-//  - hydrogen: no products (p-p reactions make mesons; elastic scattering is not modelled);
+//  - hydrogen: no products (p-p reactions make mesons; the elastic scattering of neutrons on
+//    hydrogen is np_elastic.hpp's, added by the march);
 //  - energy and charge close exactly: products that would carry more than E + Q (or more
 //    charge than the projectile and target hold) are scaled down to it, and what they leave
 //    is counted as not transported.

@@ -71,12 +71,13 @@ std::string model_text(const Study& study) {
         "lack leaves as protons, the nucleons left as neutrons, at the same velocity) and the "
         "secondaries of nucleon reactions (neutrons, protons, deuterons, tritons, helions and "
         "alphas from ENDF/B-VIII.1 to 150 MeV and a fit to measured neutron spectra above; "
-        "target fragments and slow light ions deposited where they are made), and again "
+        "target fragments and slow light ions deposited where they are made; recoil protons "
+        "of neutron scattering on hydrogen), and again "
         "without any nuclear reaction; as for the SPE protons, every dose is the higher of the "
         "two, quantity by quantity. Against published in-situ measurements the GCR model is "
         "still low (see the README). Not modelled: pions and the electromagnetic cascade, the "
-        "target fragments of nucleus-nucleus reactions, elastic scattering of neutrons on "
-        "hydrogen, neutrons emitted backwards. RBE-weighted dose with NCRP 132 values; "
+        "target fragments of nucleus-nucleus reactions, neutrons emitted backwards. "
+        "RBE-weighted dose with NCRP 132 values; "
         "uncertainty factor {:.2f} applied to every dose. Window maxima are exact at "
         "activity and event boundaries and sampled every 10 minutes inside event profiles.",
         body_text(study), study.direction_count(), sc.mission.gcr_directions, phi_text(sc.mission),
@@ -240,11 +241,11 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                               "straight-ahead depth march of the whole field with nuclear "
                               "reactions (removal, projectile fragmentation with EPAX 3.1 "
                               "remnants, the secondaries of nucleon reactions: n, p, d, t, "
-                              "He-3, alpha, target fragments deposited locally) and without "
+                              "He-3, alpha, target fragments deposited locally; recoil "
+                              "protons of n-p elastic scattering) and without "
                               "any; limits use the higher of each quantity; not modelled: "
                               "pions and the electromagnetic cascade, target fragments of "
-                              "nucleus-nucleus reactions, elastic scattering of neutrons on "
-                              "hydrogen, neutrons emitted backwards"},
+                              "nucleus-nucleus reactions, neutrons emitted backwards"},
                              {"directions", sc.mission.gcr_directions},
                              {"phases", nlohmann::json::array()},
                              {"daily_rates_at_start", nlohmann::json::object()}};

@@ -26,13 +26,14 @@ const char* kDepthModelText =
     "tissue, exact per energy, with nuclear removal; their secondaries (neutrons, protons, "
     "deuterons, tritons, helions and alphas of nucleon reactions, from ENDF/B-VIII.1 to 150 "
     "MeV and a fit to measured neutron spectra above; target fragments and slow light ions "
-    "deposited where they are made) from a straight-ahead march of the whole field, as its "
+    "deposited where they are made; recoil protons of neutrons scattered by hydrogen) from "
+    "a straight-ahead march of the whole field, as its "
     "ratio to the march of the primaries alone. Dose equivalent with ICRP 60 Q(L); "
     "RBE-weighted dose with NCRP 132 values. The first three columns are the higher of the "
     "whole field's dose and the primaries' without any removal (the model is not yet "
     "validated well enough to drop that bracket); 'absorbed, primaries' is the primaries "
     "alone with removal, for comparison. Not modelled: pions and the electromagnetic cascade, "
-    "elastic scattering of neutrons on hydrogen, neutrons emitted backwards.";
+    "neutrons emitted backwards.";
 
 } // namespace
 
