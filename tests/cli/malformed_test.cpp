@@ -16,6 +16,7 @@
 #include <sstream>
 #include <string>
 #include <sys/wait.h>
+#include <unistd.h>
 #include <vector>
 
 namespace {
@@ -112,7 +113,10 @@ TEST_CASE("malformed inputs: every fixture exits as stated, names where, writes 
     std::sort(cases.begin(), cases.end());
     // The issue asks for at least 60 named cases.
     REQUIRE(cases.size() >= 60);
-    const fs::path scratch = fs::temp_directory_path() / "crewdose-malformed-test";
+    // Its own folder per process: two test runs at once (two build trees, two users) must not
+    // empty each other's.
+    const fs::path scratch =
+        fs::temp_directory_path() / ("crewdose-malformed-test-" + std::to_string(::getpid()));
     for (const auto& file : cases) {
         const Expectation e = read_header(file);
         REQUIRE(!e.run.empty());
