@@ -84,8 +84,12 @@ double effective_charge(const Particle& particle, double energy_MeV_per_n) {
     if (particle.Z <= 2) {
         return z;
     }
+    // Barkas's form with its constants refitted to ICRU Report 73 (see stopping.hpp).
+    constexpr double a = 284.239;
+    constexpr double b = 1.10708;
+    constexpr double c = 0.792729;
     const double beta = std::sqrt(particle.beta2(energy_MeV_per_n));
-    return z * (1.0 - std::exp(-125.0 * beta / std::cbrt(z * z)));
+    return z * (1.0 - std::exp(-a * std::pow(beta, b) / std::pow(z, c)));
 }
 
 double low_energy_stopping_MeV_cm2_g(const Material& material, const Particle& particle,

@@ -17,8 +17,14 @@ struct JoinWindow {
 [[nodiscard]] JoinWindow join_window(const Material& material, const Particle& particle);
 
 /// Effective charge of a heavy ion (Z >= 3) at kinetic energy per nucleon `energy_MeV_per_n`:
-/// z_eff = z (1 - exp(-125 beta z^(-2/3))) (Barkas 1963, "Nuclear Research Emulsions" vol. 1).
-/// Protons and alphas return their bare charge: their low-energy fits include the charge state.
+/// z_eff = z (1 - exp(-a beta^b z^-c)), the form of Barkas (1963, "Nuclear Research Emulsions"
+/// vol. 1: a = 125, b = 1, c = 2/3) with a = 284.239, b = 1.10708, c = 0.792729 fitted to the
+/// revised ICRU Report 73 water table for Z = 3-18 from 0.1 to 200 MeV/u
+/// (scripts/data/fit_effective_charge.py; rms error of z_eff 1.4 % against Barkas's 5.9 %). It
+/// stands in for what the scaling from the proton's stopping and the Bethe formula's corrections
+/// miss for heavy ions at low velocity; above Z = 18 it is an extrapolation (ICRU 73 stops at
+/// argon). Protons and alphas return their bare charge: their low-energy fits include the
+/// charge state.
 [[nodiscard]] double effective_charge(const Particle& particle, double energy_MeV_per_n);
 
 /// Electronic mass stopping power from the published low-energy fits alone, MeV cm2/g:
