@@ -16,13 +16,15 @@
 # diff of tests/expected/ (git diff --stat tests/expected; git diff tests/expected): every line
 # that changed must be explained in the commit.
 #
-# Normalised (in the same way in the test): nothing at present. The outputs hold no time of
-# run, no version string and no absolute path (checked below: a case whose output contains the
-# repository's absolute path is refused). If one ever must be normalised, add the replacement
-# to normalise() here and to normalise() in the test.
+# Normalised (in the same way in the test): nothing. The time of run that JSON and CSV outputs
+# carry (their provenance) is fixed by SOURCE_DATE_EPOCH=0, set here and in the test; they also
+# carry the project version. No output may hold an absolute path (checked below: such a case
+# is refused). If something must ever be normalised, add the replacement to normalise() here
+# and to normalise() in the test.
 set -euo pipefail
 
 binary=${1:-build/planner/crewdose}
+export SOURCE_DATE_EPOCH=0
 binary=$(realpath -- "$binary") # before the cd: a relative path is the caller's
 cd "$(dirname "$0")/.."
 root=$PWD

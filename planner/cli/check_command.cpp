@@ -91,16 +91,7 @@ Command add_check_command(CLI::App& app) {
                     planner::refuse_timeline_gaps(sc);
                 }
                 const planner::Study study(std::move(sc));
-                std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
-                for (const auto& loc : study.scenario().locations) {
-                    if (loc.shielding_table_file) {
-                        inputs.push_back({"shielding table",
-                                          (std::filesystem::path(scenario_path).parent_path() /
-                                           *loc.shielding_table_file)
-                                              .string()});
-                    }
-                }
-                planner::refuse_clashing_outputs(inputs,
+                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
                                                  {{"--out", out_path}, {"--series", series_path}});
                 planner::LedgerOptions options;
                 options.allow_gaps = allow_gaps;
@@ -108,19 +99,20 @@ Command add_check_command(CLI::App& app) {
                 const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
                                     isatty(fileno(stdout)) != 0 &&
                                     std::getenv("NO_COLOR") == nullptr;
-                const std::string report = planner::format_check_report(
-                    study, ledger, fmt_choice, colour, o->near_percent / 100.0);
+                const RunStamp stamp = run_stamp(&study.scenario());
+                const std::string report =
+                    stamped(planner::format_check_report(study, ledger, fmt_choice, colour,
+                                                         o->near_percent / 100.0),
+                            fmt_choice, stamp);
                 // Both files are prepared before either is written, so bad input writes nothing.
-                const std::string series =
-                    series_path.empty() ? "" : planner::format_series(study, ledger);
+                const std::string series = series_path.empty()
+                                               ? ""
+                                               : stamped(planner::format_series(study, ledger),
+                                                         planner::OutputFormat::csv, stamp);
                 if (!series_path.empty()) {
                     planner::write_file_atomically(series_path, series, "--series");
                 }
-                if (out_path.empty()) {
-                    write_stdout(report);
-                } else {
-                    planner::write_file_atomically(out_path, report, "--out");
-                }
+                write_report(report, out_path);
                 return ledger.any_exceeded ? 1 : 0;
             }};
 }

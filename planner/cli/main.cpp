@@ -1,12 +1,14 @@
 // crewdose command line: the subcommands (one file each, cli/*_command.cpp) and the exit codes;
 // no physics here.
 #include "planner/cli/command.hpp"
+#include "planner/cli/provenance.hpp"
 #include "planner/study/result_guard.hpp"
 
 #include "exposure/parameter_error.hpp"
 
 #include <cstdio>
 #include <exception>
+#include <filesystem>
 #include <string>
 #include <vector>
 
@@ -14,6 +16,28 @@ namespace crewdose::cli {
 
 void write_stdout(const std::string& text) {
     std::fwrite(text.data(), 1, text.size(), stdout);
+}
+
+std::vector<planner::NamedFile> scenario_inputs(const planner::Scenario& scenario,
+                                                const std::string& scenario_path) {
+    std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
+    for (const auto& loc : scenario.locations) {
+        if (loc.shielding_table_file) {
+            inputs.push_back(
+                {"shielding table",
+                 (std::filesystem::path(scenario_path).parent_path() / *loc.shielding_table_file)
+                     .string()});
+        }
+    }
+    return inputs;
+}
+
+void write_report(const std::string& text, const std::string& out_path) {
+    if (out_path.empty()) {
+        write_stdout(text);
+    } else {
+        planner::write_file_atomically(out_path, text, "--out");
+    }
 }
 
 } // namespace crewdose::cli
@@ -36,7 +60,7 @@ int main(int argc, char** argv) {
                  "fault (a result that could not be computed: nothing is written).",
                  "crewdose"};
     app.require_subcommand(1);
-    app.set_version_flag("--version", "crewdose 0.1.0");
+    app.set_version_flag("--version", "crewdose " + cli::tool_version());
 
     const std::vector<cli::Command> commands{
         cli::add_range_command(app),     cli::add_materials_command(app),

@@ -90,21 +90,23 @@ Command add_range_command(CLI::App& app) {
 
         return range;
     }();
-    return {sub, [o, grid] {
-                auto& format = o->format;
-                auto& material = o->material;
-                auto& particle = o->particle;
-                auto& energies = o->energies;
-                const auto fmt_choice = planner::parse_output_format(format);
+    return {
+        sub, [o, grid] {
+            auto& format = o->format;
+            auto& material = o->material;
+            auto& particle = o->particle;
+            auto& energies = o->energies;
+            const auto fmt_choice = planner::parse_output_format(format);
 
-                const auto& mat = planner::material_by_id(material);
-                const auto part = planner::particle_by_name_or_throw(particle);
-                const auto list = planner::parse_energy_list(
-                    energies, "--energy", grid.min_MeV_per_n, grid.max_MeV_per_n);
-                write_stdout(planner::format_range_report(
-                    mat, part, planner::range_rows(mat, part, list), fmt_choice));
-                return 0;
-            }};
+            const auto& mat = planner::material_by_id(material);
+            const auto part = planner::particle_by_name_or_throw(particle);
+            const auto list = planner::parse_energy_list(energies, "--energy", grid.min_MeV_per_n,
+                                                         grid.max_MeV_per_n);
+            write_stdout(stamped(planner::format_range_report(
+                                     mat, part, planner::range_rows(mat, part, list), fmt_choice),
+                                 fmt_choice, run_stamp(nullptr)));
+            return 0;
+        }};
 }
 
 Command add_materials_command(CLI::App& app) {
@@ -116,8 +118,9 @@ Command add_materials_command(CLI::App& app) {
         ->capture_default_str();
 
     return {materials, [format] {
-                write_stdout(
-                    planner::format_materials_report(planner::parse_output_format(*format)));
+                const auto fmt_choice = planner::parse_output_format(*format);
+                write_stdout(stamped(planner::format_materials_report(fmt_choice), fmt_choice,
+                                     run_stamp(nullptr)));
                 return 0;
             }};
 }
@@ -163,9 +166,11 @@ Command add_depth_command(CLI::App& app) {
                 const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
                 const auto list = planner::parse_depth_list(depths, "--depths");
                 const auto& medium = planner::material_by_id(detector, "--detector");
-                write_stdout(planner::format_depth_report(
-                    spec, mat, tissue, planner::depth_rows(spec, mat, tissue, list, medium),
-                    fmt_choice, medium));
+                write_stdout(stamped(planner::format_depth_report(
+                                         spec, mat, tissue,
+                                         planner::depth_rows(spec, mat, tissue, list, medium),
+                                         fmt_choice, medium),
+                                     fmt_choice, run_stamp(nullptr)));
                 return 0;
             }};
 }
@@ -255,9 +260,12 @@ Command add_gcr_command(CLI::App& app) {
                 site.surface_pressure_Pa =
                     planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
                 const auto& medium = planner::material_by_id(detector, "--detector");
-                write_stdout(planner::format_gcr_depth_report(
-                    phi, mat, tissue, planner::gcr_depth_rows(phi, mat, tissue, list, site, medium),
-                    fmt_choice, per_year, site, medium));
+                write_stdout(
+                    stamped(planner::format_gcr_depth_report(
+                                phi, mat, tissue,
+                                planner::gcr_depth_rows(phi, mat, tissue, list, site, medium),
+                                fmt_choice, per_year, site, medium),
+                            fmt_choice, run_stamp(nullptr)));
                 return 0;
             }};
 }

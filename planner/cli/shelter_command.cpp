@@ -19,6 +19,7 @@ Command add_shelter_command(CLI::App& app) {
         std::vector<std::string> shelter_targets;
         std::string shelter_layer;
         double shelter_max = 200.0;
+        std::string out_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -62,6 +63,7 @@ Command add_shelter_command(CLI::App& app) {
         shelter->add_option("--max-g-cm2", shelter_max, "largest areal density to try")
             ->capture_default_str();
         shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+        shelter->add_option("--out,-o", o->out_path, kOutHelp);
 
         return shelter;
     }();
@@ -77,6 +79,8 @@ Command add_shelter_command(CLI::App& app) {
                 const auto fmt_choice = planner::parse_output_format(format);
 
                 const planner::Study study(planner::load_scenario(scenario_path));
+                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
+                                                 {{"--out", o->out_path}});
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;
@@ -91,7 +95,9 @@ Command add_shelter_command(CLI::App& app) {
                 }
                 request.max_g_cm2 = shelter_max;
                 const auto report = planner::size_shelter(study, request);
-                write_stdout(planner::format_shelter_report(study, report, fmt_choice));
+                write_report(stamped(planner::format_shelter_report(study, report, fmt_choice),
+                                     fmt_choice, run_stamp(&study.scenario())),
+                             o->out_path);
                 for (const auto& a : report.answers) {
                     if (!a.achievable) {
                         return 1;

@@ -17,6 +17,7 @@ Command add_shielding_command(CLI::App& app) {
         std::string scenario_path;
         std::string location_id;
         std::string event_id;
+        std::string out_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -40,6 +41,7 @@ Command add_shielding_command(CLI::App& app) {
                          "text, json or csv (one row per organ; the location's figures on every "
                          "row)")
             ->capture_default_str();
+        shielding->add_option("--out,-o", o->out_path, kOutHelp);
 
         return shielding;
     }();
@@ -52,10 +54,15 @@ Command add_shielding_command(CLI::App& app) {
 
                 // One location's view computes that location alone.
                 const planner::Study study(planner::load_scenario(scenario_path), location_id);
-                write_stdout(planner::format_shielding_report(
-                    study, location_id,
-                    event_id.empty() ? std::nullopt : std::optional<std::string>(event_id),
-                    fmt_choice));
+                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
+                                                 {{"--out", o->out_path}});
+                write_report(stamped(planner::format_shielding_report(
+                                         study, location_id,
+                                         event_id.empty() ? std::nullopt
+                                                          : std::optional<std::string>(event_id),
+                                         fmt_choice),
+                                     fmt_choice, run_stamp(&study.scenario())),
+                             o->out_path);
                 return 0;
             }};
 }

@@ -25,6 +25,7 @@ Command add_storm_command(CLI::App& app) {
         std::string storm_from;
         std::string storm_to;
         bool no_response = false;
+        std::string out_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -72,6 +73,7 @@ Command add_storm_command(CLI::App& app) {
         storm->add_flag("--no-response", no_response,
                         "the crew keep to the planned timeline (for comparison)");
         storm->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+        storm->add_option("--out,-o", o->out_path, kOutHelp);
 
         return storm;
     }();
@@ -92,6 +94,8 @@ Command add_storm_command(CLI::App& app) {
                                      "give --onset TIME for one what-if or --sweep");
                 }
                 const planner::Study study(planner::load_scenario(scenario_path));
+                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
+                                                 {{"--out", o->out_path}});
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;
                 // A time option inside the mission, or its default.
@@ -111,7 +115,9 @@ Command add_storm_command(CLI::App& app) {
                 };
                 if (!storm_onset.empty()) {
                     const auto w = context.at(mission_time(storm_onset, "--onset", mission.start));
-                    write_stdout(planner::format_storm_whatif(context, w, fmt_choice));
+                    write_report(stamped(planner::format_storm_whatif(context, w, fmt_choice),
+                                         fmt_choice, run_stamp(&study.scenario())),
+                                 o->out_path);
                     return w.any_exceeded() ? 1 : 0;
                 }
                 const auto step = planner::parse_duration(storm_step, "--step");
@@ -134,7 +140,9 @@ Command add_storm_command(CLI::App& app) {
                 if (shown) {
                     std::fprintf(stderr, "\r%30s\r", "");
                 }
-                write_stdout(planner::format_storm_sweep(context, sweep, fmt_choice));
+                write_report(stamped(planner::format_storm_sweep(context, sweep, fmt_choice),
+                                     fmt_choice, run_stamp(&study.scenario())),
+                             o->out_path);
                 return sweep.any_exceeded() ? 1 : 0;
             }};
 }

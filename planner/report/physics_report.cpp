@@ -98,7 +98,7 @@ std::string format_materials_report(OutputFormat format) {
                          {"composition", comp},
                          {"source", m.source()}});
         }
-        return dump_checked(j);
+        return dump_checked(nlohmann::json{{"materials", j}});
     }
     if (format == OutputFormat::csv) {
         std::string out = "id,density_g_cm3,mean_excitation_eV,i_value_origin,composition\n";

@@ -246,6 +246,8 @@ struct LimitsSpec {
 /// The whole validated study.
 struct Scenario {
     std::string file;
+    /// SHA-256 of the scenario text as read (sha256.hpp): outputs carry it with `file`.
+    std::string file_sha256;
     Mission mission;
     std::vector<exposure::Material> materials; ///< user materials
     std::map<std::string, SourceLocation> material_lines;

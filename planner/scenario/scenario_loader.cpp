@@ -4,6 +4,7 @@
 
 #include "exposure/arrival.hpp"
 #include "planner/scenario/routine.hpp"
+#include "planner/scenario/sha256.hpp"
 #include "planner/scenario/shielding_table_file.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
 #include "planner/scenario/time_format.hpp"
@@ -186,6 +187,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                       {"mission", "material", "solid", "location", "event", "crew", "activity",
                        "routine", "recorded", "limits", "storm_response"});
     Scenario sc;
+    sc.file_sha256 = sha256_hex(text);
     sc.file = file;
 
     // [mission]

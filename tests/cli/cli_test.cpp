@@ -22,6 +22,12 @@ Run run(const std::string& args, const std::string& env = "") {
     return run_shell(env + std::string(CREWDOSE_BINARY) + " " + args + " 2>&1");
 }
 
+// A CSV output without its provenance line (the first, beginning with "# "): the table.
+std::string table(const std::string& csv) {
+    REQUIRE(csv.rfind("# crewdose ", 0) == 0);
+    return csv.substr(csv.find('\n') + 1);
+}
+
 } // namespace
 
 TEST_CASE("range prints a table in text", "[cli]") {
@@ -52,8 +58,9 @@ TEST_CASE("range json carries full precision that agrees with the text", "[cli]"
 }
 
 TEST_CASE("range csv has a header and one row per energy", "[cli]") {
-    const Run r = run("range -m lead -p alpha -e 2,20,200 -f csv");
+    Run r = run("range -m lead -p alpha -e 2,20,200 -f csv");
     REQUIRE(r.exit_code == 0);
+    r.out = table(r.out);
     CHECK(r.out.rfind("energy_MeV_per_n,stopping_MeV_cm2_g,let_keV_um,csda_range_g_cm2,"
                       "csda_range_cm\n",
                       0) == 0);
@@ -76,7 +83,7 @@ TEST_CASE("materials lists the library", "[cli]") {
     }
     const Run j = run("materials --format json");
     REQUIRE(j.exit_code == 0);
-    CHECK(nlohmann::json::parse(j.out).size() == 18);
+    CHECK(nlohmann::json::parse(j.out).at("materials").size() == 18);
 }
 
 TEST_CASE("bad input exits 2 and names the option and what is allowed", "[cli]") {
@@ -275,7 +282,7 @@ TEST_CASE("every spectrum form has a spelling", "[cli]") {
         const Run r = run(std::string("depth -d 5 -f csv -s \"") + s + "\"");
         INFO(s << "\n" << r.out);
         CHECK(r.exit_code == 0);
-        CHECK(r.out.rfind("shield_g_cm2,absorbed_mGy", 0) == 0);
+        CHECK(table(r.out).rfind("shield_g_cm2,absorbed_mGy", 0) == 0);
     }
 }
 
@@ -437,8 +444,8 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
                    rate["with_reactions"]["dose_equivalent_mSv"].get<double>()));
     CHECK(doc["gcr"]["transport"].get<std::string>().find("fragmentation") != std::string::npos);
     const Run c = run("check " + demo() + " --format csv");
-    CHECK(c.out.rfind("crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis\n",
-                      0) == 0);
+    CHECK(table(c.out).rfind(
+              "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis\n", 0) == 0);
     CHECK(c.out.find(",career,") != std::string::npos);
     CHECK(c.out.find(",mSv,") != std::string::npos);    // the effective dose's rows
     CHECK(c.out.find(",mGy-Eq,") != std::string::npos); // the organs' rows
@@ -451,7 +458,7 @@ TEST_CASE("check: --out and --series are written atomically, and bad input write
         run("check " + demo() + " --out " + dir + "/report.txt --series " + dir + "/s.csv");
     CHECK(r.exit_code == 0);
     CHECK(read_file(dir + "/report.txt").find("crewdose check:") == 0);
-    const std::string series = read_file(dir + "/s.csv");
+    const std::string series = table(read_file(dir + "/s.csv"));
     CHECK(series.rfind("crew,organ,unit,time,cumulative,rate_per_h\n", 0) == 0);
     CHECK(series.find(",effective,mSv,") != std::string::npos);
     CHECK(series.find(",bfo,mGy-Eq,") != std::string::npos);
@@ -655,8 +662,8 @@ TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
     CHECK(s["evas"].size() == 13);
     CHECK(s["worst"].size() == 4);
     const Run csv = run(base + " --sweep --step 2h --format csv");
-    CHECK(csv.out.rfind("activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n", 0) ==
-          0);
+    CHECK(table(csv.out).rfind("activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n",
+                               0) == 0);
     const Run neither = run(base);
     CHECK(neither.exit_code == 2);
     CHECK(neither.out.find("give --onset TIME for one what-if or --sweep") != std::string::npos);
@@ -679,9 +686,13 @@ TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
 
 TEST_CASE("check: the same numbers, bit for bit, whatever the thread count", "[cli][check]") {
     // The GCR responses are shared among threads by location (DESIGN.md: deterministic).
-    const Run one = run("check " + demo() + " --format json", "CREWDOSE_THREADS=1 ");
-    const Run two = run("check " + demo() + " --format json", "CREWDOSE_THREADS=2 ");
-    const Run three = run("check " + demo() + " --format json", "CREWDOSE_THREADS=3 ");
+    // (SOURCE_DATE_EPOCH: the same run time in the provenance of all three.)
+    const Run one =
+        run("check " + demo() + " --format json", "SOURCE_DATE_EPOCH=0 CREWDOSE_THREADS=1 ");
+    const Run two =
+        run("check " + demo() + " --format json", "SOURCE_DATE_EPOCH=0 CREWDOSE_THREADS=2 ");
+    const Run three =
+        run("check " + demo() + " --format json", "SOURCE_DATE_EPOCH=0 CREWDOSE_THREADS=3 ");
     REQUIRE(one.exit_code == 0);
     CHECK(one.out == two.out);
     CHECK(one.out == three.out);
@@ -690,9 +701,10 @@ TEST_CASE("check: the same numbers, bit for bit, whatever the thread count", "[c
 TEST_CASE("shielding: csv is a table of the same numbers as the json", "[cli][check]") {
     // Regression: --format csv used to print the text report and exit 0.
     const std::string base = "shielding " + demo() + " --location eva-site --event design-spe";
-    const Run c = run(base + " --format csv");
+    Run c = run(base + " --format csv");
     const Run j = run(base + " --format json");
     REQUIRE(c.exit_code == 0);
+    c.out = table(c.out);
     REQUIRE(j.exit_code == 0);
     const auto doc = nlohmann::json::parse(j.out);
     std::vector<std::string> lines;
@@ -809,4 +821,79 @@ TEST_CASE("storm: a printed time is accepted back as --onset", "[cli][storm]") {
     INFO(again.out);
     CHECK((again.exit_code == 0 || again.exit_code == 1));
     CHECK(again.out.find("with t0 at " + onset) != std::string::npos);
+}
+
+TEST_CASE("outputs carry the tool, its version, the scenario, its digest and the run time",
+          "[cli][provenance]") {
+    // Reference for the digest: coreutils' sha256sum of the same file (an independent
+    // implementation); the time: SOURCE_DATE_EPOCH, seconds since 1970-01-01T00:00:00Z (the
+    // reproducible-builds convention), 86400 s being 1970-01-02T00:00:00Z by construction.
+    FILE* pipe = popen(("sha256sum " + demo()).c_str(), "r");
+    REQUIRE(pipe != nullptr);
+    std::array<char, 65> hex{};
+    REQUIRE(std::fread(hex.data(), 1, 64, pipe) == 64);
+    pclose(pipe);
+    const std::string digest(hex.data(), 64);
+    const Run j = run("check " + demo() + " --format json", "SOURCE_DATE_EPOCH=86400 ");
+    REQUIRE(j.exit_code == 0);
+    const auto p = nlohmann::json::parse(j.out).at("provenance");
+    CHECK(p.at("tool") == "crewdose");
+    CHECK(p.at("scenario") == demo());
+    CHECK(p.at("scenario_sha256") == digest);
+    CHECK(p.at("run_at") == "1970-01-02T00:00:00Z");
+    const Run version = run("--version");
+    CHECK(version.out.find("crewdose " + p.at("version").get<std::string>()) == 0);
+    // Without SOURCE_DATE_EPOCH the time of the run: RFC 3339 in UTC, to the second.
+    const Run now = run("range -m water -p proton -e 10 --format json");
+    const std::string at = nlohmann::json::parse(now.out).at("provenance").at("run_at");
+    CHECK(at.size() == 20);
+    CHECK(at.back() == 'Z');
+    CHECK(at.find("T") == 10);
+    // CSV: one comment line first, then the table.
+    const Run csv = run("storm " + demo() + " --event design-spe --onset 2032-03-09T10:00:00Z " +
+                            "--format csv",
+                        "SOURCE_DATE_EPOCH=0 ");
+    CHECK(csv.out.rfind("# crewdose " + p.at("version").get<std::string>() +
+                            "; run at 1970-01-01T00:00:00Z; scenario " + demo() + " (sha256 " +
+                            digest + ")\n",
+                        0) == 0);
+    // A SOURCE_DATE_EPOCH that is not a number of seconds is refused, naming it.
+    const Run bad = run("range -m water -p proton -e 10", "SOURCE_DATE_EPOCH=yesterday ");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("SOURCE_DATE_EPOCH: 'yesterday' is not a whole number") !=
+          std::string::npos);
+}
+
+TEST_CASE("storm, shelter and shielding write --out, and never over their input",
+          "[cli][provenance]") {
+    const std::string dir = temp_dir();
+    const std::string onset = " --event design-spe --onset 2032-03-09T10:00:00Z";
+    const Run storm = run("storm " + demo() + onset + " --format json --out " + dir + "/s.json");
+    CHECK(storm.exit_code <= 1);
+    CHECK(storm.out.empty());
+    CHECK(nlohmann::json::parse(read_file(dir + "/s.json")).contains("provenance"));
+    const Run shielding =
+        run("shielding " + demo() + " --location storm-shelter --out " + dir + "/sh.txt");
+    CHECK(shielding.exit_code == 0);
+    CHECK(shielding.out.empty());
+    CHECK(read_file(dir + "/sh.txt").find("storm-shelter") != std::string::npos);
+    const Run shelter = run("shelter " + demo() +
+                            " --event design-spe --location storm-shelter --material water "
+                            "--format csv --out " +
+                            dir + "/shelter.csv");
+    CHECK(shelter.exit_code <= 1);
+    CHECK(read_file(dir + "/shelter.csv").rfind("# crewdose ", 0) == 0);
+    // --out naming the scenario itself: exit 2, the scenario untouched.
+    write_file(dir + "/plan.toml", read_file(demo()));
+    const std::string before = read_file(dir + "/plan.toml");
+    for (const std::string& cmd :
+         {"storm " + dir + "/plan.toml" + onset,
+          "shielding " + dir + "/plan.toml --location hab-deck",
+          "shelter " + dir + "/plan.toml --event design-spe --location storm-shelter"}) {
+        const Run clash = run(cmd + " --out " + dir + "/plan.toml");
+        INFO(cmd << "\n" << clash.out);
+        CHECK(clash.exit_code == 2);
+        CHECK(clash.out.find("--out") != std::string::npos);
+        CHECK(read_file(dir + "/plan.toml") == before);
+    }
 }
