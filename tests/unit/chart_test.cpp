@@ -1,0 +1,185 @@
+// The charts of check and shelter (--chart): a panel per crew member, the limit lines and the
+// cautions, every curve from the ledger's or the sizing's own numbers, and a dose that was not
+// computed drawn as such, never as a value and never within a limit.
+#include "fixture.hpp"
+#include "svg_check.hpp"
+
+#include "planner/report/check_chart.hpp"
+#include "planner/report/number_format.hpp"
+#include "planner/study/ledger.hpp"
+#include "planner/study/study.hpp"
+
+#include <catch2/catch.hpp>
+#include <fmt/format.h>
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+
+using namespace crewdose;
+using namespace crewdose::planner;
+
+namespace {
+
+const double kNaN = std::numeric_limits<double>::quiet_NaN();
+const double kInf = std::numeric_limits<double>::infinity();
+
+} // namespace
+
+namespace {
+
+// An organ as the charts name it (the BFO in capitals, "effective dose" in full).
+std::string chart_name(const std::string& organ) {
+    return organ == "effective" ? "effective dose" : organ_label(organ);
+}
+
+struct HandCheck {
+    Study study;
+    LedgerResult ledger;
+    HandCheck()
+        : study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml")),
+          ledger(build_ledger(study)) {}
+};
+
+} // namespace
+
+TEST_CASE("check chart: a panel per crew member, the limits, the cautions, the ledger's numbers",
+          "[svg][check]") {
+    const HandCheck hand;
+    const std::string doc = format_check_chart(hand.study, hand.ledger);
+    const auto elements = svg_check::parse(doc);
+    CHECK(format_check_chart(hand.study, hand.ledger) == doc); // deterministic
+    // The cautions, visible: the lines of the boxed note, read in order, say them whole.
+    std::string note;
+    for (const auto& e : elements) {
+        if (e.name == "text" && e.attributes.count("class") && e.attributes.at("class") == "note") {
+            note += (note.empty() ? "" : " ") + e.text;
+        }
+    }
+    CHECK(note.find("Any limit it shows is a planning value; the limits that apply to a crew "
+                    "come from the responsible agency. These results support, and never "
+                    "replace, review by licensed radiation-protection staff.") !=
+          std::string::npos);
+    // One panel per crew member of the ledger, headed by its id.
+    std::size_t panels = 0;
+    for (const auto& e : elements) {
+        if (e.name == "g" && e.attributes.count("class") && e.attributes.at("class") == "panel") {
+            REQUIRE(panels < hand.ledger.crew.size());
+            CHECK(e.attributes.at("data-heading").find(hand.ledger.crew[panels].crew) !=
+                  std::string::npos);
+            ++panels;
+        }
+    }
+    CHECK(panels == hand.ledger.crew.size());
+    const auto& crew = hand.ledger.crew.at(0);
+    const auto charts = svg_check::charts(elements);
+    REQUIRE(charts.size() == 2);
+    // The event marked, the EVA shaded in its labelled row.
+    CHECK(doc.find("SPE spe: flare seen") != std::string::npos);
+    CHECK(doc.find("class=\"lane\"") != std::string::npos);
+    CHECK(doc.find(">EVA</text>") != std::string::npos);
+
+    // Coordinates: the last point of the career curve is the ledger's career dose (by
+    // construction: the ledger's own number), read back through the chart's y ticks.
+    const auto& career = charts[1];
+    REQUIRE(career.paths.size() == 1);
+    const std::string career_organ =
+        career.paths.begin()->first.substr(0, career.paths.begin()->first.find(": career dose"));
+    const auto stretches = svg_check::path_points(career.paths.begin()->second);
+    REQUIRE(stretches.size() == 1);
+    const double tol = 2 * 0.01 * career.y.per_pixel();
+    // The ledger's career dose of the organ named by the chart (as the chart names it: chart_name).
+    double ledger_career = kNaN;
+    for (const auto& o : crew.organs) {
+        if (chart_name(o.organ) == career_organ) {
+            ledger_career = o.career_mGyEq;
+        }
+    }
+    REQUIRE(std::isfinite(ledger_career));
+    CHECK(career.y.value_at(stretches[0].back().second) == Approx(ledger_career).margin(tol));
+    // The first point, at the mission start, holds the prior total: by construction of the
+    // fixture, 7 mGy-Eq for the BFO (its prior_totals) and nothing for any other organ.
+    CHECK(career.y.value_at(stretches[0].front().second) ==
+          Approx(career_organ == "BFO" ? 7.0 : 0.0).margin(tol));
+    // The rolling curve's highest point is the ledger's highest 30-day dose (its window end
+    // is one of the times drawn), and no point is above it.
+    const auto& rolling = charts[0];
+    REQUIRE(rolling.paths.size() == 1);
+    const std::string rolling_organ =
+        rolling.paths.begin()->first.substr(0, rolling.paths.begin()->first.find(": 30-day dose"));
+    double ledger_max = kNaN;
+    for (const auto& o : crew.organs) {
+        if (chart_name(o.organ) == rolling_organ) {
+            ledger_max = o.max_30d.dose_mGyEq;
+        }
+    }
+    REQUIRE(std::isfinite(ledger_max));
+    double highest = -kInf;
+    const auto rolling_points = svg_check::path_points(rolling.paths.begin()->second);
+    REQUIRE(rolling_points.size() == 1);
+    for (const auto& [x, y] : rolling_points[0]) {
+        highest = std::max(highest, rolling.y.value_at(y));
+    }
+    CHECK(highest == Approx(ledger_max).margin(2 * 0.01 * rolling.y.per_pixel()));
+    // The limit lines with their values (by construction: the scenario's planning limits of
+    // the organs drawn), each in its chart.
+    std::size_t limits_found = 0;
+    for (const auto& c : crew.checks) {
+        const bool drawn =
+            (c.limit.window == "30-day" && chart_name(c.limit.organ) == rolling_organ) ||
+            (c.limit.window == "career" && chart_name(c.limit.organ) == career_organ);
+        if (!drawn) {
+            continue;
+        }
+        const std::string label =
+            fmt::format("{} planning limit {} {}", c.limit.window, significant(c.limit.value, 3),
+                        c.limit.organ == "effective" ? "mSv" : "mGy-Eq");
+        const auto& texts = (c.limit.window == "30-day" ? rolling : career).texts;
+        CHECK(std::find(texts.begin(), texts.end(), label) != texts.end());
+        ++limits_found;
+    }
+    CHECK(limits_found == 2);
+}
+
+TEST_CASE("check chart: a dose not computed in the ledger is drawn as not computed, never "
+          "within",
+          "[svg][check]") {
+    HandCheck hand;
+    auto& crew = hand.ledger.crew.at(0);
+    // Every piece of every organ from the EVA on is not a number: the curves must stop there.
+    for (auto& [key, pieces] : hand.ledger.pieces) {
+        for (auto& p : pieces) {
+            if (p.activity.find("eva") != std::string::npos) {
+                p.dose.rbe_weighted_GyEq = kNaN;
+            }
+        }
+    }
+    for (auto& c : crew.checks) {
+        c.dose = kNaN;
+        c.exceeded = true;
+    }
+    for (auto& o : crew.organs) {
+        o.career_mGyEq = kNaN;
+        o.max_30d.dose_mGyEq = kNaN;
+    }
+    const std::string doc = format_check_chart(hand.study, hand.ledger);
+    const auto charts = svg_check::charts(svg_check::parse(doc));
+    REQUIRE(charts.size() == 2);
+    for (const auto& chart : charts) {
+        CHECK(std::find(chart.texts.begin(), chart.texts.end(), "not computed") !=
+              chart.texts.end());
+        REQUIRE(chart.paths.size() == 1);
+        // By construction of the fixture the EVA starts on day 9 + 5/24 (2032-01-10T05:00:00Z);
+        // no point from it on is drawn.
+        const double eva_day = 9.0 + 5.0 / 24.0;
+        for (const auto& stretch : svg_check::path_points(chart.paths.begin()->second)) {
+            for (const auto& point : stretch) {
+                CHECK(chart.x.value_at(point.first) < eva_day - 1e-3);
+            }
+        }
+    }
+    // The heading never calls a dose that was not computed within a limit.
+    CHECK(doc.find("within") == std::string::npos);
+    CHECK(doc.find("EXCEEDED") != std::string::npos);
+    CHECK(doc.find("(the ledger&apos;s): not computed.") != std::string::npos);
+}
