@@ -1,8 +1,11 @@
 // The shelter command: the least areal density that keeps a design event within the targets.
+#include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/report/shelter_chart.hpp"
 #include "planner/report/shelter_report.hpp"
 #include "planner/study/study.hpp"
 
+#include <filesystem>
 #include <memory>
 #include <string>
 #include <vector>
@@ -19,6 +22,7 @@ Command add_shelter_command(CLI::App& app) {
         std::vector<std::string> shelter_targets;
         std::string shelter_layer;
         double shelter_max = 200.0;
+        std::string chart_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -47,7 +51,7 @@ Command add_shelter_command(CLI::App& app) {
             "crew's other 30-day dose alone already reaches is said so (no shelter can meet it; "
             "exit 1).\nExample: crewdose "
             "shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter "
-            "--material water --material polyethylene --target bfo=150");
+            "--material water --material polyethylene --target bfo=150 --chart shelter.svg");
         shelter->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
         shelter->add_option("--event,-e", event_id, "the design event (an event id)")->required();
         shelter->add_option("--location,-l", location_id, "the shelter's location id")->required();
@@ -62,6 +66,11 @@ Command add_shelter_command(CLI::App& app) {
         shelter->add_option("--max-g-cm2", shelter_max, "largest areal density to try")
             ->capture_default_str();
         shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+        shelter->add_option("--chart", o->chart_path,
+                            "also draw a chart to this SVG file: per material, the event's dose "
+                            "in the shelter plus the crew's other 30-day dose against the added "
+                            "areal density, with the target line and each material's answer "
+                            "marked (written only when the sizing completes)");
 
         return shelter;
     }();
@@ -75,8 +84,20 @@ Command add_shelter_command(CLI::App& app) {
                 auto& shelter_layer = o->shelter_layer;
                 auto& shelter_max = o->shelter_max;
                 const auto fmt_choice = planner::parse_output_format(format);
-
-                const planner::Study study(planner::load_scenario(scenario_path));
+                // A path that cannot be written fails now, before the computation.
+                planner::refuse_unwritable_outputs({{"--chart", o->chart_path}});
+                auto sc = planner::load_scenario(scenario_path);
+                std::vector<planner::NamedFile> inputs{{"scenario", scenario_path}};
+                for (const auto& loc : sc.locations) {
+                    if (loc.shielding_table_file) {
+                        inputs.push_back({"shielding table",
+                                          (std::filesystem::path(scenario_path).parent_path() /
+                                           *loc.shielding_table_file)
+                                              .string()});
+                    }
+                }
+                planner::refuse_clashing_outputs(inputs, {{"--chart", o->chart_path}});
+                const planner::Study study(std::move(sc));
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;
@@ -91,7 +112,12 @@ Command add_shelter_command(CLI::App& app) {
                 }
                 request.max_g_cm2 = shelter_max;
                 const auto report = planner::size_shelter(study, request);
-                write_stdout(planner::format_shelter_report(study, report, fmt_choice));
+                const std::string text = planner::format_shelter_report(study, report, fmt_choice);
+                if (!o->chart_path.empty()) {
+                    planner::write_file_atomically(
+                        o->chart_path, planner::format_shelter_chart(study, report), "--chart");
+                }
+                write_stdout(text);
                 for (const auto& a : report.answers) {
                     if (!a.achievable) {
                         return 1;

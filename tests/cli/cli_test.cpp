@@ -705,6 +705,29 @@ TEST_CASE("shelter: sizes per material, says when a target cannot be met, reject
           std::string::npos);
 }
 
+TEST_CASE("shelter: --chart draws the dose against added material with the target",
+          "[cli][shelter][svg]") {
+    const std::string dir = temp_dir();
+    const std::string base = "shelter " + demo() + " --event design-spe --location storm-shelter";
+    const Run r = run(base + " --material water --target bfo=40 --chart " + dir + "/shelter.svg");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    const std::string svg = read_file(dir + "/shelter.svg");
+    const auto charts = svg_check::charts(svg_check::parse(svg));
+    // One chart, the BFO's (the organ whose target sets the answer), with water's curve, the
+    // target line (by construction: --target bfo=40) and the answer marked.
+    REQUIRE(charts.size() == 1);
+    CHECK(charts[0].paths.count("water") == 1);
+    CHECK(svg.find(">target 40.0 mGy-Eq</text>") != std::string::npos);
+    CHECK(svg.find(">water: ") != std::string::npos);
+    CHECK(svg.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    // A folder that does not exist: exit 2 naming the option, before any computation.
+    const Run bad = run(base + " --chart " + dir + "/none/shelter.svg");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("command line: --chart: cannot write '") != std::string::npos);
+    CHECK(!std::filesystem::exists(dir + "/none"));
+}
+
 TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
     const std::string base = "storm " + demo() + " --event design-spe";
     const Run one = run(base + " --onset 2032-03-09T13:00:00Z");

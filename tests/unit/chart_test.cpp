@@ -4,8 +4,10 @@
 #include "fixture.hpp"
 #include "svg_check.hpp"
 
+#include "planner/analyses/shelter.hpp"
 #include "planner/report/check_chart.hpp"
 #include "planner/report/number_format.hpp"
+#include "planner/report/shelter_chart.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
 
@@ -182,4 +184,64 @@ TEST_CASE("check chart: a dose not computed in the ledger is drawn as not comput
     CHECK(doc.find("within") == std::string::npos);
     CHECK(doc.find("EXCEEDED") != std::string::npos);
     CHECK(doc.find("(the ledger&apos;s): not computed.") != std::string::npos);
+}
+
+TEST_CASE("shelter chart: a curve per material through the sizing's table, the target, the "
+          "answers",
+          "[svg][shelter]") {
+    // A sizing result written by hand (no physics: the chart only reads it) at a location of
+    // the hand fixture. By construction: the BFO target 40 mGy-Eq, the crew's other 30-day BFO
+    // dose 10; water's table 50, 30 and 20 mGy-Eq of event dose at 0, 5 and 10 g/cm2 with its
+    // answer at 7.5; polyethylene's table with a point not computed at 5 g/cm2.
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    ShelterReport rep;
+    rep.request.event_id = "spe";
+    rep.request.location_id = "free";
+    rep.target_mGyEq = {{"bfo", 40.0}, {"lens", 1000.0}};
+    rep.other_30d_mGyEq = {{"bfo", 10.0}, {"lens", 12.0}};
+    ShelterAnswer water;
+    water.material = "water";
+    water.achievable = true;
+    water.areal_density_g_cm2 = 7.5;
+    water.thickness_cm = 7.5;
+    water.binding_organ = "bfo";
+    for (const auto& [g, d] : {std::pair{0.0, 50.0}, {5.0, 30.0}, {10.0, 20.0}}) {
+        water.curve.push_back({g, {{"bfo", d}, {"lens", 2 * d}}});
+    }
+    ShelterAnswer poly = water;
+    poly.material = "polyethylene";
+    poly.areal_density_g_cm2 = 7.0;
+    poly.curve[1].event_mGyEq["bfo"] = kNaN;
+    rep.answers = {water, poly};
+
+    const std::string doc = format_shelter_chart(study, rep);
+    CHECK(format_shelter_chart(study, rep) == doc); // deterministic
+    const auto charts = svg_check::charts(svg_check::parse(doc));
+    // One chart: the BFO's, whose target sets both answers; the lens sets none.
+    REQUIRE(charts.size() == 1);
+    const auto& c = charts[0];
+    CHECK(std::find(c.texts.begin(), c.texts.end(), "target 40.0 mGy-Eq") != c.texts.end());
+    CHECK(doc.find(">crew&apos;s other 30-day dose 10.0 mGy-Eq (in every point)</text>") !=
+          std::string::npos);
+    CHECK(std::find(c.texts.begin(), c.texts.end(), "water: 7.50 g/cm2") != c.texts.end());
+    CHECK(std::find(c.texts.begin(), c.texts.end(), "polyethylene: 7.00 g/cm2") != c.texts.end());
+    CHECK(doc.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    // Each point is the event's dose plus the other 30-day dose (by construction: 30 + 10 at
+    // 5 g/cm2), where the axes' ticks put it.
+    const auto water_points = svg_check::path_points(c.paths.at("water"));
+    REQUIRE(water_points.size() == 1);
+    REQUIRE(water_points[0].size() == 3);
+    const double tol_y = 2 * 0.01 * c.y.per_pixel();
+    const double tol_x = 2 * 0.01 * c.x.per_pixel();
+    CHECK(c.x.value_at(water_points[0][1].first) == Approx(5.0).margin(tol_x));
+    CHECK(c.y.value_at(water_points[0][1].second) == Approx(40.0).margin(tol_y));
+    CHECK(c.y.value_at(water_points[0][2].second) == Approx(30.0).margin(tol_y));
+    // The point not computed is not drawn: the polyethylene line breaks into two lone points,
+    // and the stretch says "not computed".
+    const auto poly_points = svg_check::path_points(c.paths.at("polyethylene"));
+    REQUIRE(poly_points.size() == 2);
+    CHECK(poly_points[0].size() == 1);
+    CHECK(poly_points[1].size() == 1);
+    CHECK(c.x.value_at(poly_points[1][0].first) == Approx(10.0).margin(tol_x));
+    CHECK(std::find(c.texts.begin(), c.texts.end(), "not computed") != c.texts.end());
 }
