@@ -69,8 +69,9 @@ Command add_check_command(CLI::App& app) {
             "also draw a chart to this SVG file: per crew member, the dose in the 30 days up to "
             "each day and the career dose along the timeline, each for the organ whose limit of "
             "that window has the highest share used, against its planning limit line; EVAs, "
-            "rover drives and shelter stays shaded, events marked (written only when the check "
-            "completes)");
+            "rover drives and shelter stays hatched, events marked; the cautions on top, and a "
+            "dose that was not computed drawn as a gap labelled so, never as a value (written "
+            "only when the check completes)");
         check
             ->add_option("--near", o->near_percent,
                          "a dose at this percentage of its limit or more is flagged 'near' in the "

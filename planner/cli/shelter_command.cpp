@@ -70,7 +70,8 @@ Command add_shelter_command(CLI::App& app) {
                             "also draw a chart to this SVG file: per material, the event's dose "
                             "in the shelter plus the crew's other 30-day dose against the added "
                             "areal density, with the target line and each material's answer "
-                            "marked (written only when the sizing completes)");
+                            "marked; the cautions on top (written only when the sizing "
+                            "completes)");
 
         return shelter;
     }();
