@@ -5,11 +5,13 @@
 #include "planner/scenario/time_format.hpp"
 
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <cmath>
 #include <limits>
 #include <set>
+#include <stdexcept>
 
 namespace crewdose::planner {
 namespace {
@@ -21,11 +23,6 @@ const time_duration kThirtyDays = boost::posix_time::hours(24 * 30);
 // The unit of an organ's ledger: the effective dose is in mSv, every organ dose in mGy-Eq.
 const char* unit_of(const std::string& organ) {
     return organ == "effective" ? "mSv" : "mGy-Eq";
-}
-
-// An organ's name in a chart: "effective dose" says what the "effective" ledger holds.
-std::string organ_name(const std::string& organ) {
-    return organ == "effective" ? std::string("effective dose") : organ_label(organ);
 }
 
 // A number for a chart's text: a value that was not computed says so, never a number.
@@ -130,9 +127,8 @@ svg::Chart rolling_chart(const Scenario& sc, const Timeline& tl, const CrewSpec&
                          const std::vector<DosePiece>& pieces) {
     const std::string& o = check.limit.organ;
     svg::Chart c = timeline_chart(sc, tl, crew);
-    c.title = fmt::format("30-day dose of the {}: the dose in the 30 days up to each time (its "
-                          "30-day limit has the highest share used)",
-                          organ_name(o));
+    c.title =
+        fmt::format("30-day {} dose: the dose in the 30 days up to each time", organ_label(o));
     c.y.title = fmt::format("30-day dose ({})", unit_of(o));
     std::vector<Time> extra;
     if (organ.max_30d.dose_mGyEq > 0.0) {
@@ -147,7 +143,7 @@ svg::Chart rolling_chart(const Scenario& sc, const Timeline& tl, const CrewSpec&
     const auto to = cumulative_at(pieces, times);
     const auto from = cumulative_at(pieces, before);
     svg::Series s;
-    s.label = organ_name(o) + ": 30-day dose";
+    s.label = fmt::format("30-day {} dose", organ_label(o));
     for (std::size_t i = 0; i < times.size(); ++i) {
         double d = to[i] - from[i];
         // A difference of two sums can come out a rounding error below zero; anything more
@@ -161,13 +157,16 @@ svg::Chart rolling_chart(const Scenario& sc, const Timeline& tl, const CrewSpec&
     c.series.push_back(std::move(s));
     c.levels.push_back({check.limit.value, fmt::format("30-day planning limit {} {}",
                                                        shown(check.limit.value), unit_of(o))});
+    c.notes.push_back(fmt::format("Drawn for the {}: of this crew member's 30-day limits, the "
+                                  "one with the highest share used.",
+                                  o == "effective" ? "effective dose" : organ_label(o)));
     c.notes.push_back(organ.max_30d.dose_mGyEq > 0.0
-                          ? fmt::format("Highest 30-day dose (the ledger's): {} {}, {} to {}.",
-                                        shown(organ.max_30d.dose_mGyEq), unit_of(o),
+                          ? fmt::format("Highest 30-day dose (the ledger's): {}, {} to {}.",
+                                        amount(organ.max_30d.dose_mGyEq, unit_of(o)),
                                         format_time(organ.max_30d.window_start),
                                         format_time(organ.max_30d.window_end))
-                          : fmt::format("Highest 30-day dose (the ledger's): {} {}.",
-                                        shown(organ.max_30d.dose_mGyEq), unit_of(o)));
+                          : fmt::format("Highest 30-day dose (the ledger's): {}.",
+                                        amount(organ.max_30d.dose_mGyEq, unit_of(o))));
     return c;
 }
 
@@ -176,14 +175,12 @@ svg::Chart career_chart(const Scenario& sc, const Timeline& tl, const CrewSpec& 
                         const std::vector<DosePiece>& pieces) {
     const std::string& o = check.limit.organ;
     svg::Chart c = timeline_chart(sc, tl, crew);
-    c.title = fmt::format("Career dose of the {}: the prior dose plus the mission so far (its "
-                          "career limit has the highest share used)",
-                          organ_name(o));
+    c.title = fmt::format("Career {} dose: the prior dose plus the mission so far", organ_label(o));
     c.y.title = fmt::format("career dose ({})", unit_of(o));
     const auto times = sample_times(tl, pieces, {});
     const auto cumulative = cumulative_at(pieces, times);
     svg::Series s;
-    s.label = organ_name(o) + ": career dose";
+    s.label = fmt::format("career {} dose", organ_label(o));
     for (std::size_t i = 0; i < times.size(); ++i) {
         s.x.push_back(tl.days(times[i]));
         s.y.push_back(cumulative[i]);
@@ -191,6 +188,9 @@ svg::Chart career_chart(const Scenario& sc, const Timeline& tl, const CrewSpec& 
     c.series.push_back(std::move(s));
     c.levels.push_back({check.limit.value, fmt::format("career planning limit {} {}",
                                                        shown(check.limit.value), unit_of(o))});
+    c.notes.push_back(fmt::format("Drawn for the {}: of this crew member's career limits, the "
+                                  "one with the highest share used.",
+                                  o == "effective" ? "effective dose" : organ_label(o)));
     c.notes.push_back(fmt::format("Career dose at the mission end (the ledger's): {}.",
                                   amount(organ.career_mGyEq, unit_of(o))));
     return c;
@@ -238,8 +238,10 @@ svg::Figure check_figure(const Study& study, const LedgerResult& ledger, double 
         const auto crew_spec = std::find_if(sc.crew.begin(), sc.crew.end(),
                                             [&](const CrewSpec& s) { return s.id == c.crew; });
         if (crew_spec == sc.crew.end()) {
-            continue; // the ledger is built from sc.crew: not reached
+            throw std::logic_error("check_figure: crew member '" + c.crew +
+                                   "' of the ledger is not in the scenario");
         }
+        std::vector<std::string> drawn; // the organ of each chart
         for (const char* window : {"30-day", "career"}) {
             const LimitCheck* check = highest_share(c, window);
             if (!check) {
@@ -256,6 +258,26 @@ svg::Figure check_figure(const Study& study, const LedgerResult& ledger, double 
                 std::string(window) == "30-day"
                     ? rolling_chart(sc, tl, *crew_spec, *check, *organ, pieces->second)
                     : career_chart(sc, tl, *crew_spec, *check, *organ, pieces->second));
+            drawn.push_back(check->limit.organ);
+        }
+        // What the text report says about organs the body model does not give or bounds.
+        for (std::size_t k = 0; k < p.charts.size(); ++k) {
+            if (const auto it = c.estimated.find(drawn[k]); it != c.estimated.end()) {
+                p.charts[k].notes.push_back(fmt::format(
+                    "The {} dose is an upper bound where the quick body model stands "
+                    "({}).",
+                    organ_label(drawn[k]), fmt::format("{}", fmt::join(it->second, ", "))));
+            }
+        }
+        if (!c.not_evaluated.empty() && !p.charts.empty()) {
+            std::vector<std::string> organs;
+            for (const auto& [organ, locations] : c.not_evaluated) {
+                organs.push_back(organ_label(organ));
+            }
+            p.charts.front().notes.push_back(
+                fmt::format("Not evaluated for this crew member, so not drawn: {} (the quick body "
+                            "model gives no such dose; see the report).",
+                            fmt::join(organs, ", ")));
         }
         f.panels.push_back(std::move(p));
     }

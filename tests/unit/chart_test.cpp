@@ -30,9 +30,11 @@ const double kInf = std::numeric_limits<double>::infinity();
 
 namespace {
 
-// An organ as the charts name it (the BFO in capitals, "effective dose" in full).
-std::string chart_name(const std::string& organ) {
-    return organ == "effective" ? "effective dose" : organ_label(organ);
+// The organ a series label names: "30-day lens dose", "career effective dose" -> "lens",
+// "effective" (organ_label's spelling: "BFO" for the bfo).
+std::string organ_of_label(const std::string& label) {
+    const std::size_t first = label.find(' ') + 1;
+    return label.substr(first, label.rfind(" dose") - first);
 }
 
 struct HandCheck {
@@ -85,15 +87,15 @@ TEST_CASE("check chart: a panel per crew member, the limits, the cautions, the l
     // construction: the ledger's own number), read back through the chart's y ticks.
     const auto& career = charts[1];
     REQUIRE(career.paths.size() == 1);
-    const std::string career_organ =
-        career.paths.begin()->first.substr(0, career.paths.begin()->first.find(": career dose"));
+    const std::string career_organ = organ_of_label(career.paths.begin()->first);
+    REQUIRE(career.paths.begin()->first == "career " + career_organ + " dose");
     const auto stretches = svg_check::path_points(career.paths.begin()->second);
     REQUIRE(stretches.size() == 1);
     const double tol = 2 * 0.01 * career.y.per_pixel();
-    // The ledger's career dose of the organ named by the chart (as the chart names it: chart_name).
+    // The ledger's career dose of the organ the chart names.
     double ledger_career = kNaN;
     for (const auto& o : crew.organs) {
-        if (chart_name(o.organ) == career_organ) {
+        if (organ_label(o.organ) == career_organ) {
             ledger_career = o.career_mGyEq;
         }
     }
@@ -107,11 +109,11 @@ TEST_CASE("check chart: a panel per crew member, the limits, the cautions, the l
     // is one of the times drawn), and no point is above it.
     const auto& rolling = charts[0];
     REQUIRE(rolling.paths.size() == 1);
-    const std::string rolling_organ =
-        rolling.paths.begin()->first.substr(0, rolling.paths.begin()->first.find(": 30-day dose"));
+    const std::string rolling_organ = organ_of_label(rolling.paths.begin()->first);
+    REQUIRE(rolling.paths.begin()->first == "30-day " + rolling_organ + " dose");
     double ledger_max = kNaN;
     for (const auto& o : crew.organs) {
-        if (chart_name(o.organ) == rolling_organ) {
+        if (organ_label(o.organ) == rolling_organ) {
             ledger_max = o.max_30d.dose_mGyEq;
         }
     }
@@ -128,8 +130,8 @@ TEST_CASE("check chart: a panel per crew member, the limits, the cautions, the l
     std::size_t limits_found = 0;
     for (const auto& c : crew.checks) {
         const bool drawn =
-            (c.limit.window == "30-day" && chart_name(c.limit.organ) == rolling_organ) ||
-            (c.limit.window == "career" && chart_name(c.limit.organ) == career_organ);
+            (c.limit.window == "30-day" && organ_label(c.limit.organ) == rolling_organ) ||
+            (c.limit.window == "career" && organ_label(c.limit.organ) == career_organ);
         if (!drawn) {
             continue;
         }
@@ -141,6 +143,19 @@ TEST_CASE("check chart: a panel per crew member, the limits, the cautions, the l
         ++limits_found;
     }
     CHECK(limits_found == 2);
+    // By construction of the fixture both locations use the quick body model (the default):
+    // the heart and brain are not evaluated and the effective dose is an upper bound; the
+    // charts say so as the text report does.
+    REQUIRE(crew.not_evaluated.count("heart") == 1);
+    REQUIRE(crew.estimated.count("effective") == 1);
+    CHECK(doc.find("Not evaluated for this crew member, so not drawn: brain, heart") !=
+          std::string::npos);
+    // (The career chart draws the effective dose: in free space its upper bound is thousands
+    // of mSv against 600, the highest share of the career limits; lens and skin have 4000 and
+    // 6000 mGy-Eq.)
+    REQUIRE(career_organ == "effective");
+    CHECK(doc.find("The effective dose is an upper bound where the quick body model stands "
+                   "(free, free-too).") != std::string::npos);
 }
 
 TEST_CASE("check chart: a dose not computed in the ledger is drawn as not computed, never "
