@@ -155,6 +155,9 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
         yr.add(0.0);
         yr.add(1.0);
     }
+    if (c.x.from_zero) {
+        xr.add(0.0);
+    }
     if (c.y.from_zero) {
         yr.add(0.0);
     }
@@ -184,10 +187,11 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
             continue;
         }
         const double w = std::max(1.0, X(x1) - X(x0));
-        out += fmt::format(
-            R"(<rect class="band" x="{}" y="{}" width="{}" height="{}" fill="{}" fill-opacity="0.6"/>)"
-            "\n",
-            num(X(x0)), num(plot_top), num(w), num(kPlotHeight), band_fill(id, b.kind));
+        out +=
+            fmt::format(R"(<rect class="band" x="{}" y="{}" width="{}" height="{}" fill="{}" )"
+                        R"(fill-opacity="0.6"/>)"
+                        "\n",
+                        num(X(x0)), num(plot_top), num(w), num(kPlotHeight), band_fill(id, b.kind));
     }
     // Grid and y ticks.
     for (const double v : yt.values) {
@@ -248,22 +252,24 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
         std::size_t run = 0; // points in the current unbroken stretch
         std::size_t missing = 0;
         std::size_t first_missing = n;
+        std::size_t last_missing = n;
+        std::size_t last_drawn = n;
         std::optional<double> last_y;
-        const auto close_run = [&](std::size_t j) {
+        const auto close_run = [&] {
             // A lone point has no line: mark it so that it is seen.
             if (run == 1 && !s.show_points) {
                 points += fmt::format(R"(<circle cx="{}" cy="{}" r="2.5" fill="{}"/>)"
                                       "\n",
-                                      num(X(s.x[j - 1])), num(Y(s.y[j - 1])), colour(i));
+                                      num(X(s.x[last_drawn])), num(Y(s.y[last_drawn])), colour(i));
             }
             run = 0;
         };
-        const auto close_gap = [&](std::size_t j) {
+        const auto close_gap = [&] {
             if (first_missing == n) {
                 return;
             }
             const double x0 = X(s.x[first_missing]);
-            const double x1 = X(s.x[j - 1]);
+            const double x1 = X(s.x[last_missing]);
             out += fmt::format(R"(<rect class="not-computed" x="{}" y="{}" width="{}" )"
                                R"(height="{}" fill="none" stroke="#000000" )"
                                R"(stroke-dasharray="1 2"/>)"
@@ -278,10 +284,11 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
                 continue;
             }
             if (drawable(s.y[j], c.y_non_negative)) {
-                close_gap(j);
+                close_gap();
                 d += fmt::format("{}{},{}", run == 0 ? (d.empty() ? "M" : " M") : " L",
                                  num(X(s.x[j])), num(Y(s.y[j])));
                 ++run;
+                last_drawn = j;
                 last_y = s.y[j];
                 if (s.show_points) {
                     points += fmt::format(R"(<circle cx="{}" cy="{}" r="3" fill="#ffffff" )"
@@ -291,18 +298,19 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
                 }
             } else {
                 if (run > 0) {
-                    close_run(j);
+                    close_run();
                 }
                 if (first_missing == n) {
                     first_missing = j;
                 }
+                last_missing = j;
                 ++missing;
             }
         }
         if (run > 0) {
-            close_run(n);
+            close_run();
         }
-        close_gap(n);
+        close_gap();
         if (!d.empty()) {
             out += fmt::format(R"(<path class="series" data-label="{}" d="{}" fill="none" )"
                                R"(stroke="{}" stroke-width="2" stroke-linejoin="round"{}/>)"

@@ -5,6 +5,7 @@
 #include "planner/report/svg_plot.hpp"
 
 #include <catch2/catch.hpp>
+#include <fmt/format.h>
 
 #include <algorithm>
 #include <cmath>
@@ -134,6 +135,13 @@ TEST_CASE("svg: a value that was not computed is never drawn as a value", "[svg]
     const double tol = 2 * 0.01 * axis.per_pixel();
     CHECK(axis.value_at(stretches[1][0].second) == Approx(3.0).margin(tol));
     CHECK(axis.value_at(stretches[2][0].second) == Approx(5.0).margin(tol));
+    // A lone point has no line, so it gets a dot, at the point itself (by construction: the
+    // path's own coordinates).
+    CHECK(count(doc, "<circle ") == 2);
+    for (const auto& lone : {stretches[1][0], stretches[2][0]}) {
+        CHECK(doc.find(fmt::format(R"(<circle cx="{:.2f}" cy="{:.2f}")", lone.first,
+                                   lone.second)) != std::string::npos);
+    }
     // Two stretches not computed (2, and 4-5), each labelled; the chart's note counts them.
     CHECK(count(doc, ">not computed</text>") == 2);
     CHECK(doc.find("dose: 3 of 7 values not computed") != std::string::npos);
