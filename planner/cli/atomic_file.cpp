@@ -121,6 +121,32 @@ void write_file_atomically(const std::string& path, const std::string& contents,
     tmp.keep();
 }
 
+void refuse_unwritable_outputs(const std::vector<NamedFile>& outputs) {
+    for (const auto& out : outputs) {
+        if (out.path.empty()) {
+            continue;
+        }
+        const fs::path target(out.path);
+        std::error_code ec;
+        if (target.filename().empty() || fs::is_directory(target, ec)) {
+            throw InputError(kCommandLine, out.option,
+                             fmt::format("'{}' is a folder; give a file name", out.path));
+        }
+        const fs::path folder = target.parent_path().empty() ? fs::path(".") : target.parent_path();
+        if (!fs::is_directory(folder, ec)) {
+            throw InputError(kCommandLine, out.option,
+                             fmt::format("cannot write '{}': the folder '{}' does not exist",
+                                         out.path, folder.string()));
+        }
+        if (::access(folder.c_str(), W_OK | X_OK) != 0) {
+            throw InputError(kCommandLine, out.option,
+                             fmt::format("cannot write '{}': the folder '{}' is not writable "
+                                         "({})",
+                                         out.path, folder.string(), std::strerror(errno)));
+        }
+    }
+}
+
 void refuse_clashing_outputs(const std::vector<NamedFile>& inputs,
                              const std::vector<NamedFile>& outputs) {
     for (std::size_t i = 0; i < outputs.size(); ++i) {

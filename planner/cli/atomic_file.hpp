@@ -22,6 +22,12 @@ struct NamedFile {
     std::string path;
 };
 
+/// InputError (field: the output's option) when an output cannot be written where it is named:
+/// the path is a folder, or its folder does not exist or is not writable. Checked before a run,
+/// so that a bad path costs no computation and nothing is written; write_file_atomically still
+/// reports anything that goes wrong later. Outputs with an empty path are skipped.
+void refuse_unwritable_outputs(const std::vector<NamedFile>& outputs);
+
 /// InputError when an output names the same file as an input (the scenario, a shielding table)
 /// or as another output: the same path after resolving '.', '..' and links, or the same file
 /// under another name (a hard link). Outputs with an empty path are skipped.

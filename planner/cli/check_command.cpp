@@ -1,6 +1,7 @@
 // The check command: every crew member's doses along the timeline against the limits.
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/report/check_chart.hpp"
 #include "planner/report/check_report.hpp"
 #include "planner/study/ledger.hpp"
 
@@ -22,6 +23,7 @@ Command add_check_command(CLI::App& app) {
         std::string scenario_path;
         std::string out_path;
         std::string series_path;
+        std::string chart_path;
         bool allow_gaps = false;
         double near_percent = 100.0 * planner::kDefaultNearShare;
     };
@@ -48,7 +50,7 @@ Command add_check_command(CLI::App& app) {
             "minimum, 1000 MV or more near maximum, for the Burger et al. 2000 interstellar "
             "spectrum the model uses: a phi derived with another spectrum is not "
             "interchangeable. Without a value the solar-minimum example (400 MV) is used.\n"
-            "Example: crewdose check scenarios/lunar-demo.toml\nExit 0: all "
+            "Example: crewdose check scenarios/lunar-demo.toml --chart doses.svg\nExit 0: all "
             "evaluated limits met; 1: a limit exceeded; 2: bad input; 3: internal fault.");
         check
             ->add_option("scenario", scenario_path, "scenario file (TOML; see scenarios/README.md)")
@@ -62,6 +64,14 @@ Command add_check_command(CLI::App& app) {
             "--series", series_path,
             "also write cumulative dose and dose rate against time per crew member "
             "and organ to this CSV file (a unit column: mGy-Eq, or mSv for the effective dose)");
+        check->add_option(
+            "--chart", o->chart_path,
+            "also draw a chart to this SVG file: per crew member, the dose in the 30 days up to "
+            "each day and the career dose along the timeline, each for the organ whose limit of "
+            "that window has the highest share used, against its planning limit line; EVAs, "
+            "rover drives and shelter stays hatched, events marked; the cautions on top, and a "
+            "dose that was not computed drawn as a gap labelled so, never as a value (written "
+            "only when the check completes)");
         check
             ->add_option("--near", o->near_percent,
                          "a dose at this percentage of its limit or more is flagged 'near' in the "
@@ -86,13 +96,17 @@ Command add_check_command(CLI::App& app) {
                                                  o->near_percent));
                 }
 
+                // A path that cannot be written fails now, before the computation.
+                planner::refuse_unwritable_outputs(
+                    {{"--out", out_path}, {"--series", series_path}, {"--chart", o->chart_path}});
                 auto sc = planner::load_scenario(scenario_path);
                 if (!allow_gaps) {
                     planner::refuse_timeline_gaps(sc);
                 }
                 const planner::Study study(std::move(sc));
-                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
-                                                 {{"--out", out_path}, {"--series", series_path}});
+                planner::refuse_clashing_outputs(
+                    scenario_inputs(study.scenario(), scenario_path),
+                    {{"--out", out_path}, {"--series", series_path}, {"--chart", o->chart_path}});
                 planner::LedgerOptions options;
                 options.allow_gaps = allow_gaps;
                 const auto ledger = planner::build_ledger(study, options);
@@ -104,13 +118,20 @@ Command add_check_command(CLI::App& app) {
                     stamped(planner::format_check_report(study, ledger, fmt_choice, colour,
                                                          o->near_percent / 100.0),
                             fmt_choice, stamp);
-                // Both files are prepared before either is written, so bad input writes nothing.
+                // Every file is prepared before any is written, so bad input writes nothing.
                 const std::string series = series_path.empty()
                                                ? ""
                                                : stamped(planner::format_series(study, ledger),
                                                          planner::OutputFormat::csv, stamp);
+                const std::string chart =
+                    o->chart_path.empty()
+                        ? ""
+                        : planner::format_check_chart(study, ledger, o->near_percent / 100.0);
                 if (!series_path.empty()) {
                     planner::write_file_atomically(series_path, series, "--series");
+                }
+                if (!o->chart_path.empty()) {
+                    planner::write_file_atomically(o->chart_path, chart, "--chart");
                 }
                 write_report(report, out_path);
                 return ledger.any_exceeded ? 1 : 0;

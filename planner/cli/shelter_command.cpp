@@ -1,8 +1,11 @@
 // The shelter command: the least areal density that keeps a design event within the targets.
+#include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/report/shelter_chart.hpp"
 #include "planner/report/shelter_report.hpp"
 #include "planner/study/study.hpp"
 
+#include <filesystem>
 #include <memory>
 #include <string>
 #include <vector>
@@ -20,6 +23,7 @@ Command add_shelter_command(CLI::App& app) {
         std::string shelter_layer;
         double shelter_max = 200.0;
         std::string out_path;
+        std::string chart_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -48,7 +52,7 @@ Command add_shelter_command(CLI::App& app) {
             "crew's other 30-day dose alone already reaches is said so (no shelter can meet it; "
             "exit 1).\nExample: crewdose "
             "shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter "
-            "--material water --material polyethylene --target bfo=150");
+            "--material water --material polyethylene --target bfo=150 --chart shelter.svg");
         shelter->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
         shelter->add_option("--event,-e", event_id, "the design event (an event id)")->required();
         shelter->add_option("--location,-l", location_id, "the shelter's location id")->required();
@@ -64,6 +68,12 @@ Command add_shelter_command(CLI::App& app) {
             ->capture_default_str();
         shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
         shelter->add_option("--out,-o", o->out_path, kOutHelp);
+        shelter->add_option("--chart", o->chart_path,
+                            "also draw a chart to this SVG file: per material, the event's dose "
+                            "in the shelter plus the crew's other 30-day dose against the added "
+                            "areal density, with the target line and each material's answer "
+                            "marked; the cautions on top (written only when the sizing "
+                            "completes)");
 
         return shelter;
     }();
@@ -77,10 +87,14 @@ Command add_shelter_command(CLI::App& app) {
                 auto& shelter_layer = o->shelter_layer;
                 auto& shelter_max = o->shelter_max;
                 const auto fmt_choice = planner::parse_output_format(format);
-
-                const planner::Study study(planner::load_scenario(scenario_path));
-                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
-                                                 {{"--out", o->out_path}});
+                // A path that cannot be written fails now, before the computation.
+                planner::refuse_unwritable_outputs(
+                    {{"--out", o->out_path}, {"--chart", o->chart_path}});
+                auto sc = planner::load_scenario(scenario_path);
+                planner::refuse_clashing_outputs(
+                    scenario_inputs(sc, scenario_path),
+                    {{"--out", o->out_path}, {"--chart", o->chart_path}});
+                const planner::Study study(std::move(sc));
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;
@@ -95,9 +109,14 @@ Command add_shelter_command(CLI::App& app) {
                 }
                 request.max_g_cm2 = shelter_max;
                 const auto report = planner::size_shelter(study, request);
-                write_report(stamped(planner::format_shelter_report(study, report, fmt_choice),
-                                     fmt_choice, run_stamp(&study.scenario())),
-                             o->out_path);
+                const std::string text =
+                    stamped(planner::format_shelter_report(study, report, fmt_choice), fmt_choice,
+                            run_stamp(&study.scenario()));
+                if (!o->chart_path.empty()) {
+                    planner::write_file_atomically(
+                        o->chart_path, planner::format_shelter_chart(study, report), "--chart");
+                }
+                write_report(text, o->out_path);
                 for (const auto& a : report.answers) {
                     if (!a.achievable) {
                         return 1;

@@ -53,6 +53,7 @@ Command add_shielding_command(CLI::App& app) {
                 const auto fmt_choice = planner::parse_output_format(format);
 
                 // One location's view computes that location alone.
+                planner::refuse_unwritable_outputs({{"--out", o->out_path}});
                 const planner::Study study(planner::load_scenario(scenario_path), location_id);
                 planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
                                                  {{"--out", o->out_path}});

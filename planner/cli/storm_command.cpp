@@ -93,6 +93,8 @@ Command add_storm_command(CLI::App& app) {
                     throw InputError({"command line", 0}, "storm",
                                      "give --onset TIME for one what-if or --sweep");
                 }
+                // A path that cannot be written fails now, before the computation.
+                planner::refuse_unwritable_outputs({{"--out", o->out_path}});
                 const planner::Study study(planner::load_scenario(scenario_path));
                 planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
                                                  {{"--out", o->out_path}});

@@ -1,4 +1,5 @@
 // End-to-end runs of the crewdose binary.
+#include "../unit/svg_check.hpp"
 #include "shell_run.hpp"
 
 #include <catch2/catch.hpp>
@@ -483,6 +484,75 @@ TEST_CASE("check: --out and --series are written atomically, and bad input write
     }
 }
 
+TEST_CASE("check: --chart draws every crew member's panel, the same bytes on every run",
+          "[cli][check][svg]") {
+    const std::string dir = temp_dir();
+    const Run r = run("check " + demo() + " --chart " + dir + "/doses.svg");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    const std::string svg = read_file(dir + "/doses.svg");
+    REQUIRE(!svg.empty());
+    const auto elements = svg_check::parse(svg); // throws when not well-formed
+    // A panel per crew member of the demo (by construction: its four [[crew]] entries), in the
+    // scenario's order.
+    std::vector<std::string> headings;
+    for (const auto& e : elements) {
+        if (e.name == "g" && e.attributes.count("class") && e.attributes.at("class") == "panel") {
+            headings.push_back(e.attributes.at("data-heading"));
+        }
+    }
+    REQUIRE(headings.size() == 4);
+    CHECK(headings[0].rfind("Amara Osei (osei): binding limit ", 0) == 0);
+    CHECK(headings[3].rfind("Kenji Marlow (", 0) == 0);
+    // Two charts a crew member, each with its limit line; the cautions; the event.
+    CHECK(svg_check::charts(elements).size() == 8);
+    CHECK(svg.find("30-day planning limit") != std::string::npos);
+    CHECK(svg.find("career planning limit 600 mSv") != std::string::npos);
+    CHECK(svg.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    CHECK(svg.find("SPE design-spe: flare seen") != std::string::npos);
+    // The stdout report is the same as without --chart.
+    CHECK(r.out == run("check " + demo()).out);
+    // Deterministic: a second run writes the same bytes.
+    CHECK(run("check " + demo() + " --chart " + dir + "/again.svg").exit_code == 0);
+    CHECK(read_file(dir + "/again.svg") == svg);
+}
+
+TEST_CASE("check: --chart to a path that cannot be written, or with bad input, writes nothing",
+          "[cli][check][svg]") {
+    const std::string dir = temp_dir();
+    // A folder that does not exist: exit 2 naming the option, and the other outputs of the run
+    // are not written either.
+    const Run missing = run("check " + demo() + " --series " + dir + "/s.csv --chart " + dir +
+                            "/no-such-folder/doses.svg");
+    INFO(missing.out);
+    CHECK(missing.exit_code == 2);
+    CHECK(missing.out.find("command line: --chart: cannot write '") != std::string::npos);
+    CHECK(missing.out.find("does not exist") != std::string::npos);
+    CHECK(!std::filesystem::exists(dir + "/s.csv"));
+    // A folder given as the file.
+    const Run folder = run("check " + demo() + " --chart " + dir);
+    CHECK(folder.exit_code == 2);
+    CHECK(folder.out.find("--chart: '" + dir + "' is a folder; give a file name") !=
+          std::string::npos);
+    // The chart and the report naming one file.
+    const Run clash = run("check " + demo() + " --out " + dir + "/x --chart " + dir + "/x");
+    CHECK(clash.exit_code == 2);
+    CHECK(clash.out.find("--chart: ") != std::string::npos);
+    // A broken scenario: exit 2, an existing chart stays as it was.
+    write_file(dir + "/old.svg", "old chart\n");
+    std::string text = read_file(demo());
+    const auto at = text.find("radius_m = 2.5");
+    REQUIRE(at != std::string::npos);
+    text.replace(at, 14, "radius_m = -2.5");
+    write_file(dir + "/broken.toml", text);
+    const Run bad = run("check " + dir + "/broken.toml --chart " + dir + "/old.svg");
+    CHECK(bad.exit_code == 2);
+    CHECK(read_file(dir + "/old.svg") == "old chart\n");
+    for (const auto& entry : std::filesystem::directory_iterator(dir)) {
+        CHECK(entry.path().filename().string().find("crewdose-") == std::string::npos);
+    }
+}
+
 TEST_CASE("check: --out never writes through a planted link and keeps the file's mode",
           "[cli][check]") {
     const std::string dir = temp_dir();
@@ -640,6 +710,29 @@ TEST_CASE("shelter: sizes per material, says when a target cannot be met, reject
     CHECK(bad_layer.exit_code == 2);
     CHECK(bad_layer.out.find("--layer: solid 'hab-module' has no single layer '9'") !=
           std::string::npos);
+}
+
+TEST_CASE("shelter: --chart draws the dose against added material with the target",
+          "[cli][shelter][svg]") {
+    const std::string dir = temp_dir();
+    const std::string base = "shelter " + demo() + " --event design-spe --location storm-shelter";
+    const Run r = run(base + " --material water --target bfo=40 --chart " + dir + "/shelter.svg");
+    INFO(r.out);
+    CHECK(r.exit_code == 0);
+    const std::string svg = read_file(dir + "/shelter.svg");
+    const auto charts = svg_check::charts(svg_check::parse(svg));
+    // One chart, the BFO's (the organ whose target sets the answer), with water's curve, the
+    // target line (by construction: --target bfo=40) and the answer marked.
+    REQUIRE(charts.size() == 1);
+    CHECK(charts[0].paths.count("water") == 1);
+    CHECK(svg.find(">target 40.0 mGy-Eq</text>") != std::string::npos);
+    CHECK(svg.find(">water: ") != std::string::npos);
+    CHECK(svg.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    // A folder that does not exist: exit 2 naming the option, before any computation.
+    const Run bad = run(base + " --chart " + dir + "/none/shelter.svg");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("command line: --chart: cannot write '") != std::string::npos);
+    CHECK(!std::filesystem::exists(dir + "/none"));
 }
 
 TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
