@@ -4,7 +4,7 @@
 #
 # Each case below is one run of crewdose from the repository root, with the scenario given by
 # its relative path (so no absolute path enters an output). Its standard output is written to
-# tests/expected/NAME (NAME ends in .txt, .json or .csv: how the test compares it), and the
+# tests/expected/NAME (NAME ends in .txt, .json, .csv or .svg: how the test compares it), and the
 # case's name, exit code and arguments to tests/expected/cases.tsv, the manifest that
 # tests/cli/expected_output_test.cpp reads: the list of cases lives here only.
 # An argument @OUT@ is replaced by a temporary file; that file's content, not the standard
@@ -57,6 +57,7 @@ check-lunar.txt           check scenarios/lunar-demo.toml
 check-lunar.json          check scenarios/lunar-demo.toml --format json
 check-lunar.csv           check scenarios/lunar-demo.toml --format csv
 check-lunar-series.csv    check scenarios/lunar-demo.toml --series @OUT@
+check-lunar-chart.svg     check scenarios/lunar-demo.toml --chart @OUT@
 check-mars.txt            check scenarios/mars-demo.toml
 check-mars.json           check scenarios/mars-demo.toml --format json
 check-mars.csv            check scenarios/mars-demo.toml --format csv
@@ -97,8 +98,8 @@ seconds_since() {
 total_start=$(date +%s%N)
 while read -r name args; do
   [[ -z "$name" ]] && continue
-  if [[ ! "$name" =~ ^[a-z0-9-]+\.(txt|json|csv)$ ]]; then
-    echo "update-expected: bad case name '$name' (lower-case, digits, '-', then .txt, .json or .csv)" >&2
+  if [[ ! "$name" =~ ^[a-z0-9-]+\.(txt|json|csv|svg)$ ]]; then
+    echo "update-expected: bad case name '$name' (lower-case, digits, '-', then .txt, .json, .csv or .svg)" >&2
     exit 2
   fi
   if cut -f1 "$manifest" | grep -qxF "$name"; then
@@ -138,7 +139,8 @@ printf '%6s s  in all\n' "$(seconds_since "$total_start")"
 
 # Replace the whole folder's outputs, so a case taken off the list leaves no stale file.
 mkdir -p tests/expected
-rm -f tests/expected/*.txt tests/expected/*.json tests/expected/*.csv tests/expected/cases.tsv
+rm -f tests/expected/*.txt tests/expected/*.json tests/expected/*.csv tests/expected/*.svg \
+      tests/expected/cases.tsv
 while IFS=$'\t' read -r name _; do
   [[ "$name" == \#* ]] && continue
   cp "$out/$name" "tests/expected/$name"

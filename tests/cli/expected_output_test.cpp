@@ -5,7 +5,7 @@
 // scripts/update-expected.sh, not external reference values. They show any change of the output
 // of a command; whether the change is right is for the author to explain in the commit.
 //
-// Comparison: the exit code exactly; .txt and .csv line by line, exactly (text shows 3 or 4
+// Comparison: the exit code exactly; .txt, .csv and .svg line by line, exactly (text shows 3 or 4
 // significant figures and CSV 10, so compiler flags and thread counts do not change them in
 // practice); .json parsed and compared structurally (same keys, same array lengths, equal
 // strings and booleans, numbers within the tolerance below; key order is not compared).
@@ -59,7 +59,7 @@ const fs::path kSourceDir = CREWDOSE_SOURCE_DIR;
 const fs::path kExpectedDir = kSourceDir / "tests" / "expected";
 
 struct Case {
-    std::string name; // file name in tests/expected/, ending in .txt, .json or .csv
+    std::string name; // file name in tests/expected/, ending in .txt, .json, .csv or .svg
     int exit_code = 0;
     std::vector<std::string> args;
     std::string args_text; // as in the manifest, for messages
@@ -349,8 +349,9 @@ std::vector<Case> read_manifest() {
         if (c.name.find_first_not_of("abcdefghijklmnopqrstuvwxyz0123456789-.") !=
                 std::string::npos ||
             !(ends_with(c.name, ".txt") || ends_with(c.name, ".json") ||
-              ends_with(c.name, ".csv"))) {
-            throw bad("case name '" + c.name + "': lower-case, digits, '-', then .txt/.json/.csv");
+              ends_with(c.name, ".csv") || ends_with(c.name, ".svg"))) {
+            throw bad("case name '" + c.name +
+                      "': lower-case, digits, '-', then .txt/.json/.csv/.svg");
         }
         cases.push_back(std::move(c));
     }
@@ -409,4 +410,23 @@ TEST_CASE("expected-output comparisons catch differences", "[expected]") {
     CHECK_FALSE(json_difference(R"({"x": "a"})", R"({"x": "b"})").empty());
     CHECK_FALSE(json_difference(R"({"x": true})", R"({"x": 1})").empty());
     CHECK_FALSE(json_difference(R"({"x": 1})", "not json").empty());
+}
+
+TEST_CASE("the README's example verdict is the lunar demo's expected output", "[expected]") {
+    // By construction: the block between the README's verdict-example markers must appear, line
+    // for line, in tests/expected/check-lunar.txt, so the README shows what the tool prints.
+    const std::string readme = read_file(kSourceDir / "README.md");
+    const std::string begin = "<!-- verdict-example:";
+    const auto b = readme.find(begin);
+    REQUIRE(b != std::string::npos);
+    const auto open = readme.find("```text\n", b);
+    const auto close = readme.find("```\n", open + 8);
+    REQUIRE(open != std::string::npos);
+    REQUIRE(close != std::string::npos);
+    const std::string block = readme.substr(open + 8, close - open - 8);
+    REQUIRE(block.find("Verdict:") == 0);
+    const std::string expected = read_file(kExpectedDir / "check-lunar.txt");
+    INFO("README block:\n" << block << "\n" << kRegenerate
+                           << " and copy the verdict block into the README");
+    CHECK(expected.find(block) != std::string::npos);
 }
