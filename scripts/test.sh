@@ -14,7 +14,8 @@ for arg in "$@"; do
   esac
 done
 
-bash scripts/install-deps.sh
+# Chromium (headless) for the HTML report's browser test; only the test command needs it.
+CREWDOSE_EXTRA_PACKAGES="chromium ${CREWDOSE_EXTRA_PACKAGES:-}" bash scripts/install-deps.sh
 jobs=$(nproc 2>/dev/null || echo 2)
 
 if ((sanitize)); then

@@ -2,6 +2,7 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/report/check_chart.hpp"
+#include "planner/report/check_html.hpp"
 #include "planner/report/check_report.hpp"
 #include "planner/study/ledger.hpp"
 
@@ -24,6 +25,7 @@ Command add_check_command(CLI::App& app) {
         std::string out_path;
         std::string series_path;
         std::string chart_path;
+        std::string html_path;
         bool allow_gaps = false;
         double near_percent = 100.0 * planner::kDefaultNearShare;
     };
@@ -72,6 +74,11 @@ Command add_check_command(CLI::App& app) {
             "rover drives and shelter stays hatched, events marked; the cautions on top, and a "
             "dose that was not computed drawn as a gap labelled so, never as a value (written "
             "only when the check completes)");
+        check->add_option(
+            "--html", o->html_path,
+            "also write the check as one HTML file: the verdict table, the cautions, the chart "
+            "of --chart and the whole text report, self-contained (opens without a network, "
+            "prints as shown; written only when the check completes)");
         check
             ->add_option("--near", o->near_percent,
                          "a dose at this percentage of its limit or more is flagged 'near' in the "
@@ -97,16 +104,18 @@ Command add_check_command(CLI::App& app) {
                 }
 
                 // A path that cannot be written fails now, before the computation.
-                planner::refuse_unwritable_outputs(
-                    {{"--out", out_path}, {"--series", series_path}, {"--chart", o->chart_path}});
+                const std::vector<planner::NamedFile> outputs{{"--out", out_path},
+                                                              {"--series", series_path},
+                                                              {"--chart", o->chart_path},
+                                                              {"--html", o->html_path}};
+                planner::refuse_unwritable_outputs(outputs);
                 auto sc = planner::load_scenario(scenario_path);
                 if (!allow_gaps) {
                     planner::refuse_timeline_gaps(sc);
                 }
                 const planner::Study study(std::move(sc));
-                planner::refuse_clashing_outputs(
-                    scenario_inputs(study.scenario(), scenario_path),
-                    {{"--out", out_path}, {"--series", series_path}, {"--chart", o->chart_path}});
+                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
+                                                 outputs);
                 planner::LedgerOptions options;
                 options.allow_gaps = allow_gaps;
                 const auto ledger = planner::build_ledger(study, options);
@@ -127,8 +136,19 @@ Command add_check_command(CLI::App& app) {
                     o->chart_path.empty()
                         ? ""
                         : planner::format_check_chart(study, ledger, o->near_percent / 100.0);
+                const std::string html =
+                    o->html_path.empty()
+                        ? ""
+                        : planner::format_check_html(study, ledger, o->near_percent / 100.0,
+                                                     {{"tool", "crewdose " + stamp.version},
+                                                      {"scenario", stamp.scenario},
+                                                      {"scenario SHA-256", stamp.scenario_sha256},
+                                                      {"run at", stamp.run_at}});
                 if (!series_path.empty()) {
                     planner::write_file_atomically(series_path, series, "--series");
+                }
+                if (!o->html_path.empty()) {
+                    planner::write_file_atomically(o->html_path, html, "--html");
                 }
                 if (!o->chart_path.empty()) {
                     planner::write_file_atomically(o->chart_path, chart, "--chart");

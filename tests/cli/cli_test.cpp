@@ -990,3 +990,28 @@ TEST_CASE("storm, shelter and shielding write --out, and never over their input"
         CHECK(read_file(dir + "/plan.toml") == before);
     }
 }
+
+TEST_CASE("check: --html is one deterministic page, and a bad path writes nothing",
+          "[cli][check]") {
+    const std::string dir = temp_dir();
+    const Run a = run("check " + demo() + " --html " + dir + "/a.html", "SOURCE_DATE_EPOCH=0 ");
+    const Run b = run("check " + demo() + " --html " + dir + "/b.html", "SOURCE_DATE_EPOCH=0 ");
+    REQUIRE(a.exit_code == 0);
+    REQUIRE(b.exit_code == 0);
+    const std::string page = read_file(dir + "/a.html");
+    CHECK(page == read_file(dir + "/b.html"));
+    CHECK(page.rfind("<!DOCTYPE html>", 0) == 0);
+    CHECK(page.find("1970-01-01T00:00:00Z") != std::string::npos); // the run time, at the foot
+    // A folder that does not exist: exit 2 naming --html, before any computation; the other
+    // outputs of the same run are not written either.
+    const Run bad =
+        run("check " + demo() + " --series " + dir + "/s.csv --html " + dir + "/missing/page.html");
+    CHECK(bad.exit_code == 2);
+    CHECK(bad.out.find("--html") != std::string::npos);
+    CHECK_FALSE(std::filesystem::exists(dir + "/s.csv"));
+    // Never over the scenario.
+    write_file(dir + "/plan.toml", read_file(demo()));
+    const Run clash = run("check " + dir + "/plan.toml --html " + dir + "/plan.toml");
+    CHECK(clash.exit_code == 2);
+    CHECK(read_file(dir + "/plan.toml") == read_file(demo()));
+}

@@ -1,0 +1,96 @@
+// The HTML report in a real browser: headless Chromium (Debian's `chromium`, installed by
+// scripts/test.sh) opens `check --html` from a file with the network unused, renders it to a
+// screenshot and dumps the document it built. The test checks that nothing failed to load,
+// that the page shows the verdict and every crew member's row, and that the chart's plots are
+// in the rendered document.
+#include "shell_run.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <filesystem>
+#include <fstream>
+#include <sstream>
+#include <string>
+#include <unistd.h>
+
+namespace fs = std::filesystem;
+
+namespace {
+
+std::string read_file(const fs::path& p) {
+    std::ifstream in(p, std::ios::binary);
+    std::ostringstream ss;
+    ss << in.rdbuf();
+    return ss.str();
+}
+
+std::size_t count(const std::string& text, const std::string& what) {
+    std::size_t n = 0;
+    for (auto at = text.find(what); at != std::string::npos; at = text.find(what, at + 1)) {
+        ++n;
+    }
+    return n;
+}
+
+} // namespace
+
+TEST_CASE("check --html: headless Chromium loads it without errors and shows the verdict and "
+          "every plot",
+          "[cli][browser]") {
+    REQUIRE(run_shell("command -v chromium >/dev/null 2>&1").exit_code == 0); // scripts/test.sh
+    const fs::path dir =
+        fs::temp_directory_path() / ("crewdose-browser-test-" + std::to_string(::getpid()));
+    fs::remove_all(dir);
+    fs::create_directories(dir);
+    const fs::path page = dir / "lunar.html";
+    const std::string source = CREWDOSE_SOURCE_DIR;
+    const ShellResult made =
+        run_shell(std::string(CREWDOSE_BINARY) + " check " + source +
+                  "/scenarios/lunar-demo.toml --html " + page.string() + " >/dev/null 2>&1");
+    REQUIRE(made.exit_code == 0);
+    // One profile folder per run; no sandbox (CI runs as root); no GPU. --dump-dom prints the
+    // document after the page has loaded; --screenshot renders it.
+    const std::string browser = "chromium --headless --no-sandbox --disable-gpu "
+                                "--user-data-dir=" +
+                                (dir / "profile").string() + " --window-size=1200,2400 ";
+    const ShellResult dom = run_shell(browser + "--dump-dom file://" + page.string() + " 2>" +
+                                      (dir / "dom.err").string());
+    REQUIRE(dom.exit_code == 0);
+    const ShellResult shot = run_shell("cd " + dir.string() + " && " + browser +
+                                       "--screenshot=" + (dir / "page.png").string() + " file://" +
+                                       page.string() + " 2>" + (dir / "shot.err").string());
+    REQUIRE(shot.exit_code == 0);
+    // Loaded without errors: no resource failed, no script error (the page has no script, and
+    // must fetch nothing). Chromium's own complaints about the missing desktop bus are not the
+    // page's.
+    const std::string errors = read_file(dir / "dom.err") + read_file(dir / "shot.err");
+    INFO(errors);
+    for (const char* bad : {"net::ERR_", "Failed to load", "Uncaught", "Refused to"}) {
+        CHECK(errors.find(bad) == std::string::npos);
+    }
+    // The rendered document shows the verdict, a row per crew member of the demo (4) and the
+    // chart: one SVG with two plots per crew member, each with its curve and its limit line.
+    const std::string& html = dom.out;
+    CHECK(html.find("Verdict: every evaluated planning limit is met.") != std::string::npos);
+    for (const char* name : {"Amara Osei", "Tomasz Wren", "Ines Halvorsen", "Kenji Marlow"}) {
+        INFO(name);
+        CHECK(html.find(std::string("<td>") + name + "</td>") != std::string::npos);
+    }
+    CHECK(count(html, "<svg") == 1);
+    CHECK(count(html, "planning limit 1000 mGy-Eq") == 4);
+    CHECK(count(html, "career planning limit 600 mSv") == 4);
+    // The screenshot: a PNG (its signature) of the window's size, not an empty file.
+    const std::string png = read_file(dir / "page.png");
+    REQUIRE(png.size() > 24);
+    CHECK(png.compare(0, 8, "\x89PNG\r\n\x1a\n") == 0);
+    const auto be32 = [&](std::size_t at) {
+        return (static_cast<unsigned>(static_cast<unsigned char>(png[at])) << 24) |
+               (static_cast<unsigned>(static_cast<unsigned char>(png[at + 1])) << 16) |
+               (static_cast<unsigned>(static_cast<unsigned char>(png[at + 2])) << 8) |
+               static_cast<unsigned>(static_cast<unsigned char>(png[at + 3]));
+    };
+    CHECK(be32(16) == 1200);   // IHDR width
+    CHECK(be32(20) == 2400);   // IHDR height
+    CHECK(png.size() > 50000); // a blank page of this size compresses to a few kB
+    fs::remove_all(dir);
+}
