@@ -48,11 +48,13 @@ TEST_CASE("check --html: headless Chromium loads it without errors and shows the
         run_shell(std::string(CREWDOSE_BINARY) + " check " + source +
                   "/scenarios/lunar-demo.toml --html " + page.string() + " >/dev/null 2>&1");
     REQUIRE(made.exit_code == 0);
-    // One profile folder per run; no sandbox (CI runs as root); no GPU. --dump-dom prints the
+    // One profile folder per run; no sandbox (CI runs as root); no GPU; no /dev/shm (small in
+    // containers). --dump-dom prints the
     // document after the page has loaded; --screenshot renders it.
-    const std::string browser = "chromium --headless --no-sandbox --disable-gpu "
-                                "--user-data-dir=" +
-                                (dir / "profile").string() + " --window-size=1200,2400 ";
+    const std::string browser =
+        "chromium --headless --no-sandbox --disable-gpu --disable-dev-shm-usage "
+        "--user-data-dir=" +
+        (dir / "profile").string() + " --window-size=1200,2400 ";
     const ShellResult dom = run_shell(browser + "--dump-dom file://" + page.string() + " 2>" +
                                       (dir / "dom.err").string());
     REQUIRE(dom.exit_code == 0);
