@@ -49,8 +49,8 @@ TEST_CASE("check --html: headless Chromium loads it without errors and shows the
                   "/scenarios/lunar-demo.toml --html " + page.string() + " >/dev/null 2>&1");
     REQUIRE(made.exit_code == 0);
     // One profile folder per run; no sandbox (CI runs as root); no GPU; no /dev/shm (small in
-    // containers). --dump-dom prints the
-    // document after the page has loaded; --screenshot renders it.
+    // containers). --dump-dom prints the document after the page has loaded; --screenshot
+    // renders it.
     const std::string browser =
         "chromium --headless --no-sandbox --disable-gpu --disable-dev-shm-usage "
         "--user-data-dir=" +
