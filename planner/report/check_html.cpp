@@ -75,13 +75,7 @@ std::string verdict_html(const LedgerResult& ledger, double near_share) {
         const std::string css = st == LimitStatus::exceeded ? "exceeded"
                                 : st == LimitStatus::near   ? "near"
                                                             : "within";
-        std::string budget = "none";
-        if (st != LimitStatus::exceeded && c.budget.binds && c.budget.days > 0.0) {
-            budget = fmt::format("{} d ({} {})", significant(c.budget.days, 3),
-                                 organ_label(c.budget.organ), c.budget.window);
-        } else if (st != LimitStatus::exceeded && !c.budget.binds) {
-            budget = "not bound by GCR alone";
-        }
+        const std::string budget = budget_left_text(c, st);
         const char* unit = b->limit.organ == "effective" ? "mSv" : "mGy-Eq";
         // A dose that was not computed reads so (status_of has made it EXCEEDED).
         const bool computed = std::isfinite(b->dose) && b->dose >= 0.0;

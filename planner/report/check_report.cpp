@@ -140,13 +140,7 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
         const char* on = st == LimitStatus::exceeded ? red
                          : st == LimitStatus::near   ? yellow
                                                      : green;
-        std::string budget = "none";
-        if (st != LimitStatus::exceeded && c.budget.binds && c.budget.days > 0.0) {
-            budget = fmt::format("{} d ({} {})", significant(c.budget.days, 3),
-                                 organ_label(c.budget.organ), c.budget.window);
-        } else if (st != LimitStatus::exceeded && !c.budget.binds) {
-            budget = "not bound by GCR alone";
-        }
+        const std::string budget = budget_left_text(c, st);
         const std::string word = st == LimitStatus::exceeded ? "EXCEEDED" : to_string(st);
         rows += fmt::format(
             "  {:<{}}  {:<16} {:>6} {:<6} / {:<5} {:>5}  {}{:<8}{} {}\n", who, width,
@@ -194,6 +188,20 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
 }
 
 } // namespace
+
+std::string budget_left_text(const CrewResult& c, LimitStatus status) {
+    if (status == LimitStatus::exceeded) {
+        return "none";
+    }
+    if (!c.budget.binds) {
+        return "not bound by GCR alone";
+    }
+    if (c.budget.days > 0.0) {
+        return fmt::format("{} d ({} {})", significant(c.budget.days, 3),
+                           organ_label(c.budget.organ), c.budget.window);
+    }
+    return "none";
+}
 
 std::string format_check_report(const Study& study, const LedgerResult& ledger, OutputFormat format,
                                 bool colour, double near_share) {

@@ -15,6 +15,11 @@ namespace crewdose::planner {
                                               OutputFormat format, bool colour,
                                               double near_share = kDefaultNearShare);
 
+/// The verdict's "budget left" of a crew member whose binding limit stands at `status`: days
+/// more of the timeline's activity mix at its GCR rate until a limit binds, "none" (exceeded, or
+/// no day left) or "not bound by GCR alone".
+[[nodiscard]] std::string budget_left_text(const CrewResult& crew, LimitStatus status);
+
 /// Cumulative dose and dose rate against time per crew member and organ, CSV.
 [[nodiscard]] std::string format_series(const Study& study, const LedgerResult& ledger);
 

@@ -24,6 +24,10 @@ import json
 import math
 import os
 import subprocess
+import sys
+
+sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
+from fit_nucleon_spectra import nelder_mead  # noqa: E402  (the same minimiser as that fit)
 
 HERE = os.path.dirname(os.path.abspath(__file__))
 WATER = os.path.join(HERE, "..", "..", "tests", "data", "icru73", "icru73_ions_water.csv")
@@ -41,34 +45,6 @@ def beta(e):
 def gamma(p, z, b):
     a, bb, c = p
     return 1.0 - math.exp(-a * b ** bb / z ** c)
-
-
-def nelder_mead(f, x0, step, iters=4000):
-    n = len(x0)
-    pts = [list(x0)] + [[x0[j] + (step[j] if j == i else 0.0) for j in range(n)]
-                        for i in range(n)]
-    vals = [f(p) for p in pts]
-    for _ in range(iters):
-        order = sorted(range(n + 1), key=lambda i: vals[i])
-        pts, vals = [pts[i] for i in order], [vals[i] for i in order]
-        c = [sum(p[j] for p in pts[:-1]) / n for j in range(n)]
-        xr = [2 * c[j] - pts[-1][j] for j in range(n)]
-        fr = f(xr)
-        if fr < vals[0]:
-            xe = [3 * c[j] - 2 * pts[-1][j] for j in range(n)]
-            fe = f(xe)
-            pts[-1], vals[-1] = (xe, fe) if fe < fr else (xr, fr)
-        elif fr < vals[-2]:
-            pts[-1], vals[-1] = xr, fr
-        else:
-            xc = [0.5 * (c[j] + pts[-1][j]) for j in range(n)]
-            fc = f(xc)
-            if fc < vals[-1]:
-                pts[-1], vals[-1] = xc, fc
-            else:
-                pts = [pts[0]] + [[0.5 * (pts[0][j] + p[j]) for j in range(n)] for p in pts[1:]]
-                vals = [vals[0]] + [f(p) for p in pts[1:]]
-    return pts[0], vals[0]
 
 
 def main():
@@ -107,7 +83,7 @@ def main():
             s += math.log(g / needed) ** 2
         return s
 
-    p, v = nelder_mead(cost, current, [20.0, 0.1, 0.05])
+    p, v = nelder_mead(cost, current, [20.0, 0.1, 0.05], 4000)
     print("points: %d (Z = 3-18, %g-%g MeV/u)" % (len(points), a.emin, a.emax))
     print("current a, b, c = %s: rms log error of z_eff %.4f"
           % (",".join("%.6g" % x for x in current), math.sqrt(cost(current) / len(points))))
