@@ -50,5 +50,6 @@ inline constexpr const char* kOutHelp =
 [[nodiscard]] Command add_shielding_command(CLI::App& app);
 [[nodiscard]] Command add_shelter_command(CLI::App& app);
 [[nodiscard]] Command add_storm_command(CLI::App& app);
+[[nodiscard]] Command add_compare_command(CLI::App& app);
 
 } // namespace crewdose::cli

@@ -67,7 +67,7 @@ int main(int argc, char** argv) {
         cli::add_depth_command(app),     cli::add_gcr_command(app),
         cli::add_check_command(app),     cli::add_validate_command(app),
         cli::add_shielding_command(app), cli::add_shelter_command(app),
-        cli::add_storm_command(app)};
+        cli::add_storm_command(app),     cli::add_compare_command(app)};
 
     try {
         app.parse(argc, argv);

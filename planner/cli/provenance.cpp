@@ -22,13 +22,17 @@ std::string tool_version() {
     return CREWDOSE_VERSION;
 }
 
-RunStamp run_stamp(const planner::Scenario* scenario) {
+RunStamp run_stamp(const planner::Scenario* scenario, const planner::Scenario* second) {
     namespace pt = boost::posix_time;
     RunStamp s;
     s.version = tool_version();
     if (scenario) {
         s.scenario = scenario->file;
         s.scenario_sha256 = scenario->file_sha256;
+    }
+    if (second) {
+        s.scenario_b = second->file;
+        s.scenario_b_sha256 = second->file_sha256;
     }
     pt::ptime now = pt::second_clock::universal_time();
     if (const char* epoch = std::getenv("SOURCE_DATE_EPOCH")) {
@@ -65,6 +69,10 @@ std::string stamped(const std::string& output, planner::OutputFormat format,
             p["scenario"] = stamp.scenario;
             p["scenario_sha256"] = stamp.scenario_sha256;
         }
+        if (!stamp.scenario_b.empty()) {
+            p["scenario_b"] = stamp.scenario_b;
+            p["scenario_b_sha256"] = stamp.scenario_b_sha256;
+        }
         j["provenance"] = p;
         return planner::dump_checked(j);
     }
@@ -72,6 +80,10 @@ std::string stamped(const std::string& output, planner::OutputFormat format,
         std::string line = fmt::format("# crewdose {}; run at {}", stamp.version, stamp.run_at);
         if (!stamp.scenario.empty()) {
             line += fmt::format("; scenario {} (sha256 {})", stamp.scenario, stamp.scenario_sha256);
+        }
+        if (!stamp.scenario_b.empty()) {
+            line += fmt::format("; scenario B {} (sha256 {})", stamp.scenario_b,
+                                stamp.scenario_b_sha256);
         }
         return line + "\n" + output;
     }

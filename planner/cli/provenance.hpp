@@ -15,13 +15,16 @@ struct RunStamp {
     std::string version;
     std::string scenario;        ///< the path as given; empty for commands without a scenario
     std::string scenario_sha256; ///< empty with it
+    std::string scenario_b;      ///< `compare`'s second plan; empty otherwise
+    std::string scenario_b_sha256;
     std::string run_at;
 };
 
 /// The stamp of this run, for a command that read `scenario` (nullptr: none). The time is now,
 /// or SOURCE_DATE_EPOCH (whole seconds since 1970-01-01T00:00:00Z) when that is set; a value
 /// that is not such a number is an InputError naming it.
-[[nodiscard]] RunStamp run_stamp(const planner::Scenario* scenario);
+[[nodiscard]] RunStamp run_stamp(const planner::Scenario* scenario,
+                                 const planner::Scenario* second = nullptr);
 
 /// `output` with the stamp: JSON gains a "provenance" object, CSV a first line beginning with
 /// "# " (readers that skip comment lines, such as pandas with comment='#', read on); text is

@@ -1015,3 +1015,39 @@ TEST_CASE("check: --html is one deterministic page, and a bad path writes nothin
     CHECK(clash.exit_code == 2);
     CHECK(read_file(dir + "/plan.toml") == read_file(demo()));
 }
+
+TEST_CASE("compare: the lunar demo against a variant with one EVA cancelled", "[cli][compare]") {
+    // The variant keeps osei and wren in the habitat on 2032-03-11 08:00-13:00, when the design
+    // event strikes (flare seen 10:30): their lens doses fall; halvorsen and marlow, whose
+    // timelines are unchanged, keep every dose exactly (by construction: the same physics).
+    const std::string dir = temp_dir();
+    std::string text = read_file(demo());
+    const std::string eva = "kind = \"eva\"\nlocation = \"eva-site\"\nstart = 2032-03-11T08:00:00Z";
+    const auto at = text.find(eva);
+    REQUIRE(at != std::string::npos);
+    text.replace(at, eva.size(),
+                 "kind = \"stay\"\nlocation = \"hab-deck\"\nstart = 2032-03-11T08:00:00Z");
+    write_file(dir + "/variant.toml", text);
+    const Run r = run("compare " + demo() + " " + dir + "/variant.toml --format json");
+    INFO(r.out.substr(0, 2000));
+    REQUIRE(r.exit_code == 0);
+    const auto j = nlohmann::json::parse(r.out);
+    CHECK(j.at("provenance").at("scenario_b") == dir + "/variant.toml");
+    bool lens_fell = false;
+    for (const auto& row : j.at("rows")) {
+        const std::string crew = row.at("crew");
+        if (crew == "halvorsen" || crew == "marlow") {
+            CHECK(row.at("change").get<double>() == 0.0);
+        }
+        if (crew == "osei" && row.at("organ") == "lens" && row.at("window") == "30-day") {
+            lens_fell = row.at("dose_b").get<double>() < row.at("dose_a").get<double>();
+        }
+    }
+    CHECK(lens_fell);
+    const Run t = run("compare " + demo() + " " + dir + "/variant.toml");
+    CHECK(t.out.find("Verdict A: every evaluated planning limit is met.") != std::string::npos);
+    CHECK(t.out.find("  osei         lens 30-day") != std::string::npos);
+    const Run missing = run("compare " + demo() + " " + dir + "/nothing.toml");
+    CHECK(missing.exit_code == 2);
+    CHECK(missing.out.find("nothing.toml") != std::string::npos);
+}

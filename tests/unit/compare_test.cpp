@@ -1,0 +1,88 @@
+// Two plans side by side (planner/analyses/compare): matched by crew and limit, the change
+// B - A, and what only one plan checks.
+#include "fixture.hpp"
+
+#include "planner/analyses/compare.hpp"
+#include "planner/report/compare_report.hpp"
+#include "planner/study/ledger.hpp"
+#include "planner/study/study.hpp"
+
+#include <catch2/catch.hpp>
+
+#include <algorithm>
+#include <limits>
+
+using namespace crewdose;
+using namespace crewdose::planner;
+
+TEST_CASE("compare: a plan against itself changes nothing", "[compare]") {
+    // By construction: the same ledger on both sides.
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    const LedgerResult ledger = build_ledger(study);
+    const PlanComparison cmp = compare_plans(ledger, ledger);
+    std::size_t checks = 0;
+    for (const auto& c : ledger.crew) {
+        checks += c.checks.size();
+    }
+    REQUIRE(cmp.rows.size() == checks);
+    for (const auto& r : cmp.rows) {
+        INFO(r.crew << " " << r.organ << " " << r.window);
+        CHECK(r.change() == 0.0);
+        CHECK(r.status_a == r.status_b);
+        CHECK(r.limit_a == r.limit_b);
+    }
+    CHECK(cmp.only_in_a.empty());
+    CHECK(cmp.only_in_b.empty());
+    CHECK(cmp.a_exceeded == ledger.any_exceeded);
+}
+
+TEST_CASE("compare: changes, statuses and what only one plan checks", "[compare]") {
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    const LedgerResult a = build_ledger(study);
+    LedgerResult b = a;
+    REQUIRE(!b.crew.empty());
+    REQUIRE(b.crew.front().checks.size() >= 2);
+    // B: the first limit of the first crew member at its limit plus 10 (exceeded), its second
+    // limit dropped, and a crew member A does not have.
+    auto& first = b.crew.front().checks.front();
+    first.dose = first.limit.value + 10.0;
+    first.exceeded = true;
+    b.any_exceeded = true;
+    const Limit dropped = b.crew.front().checks.at(1).limit;
+    b.crew.front().checks.erase(b.crew.front().checks.begin() + 1);
+    CrewResult extra = b.crew.front();
+    extra.crew = "newcomer";
+    b.crew.push_back(extra);
+    const PlanComparison cmp = compare_plans(a, b, 0.9);
+    const auto& r = cmp.rows.front();
+    CHECK(r.dose_b == Approx(r.limit_b + 10.0));
+    CHECK(r.change() == Approx(r.limit_b + 10.0 - r.dose_a));
+    CHECK(r.status_b == LimitStatus::exceeded);
+    CHECK(cmp.b_exceeded);
+    const std::string gone = a.crew.front().crew + ": " + dropped.organ + " " + dropped.window;
+    CHECK(std::find(cmp.only_in_a.begin(), cmp.only_in_a.end(), gone) != cmp.only_in_a.end());
+    CHECK(std::find(cmp.only_in_b.begin(), cmp.only_in_b.end(), "newcomer") != cmp.only_in_b.end());
+    // The text marks the changed status and names what only one plan has.
+    const std::string text =
+        format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
+    CHECK(text.find("Verdict B: A PLANNING LIMIT IS EXCEEDED.") != std::string::npos);
+    CHECK(text.find("-> exceeded") != std::string::npos);
+    CHECK(text.find("Only in A: " + gone) != std::string::npos);
+    CHECK(text.find("newcomer") != std::string::npos);
+    CHECK(text.find("responsible agency") != std::string::npos);
+}
+
+TEST_CASE("compare: a dose that was not computed is never printed as a number", "[compare]") {
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    const LedgerResult a = build_ledger(study);
+    LedgerResult b = a;
+    b.crew.front().checks.front().dose = std::numeric_limits<double>::quiet_NaN();
+    const PlanComparison cmp = compare_plans(a, b);
+    CHECK(cmp.rows.front().status_b == LimitStatus::exceeded); // never within
+    const std::string text =
+        format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
+    CHECK(text.find("not computed") != std::string::npos);
+    CHECK(text.find("nan") == std::string::npos);
+    CHECK_THROWS(format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::json));
+    CHECK_THROWS(format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::csv));
+}
