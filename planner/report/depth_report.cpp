@@ -83,7 +83,7 @@ std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
     }
     std::string out = fmt::format("SPE dose behind {} ({}) at {}, scored in {}\n", shield.id(),
                                   shield.name(), tissue.label, detector.id());
-    out += fmt::format("spectrum: {}\n", describe_spectrum(spectrum));
+    out += wrap("spectrum: " + describe_spectrum(spectrum), 100, "  ");
     out += "geometry: shell-equivalent (the event's full omnidirectional fluence through the same\n"
            "thickness in every direction: the dose at the centre of a spherical shell)\n\n";
     out += fmt::format("  {:>8}  {:>12}  {:>12}  {:>12}  {:>14}  {:>14}  {:>12}\n", "shield",

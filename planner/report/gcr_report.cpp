@@ -155,10 +155,12 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
         }
         return out;
     }
-    std::string out = fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV{}\n",
-                                  shield.id(), shield.name(), tissue.label, phi_MV,
-                                  detector.id() == "soft-tissue" ? std::string()
-                                                                 : ", scored in " + detector.id());
+    std::string out =
+        wrap(fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV{}", shield.id(),
+                         shield.name(), tissue.label, phi_MV,
+                         detector.id() == "soft-tissue" ? std::string()
+                                                        : ", scored in " + detector.id()),
+             100, "  ");
     out += wrap("geometry: shell-equivalent (the isotropic field through the same thickness in "
                 "every open direction: the dose at the centre of a spherical shell), " +
                     site_text(site),
@@ -180,31 +182,32 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
             significant(1e3 * scale * r.per_day_primaries.dose_equivalent_Sv, 3));
     }
     out += "\nShare of the dose equivalent, %, by charge (primaries, fragments and secondaries "
-           "together) and by source:\n";
-    std::string head = fmt::format("  {:>8}", "g/cm2");
+           "together)\nand by source:\n";
+    std::string head = fmt::format("  {:>6}", "g/cm2");
     for (const auto& g : kChargeGroups) {
         head += fmt::format(" {:>7}", g.label);
     }
-    head += "  |";
+    head += " |";
     for (const auto& k : kDoseSources) {
         head += fmt::format(
-            " {:>10}", k.substr(0, k.find(' ') == std::string_view::npos ? k.size() : k.find(' ')));
+            " {:>9}", k.substr(0, k.find(' ') == std::string_view::npos ? k.size() : k.find(' ')));
     }
     out += head + "\n";
     for (const auto& r : rows) {
-        std::string line = fmt::format("  {:>8.4g}", r.shield_g_cm2);
+        std::string line = fmt::format("  {:>6.4g}", r.shield_g_cm2);
         for (const double v : r.equivalent_share) {
             line += fmt::format(" {:>7.1f}", 100.0 * v);
         }
-        line += "  |";
+        line += " |";
         for (const double v : r.source_equivalent_share) {
-            line += fmt::format(" {:>10.1f}", 100.0 * v);
+            line += fmt::format(" {:>9.1f}", 100.0 * v);
         }
         out += line + "\n";
     }
-    out += "  (sources: primaries and their fragments; secondary protons; light ions d, t, He-3 "
-           "and secondary alphas; energy deposited by neutron reactions; target fragments and "
-           "slow light ions of proton reactions)\n";
+    out += wrap("  (sources: primaries and their fragments; secondary protons; light ions d, t, "
+                "He-3 and secondary alphas; energy deposited by neutron reactions; target "
+                "fragments and slow light ions of proton reactions)",
+                100, "   ");
     out += "\n" + wrap(kModelText, 92) + "\n";
     out += caution_text();
     return out;
