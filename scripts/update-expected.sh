@@ -68,6 +68,7 @@ storm-no-response.txt     storm scenarios/lunar-demo.toml --event design-spe --o
 storm-sweep.txt           storm scenarios/lunar-demo.toml --event design-spe --sweep --step 12h
 storm-sweep.json          storm scenarios/lunar-demo.toml --event design-spe --sweep --step 12h --format json
 storm-sweep.csv           storm scenarios/lunar-demo.toml --event design-spe --sweep --step 12h --format csv
+storm-sweep-chart.svg     storm scenarios/lunar-demo.toml --event design-spe --sweep --step 12h --chart @OUT@
 shelter.txt               shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water
 shelter.json              shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --format json
 shelter.csv               shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --format csv

@@ -1,5 +1,6 @@
 // The storm command: one what-if of an event's onset, or a sweep of onsets.
 #include "planner/cli/command.hpp"
+#include "planner/report/storm_chart.hpp"
 #include "planner/report/storm_report.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/study.hpp"
@@ -26,6 +27,7 @@ Command add_storm_command(CLI::App& app) {
         std::string storm_to;
         bool no_response = false;
         std::string out_path;
+        std::string chart_path;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -53,8 +55,10 @@ Command add_storm_command(CLI::App& app) {
             "--onset T: one what-if. --sweep: t0 swept over the timeline every --step (default "
             "10min, --from/--to default the mission), plus the onsets where the policy changes; "
             "per "
-            "crew member the worst onset, per EVA a go/no-go, and a text profile.\n"
-            "Example: crewdose storm scenarios/lunar-demo.toml --event design-spe --sweep\n"
+            "crew member the worst onset, per EVA a go/no-go, and a text profile; --chart FILE.svg "
+            "draws that profile (needs --sweep).\n"
+            "Example: crewdose storm scenarios/lunar-demo.toml --event design-spe --sweep --chart "
+            "storm.svg\n"
             "Exit 0: every 30-day limit met; 1: some what-if breaks one; 2: bad input; 3: internal "
             "fault.");
         storm->add_option("scenario", scenario_path, "scenario file (TOML)")->required();
@@ -74,6 +78,14 @@ Command add_storm_command(CLI::App& app) {
                         "the crew keep to the planned timeline (for comparison)");
         storm->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
         storm->add_option("--out,-o", o->out_path, kOutHelp);
+        storm
+            ->add_option("--chart", o->chart_path,
+                         "also draw the sweep to this SVG file (needs --sweep): per 6 hours of "
+                         "onset t0, the highest share of a 30-day limit over the crew, the 100 % "
+                         "line, the EVAs and rover drives (go and no-go), the no-go onsets and "
+                         "the worst onset; written when the run completes, a limit exceeded "
+                         "included")
+            ->needs(sweep_opt);
 
         return storm;
     }();
@@ -94,10 +106,12 @@ Command add_storm_command(CLI::App& app) {
                                      "give --onset TIME for one what-if or --sweep");
                 }
                 // A path that cannot be written fails now, before the computation.
-                planner::refuse_unwritable_outputs({{"--out", o->out_path}});
+                const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
+                                                              {"--chart", o->chart_path}};
+                planner::refuse_unwritable_outputs(outputs);
                 const planner::Study study(planner::load_scenario(scenario_path));
                 planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
-                                                 {{"--out", o->out_path}});
+                                                 outputs);
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;
                 // A time option inside the mission, or its default.
@@ -142,9 +156,14 @@ Command add_storm_command(CLI::App& app) {
                 if (shown) {
                     std::fprintf(stderr, "\r%30s\r", "");
                 }
-                write_report(stamped(planner::format_storm_sweep(context, sweep, fmt_choice),
-                                     fmt_choice, run_stamp(&study.scenario())),
-                             o->out_path);
+                const std::string text =
+                    stamped(planner::format_storm_sweep(context, sweep, fmt_choice), fmt_choice,
+                            run_stamp(&study.scenario()));
+                if (!o->chart_path.empty()) {
+                    planner::write_file_atomically(
+                        o->chart_path, planner::format_storm_chart(context, sweep), "--chart");
+                }
+                write_report(text, o->out_path);
                 return sweep.any_exceeded() ? 1 : 0;
             }};
 }

@@ -735,6 +735,85 @@ TEST_CASE("shelter: --chart draws the dose against added material with the targe
     CHECK(!std::filesystem::exists(dir + "/none"));
 }
 
+TEST_CASE("storm: --chart draws the sweep's profile, the same bytes on every run, also when a "
+          "limit is exceeded",
+          "[cli][storm][svg]") {
+    const std::string dir = temp_dir();
+    // Without the response the demo's design event breaks a 30-day limit at some onsets: exit
+    // 1, and the chart and the report are written all the same.
+    const std::string base =
+        "storm " + demo() + " --event design-spe --sweep --step 6h --no-response";
+    const Run r =
+        run(base + " --format json --out " + dir + "/sweep.json --chart " + dir + "/storm.svg");
+    INFO(r.out);
+    REQUIRE(r.exit_code == 1);
+    const std::string svg = read_file(dir + "/storm.svg");
+    const auto doc = nlohmann::json::parse(read_file(dir + "/sweep.json"));
+    const auto elements = svg_check::parse(svg); // throws when not well-formed
+    const auto charts = svg_check::charts(elements);
+    REQUIRE(charts.size() == 1);
+    const auto& c = charts[0];
+    CHECK(svg.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    CHECK(svg.find(">30-day planning limit (100 %)</text>") != std::string::npos);
+    CHECK(svg.find("A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.") != std::string::npos);
+    // The curve: two points (a step) per bin of the report's profile, each at the bin's share;
+    // by construction: the sweep's own number, the same as the JSON report's.
+    const auto& profile = doc["profile"];
+    REQUIRE(c.paths.count("highest share") == 1);
+    const auto stretches = svg_check::path_points(c.paths.at("highest share"));
+    REQUIRE(stretches.size() == 1);
+    REQUIRE(stretches[0].size() == 2 * profile.size());
+    const double tol_y = 2 * 0.01 * c.y.per_pixel();
+    for (std::size_t k = 0; k < profile.size(); ++k) {
+        const double share = 100.0 * profile[k]["worst_ratio"].get<double>();
+        CHECK(c.y.value_at(stretches[0][2 * k].second) == Approx(share).margin(tol_y));
+        CHECK(c.y.value_at(stretches[0][2 * k + 1].second) == Approx(share).margin(tol_y));
+    }
+    // The worst onset marked with its time: the report's worst onset of the crew member with
+    // the highest share.
+    std::string worst_onset;
+    double worst = -1.0;
+    for (const auto& w : doc["worst"]) {
+        if (w["worst_ratio"].get<double>() > worst) {
+            worst = w["worst_ratio"].get<double>();
+            worst_onset = w["worst_onset"].get<std::string>();
+        }
+    }
+    CHECK(svg.find(">worst t0 " + worst_onset + ": ") != std::string::npos);
+    // Every no-go EVA of the report is named NO-GO on the chart.
+    for (const auto& e : doc["evas"]) {
+        if (!e["go"].get<bool>()) {
+            CHECK(svg.find("NO-GO: " + e["activity"].get<std::string>() + ", " +
+                           e["start"].get<std::string>()) != std::string::npos);
+        }
+    }
+    // Deterministic: a second run writes the same bytes.
+    CHECK(run(base + " --chart " + dir + "/again.svg").exit_code == 1);
+    CHECK(read_file(dir + "/again.svg") == svg);
+}
+
+TEST_CASE("storm: --chart refused without --sweep or where it cannot be written, writing nothing",
+          "[cli][storm][svg]") {
+    const std::string dir = temp_dir();
+    const std::string base = "storm " + demo() + " --event design-spe";
+    // One what-if has no sweep to draw.
+    const Run onset = run(base + " --onset 2032-03-09T13:00:00Z --chart " + dir + "/one.svg");
+    CHECK(onset.exit_code == 2);
+    CHECK(onset.out.find("--chart requires --sweep") != std::string::npos);
+    CHECK(!std::filesystem::exists(dir + "/one.svg"));
+    // A folder that does not exist: exit 2 naming the option, before the sweep.
+    const Run missing = run(base + " --sweep --chart " + dir + "/none/storm.svg");
+    CHECK(missing.exit_code == 2);
+    CHECK(missing.out.find("command line: --chart: cannot write '") != std::string::npos);
+    CHECK(!std::filesystem::exists(dir + "/none"));
+    // The chart and the report naming one file; an existing file there stays as it was.
+    write_file(dir + "/x", "old\n");
+    const Run clash = run(base + " --sweep --out " + dir + "/x --chart " + dir + "/x");
+    CHECK(clash.exit_code == 2);
+    CHECK(clash.out.find("--chart: ") != std::string::npos);
+    CHECK(read_file(dir + "/x") == "old\n");
+}
+
 TEST_CASE("storm: one what-if, a sweep, and bad input", "[cli][storm]") {
     const std::string base = "storm " + demo() + " --event design-spe";
     const Run one = run(base + " --onset 2032-03-09T13:00:00Z");
