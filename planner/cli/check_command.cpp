@@ -89,73 +89,65 @@ Command add_check_command(CLI::App& app) {
                         "location of the activity before it and listed in the report");
         return check;
     }();
-    return {sub, [o] {
-                auto& format = o->format;
-                auto& scenario_path = o->scenario_path;
-                auto& out_path = o->out_path;
-                auto& series_path = o->series_path;
-                auto& allow_gaps = o->allow_gaps;
-                const auto fmt_choice = planner::parse_output_format(format);
-                if (!(o->near_percent >= 1.0 && o->near_percent <= 100.0)) {
-                    throw InputError({"command line", 0}, "--near",
-                                     fmt::format("{:g} is not a percentage of the limit; "
-                                                 "allowed: 1 to 100",
-                                                 o->near_percent));
-                }
+    return {
+        sub, [o] {
+            auto& format = o->format;
+            auto& scenario_path = o->scenario_path;
+            auto& out_path = o->out_path;
+            auto& series_path = o->series_path;
+            auto& allow_gaps = o->allow_gaps;
+            const auto fmt_choice = planner::parse_output_format(format);
+            const double near_share = near_share_of(o->near_percent);
 
-                // A path that cannot be written fails now, before the computation.
-                const std::vector<planner::NamedFile> outputs{{"--out", out_path},
-                                                              {"--series", series_path},
-                                                              {"--chart", o->chart_path},
-                                                              {"--html", o->html_path}};
-                planner::refuse_unwritable_outputs(outputs);
-                auto sc = planner::load_scenario(scenario_path);
-                if (!allow_gaps) {
-                    planner::refuse_timeline_gaps(sc);
-                }
-                const planner::Study study(std::move(sc));
-                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
-                                                 outputs);
-                planner::LedgerOptions options;
-                options.allow_gaps = allow_gaps;
-                const auto ledger = planner::build_ledger(study, options);
-                const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
-                                    isatty(fileno(stdout)) != 0 &&
-                                    std::getenv("NO_COLOR") == nullptr;
-                const RunStamp stamp = run_stamp(&study.scenario());
-                const std::string report =
-                    stamped(planner::format_check_report(study, ledger, fmt_choice, colour,
-                                                         o->near_percent / 100.0),
-                            fmt_choice, stamp);
-                // Every file is prepared before any is written, so bad input writes nothing.
-                const std::string series = series_path.empty()
-                                               ? ""
-                                               : stamped(planner::format_series(study, ledger),
-                                                         planner::OutputFormat::csv, stamp);
-                const std::string chart =
-                    o->chart_path.empty()
-                        ? ""
-                        : planner::format_check_chart(study, ledger, o->near_percent / 100.0);
-                const std::string html =
-                    o->html_path.empty()
-                        ? ""
-                        : planner::format_check_html(study, ledger, o->near_percent / 100.0,
-                                                     {{"tool", "crewdose " + stamp.version},
-                                                      {"scenario", stamp.scenario},
-                                                      {"scenario SHA-256", stamp.scenario_sha256},
-                                                      {"run at", stamp.run_at}});
-                if (!series_path.empty()) {
-                    planner::write_file_atomically(series_path, series, "--series");
-                }
-                if (!o->html_path.empty()) {
-                    planner::write_file_atomically(o->html_path, html, "--html");
-                }
-                if (!o->chart_path.empty()) {
-                    planner::write_file_atomically(o->chart_path, chart, "--chart");
-                }
-                write_report(report, out_path);
-                return ledger.any_exceeded ? 1 : 0;
-            }};
+            // A path that cannot be written fails now, before the computation.
+            const std::vector<planner::NamedFile> outputs{{"--out", out_path},
+                                                          {"--series", series_path},
+                                                          {"--chart", o->chart_path},
+                                                          {"--html", o->html_path}};
+            planner::refuse_unwritable_outputs(outputs);
+            auto sc = planner::load_scenario(scenario_path);
+            if (!allow_gaps) {
+                planner::refuse_timeline_gaps(sc);
+            }
+            // Before the study is built: a clashing output costs no computation.
+            planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+            const planner::Study study(std::move(sc));
+            planner::LedgerOptions options;
+            options.allow_gaps = allow_gaps;
+            const auto ledger = planner::build_ledger(study, options);
+            const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
+                                isatty(fileno(stdout)) != 0 && std::getenv("NO_COLOR") == nullptr;
+            const RunStamp stamp = run_stamp(&study.scenario());
+            const std::string report =
+                stamped(planner::format_check_report(study, ledger, fmt_choice, colour, near_share),
+                        fmt_choice, stamp);
+            // Every file is prepared before any is written, so bad input writes nothing.
+            const std::string series = series_path.empty()
+                                           ? ""
+                                           : stamped(planner::format_series(study, ledger),
+                                                     planner::OutputFormat::csv, stamp);
+            const std::string chart =
+                o->chart_path.empty() ? "" : planner::format_check_chart(study, ledger, near_share);
+            const std::string html =
+                o->html_path.empty()
+                    ? ""
+                    : planner::format_check_html(study, ledger, near_share,
+                                                 {{"tool", "crewdose " + stamp.version},
+                                                  {"scenario", stamp.scenario},
+                                                  {"scenario SHA-256", stamp.scenario_sha256},
+                                                  {"run at", stamp.run_at}});
+            if (!series_path.empty()) {
+                planner::write_file_atomically(series_path, series, "--series");
+            }
+            if (!o->html_path.empty()) {
+                planner::write_file_atomically(o->html_path, html, "--html");
+            }
+            if (!o->chart_path.empty()) {
+                planner::write_file_atomically(o->chart_path, chart, "--chart");
+            }
+            write_report(report, out_path);
+            return ledger.any_exceeded ? 1 : 0;
+        }};
 }
 
 } // namespace crewdose::cli

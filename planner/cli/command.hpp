@@ -35,6 +35,10 @@ void write_stdout(const std::string& text);
 /// given.
 void write_report(const std::string& text, const std::string& out_path);
 
+/// --near PERCENT as the share of a limit from which a dose is "near" (0.01 to 1); InputError
+/// naming --near outside 1 to 100 (a NaN included).
+[[nodiscard]] double near_share_of(double percent);
+
 /// The help text of every --out option.
 inline constexpr const char* kOutHelp =
     "write the report to this file instead of standard output (written whole, only when the "

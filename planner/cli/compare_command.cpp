@@ -37,12 +37,7 @@ Command add_compare_command(CLI::App& app) {
         ->capture_default_str();
     return {sub, [o] {
                 const auto fmt_choice = planner::parse_output_format(o->format);
-                if (!(o->near_percent >= 1.0 && o->near_percent <= 100.0)) {
-                    throw InputError({"command line", 0}, "--near",
-                                     fmt::format("{:g} is not a percentage of the limit; "
-                                                 "allowed: 1 to 100",
-                                                 o->near_percent));
-                }
+                const double near_share = near_share_of(o->near_percent);
                 planner::refuse_unwritable_outputs({{"--out", o->out_path}});
                 auto sa = planner::load_scenario(o->plan_a);
                 auto sb = planner::load_scenario(o->plan_b);
@@ -57,8 +52,7 @@ Command add_compare_command(CLI::App& app) {
                 const auto ledger_a = planner::build_ledger(a);
                 const planner::Study b(std::move(sb));
                 const auto ledger_b = planner::build_ledger(b);
-                const auto cmp =
-                    planner::compare_plans(ledger_a, ledger_b, o->near_percent / 100.0);
+                const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
                 write_report(
                     stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
                             fmt_choice, run_stamp(&a.scenario(), &b.scenario())),

@@ -6,6 +6,8 @@
 
 #include "exposure/parameter_error.hpp"
 
+#include <fmt/format.h>
+
 #include <cstdio>
 #include <exception>
 #include <filesystem>
@@ -30,6 +32,15 @@ std::vector<planner::NamedFile> scenario_inputs(const planner::Scenario& scenari
         }
     }
     return inputs;
+}
+
+double near_share_of(double percent) {
+    if (!(percent >= 1.0 && percent <= 100.0)) {
+        throw InputError(
+            {"command line", 0}, "--near",
+            fmt::format("{:g} is not a percentage of the limit; allowed: 1 to 100", percent));
+    }
+    return percent / 100.0;
 }
 
 void write_report(const std::string& text, const std::string& out_path) {

@@ -54,9 +54,11 @@ Command add_shielding_command(CLI::App& app) {
 
                 // One location's view computes that location alone.
                 planner::refuse_unwritable_outputs({{"--out", o->out_path}});
-                const planner::Study study(planner::load_scenario(scenario_path), location_id);
-                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
+                auto sc = planner::load_scenario(scenario_path);
+                // Before the study is built: a clashing output costs no computation.
+                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path),
                                                  {{"--out", o->out_path}});
+                const planner::Study study(std::move(sc), location_id);
                 write_report(stamped(planner::format_shielding_report(
                                          study, location_id,
                                          event_id.empty() ? std::nullopt

@@ -109,9 +109,10 @@ Command add_storm_command(CLI::App& app) {
                 const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
                                                               {"--chart", o->chart_path}};
                 planner::refuse_unwritable_outputs(outputs);
-                const planner::Study study(planner::load_scenario(scenario_path));
-                planner::refuse_clashing_outputs(scenario_inputs(study.scenario(), scenario_path),
-                                                 outputs);
+                auto sc = planner::load_scenario(scenario_path);
+                // Before the study is built: a clashing output costs no computation.
+                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+                const planner::Study study(std::move(sc));
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;
                 // A time option inside the mission, or its default.
