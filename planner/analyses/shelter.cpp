@@ -307,7 +307,8 @@ void parse_shelter_layer(const Study& study, const std::string& text, ShelterReq
     request.layer_index = index;
 }
 
-ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
+ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
+                           const std::function<void(double)>& progress) {
     const Scenario& sc = study.scenario();
     ShelterReport rep;
     rep.request = request;
@@ -384,7 +385,9 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
                      });
     exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
     SecondaryMarches secondary;
-    for (const auto& material_id : request.materials) {
+    const auto n_materials = static_cast<double>(request.materials.size());
+    for (std::size_t m = 0; m < request.materials.size(); ++m) {
+        const std::string& material_id = request.materials[m];
         const exposure::Material& material = material_of(study, material_id, "--material");
         ShelterAnswer a;
         a.material = material.id();
@@ -409,6 +412,12 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request) {
             auto it = seen.find(x);
             if (it == seen.end()) {
                 ++a.evaluations;
+                if (progress) {
+                    // The number of evaluations is not known ahead: a share that grows
+                    // towards the next material's start.
+                    const double e = a.evaluations;
+                    progress((static_cast<double>(m) + e / (e + 6.0)) / n_materials);
+                }
                 it = seen.emplace(x,
                                   sheltered_dose(study, request, material_id, x, tables, secondary))
                          .first;

@@ -3,6 +3,7 @@
 // in the shelter, plus the crew's other dose in the same 30 days stays within each target.
 #include "planner/study/study.hpp"
 
+#include <functional>
 #include <map>
 #include <optional>
 #include <string>
@@ -79,7 +80,9 @@ void parse_shelter_layer(const Study& study, const std::string& text, ShelterReq
 
 /// Sizes the shelter for every requested material. `study` is the scenario's; InputError for
 /// an unknown event, location, solid, layer, material or organ.
-[[nodiscard]] ShelterReport size_shelter(const Study& study, const ShelterRequest& request);
+/// `progress`, when given, is told the share of the sizing done (0 to 1) as it goes.
+[[nodiscard]] ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
+                                         const std::function<void(double)>& progress = {});
 
 /// The event dose at the location with `areal_density_g_cm2` of `material` added as the
 /// request says, per organ (uncertainty factor applied), mGy-Eq. Used by the root find and to

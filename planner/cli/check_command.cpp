@@ -1,6 +1,7 @@
 // The check command: every crew member's doses along the timeline against the limits.
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/cli/progress.hpp"
 #include "planner/report/check_chart.hpp"
 #include "planner/report/check_html.hpp"
 #include "planner/report/check_report.hpp"
@@ -27,6 +28,7 @@ Command add_check_command(CLI::App& app) {
         std::string chart_path;
         std::string html_path;
         bool allow_gaps = false;
+        bool quiet = false;
         double near_percent = 100.0 * planner::kDefaultNearShare;
     };
     auto o = std::make_shared<Options>();
@@ -87,6 +89,7 @@ Command add_check_command(CLI::App& app) {
         check->add_flag("--allow-gaps", allow_gaps,
                         "accept gaps in a crew member's timeline; each gap is charged at the "
                         "location of the activity before it and listed in the report");
+        add_quiet_flag(check, o->quiet);
         return check;
     }();
     return {
@@ -111,7 +114,11 @@ Command add_check_command(CLI::App& app) {
             }
             // Before the study is built: a clashing output costs no computation.
             planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
-            const planner::Study study(std::move(sc));
+            ProgressLine progress(o->quiet);
+            progress.stage("computing each location's doses");
+            const planner::Study study(std::move(sc), {},
+                                       [&](double f) { progress.update(f); });
+            progress.finish();
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;
             const auto ledger = planner::build_ledger(study, options);

@@ -39,6 +39,9 @@ void write_report(const std::string& text, const std::string& out_path);
 /// naming --near outside 1 to 100 (a NaN included).
 [[nodiscard]] double near_share_of(double percent);
 
+/// Adds --quiet (no progress line) to a command that can run for seconds.
+void add_quiet_flag(CLI::App* command, bool& quiet);
+
 /// The help text of every --out option.
 inline constexpr const char* kOutHelp =
     "write the report to this file instead of standard output (written whole, only when the "

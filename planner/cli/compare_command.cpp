@@ -1,6 +1,7 @@
 // The compare command: two plans' planning limits side by side.
 #include "planner/analyses/compare.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/cli/progress.hpp"
 #include "planner/report/compare_report.hpp"
 #include "planner/study/study.hpp"
 
@@ -18,6 +19,7 @@ Command add_compare_command(CLI::App& app) {
         std::string plan_b;
         std::string out_path;
         double near_percent = 100.0 * planner::kDefaultNearShare;
+        bool quiet = false;
     };
     auto o = std::make_shared<Options>();
     auto* sub = app.add_subcommand(
@@ -35,6 +37,7 @@ Command add_compare_command(CLI::App& app) {
     sub->add_option("--near", o->near_percent,
                     "a dose at this percentage of its limit or more is 'near' (1 to 100)")
         ->capture_default_str();
+    add_quiet_flag(sub, o->quiet);
     return {sub, [o] {
                 const auto fmt_choice = planner::parse_output_format(o->format);
                 const double near_share = near_share_of(o->near_percent);
@@ -48,10 +51,14 @@ Command add_compare_command(CLI::App& app) {
                     inputs.push_back(std::move(f));
                 }
                 planner::refuse_clashing_outputs(inputs, {{"--out", o->out_path}});
-                const planner::Study a(std::move(sa));
+                ProgressLine progress(o->quiet);
+                progress.stage("computing plan A");
+                const planner::Study a(std::move(sa), {}, [&](double f) { progress.update(f); });
                 const auto ledger_a = planner::build_ledger(a);
-                const planner::Study b(std::move(sb));
+                progress.stage("computing plan B");
+                const planner::Study b(std::move(sb), {}, [&](double f) { progress.update(f); });
                 const auto ledger_b = planner::build_ledger(b);
+                progress.finish();
                 const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
                 write_report(
                     stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),

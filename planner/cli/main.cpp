@@ -34,6 +34,12 @@ std::vector<planner::NamedFile> scenario_inputs(const planner::Scenario& scenari
     return inputs;
 }
 
+void add_quiet_flag(CLI::App* command, bool& quiet) {
+    command->add_flag("--quiet,-q", quiet,
+                      "no progress line (one shows on standard error only when it is a terminal "
+                      "and the run takes over a second; never in a file, a pipe or CI)");
+}
+
 double near_share_of(double percent) {
     if (!(percent >= 1.0 && percent <= 100.0)) {
         throw InputError(

@@ -1,6 +1,7 @@
 // The shelter command: the least areal density that keeps a design event within the targets.
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
+#include "planner/cli/progress.hpp"
 #include "planner/report/shelter_chart.hpp"
 #include "planner/report/shelter_report.hpp"
 #include "planner/study/study.hpp"
@@ -24,6 +25,7 @@ Command add_shelter_command(CLI::App& app) {
         double shelter_max = 200.0;
         std::string out_path;
         std::string chart_path;
+        bool quiet = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -74,7 +76,7 @@ Command add_shelter_command(CLI::App& app) {
                             "areal density, with the target line and each material's answer "
                             "marked; the cautions on top (written only when the sizing "
                             "completes)");
-
+        add_quiet_flag(shelter, o->quiet);
         return shelter;
     }();
     return {sub, [o] {
@@ -94,7 +96,10 @@ Command add_shelter_command(CLI::App& app) {
                 planner::refuse_clashing_outputs(
                     scenario_inputs(sc, scenario_path),
                     {{"--out", o->out_path}, {"--chart", o->chart_path}});
-                const planner::Study study(std::move(sc));
+                ProgressLine progress(o->quiet);
+                progress.stage("computing each location's doses");
+                const planner::Study study(std::move(sc), {},
+                                           [&](double f) { progress.update(f); });
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;
@@ -108,7 +113,10 @@ Command add_shelter_command(CLI::App& app) {
                     planner::parse_shelter_layer(study, shelter_layer, request);
                 }
                 request.max_g_cm2 = shelter_max;
-                const auto report = planner::size_shelter(study, request);
+                progress.stage("sizing the shelter");
+                const auto report = planner::size_shelter(study, request,
+                                                          [&](double f) { progress.update(f); });
+                progress.finish();
                 const std::string text =
                     stamped(planner::format_shelter_report(study, report, fmt_choice), fmt_choice,
                             run_stamp(&study.scenario()));

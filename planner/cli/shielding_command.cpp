@@ -1,5 +1,6 @@
 // The shielding command: what one location's shielding looks like.
 #include "planner/cli/command.hpp"
+#include "planner/cli/progress.hpp"
 #include "planner/report/shielding_report.hpp"
 #include "planner/study/study.hpp"
 
@@ -18,6 +19,7 @@ Command add_shielding_command(CLI::App& app) {
         std::string location_id;
         std::string event_id;
         std::string out_path;
+        bool quiet = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -42,7 +44,7 @@ Command add_shielding_command(CLI::App& app) {
                          "row)")
             ->capture_default_str();
         shielding->add_option("--out,-o", o->out_path, kOutHelp);
-
+        add_quiet_flag(shielding, o->quiet);
         return shielding;
     }();
     return {sub, [o] {
@@ -58,7 +60,11 @@ Command add_shielding_command(CLI::App& app) {
                 // Before the study is built: a clashing output costs no computation.
                 planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path),
                                                  {{"--out", o->out_path}});
-                const planner::Study study(std::move(sc), location_id);
+                ProgressLine progress(o->quiet);
+                progress.stage("computing the location's doses");
+                const planner::Study study(std::move(sc), location_id,
+                                           [&](double f) { progress.update(f); });
+                progress.finish();
                 write_report(stamped(planner::format_shielding_report(
                                          study, location_id,
                                          event_id.empty() ? std::nullopt

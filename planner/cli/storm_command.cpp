@@ -1,13 +1,11 @@
 // The storm command: one what-if of an event's onset, or a sweep of onsets.
 #include "planner/cli/command.hpp"
+#include "planner/cli/progress.hpp"
 #include "planner/report/storm_chart.hpp"
 #include "planner/report/storm_report.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/study.hpp"
 
-#include <chrono>
-#include <cstdio>
-#include <unistd.h>
 
 #include <memory>
 #include <string>
@@ -28,6 +26,7 @@ Command add_storm_command(CLI::App& app) {
         bool no_response = false;
         std::string out_path;
         std::string chart_path;
+        bool quiet = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -86,7 +85,7 @@ Command add_storm_command(CLI::App& app) {
                          "the worst onset; written when the run completes, a limit exceeded "
                          "included")
             ->needs(sweep_opt);
-
+        add_quiet_flag(storm, o->quiet);
         return storm;
     }();
     return {sub, [o] {
@@ -112,7 +111,11 @@ Command add_storm_command(CLI::App& app) {
                 auto sc = planner::load_scenario(scenario_path);
                 // Before the study is built: a clashing output costs no computation.
                 planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
-                const planner::Study study(std::move(sc));
+                ProgressLine progress(o->quiet);
+                progress.stage("computing each location's doses");
+                const planner::Study study(std::move(sc), {},
+                                           [&](double f) { progress.update(f); });
+                progress.finish();
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;
                 // A time option inside the mission, or its default.
@@ -143,20 +146,10 @@ Command add_storm_command(CLI::App& app) {
                 if (!(to > from)) {
                     throw InputError({"command line", 0}, "--to", "must be after --from");
                 }
-                const bool tty = isatty(fileno(stderr)) != 0;
-                const auto started = std::chrono::steady_clock::now();
-                bool shown = false;
-                auto progress = [&](double f) {
-                    if (tty &&
-                        std::chrono::steady_clock::now() - started > std::chrono::seconds(1)) {
-                        std::fprintf(stderr, "\rsweeping onsets: %3.0f %%", 100.0 * f);
-                        shown = true;
-                    }
-                };
-                const auto sweep = planner::sweep_storm(context, from, to, step, progress);
-                if (shown) {
-                    std::fprintf(stderr, "\r%30s\r", "");
-                }
+                progress.stage("sweeping onsets");
+                const auto sweep = planner::sweep_storm(context, from, to, step,
+                                                        [&](double f) { progress.update(f); });
+                progress.finish();
                 const std::string text =
                     stamped(planner::format_storm_sweep(context, sweep, fmt_choice), fmt_choice,
                             run_stamp(&study.scenario()));

@@ -5,6 +5,7 @@
 #include <optional>
 #include <span>
 #include <system_error>
+#include <mutex>
 #include <thread>
 #include <tuple>
 
@@ -40,7 +41,8 @@ exposure::MarchOptions gcr_march_options() {
     return o;
 }
 
-Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
+Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
+             const std::function<void(double)>& progress)
     : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
     if (only_location) {
         const LocationSpec one = sc_.location_named(*only_location, "--location");
@@ -193,6 +195,15 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
     std::stable_sort(order.begin(), order.end(),
                      [&](std::size_t a, std::size_t b) { return estimate[a] > estimate[b]; });
     std::atomic<std::size_t> next_job{0};
+    std::size_t jobs_done = 0;
+    std::mutex progress_mutex;
+    auto job_done = [&] {
+        if (progress) {
+            const std::lock_guard<std::mutex> lock(progress_mutex);
+            ++jobs_done;
+            progress(static_cast<double>(jobs_done) / static_cast<double>(2 * n_loc));
+        }
+    };
     auto worker = [&](std::size_t t) {
         try {
             exposure::TableLibrary gcr_tables(gcr_grid());
@@ -219,6 +230,7 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location)
                     }
                     spe_location(i - n_loc, *lib);
                 }
+                job_done();
             }
         } catch (...) {
             failures[t] = std::current_exception();

@@ -6,6 +6,7 @@
 #include "exposure/table_library.hpp"
 #include "habitats/directional_shielding.hpp"
 
+#include <functional>
 #include <map>
 #include <memory>
 #include <optional>
@@ -115,7 +116,10 @@ class Study {
     /// leads to a dose that is not a finite number >= 0. With `only_location` (a command-line
     /// `--location`, InputError naming it if unknown) the study holds that one location alone:
     /// a view of one place (`shielding`) computes one place; a partial study has no ledger.
-    explicit Study(Scenario scenario, const std::optional<std::string>& only_location = {});
+    /// `progress`, when given, is told the share of the locations' work done (0 to 1) as each
+    /// piece finishes; it is called from the worker threads, one call at a time.
+    explicit Study(Scenario scenario, const std::optional<std::string>& only_location = {},
+                   const std::function<void(double)>& progress = {});
     // Locations point into the scenario held here: a Study stays where it was built.
     Study(const Study&) = delete;
     Study& operator=(const Study&) = delete;

@@ -349,6 +349,40 @@ std::string temp_dir() {
 
 } // namespace
 
+TEST_CASE("progress: a line on a terminal's standard error, none with --quiet or in a pipe",
+          "[cli][progress]") {
+    // script(1) (util-linux, in every Debian) gives the run a pseudo-terminal; the report goes
+    // to a file, so what script captures is standard error alone.
+    const std::string dir = temp_dir();
+    auto on_terminal = [&](const std::string& args, const std::string& out) {
+        return run_shell("script -qec '" + std::string(CREWDOSE_BINARY) + " " + args + " > " +
+                         out + "' /dev/null < /dev/null");
+    };
+    // Sizing a shelter runs for several seconds, past the line's one-second wait.
+    const std::string sizing = "shelter " + demo() +
+                               " --event design-spe --location storm-shelter --material water";
+    const ShellResult shown = on_terminal(sizing, dir + "/shown.txt");
+    INFO(shown.out);
+    CHECK(shown.exit_code == 0);
+    CHECK(shown.out.find("sizing the shelter") != std::string::npos);
+    CHECK(shown.out.find(" %") != std::string::npos);
+    CHECK(shown.out.find('\x1b') == std::string::npos); // plain text: no colour, no escapes
+    // The report is the same as in a pipe, where no line is drawn (stderr is not a terminal).
+    const ShellResult piped = run_shell(std::string(CREWDOSE_BINARY) + " " + sizing + " 2> " +
+                                        dir + "/piped-err.txt");
+    CHECK(read_file(dir + "/piped-err.txt").empty());
+    const ShellResult quiet = on_terminal(sizing + " --quiet", dir + "/quiet.txt");
+    INFO(quiet.out);
+    CHECK(quiet.exit_code == 0);
+    CHECK(quiet.out.find('%') == std::string::npos);
+    const std::string shown_report = read_file(dir + "/shown.txt");
+    CHECK(shown_report.find("water") != std::string::npos);
+    // The text report carries no run time: the three are the same.
+    CHECK(shown_report == read_file(dir + "/quiet.txt"));
+    CHECK(shown_report == piped.out);
+    std::filesystem::remove_all(dir);
+}
+
 TEST_CASE("check: the lunar demo is within every evaluated limit", "[cli][check]") {
     const Run r = run("check " + demo());
     INFO(r.out);
