@@ -84,10 +84,16 @@ std::string model_text(const Study& study) {
         sc.limits.uncertainty_factor);
 }
 
-nlohmann::json totals_json(const DoseTotals& t) {
-    return {{"mGyEq", t.mGyEq},
-            {"absorbed_mGy", t.absorbed_mGy},
-            {"dose_equivalent_mSv", t.dose_equivalent_mSv}};
+// A limit quantity's totals: "dose" in the organ's unit (mGy-Eq, or mSv for the effective
+// dose); for an organ also its absorbed dose and dose equivalent (the effective dose is itself
+// a dose equivalent, so it has no other quantity).
+nlohmann::json totals_json(const DoseTotals& t, const std::string& organ) {
+    nlohmann::json j{{"dose", t.mGyEq}};
+    if (organ != "effective") {
+        j["absorbed_mGy"] = t.absorbed_mGy;
+        j["dose_equivalent_mSv"] = t.dose_equivalent_mSv;
+    }
+    return j;
 }
 
 nlohmann::json dose_json(const exposure::DoseQuantities& d) {
@@ -97,7 +103,7 @@ nlohmann::json dose_json(const exposure::DoseQuantities& d) {
 }
 
 nlohmann::json window_json(const WindowMax& w) {
-    return {{"dose_mGyEq", w.dose_mGyEq},
+    return {{"dose", w.dose_mGyEq},
             {"window_start", w.dose_mGyEq > 0 ? format_time(w.window_start) : ""},
             {"window_end", w.dose_mGyEq > 0 ? format_time(w.window_end) : ""},
             {"top_contributor", w.top_contributor}};
@@ -305,23 +311,29 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                 cj["bounded_from_above"][organ] = where;
             }
             for (const auto& o : c.organs) {
-                cj["organs"][o.organ] = {
-                    {"max_30d", window_json(o.max_30d)},
-                    {"max_365d", window_json(o.max_365d)},
-                    {"career_mGyEq", o.career_mGyEq},
-                    {"mission_mGyEq", o.mission_mGyEq},
-                    {"mission_absorbed_mGy", o.mission_absorbed_mGy},
-                    {"mission_dose_equivalent_mSv", o.mission_dose_equivalent_mSv},
-                    {"mission_by_source",
-                     {{"gcr", totals_json(o.gcr)},
-                      {"spe", totals_json(o.spe)},
-                      {"recorded", totals_json(o.recorded)}}}};
+                // Every dose of an organ is in its unit, said once: mGy-Eq, or mSv for the
+                // effective dose (so no key names a unit that a row does not hold).
+                nlohmann::json oj{{"unit", unit_of(o.organ)},
+                                  {"max_30d", window_json(o.max_30d)},
+                                  {"max_365d", window_json(o.max_365d)},
+                                  {"career", o.career_mGyEq},
+                                  {"mission", o.mission_mGyEq},
+                                  {"mission_by_source",
+                                   {{"gcr", totals_json(o.gcr, o.organ)},
+                                    {"spe", totals_json(o.spe, o.organ)},
+                                    {"recorded", totals_json(o.recorded, o.organ)}}}};
+                if (o.organ != "effective") {
+                    oj["mission_absorbed_mGy"] = o.mission_absorbed_mGy;
+                    oj["mission_dose_equivalent_mSv"] = o.mission_dose_equivalent_mSv;
+                }
+                cj["organs"][o.organ] = std::move(oj);
             }
             cj["budget"] = {{"binds", c.budget.binds},
                             {"days_after_mission_end", c.budget.days},
                             {"organ", c.budget.organ},
                             {"window", c.budget.window},
-                            {"gcr_rate_mGyEq_per_day", c.budget.rate_mGyEq_per_day}};
+                            {"gcr_rate_per_day", c.budget.rate_mGyEq_per_day},
+                            {"unit", c.budget.binds ? unit_of(c.budget.organ) : ""}};
             for (const auto& chk : c.checks) {
                 cj["limits"].push_back({{"organ", chk.limit.organ},
                                         {"unit", unit_of(chk.limit.organ)},

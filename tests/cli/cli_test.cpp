@@ -434,7 +434,7 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     CHECK(doc["cautions"].get<std::string>().find("responsible agency") != std::string::npos);
     const auto& crew = doc["crew"][2];
     CHECK(crew["id"] == "halvorsen");
-    const double bfo30 = crew["organs"]["bfo"]["max_30d"]["dose_mGyEq"].get<double>();
+    const double bfo30 = crew["organs"]["bfo"]["max_30d"]["dose"].get<double>();
     const Run t = run("check " + demo());
     char buf[32];
     std::snprintf(buf, sizeof buf, "%.3g", bfo30);
@@ -460,10 +460,24 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     // The parts by source add up to the mission total (nothing else is charged).
     const auto& bfo = crew["organs"]["bfo"];
     const auto& by = bfo["mission_by_source"];
-    CHECK(by["gcr"]["mGyEq"].get<double>() > 0.0);
-    CHECK(by["gcr"]["mGyEq"].get<double>() + by["spe"]["mGyEq"].get<double>() +
-              by["recorded"]["mGyEq"].get<double>() ==
-          Approx(bfo["mission_mGyEq"].get<double>()).epsilon(1e-12));
+    CHECK(bfo["unit"] == "mGy-Eq");
+    CHECK(by["gcr"]["dose"].get<double>() > 0.0);
+    CHECK(by["gcr"]["dose"].get<double>() + by["spe"]["dose"].get<double>() +
+              by["recorded"]["dose"].get<double>() ==
+          Approx(bfo["mission"].get<double>()).epsilon(1e-12));
+    // Every key that names a unit holds that unit on every row: the effective dose's doses are
+    // mSv, said by its "unit", and it has no absorbed dose or RBE-weighted key (it used to
+    // carry mSv under keys named mGyEq and absorbed_mGy).
+    const auto& eff = crew["organs"]["effective"];
+    CHECK(eff["unit"] == "mSv");
+    CHECK(eff["career"].get<double>() > 0.0);
+    CHECK_FALSE(eff.contains("mission_absorbed_mGy"));
+    CHECK_FALSE(eff["mission_by_source"]["gcr"].contains("absorbed_mGy"));
+    const std::string flat = j.out;
+    CHECK(flat.find("career_mGyEq") == std::string::npos);
+    CHECK(flat.find("gcr_rate_mGyEq_per_day") == std::string::npos);
+    const auto& budget = crew["budget"];
+    CHECK(budget["unit"] == (budget["organ"] == "effective" ? "mSv" : "mGy-Eq"));
     CHECK(doc["gcr"]["phi_MV"] == 650.0);
     const auto& rate = doc["gcr"]["daily_rates_at_start"]["storm-shelter"]["bfo"];
     // The storm shelter's walls are thick: with nuclear reactions and their secondaries the
