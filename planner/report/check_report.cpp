@@ -53,6 +53,12 @@ std::string phi_text(const Mission& m) {
     for (const auto& phase : m.gcr_phases) {
         t += fmt::format(", {:.0f} MV from {}", phase.phi_MV, format_time(phase.from));
     }
+    if (!m.gcr_phi_series.empty()) {
+        t += fmt::format(" (by month from the recorded solar cycle: Usoskin et al. 2017, "
+                         "2014-2025, the same phase of that cycle outside it; rounded down to "
+                         "{:.0f} MV)",
+                         kRecordedPhiStep_MV);
+    }
     if (!m.gcr_phi_given) {
         t += " (no value given: the solar-minimum example, the higher background)";
     }
@@ -250,6 +256,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         {
             nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},
                              {"phi_given", sc.mission.gcr_phi_given},
+                             {"phi_series", sc.mission.gcr_phi_series},
                              {"composition", std::string(exposure::gcr_composition_source())},
                              {"transport",
                               "straight-ahead depth march of the whole field with nuclear "

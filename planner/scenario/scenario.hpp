@@ -58,6 +58,9 @@ struct Mission {
     /// when the scenario gives none, the solar-minimum example (the conservative choice).
     double gcr_phi_MV = exposure::kExampleSolarMinimumPhi_MV;
     bool gcr_phi_given = false;
+    /// The phi series the values come from when the scenario asks for phi by date
+    /// (gcr_phi_by_date = kRecordedCyclePhi); empty when phi was given (or defaulted).
+    std::string gcr_phi_series;
     /// Later values of phi, each from its date on (sorted, after mission start).
     struct GcrPhase {
         SourceLocation where;
@@ -93,6 +96,11 @@ struct Mission {
     /// phi at time t.
     [[nodiscard]] double gcr_phi_at(const Time& t) const;
 };
+
+/// mission.gcr_phi_by_date's one value: phi by month from the last recorded solar cycle
+/// (exposure/solar_cycle.hpp), rounded down to kRecordedPhiStep_MV.
+inline constexpr const char* kRecordedCyclePhi = "recorded-cycle";
+inline constexpr double kRecordedPhiStep_MV = 25.0;
 
 enum class BodyModelKind { quick, phantom };
 

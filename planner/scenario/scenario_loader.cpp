@@ -13,6 +13,7 @@
 #include "exposure/element.hpp"
 #include "exposure/material_library.hpp"
 #include "exposure/parameter_error.hpp"
+#include "exposure/solar_cycle.hpp"
 #include "habitats/direction_set.hpp"
 
 #include "planner/scenario/toml.hpp"
@@ -65,6 +66,40 @@ constexpr std::uintmax_t kMaxScenarioBytes = 64u << 20;
 /// The years a mission may lie in.
 constexpr int kFirstMissionYear = 1950;
 constexpr int kLastMissionYear = 2500;
+
+/// phi by date from the recorded solar cycle (exposure/solar_cycle.hpp): a value per calendar
+/// month of the mission, rounded down to a multiple of kRecordedPhiStep_MV (a lower phi lets
+/// more GCR in: the rounding never lowers the dose, and months of nearly the same phi share
+/// one GCR computation), written as the mission's phi at its start and a phase at each month
+/// whose rounded value differs.
+void apply_recorded_cycle(Mission& mission, const SourceLocation& where) {
+    auto rounded = [](int year, int month) {
+        const double phi = exposure::recorded_cycle_phi_MV(year, month);
+        return std::floor(phi / kRecordedPhiStep_MV) * kRecordedPhiStep_MV;
+    };
+    const auto d0 = mission.start.date();
+    int year = d0.year();
+    int month = d0.month();
+    mission.gcr_phi_MV = rounded(year, month);
+    mission.gcr_phi_given = true;
+    mission.gcr_phi_series = kRecordedCyclePhi;
+    mission.gcr_phases.clear();
+    double last = mission.gcr_phi_MV;
+    for (;;) {
+        month = month == 12 ? 1 : month + 1;
+        year = month == 1 ? year + 1 : year;
+        const Time from(boost::gregorian::date(static_cast<unsigned short>(year),
+                                               static_cast<unsigned short>(month), 1));
+        if (!(from < mission.end)) {
+            break;
+        }
+        const double phi = rounded(year, month);
+        if (phi != last) {
+            mission.gcr_phases.push_back({where, from, phi});
+            last = phi;
+        }
+    }
+}
 
 OrganDoses read_doses(const Section& s) {
     OrganDoses d;
@@ -195,6 +230,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section m(top.table("mission"), file, "mission",
                         {"name", "site", "start", "end", "directions", "terrain_mask",
                          "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
+                         "gcr_phi_by_date",
                          "gcr_directions", "phantom_directions", "sun_distance_AU",
                          "sep_path_length_AU", "sep_fluence_exponent", "trajectory"});
         sc.mission.where = m.where();
@@ -366,6 +402,21 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 sc.mission.gcr_phases.push_back(phase);
                 sc.mission.gcr_phi_given = true;
             }
+        }
+        if (m.has("gcr_phi_by_date")) {
+            const std::string source = m.text("gcr_phi_by_date");
+            if (source != kRecordedCyclePhi) {
+                m.fail("gcr_phi_by_date",
+                       fmt::format("'{}' is not a phi series; allowed: {}", source,
+                                   kRecordedCyclePhi));
+            }
+            for (const char* other : {"gcr_phi_MV", "gcr_modulation"}) {
+                if (m.has(other)) {
+                    m.fail(other, "cannot be given with gcr_phi_by_date (phi comes from the "
+                                  "recorded cycle); give one or the other");
+                }
+            }
+            apply_recorded_cycle(sc.mission, m.at(*m.node("gcr_phi_by_date")));
         }
     }
 

@@ -3,6 +3,7 @@
 #include "fixture.hpp"
 #include "planner/analyses/gcr_curve.hpp"
 #include "planner/scenario/scenario.hpp"
+#include "planner/scenario/time_format.hpp"
 #include "scenario_errors.hpp"
 
 #include <catch2/catch.hpp>
@@ -123,6 +124,33 @@ TEST_CASE("limits: overrides and the uncertainty factor", "[scenario]") {
     expect(kBase + "\n[limits]\nbfo_7d_mGyEq = 100\n", "limits.bfo_7d_mGyEq: unknown key");
     expect(kBase + "\n[limits]\nuncertainty_factor = 0\n",
            "limits.uncertainty_factor: 0 is outside the allowed range 1 to 10");
+}
+
+TEST_CASE("GCR modulation by date from the recorded solar cycle", "[scenario][gcr]") {
+    // A six-month mission from January 2032: 216 months after January 2014, the phase of
+    // January 2021 (216 mod 132 = 84). Usoskin et al. 2017 monthly phi (scripts/data/oulu/):
+    // 2021-01 326, 2021-02 365, 2021-03 320, 2021-04 306, 2021-05 309, 2021-06 316 MV;
+    // rounded down to 25 MV: 325, 350, then 300 from March on.
+    const std::string by_date = replace(
+        replace(kBase, "end = 2032-01-11T00:00:00Z\ndirections",
+                "end = 2032-07-01T00:00:00Z\ndirections"),
+        "directions = 16", "directions = 16\ngcr_phi_by_date = \"recorded-cycle\"");
+    const Scenario s = parse_scenario(by_date, "plan.toml");
+    CHECK(s.mission.gcr_phi_given);
+    CHECK(s.mission.gcr_phi_series == "recorded-cycle");
+    CHECK(s.mission.gcr_phi_MV == 325.0);
+    REQUIRE(s.mission.gcr_phases.size() == 2);
+    CHECK(format_time(s.mission.gcr_phases[0].from) == "2032-02-01T00:00:00Z");
+    CHECK(s.mission.gcr_phases[0].phi_MV == 350.0);
+    CHECK(format_time(s.mission.gcr_phases[1].from) == "2032-03-01T00:00:00Z");
+    CHECK(s.mission.gcr_phases[1].phi_MV == 300.0);
+    CHECK(s.mission.gcr_phi_at(s.mission.end) == 300.0);
+    expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_by_date = \"cycle-27\""),
+           "plan.toml:7: mission.gcr_phi_by_date: 'cycle-27' is not a phi series; allowed: "
+           "recorded-cycle");
+    expect(replace(kBase, "directions = 16",
+                   "directions = 16\ngcr_phi_by_date = \"recorded-cycle\"\ngcr_phi_MV = 500"),
+           "mission.gcr_phi_MV: cannot be given with gcr_phi_by_date");
 }
 
 TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenario][gcr]") {
