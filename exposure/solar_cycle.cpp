@@ -1,5 +1,6 @@
 #include "exposure/solar_cycle.hpp"
 
+#include <algorithm>
 #include <stdexcept>
 
 namespace crewdose::exposure {
@@ -23,14 +24,20 @@ bool phi_recorded(int year, int month) {
 double recorded_cycle_phi_MV(int year, int month) {
     const auto s = recorded_phi_series();
     long k = offset_of(s, year, month);
-    if (k < 0 || k >= static_cast<long>(s.monthly_MV.size())) {
-        // The same phase inside the first whole cycle of the record.
-        k %= kSolarCycleMonths;
-        if (k < 0) {
-            k += kSolarCycleMonths;
-        }
+    if (k >= 0 && k < static_cast<long>(s.monthly_MV.size())) {
+        return s.monthly_MV[static_cast<std::size_t>(k)];
     }
-    return s.monthly_MV[static_cast<std::size_t>(k)];
+    // The same phase inside the first whole cycle of the record, and the lowest phi within
+    // kPhaseSpreadMonths of it (the phase wraps around the cycle).
+    auto phase = [](long i) {
+        i %= kSolarCycleMonths;
+        return i < 0 ? i + kSolarCycleMonths : i;
+    };
+    double lowest = s.monthly_MV[static_cast<std::size_t>(phase(k))];
+    for (long d = -kPhaseSpreadMonths; d <= kPhaseSpreadMonths; ++d) {
+        lowest = std::min(lowest, s.monthly_MV[static_cast<std::size_t>(phase(k + d))]);
+    }
+    return lowest;
 }
 
 } // namespace crewdose::exposure

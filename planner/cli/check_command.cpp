@@ -53,7 +53,9 @@ Command add_check_command(CLI::App& app) {
             "(and [[mission.gcr_modulation]] for later changes); about 400 MV near solar "
             "minimum, 1000 MV or more near maximum, for the Burger et al. 2000 interstellar "
             "spectrum the model uses: a phi derived with another spectrum is not "
-            "interchangeable. Without a value the solar-minimum example (400 MV) is used.\n"
+            "interchangeable. Without a value phi comes by month from the last recorded solar "
+            "cycle (Usoskin et al. 2017, 2014-2025; outside it the lowest value within a year "
+            "of the same phase), a planning estimate the report states.\n"
             "Example: crewdose check scenarios/lunar-demo.toml --chart doses.svg\nExit 0: all "
             "evaluated limits met; 1: a limit exceeded; 2: bad input; 3: internal fault.");
         check
@@ -116,8 +118,7 @@ Command add_check_command(CLI::App& app) {
             planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
             ProgressLine progress(o->quiet);
             progress.stage("computing each location's doses");
-            const planner::Study study(std::move(sc), {},
-                                       [&](double f) { progress.update(f); });
+            const planner::Study study(std::move(sc), {}, [&](double f) { progress.update(f); });
             progress.finish();
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;

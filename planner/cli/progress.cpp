@@ -28,7 +28,9 @@ bool terminal_wanted() {
 ProgressLine::ProgressLine(bool quiet)
     : enabled_(!quiet && terminal_wanted()), started_(std::chrono::steady_clock::now()) {}
 
-ProgressLine::~ProgressLine() { finish(); }
+ProgressLine::~ProgressLine() {
+    finish();
+}
 
 std::string ProgressLine::render(const std::string& label, double fraction) {
     const double f = std::isfinite(fraction) ? std::clamp(fraction, 0.0, 1.0) : 0.0;

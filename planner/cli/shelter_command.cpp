@@ -79,59 +79,58 @@ Command add_shelter_command(CLI::App& app) {
         add_quiet_flag(shelter, o->quiet);
         return shelter;
     }();
-    return {sub, [o] {
-                auto& format = o->format;
-                auto& scenario_path = o->scenario_path;
-                auto& location_id = o->location_id;
-                auto& event_id = o->event_id;
-                auto& shelter_materials = o->shelter_materials;
-                auto& shelter_targets = o->shelter_targets;
-                auto& shelter_layer = o->shelter_layer;
-                auto& shelter_max = o->shelter_max;
-                const auto fmt_choice = planner::parse_output_format(format);
-                // A path that cannot be written fails now, before the computation.
-                planner::refuse_unwritable_outputs(
-                    {{"--out", o->out_path}, {"--chart", o->chart_path}});
-                auto sc = planner::load_scenario(scenario_path);
-                planner::refuse_clashing_outputs(
-                    scenario_inputs(sc, scenario_path),
-                    {{"--out", o->out_path}, {"--chart", o->chart_path}});
-                ProgressLine progress(o->quiet);
-                progress.stage("computing each location's doses");
-                const planner::Study study(std::move(sc), {},
-                                           [&](double f) { progress.update(f); });
-                planner::ShelterRequest request;
-                request.event_id = event_id;
-                request.location_id = location_id;
-                if (!shelter_materials.empty()) {
-                    request.materials = shelter_materials;
+    return {
+        sub, [o] {
+            auto& format = o->format;
+            auto& scenario_path = o->scenario_path;
+            auto& location_id = o->location_id;
+            auto& event_id = o->event_id;
+            auto& shelter_materials = o->shelter_materials;
+            auto& shelter_targets = o->shelter_targets;
+            auto& shelter_layer = o->shelter_layer;
+            auto& shelter_max = o->shelter_max;
+            const auto fmt_choice = planner::parse_output_format(format);
+            // A path that cannot be written fails now, before the computation.
+            planner::refuse_unwritable_outputs(
+                {{"--out", o->out_path}, {"--chart", o->chart_path}});
+            auto sc = planner::load_scenario(scenario_path);
+            planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path),
+                                             {{"--out", o->out_path}, {"--chart", o->chart_path}});
+            ProgressLine progress(o->quiet);
+            progress.stage("computing each location's doses");
+            const planner::Study study(std::move(sc), {}, [&](double f) { progress.update(f); });
+            planner::ShelterRequest request;
+            request.event_id = event_id;
+            request.location_id = location_id;
+            if (!shelter_materials.empty()) {
+                request.materials = shelter_materials;
+            }
+            for (const auto& t : shelter_targets) {
+                planner::parse_shelter_target(t, request.targets);
+            }
+            if (!shelter_layer.empty()) {
+                planner::parse_shelter_layer(study, shelter_layer, request);
+            }
+            request.max_g_cm2 = shelter_max;
+            progress.stage("sizing the shelter");
+            const auto report =
+                planner::size_shelter(study, request, [&](double f) { progress.update(f); });
+            progress.finish();
+            const std::string text =
+                stamped(planner::format_shelter_report(study, report, fmt_choice), fmt_choice,
+                        run_stamp(&study.scenario()));
+            if (!o->chart_path.empty()) {
+                planner::write_file_atomically(
+                    o->chart_path, planner::format_shelter_chart(study, report), "--chart");
+            }
+            write_report(text, o->out_path);
+            for (const auto& a : report.answers) {
+                if (!a.achievable) {
+                    return 1;
                 }
-                for (const auto& t : shelter_targets) {
-                    planner::parse_shelter_target(t, request.targets);
-                }
-                if (!shelter_layer.empty()) {
-                    planner::parse_shelter_layer(study, shelter_layer, request);
-                }
-                request.max_g_cm2 = shelter_max;
-                progress.stage("sizing the shelter");
-                const auto report = planner::size_shelter(study, request,
-                                                          [&](double f) { progress.update(f); });
-                progress.finish();
-                const std::string text =
-                    stamped(planner::format_shelter_report(study, report, fmt_choice), fmt_choice,
-                            run_stamp(&study.scenario()));
-                if (!o->chart_path.empty()) {
-                    planner::write_file_atomically(
-                        o->chart_path, planner::format_shelter_chart(study, report), "--chart");
-                }
-                write_report(text, o->out_path);
-                for (const auto& a : report.answers) {
-                    if (!a.achievable) {
-                        return 1;
-                    }
-                }
-                return 0;
-            }};
+            }
+            return 0;
+        }};
 }
 
 } // namespace crewdose::cli

@@ -54,13 +54,11 @@ std::string phi_text(const Mission& m) {
         t += fmt::format(", {:.0f} MV from {}", phase.phi_MV, format_time(phase.from));
     }
     if (!m.gcr_phi_series.empty()) {
-        t += fmt::format(" (by month from the recorded solar cycle: Usoskin et al. 2017, "
-                         "2014-2025, the same phase of that cycle outside it; rounded down to "
-                         "{:.0f} MV)",
-                         kRecordedPhiStep_MV);
-    }
-    if (!m.gcr_phi_given) {
-        t += " (no value given: the solar-minimum example, the higher background)";
+        t += fmt::format(" ({}by month from the recorded solar cycle: Usoskin et al. 2017, "
+                         "2014-2025; a later or earlier month takes the lowest value within a "
+                         "year of its phase, 11 years apart; rounded down to {:.0f} MV; a "
+                         "planning estimate, not a forecast)",
+                         m.gcr_phi_given ? "" : "no value given: ", kRecordedPhiStep_MV);
     }
     return t;
 }

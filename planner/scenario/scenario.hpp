@@ -55,7 +55,8 @@ struct Mission {
     double surface_pressure_Pa = 750.0; ///< Mars only
     double scale_height_km = 11.1;      ///< Mars only
     /// GCR modulation potential phi (MV, for the Usoskin et al. 2005 LIS) from mission start;
-    /// when the scenario gives none, the solar-minimum example (the conservative choice).
+    /// when the scenario gives none, the loader takes it by month from the recorded solar cycle
+    /// (gcr_phi_series set, gcr_phi_given false).
     double gcr_phi_MV = exposure::kExampleSolarMinimumPhi_MV;
     bool gcr_phi_given = false;
     /// The phi series the values come from when the scenario asks for phi by date

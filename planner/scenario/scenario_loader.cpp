@@ -230,9 +230,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section m(top.table("mission"), file, "mission",
                         {"name", "site", "start", "end", "directions", "terrain_mask",
                          "surface_pressure_Pa", "scale_height_km", "gcr_phi_MV", "gcr_modulation",
-                         "gcr_phi_by_date",
-                         "gcr_directions", "phantom_directions", "sun_distance_AU",
-                         "sep_path_length_AU", "sep_fluence_exponent", "trajectory"});
+                         "gcr_phi_by_date", "gcr_directions", "phantom_directions",
+                         "sun_distance_AU", "sep_path_length_AU", "sep_fluence_exponent",
+                         "trajectory"});
         sc.mission.where = m.where();
         sc.mission.name = m.text("name");
         const std::string site = m.text("site");
@@ -406,9 +406,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         if (m.has("gcr_phi_by_date")) {
             const std::string source = m.text("gcr_phi_by_date");
             if (source != kRecordedCyclePhi) {
-                m.fail("gcr_phi_by_date",
-                       fmt::format("'{}' is not a phi series; allowed: {}", source,
-                                   kRecordedCyclePhi));
+                m.fail("gcr_phi_by_date", fmt::format("'{}' is not a phi series; allowed: {}",
+                                                      source, kRecordedCyclePhi));
             }
             for (const char* other : {"gcr_phi_MV", "gcr_modulation"}) {
                 if (m.has(other)) {
@@ -417,6 +416,11 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 }
             }
             apply_recorded_cycle(sc.mission, m.at(*m.node("gcr_phi_by_date")));
+        }
+        if (!sc.mission.gcr_phi_given) {
+            // No phi given: by month from the recorded cycle, said so in every report.
+            apply_recorded_cycle(sc.mission, m.where());
+            sc.mission.gcr_phi_given = false;
         }
     }
 

@@ -2,10 +2,10 @@
 
 #include <atomic>
 #include <exception>
+#include <mutex>
 #include <optional>
 #include <span>
 #include <system_error>
-#include <mutex>
 #include <thread>
 #include <tuple>
 
@@ -14,6 +14,7 @@
 #include <fmt/format.h>
 
 #include <algorithm>
+#include <cmath>
 #include <cstdlib>
 #include <filesystem>
 #include <stdexcept>
@@ -63,6 +64,17 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
     std::vector<double> phis{sc_.mission.gcr_phi_MV};
     for (const auto& phase : sc_.mission.gcr_phases) {
         phis.push_back(phase.phi_MV);
+    }
+    if (!sc_.mission.gcr_phi_series.empty()) {
+        // phi by month from a recorded series: the GCR is computed on the kPhiNode_MV grid
+        // around each value and interpolated (gcr_daily_dose), so a long mission costs a few
+        // nodes, not one computation per month.
+        std::vector<double> nodes;
+        for (const double phi : phis) {
+            nodes.push_back(std::floor(phi / kPhiNode_MV) * kPhiNode_MV);
+            nodes.push_back(std::ceil(phi / kPhiNode_MV) * kPhiNode_MV);
+        }
+        phis = std::move(nodes);
     }
     // CREWDOSE_THREADS overrides the thread count (tests check the results do not change).
     std::size_t wanted = std::thread::hardware_concurrency();
@@ -517,9 +529,31 @@ exposure::DoseQuantities Study::event_dose(const std::string& location, const st
         .scaled(event.distance_factor(r_AU, sc_.mission.sep_fluence_exponent));
 }
 
-const exposure::BracketedDose&
-Study::gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const {
-    return gcr_rates_.at({location, organ, phi_MV});
+exposure::BracketedDose Study::gcr_daily_dose(const std::string& location, const std::string& organ,
+                                              double phi_MV) const {
+    const auto exact = gcr_rates_.find({location, organ, phi_MV});
+    if (exact != gcr_rates_.end()) {
+        return exact->second;
+    }
+    // Between two nodes of the kPhiNode_MV grid (phi by date): linear in phi. The dose falls
+    // with phi and flattens (convex), so the chord lies above it: never less dose.
+    const double lo = std::floor(phi_MV / kPhiNode_MV) * kPhiNode_MV;
+    const double hi = std::ceil(phi_MV / kPhiNode_MV) * kPhiNode_MV;
+    const auto a = gcr_rates_.find({location, organ, lo});
+    const auto b = gcr_rates_.find({location, organ, hi});
+    if (a == gcr_rates_.end() || b == gcr_rates_.end()) {
+        throw std::out_of_range(fmt::format("GCR rate of {} at {} for phi {} MV was not computed",
+                                            organ, location, phi_MV));
+    }
+    const double w = (phi_MV - lo) / (hi - lo);
+    exposure::BracketedDose d = a->second;
+    d.with_removal = a->second.with_removal.scaled(1.0 - w);
+    d.with_removal += b->second.with_removal.scaled(w);
+    d.without_removal = a->second.without_removal.scaled(1.0 - w);
+    d.without_removal += b->second.without_removal.scaled(w);
+    d.extrapolated_share =
+        (1.0 - w) * a->second.extrapolated_share + w * b->second.extrapolated_share;
+    return d;
 }
 
 const OrganResponse& Study::response(const std::string& location, const std::string& organ) const {

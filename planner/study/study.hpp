@@ -109,6 +109,9 @@ inline constexpr double kArrivalBinsPerAU = 100.0;
 apply_secondary_factor(const exposure::DoseQuantities& primaries,
                        const exposure::DoseQuantities& factor);
 
+/// The grid of phi (MV) the GCR is computed on when phi comes by month from a recorded series.
+inline constexpr double kPhiNode_MV = 100.0;
+
 /// Responses of every location and organ, shared by every crew member and activity.
 class Study {
   public:
@@ -167,7 +170,10 @@ class Study {
     /// the mission uses: every such value is computed at construction), per day, nuclei
     /// Z = 1..28: with_removal is the march with nuclear reactions (removal and projectile
     /// fragments), without_removal the march without any; limits use for_limits(), the higher.
-    [[nodiscard]] const exposure::BracketedDose&
+    /// With phi by date (Mission::gcr_phi_series) the rates are computed on the kPhiNode_MV grid
+    /// and interpolated linearly in phi between its two nodes (above the true curve, which is
+    /// convex); std::out_of_range for a phi the mission does not use.
+    [[nodiscard]] exposure::BracketedDose
     gcr_daily_dose(const std::string& location, const std::string& organ, double phi_MV) const;
 
     /// The factor that adds an event's secondaries to its primary dose (with reactions) at a

@@ -355,12 +355,12 @@ TEST_CASE("progress: a line on a terminal's standard error, none with --quiet or
     // to a file, so what script captures is standard error alone.
     const std::string dir = temp_dir();
     auto on_terminal = [&](const std::string& args, const std::string& out) {
-        return run_shell("script -qec '" + std::string(CREWDOSE_BINARY) + " " + args + " > " +
-                         out + "' /dev/null < /dev/null");
+        return run_shell("script -qec '" + std::string(CREWDOSE_BINARY) + " " + args + " > " + out +
+                         "' /dev/null < /dev/null");
     };
     // Sizing a shelter runs for several seconds, past the line's one-second wait.
-    const std::string sizing = "shelter " + demo() +
-                               " --event design-spe --location storm-shelter --material water";
+    const std::string sizing =
+        "shelter " + demo() + " --event design-spe --location storm-shelter --material water";
     const ShellResult shown = on_terminal(sizing, dir + "/shown.txt");
     INFO(shown.out);
     CHECK(shown.exit_code == 0);
@@ -368,8 +368,8 @@ TEST_CASE("progress: a line on a terminal's standard error, none with --quiet or
     CHECK(shown.out.find(" %") != std::string::npos);
     CHECK(shown.out.find('\x1b') == std::string::npos); // plain text: no colour, no escapes
     // The report is the same as in a pipe, where no line is drawn (stderr is not a terminal).
-    const ShellResult piped = run_shell(std::string(CREWDOSE_BINARY) + " " + sizing + " 2> " +
-                                        dir + "/piped-err.txt");
+    const ShellResult piped =
+        run_shell(std::string(CREWDOSE_BINARY) + " " + sizing + " 2> " + dir + "/piped-err.txt");
     CHECK(read_file(dir + "/piped-err.txt").empty());
     const ShellResult quiet = on_terminal(sizing + " --quiet", dir + "/quiet.txt");
     INFO(quiet.out);

@@ -156,8 +156,8 @@ TEST_CASE("timeline gaps are errors unless allowed, then charged and listed", "[
         (void)build_ledger(study);
         FAIL("expected a gap error");
     } catch (const InputError& e) {
-        // The error names the activity before the gap (line 26), not the crew member's line.
-        CHECK(std::string(e.what()).find("hand.toml:26: activity: crew member 'a' has no activity "
+        // The error names the activity before the gap (line 27), not the crew member's line.
+        CHECK(std::string(e.what()).find("hand.toml:27: activity: crew member 'a' has no activity "
                                          "from 2032-01-10T05:00:00Z to 2032-01-11T05:00:00Z") !=
               std::string::npos);
     }
@@ -179,8 +179,8 @@ TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledge
     // GCR part is the sum of each phase's daily rate times its days (times the factor 1.5).
     std::string plan = kPlan;
     plan.replace(plan.find("directions = 16"), 15,
-                 "directions = 16\ngcr_phi_MV = 400\n[[mission.gcr_modulation]]\n"
-                 "from = 2032-01-21T00:00:00Z\nphi_MV = 900");
+                 "directions = 16\n[[mission.gcr_modulation]]\n"
+                 "from = 2032-01-21T00:00:00Z\nphi_MV = 900"); // the fixture's phi is 400
     const Study study(parse_scenario(plan, "hand.toml"));
     const double g400 =
         1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
@@ -192,14 +192,53 @@ TEST_CASE("the GCR background follows a piecewise modulation potential", "[ledge
     CHECK(bfo.gcr.mGyEq == Approx(1.5 * (20.0 * g400 + 40.0 * g900)).epsilon(1e-9));
 }
 
+TEST_CASE("phi by date: rates interpolated between 100 MV nodes, never below the exact rate",
+          "[ledger][gcr]") {
+    // January to March 2032 by the recorded cycle is 250 MV (scenario_test): computed at the
+    // nodes 200 and 300 MV and interpolated linearly. The GCR dose falls with phi and flattens
+    // (convex), so the chord is above the exact value at 250 MV; 100 MV apart it stays within
+    // a few per cent (`crewdose gcr --depths 0` at 200, 250, 300 MV: the chord is 2.1-2.9 %
+    // above the absorbed dose, 2.3 % above the skin's dose equivalent; gate 5 %).
+    std::string by_date = kPlan;
+    const std::string fixed = "gcr_phi_MV = 400          # fixed, so the hand computation knows it";
+    by_date.replace(by_date.find(fixed), fixed.size(), "gcr_phi_by_date = \"recorded-cycle\"");
+    std::string exact_plan = kPlan;
+    exact_plan.replace(exact_plan.find(fixed), fixed.size(), "gcr_phi_MV = 250");
+    const Study interpolated(parse_scenario(by_date, "hand.toml"));
+    const Study exact(parse_scenario(exact_plan, "hand.toml"));
+    REQUIRE(interpolated.scenario().mission.gcr_phi_MV == 250.0);
+    for (const std::string organ : {"bfo", "lens", "skin"}) {
+        const auto i = interpolated.gcr_daily_dose("free", organ, 250.0).for_limits();
+        const auto e = exact.gcr_daily_dose("free", organ, 250.0).for_limits();
+        const auto n200 = interpolated.gcr_daily_dose("free", organ, 200.0).for_limits();
+        const auto n300 = interpolated.gcr_daily_dose("free", organ, 300.0).for_limits();
+        INFO(organ);
+        CHECK(i.rbe_weighted_GyEq ==
+              Approx(0.5 * (n200.rbe_weighted_GyEq + n300.rbe_weighted_GyEq)).epsilon(1e-12));
+        for (const auto& [got, want] : {std::pair{i.absorbed_Gy, e.absorbed_Gy},
+                                        std::pair{i.dose_equivalent_Sv, e.dose_equivalent_Sv},
+                                        std::pair{i.rbe_weighted_GyEq, e.rbe_weighted_GyEq}}) {
+            CHECK(got >= want);
+            CHECK(got <= 1.05 * want);
+        }
+    }
+    // A phi the mission does not use was not computed: an error, not a number.
+    CHECK_THROWS_AS(interpolated.gcr_daily_dose("free", "bfo", 650.0), std::out_of_range);
+    // The ledger takes the interpolated rate: 1.5 times 60 days of it.
+    const auto& bfo = build_ledger(interpolated).crew.at(0).organs.at(0);
+    CHECK(bfo.gcr.mGyEq ==
+          Approx(1.5 * 60.0 * 1e3 *
+                 interpolated.gcr_daily_dose("free", "bfo", 250.0).for_limits().rbe_weighted_GyEq)
+              .epsilon(1e-9));
+}
+
 TEST_CASE("a modulation phase that repeats phi counts its rate once", "[ledger][gcr]") {
     // By construction: a phase with the mission's own phi changes nothing. (The GCR rates are
     // computed per distinct phi; a repeated phi was once summed twice.)
-    std::string plan = kPlan;
-    plan.replace(plan.find("directions = 16"), 15, "directions = 16\ngcr_phi_MV = 400");
+    const std::string plan = kPlan; // phi 400 MV
     std::string repeated = kPlan;
     repeated.replace(repeated.find("directions = 16"), 15,
-                     "directions = 16\ngcr_phi_MV = 400\n[[mission.gcr_modulation]]\n"
+                     "directions = 16\n[[mission.gcr_modulation]]\n"
                      "from = 2032-01-21T00:00:00Z\nphi_MV = 400");
     const Study one(parse_scenario(plan, "hand.toml"));
     const Study twice(parse_scenario(repeated, "hand.toml"));

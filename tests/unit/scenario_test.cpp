@@ -128,23 +128,34 @@ TEST_CASE("limits: overrides and the uncertainty factor", "[scenario]") {
 
 TEST_CASE("GCR modulation by date from the recorded solar cycle", "[scenario][gcr]") {
     // A six-month mission from January 2032: 216 months after January 2014, the phase of
-    // January 2021 (216 mod 132 = 84). Usoskin et al. 2017 monthly phi (scripts/data/oulu/):
-    // 2021-01 326, 2021-02 365, 2021-03 320, 2021-04 306, 2021-05 309, 2021-06 316 MV;
-    // rounded down to 25 MV: 325, 350, then 300 from March on.
-    const std::string by_date = replace(
-        replace(kBase, "end = 2032-01-11T00:00:00Z\ndirections",
-                "end = 2032-07-01T00:00:00Z\ndirections"),
-        "directions = 16", "directions = 16\ngcr_phi_by_date = \"recorded-cycle\"");
+    // January 2021 (216 mod 132 = 84), outside the record, so each month takes the lowest phi
+    // within 12 months of its phase. Usoskin et al. 2017 monthly phi (scripts/data/oulu/): the
+    // windows of January to April 2032 reach April 2020 (269 MV), May's starts at May 2020
+    // (280), June's at June 2020 (291); rounded down to 25 MV: 250 to April, 275 from May.
+    const std::string by_date =
+        replace(replace(kBase, "end = 2032-01-11T00:00:00Z\ndirections",
+                        "end = 2032-07-01T00:00:00Z\ndirections"),
+                "directions = 16", "directions = 16\ngcr_phi_by_date = \"recorded-cycle\"");
     const Scenario s = parse_scenario(by_date, "plan.toml");
     CHECK(s.mission.gcr_phi_given);
     CHECK(s.mission.gcr_phi_series == "recorded-cycle");
-    CHECK(s.mission.gcr_phi_MV == 325.0);
-    REQUIRE(s.mission.gcr_phases.size() == 2);
-    CHECK(format_time(s.mission.gcr_phases[0].from) == "2032-02-01T00:00:00Z");
-    CHECK(s.mission.gcr_phases[0].phi_MV == 350.0);
-    CHECK(format_time(s.mission.gcr_phases[1].from) == "2032-03-01T00:00:00Z");
-    CHECK(s.mission.gcr_phases[1].phi_MV == 300.0);
-    CHECK(s.mission.gcr_phi_at(s.mission.end) == 300.0);
+    CHECK(s.mission.gcr_phi_MV == 250.0);
+    REQUIRE(s.mission.gcr_phases.size() == 1);
+    CHECK(format_time(s.mission.gcr_phases[0].from) == "2032-05-01T00:00:00Z");
+    CHECK(s.mission.gcr_phases[0].phi_MV == 275.0);
+    CHECK(s.mission.gcr_phi_at(s.mission.end) == 275.0);
+    // Inside the record the months are the table's: a mission in 2023, January 607, February
+    // 690, March 701 MV, rounded down: 600, 675, 700.
+    std::string in_record = replace(by_date, "2032-07-01T00:00:00Z", "2032-04-01T00:00:00Z");
+    for (auto at = in_record.find("2032-"); at != std::string::npos;
+         at = in_record.find("2032-", at)) {
+        in_record.replace(at, 5, "2023-");
+    }
+    const Scenario r = parse_scenario(in_record, "plan.toml");
+    CHECK(r.mission.gcr_phi_MV == 600.0);
+    REQUIRE(r.mission.gcr_phases.size() == 2);
+    CHECK(r.mission.gcr_phases[0].phi_MV == 675.0);
+    CHECK(r.mission.gcr_phases[1].phi_MV == 700.0);
     expect(replace(kBase, "directions = 16", "directions = 16\ngcr_phi_by_date = \"cycle-27\""),
            "plan.toml:7: mission.gcr_phi_by_date: 'cycle-27' is not a phi series; allowed: "
            "recorded-cycle");
@@ -154,9 +165,12 @@ TEST_CASE("GCR modulation by date from the recorded solar cycle", "[scenario][gc
 }
 
 TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenario][gcr]") {
+    // No phi given: by month from the recorded cycle (January 2032: the lowest within a year
+    // of January 2021's phase, April 2020's 269 MV, rounded down to 250), said so.
     const Scenario plain = parse_scenario(kBase, "plan.toml");
     CHECK_FALSE(plain.mission.gcr_phi_given);
-    CHECK(plain.mission.gcr_phi_MV == 400.0); // the solar-minimum example
+    CHECK(plain.mission.gcr_phi_series == "recorded-cycle");
+    CHECK(plain.mission.gcr_phi_MV == 250.0);
     const std::string phased = replace(kBase, "directions = 16",
                                        "directions = 16\ngcr_phi_MV = 550\n"
                                        "[[mission.gcr_modulation]]\nfrom = 2032-01-04T00:00:00Z\n"

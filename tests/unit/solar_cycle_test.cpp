@@ -3,6 +3,7 @@
 
 #include <catch2/catch.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <fstream>
 #include <map>
@@ -98,17 +99,38 @@ TEST_CASE("recorded-cycle phi: falls as the neutron monitor counts more", "[gcr]
     CHECK(phi.rbegin()->second > 3.0 * lowest->second);
 }
 
-TEST_CASE("recorded-cycle phi: outside the record, the same phase of the cycle", "[gcr][cycle]") {
-    // 132 months (11 years, kSolarCycleMonths) apart: December 2030 is December 2019's phase,
-    // June 2003 is June 2014's; values from the transcribed series (303 and 656 MV).
+TEST_CASE("recorded-cycle phi: outside the record, the lowest near the same phase",
+          "[gcr][cycle]") {
+    // 132 months (11 years, kSolarCycleMonths) apart, then the lowest phi within 12 months
+    // either side (kPhaseSpreadMonths). Values from the transcribed series: December 2030 is
+    // December 2019's phase (303 MV); the lowest within a year of it is April 2020's 269 MV.
+    // June 2035 is June 2024's phase (820 MV); its window runs from June 2023 (lowest there
+    // 680 MV) to December 2024 and wraps to the cycle's start, January to June 2014 (606, 681,
+    // 652, 633, 600, 656 MV), so 600 MV.
     CHECK(kSolarCycleMonths == 132);
-    CHECK(recorded_cycle_phi_MV(2030, 12) == recorded_cycle_phi_MV(2019, 12));
-    CHECK(recorded_cycle_phi_MV(2030, 12) == 303.0);
-    CHECK(recorded_cycle_phi_MV(2003, 6) == recorded_cycle_phi_MV(2014, 6));
-    CHECK(recorded_cycle_phi_MV(2003, 6) == 656.0);
-    // Far ahead and far back, still a value of the record's first cycle.
-    CHECK(recorded_cycle_phi_MV(2147, 3) == recorded_cycle_phi_MV(2147 - 132, 3));
-    CHECK(recorded_cycle_phi_MV(1950, 1) == recorded_cycle_phi_MV(1950 + 66, 1));
+    CHECK(kPhaseSpreadMonths == 12);
+    CHECK(recorded_cycle_phi_MV(2030, 12) == 269.0);
+    CHECK(recorded_cycle_phi_MV(2035, 6) == 600.0);
+    // Never above the phase's own value; equal to the lowest of the window, checked by hand
+    // against the series for every month of a whole cycle ahead.
+    const auto series = recorded_phi_series();
+    for (int k = 0; k < kSolarCycleMonths; ++k) {
+        const int year = 2026 + (k / 12);
+        const int month = 1 + (k % 12);
+        const long phase = ((static_cast<long>(year) - 2014) * 12 + (month - 1)) % 132;
+        double lowest = 1e9;
+        for (int d = -12; d <= 12; ++d) {
+            const long i = ((phase + d) % 132 + 132) % 132;
+            lowest = std::min(lowest, series.monthly_MV[static_cast<std::size_t>(i)]);
+        }
+        INFO(year << "-" << month);
+        CHECK(recorded_cycle_phi_MV(year, month) == lowest);
+        CHECK(recorded_cycle_phi_MV(year, month) <=
+              series.monthly_MV[static_cast<std::size_t>(phase)]);
+    }
+    // Far ahead and far back, whole cycles (11 years) apart, the same value.
+    CHECK(recorded_cycle_phi_MV(2147, 3) == recorded_cycle_phi_MV(2147 - 110, 3));
+    CHECK(recorded_cycle_phi_MV(1950, 1) == recorded_cycle_phi_MV(1950 + 55, 1));
     CHECK_THROWS_AS(recorded_cycle_phi_MV(2030, 0), std::invalid_argument);
     CHECK_THROWS_AS(recorded_cycle_phi_MV(2030, 13), std::invalid_argument);
 }
