@@ -6,44 +6,13 @@
 #include <fmt/format.h>
 
 #include <algorithm>
-#include <functional>
-#include <numeric>
+#include <utility>
 
 namespace crewdose::planner {
-namespace {
-
-// The rows' indices in order of areal density: the report keeps the order asked for, a curve
-// runs from left to right (equal thicknesses keep their order).
-std::vector<std::size_t> by_shield(const std::vector<DepthRow>& rows) {
-    std::vector<std::size_t> order(rows.size());
-    std::iota(order.begin(), order.end(), std::size_t{0});
-    std::stable_sort(order.begin(), order.end(), [&](std::size_t a, std::size_t b) {
-        return rows[a].shield_g_cm2 < rows[b].shield_g_cm2;
-    });
-    return order;
-}
-
-// A curve of one quantity of the rows, in Gy (Sv, Gy-Eq), drawn in milli-units as the report
-// prints it.
-svg::Series curve(const std::vector<DepthRow>& rows, const std::vector<std::size_t>& order,
-                  const std::string& label, const std::function<double(const DepthRow&)>& dose) {
-    svg::Series s;
-    s.label = label;
-    s.show_points = true;
-    for (const std::size_t i : order) {
-        s.x.push_back(rows[i].shield_g_cm2);
-        s.y.push_back(1e3 * dose(rows[i]));
-    }
-    return s;
-}
-
-} // namespace
 
 svg::Figure depth_figure(const exposure::ProtonSpectrum& spectrum, const exposure::Material& shield,
                          const TissueDepth& tissue, const std::vector<DepthRow>& rows,
                          const exposure::Material& detector) {
-    const auto order = by_shield(rows);
-
     svg::Figure f;
     f.id = "crewdose-depth";
     f.title = fmt::format("crewdose depth: SPE dose against the areal density of {}", shield.id());
@@ -59,24 +28,35 @@ svg::Figure depth_figure(const exposure::ProtonSpectrum& spectrum, const exposur
                    "A dose that was not computed is never drawn as a value: its line breaks "
                    "and the stretch is marked \"not computed\".";
 
-    const std::string x_title = fmt::format("shield areal density (g/cm2 of {})", shield.id());
+    // Both charts: x the shield's areal density from zero, y a dose from zero.
+    const auto chart = [&](std::string title, std::string y_title) {
+        svg::Chart c;
+        c.title = std::move(title);
+        c.x.title = fmt::format("shield areal density (g/cm2 of {})", shield.id());
+        c.x.from_zero = true;
+        c.y.title = std::move(y_title);
+        c.y.from_zero = true;
+        return c;
+    };
+    // A curve of one quantity of the rows (Gy, Sv or Gy-Eq) in milli-units as the report prints
+    // it; a point per row in order of thickness.
+    const auto curve = [&](std::string label, auto dose) {
+        return svg::series_by_x(
+            std::move(label), rows, [](const DepthRow& r) { return r.shield_g_cm2; },
+            [&](const DepthRow& r) { return 1e3 * dose(r); }, true);
+    };
     const std::string linear = "Linear scale: the doses behind the thickest shields lie close to "
                                "zero here; read them in the text report.";
 
-    svg::Chart absorbed;
-    absorbed.title = "Absorbed dose: the value for limits and the two parts of its bracket";
-    absorbed.x.title = x_title;
-    absorbed.x.from_zero = true;
-    absorbed.y.title = "absorbed dose (mGy)";
-    absorbed.y.from_zero = true;
-    absorbed.series.push_back(curve(rows, order, "for limits", [](const DepthRow& r) {
-        return r.dose.for_limits().absorbed_Gy;
-    }));
-    absorbed.series.push_back(curve(rows, order, "whole field", [](const DepthRow& r) {
-        return r.dose.with_removal.absorbed_Gy;
-    }));
-    absorbed.series.push_back(curve(rows, order, "primaries only",
-                                    [](const DepthRow& r) { return r.primaries.absorbed_Gy; }));
+    svg::Chart absorbed = chart("Absorbed dose: the value for limits and the two parts of its "
+                                "bracket",
+                                "absorbed dose (mGy)");
+    absorbed.series.push_back(
+        curve("for limits", [](const DepthRow& r) { return r.dose.for_limits().absorbed_Gy; }));
+    absorbed.series.push_back(
+        curve("whole field", [](const DepthRow& r) { return r.dose.with_removal.absorbed_Gy; }));
+    absorbed.series.push_back(
+        curve("primaries only", [](const DepthRow& r) { return r.primaries.absorbed_Gy; }));
     absorbed.notes.push_back(
         "for limits: the higher of the whole field and the primaries without any nuclear "
         "reaction (the report's 'absorbed'; what limits are checked against while the model is "
@@ -87,16 +67,12 @@ svg::Figure depth_figure(const exposure::ProtonSpectrum& spectrum, const exposur
                              "secondaries (the report's 'absorbed, primaries'), a diagnostic.");
     absorbed.notes.push_back(linear);
 
-    svg::Chart weighted;
-    weighted.title = "Dose equivalent and RBE-weighted dose, the values for limits";
-    weighted.x.title = x_title;
-    weighted.x.from_zero = true;
-    weighted.y.title = "dose (mSv or mGy-Eq)";
-    weighted.y.from_zero = true;
-    weighted.series.push_back(curve(rows, order, "dose equivalent (mSv)", [](const DepthRow& r) {
+    svg::Chart weighted = chart("Dose equivalent and RBE-weighted dose, the values for limits",
+                                "dose (mSv or mGy-Eq)");
+    weighted.series.push_back(curve("dose equivalent (mSv)", [](const DepthRow& r) {
         return r.dose.for_limits().dose_equivalent_Sv;
     }));
-    weighted.series.push_back(curve(rows, order, "RBE-weighted (mGy-Eq)", [](const DepthRow& r) {
+    weighted.series.push_back(curve("RBE-weighted (mGy-Eq)", [](const DepthRow& r) {
         return r.dose.for_limits().rbe_weighted_GyEq;
     }));
     weighted.notes.push_back(
