@@ -47,9 +47,11 @@ materials.csv             materials --format csv
 depth.txt                 depth --spectrum band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25 --material aluminium --depths 0.5,5,20 --tissue-depth bfo
 depth.json                depth --spectrum band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25 --material aluminium --depths 0.5,5,20 --tissue-depth bfo --format json
 depth.csv                 depth --spectrum band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25 --material aluminium --depths 0.5,5,20 --tissue-depth bfo --format csv
+depth-chart.svg           depth --spectrum band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25 --material aluminium --depths 0.5,5,20 --tissue-depth bfo --chart @OUT@
 gcr.txt                   gcr --phi 400 --material polyethylene --depths 0,10,50 --tissue-depth bfo
 gcr.json                  gcr --phi 400 --material polyethylene --depths 0,10,50 --tissue-depth bfo --format json
 gcr.csv                   gcr --phi 400 --material polyethylene --depths 0,10,50 --tissue-depth bfo --format csv
+gcr-chart.svg             gcr --phi 400 --material polyethylene --depths 0,10,50 --tissue-depth bfo --chart @OUT@
 gcr-mars.txt              gcr --site mars --surface-pressure-Pa 850 --material mare-regolith --depths 0,50
 validate-lunar.txt        validate scenarios/lunar-demo.toml
 validate-mars.txt         validate scenarios/mars-demo.toml

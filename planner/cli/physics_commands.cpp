@@ -1,6 +1,8 @@
 // The look-up commands that need no scenario: range, materials, depth and gcr.
 #include "planner/cli/command.hpp"
+#include "planner/report/depth_chart.hpp"
 #include "planner/report/depth_report.hpp"
+#include "planner/report/gcr_chart.hpp"
 #include "planner/report/gcr_report.hpp"
 #include "planner/report/physics_report.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
@@ -11,6 +13,7 @@
 
 #include <memory>
 #include <string>
+#include <vector>
 
 namespace crewdose::cli {
 namespace {
@@ -45,6 +48,24 @@ void add_detector_option(CLI::App* sub, ShieldOptions& s) {
                     "silicon or water to compare with a measurement (see 'crewdose "
                     "materials')")
         ->capture_default_str();
+}
+
+// --out and --chart of depth and gcr, refused before the run when they cannot be written or
+// name one file (these commands read no file, so there is no input to clash with).
+void refuse_bad_outputs(const std::string& out_path, const std::string& chart_path) {
+    const std::vector<planner::NamedFile> outputs{{"--out", out_path}, {"--chart", chart_path}};
+    planner::refuse_unwritable_outputs(outputs);
+    planner::refuse_clashing_outputs({}, outputs);
+}
+
+// The chart (when asked for) and then the report, each written whole; both were prepared
+// before either is written.
+void write_outputs(const std::string& report, const std::string& out_path, const std::string& chart,
+                   const std::string& chart_path) {
+    if (!chart_path.empty()) {
+        planner::write_file_atomically(chart_path, chart, "--chart");
+    }
+    write_report(report, out_path);
 }
 
 } // namespace
@@ -130,6 +151,8 @@ Command add_depth_command(CLI::App& app) {
         std::string format = "text";
         std::string spectrum;
         std::string depths = "0.5,1,2,5,10,20,50";
+        std::string out_path;
+        std::string chart_path;
         ShieldOptions s;
     };
     auto o = std::make_shared<Options>();
@@ -143,7 +166,7 @@ Command add_depth_command(CLI::App& app) {
             "the centre of a spherical shell), per shield areal density.\n"
             "Example: crewdose depth --spectrum "
             "\"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\" --material aluminium "
-            "--depths 0.5,1,2,5,10,20,50 --tissue-depth bfo\n\n" +
+            "--depths 0.5,1,2,5,10,20,50 --tissue-depth bfo --chart depth.svg\n\n" +
                 planner::spectrum_help());
         depth->add_option("--spectrum,-s", spectrum, "the SPE proton spectrum (see above)")
             ->required();
@@ -151,6 +174,15 @@ Command add_depth_command(CLI::App& app) {
         add_detector_option(depth, o->s);
         depth->add_option("--format,-f", format, "text (3 significant figures), json or csv")
             ->capture_default_str();
+        depth->add_option("--out,-o", o->out_path, kOutHelp);
+        depth->add_option(
+            "--chart", o->chart_path,
+            "also draw the design curve to this SVG file, a point per row of the report against "
+            "the shield's areal density (g/cm2): the absorbed dose for limits, of the whole "
+            "field and of the primaries alone (mGy), and the dose equivalent (mSv) and "
+            "RBE-weighted dose (mGy-Eq) for limits; the spectrum, shield and depth on top with "
+            "the cautions, a dose that was not computed drawn as a gap labelled so, never as a "
+            "value (written only when the run completes)");
 
         return depth;
     }();
@@ -160,17 +192,24 @@ Command add_depth_command(CLI::App& app) {
                 auto& depths = o->depths;
                 const auto& [shield, tissue_depth, detector] = o->s;
                 const auto fmt_choice = planner::parse_output_format(format);
+                // A path that cannot be written fails now, before the computation.
+                refuse_bad_outputs(o->out_path, o->chart_path);
 
                 const auto spec = planner::parse_spectrum(spectrum, "--spectrum");
                 const auto& mat = planner::material_by_id(shield);
                 const auto tissue = planner::parse_tissue_depth(tissue_depth, "--tissue-depth");
                 const auto list = planner::parse_depth_list(depths, "--depths");
                 const auto& medium = planner::material_by_id(detector, "--detector");
-                write_stdout(stamped(planner::format_depth_report(
-                                         spec, mat, tissue,
-                                         planner::depth_rows(spec, mat, tissue, list, medium),
-                                         fmt_choice, medium),
-                                     fmt_choice, run_stamp(nullptr)));
+                // One set of rows for the report and the chart: the same numbers in both.
+                const auto rows = planner::depth_rows(spec, mat, tissue, list, medium);
+                const std::string report = stamped(
+                    planner::format_depth_report(spec, mat, tissue, rows, fmt_choice, medium),
+                    fmt_choice, run_stamp(nullptr));
+                const std::string chart =
+                    o->chart_path.empty()
+                        ? ""
+                        : planner::format_depth_chart(spec, mat, tissue, rows, medium);
+                write_outputs(report, o->out_path, chart, o->chart_path);
                 return 0;
             }};
 }
@@ -184,6 +223,8 @@ Command add_gcr_command(CLI::App& app) {
         std::string gcr_site = "deep-space";
         std::string gcr_pressure = "750";
         CLI::Option* pressure_option = nullptr; ///< to tell a given pressure from the default
+        std::string out_path;
+        std::string chart_path;
         ShieldOptions s;
     };
     auto o = std::make_shared<Options>();
@@ -206,7 +247,7 @@ Command add_gcr_command(CLI::App& app) {
             "uses for limits while the model is not validated) and of the primaries alone, "
             "and the shares of the dose equivalent by charge and by source.\n"
             "Example: crewdose gcr --phi 400 --material polyethylene --depths 0,5,10,20,50 "
-            "--tissue-depth bfo --per-year");
+            "--tissue-depth bfo --per-year --chart gcr.svg");
         gcr->add_option(
                "--phi,-p", gcr_phi,
                "modulation potential in MV (not GV), 100 to 3000, for the Burger et al. 2000 "
@@ -230,6 +271,16 @@ Command add_gcr_command(CLI::App& app) {
         add_detector_option(gcr, o->s);
         gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")
             ->capture_default_str();
+        gcr->add_option("--out,-o", o->out_path, kOutHelp);
+        gcr->add_option(
+            "--chart", o->chart_path,
+            "also draw the design curve to this SVG file, a point per row of the report against "
+            "the shield's areal density (g/cm2): the dose equivalent rate (mSv per day, or per "
+            "year with --per-year) of the whole field, without any nuclear reaction and of the "
+            "primaries and fragments alone, and the whole field's absorbed (mGy) and "
+            "RBE-weighted (mGy-Eq) dose rates; phi, shield, depth and site on top with the "
+            "cautions, a dose that was not computed drawn as a gap labelled so, never as a value "
+            "(written only when the run completes)");
 
         return gcr;
     }();
@@ -242,6 +293,8 @@ Command add_gcr_command(CLI::App& app) {
                 auto& gcr_pressure = o->gcr_pressure;
                 const auto& [shield, tissue_depth, detector] = o->s;
                 const auto fmt_choice = planner::parse_output_format(format);
+                // A path that cannot be written fails now, before the computation.
+                refuse_bad_outputs(o->out_path, o->chart_path);
 
                 const double phi = planner::parse_phi(gcr_phi, "--phi");
                 const auto& mat = planner::material_by_id(shield);
@@ -260,12 +313,17 @@ Command add_gcr_command(CLI::App& app) {
                 site.surface_pressure_Pa =
                     planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
                 const auto& medium = planner::material_by_id(detector, "--detector");
-                write_stdout(
-                    stamped(planner::format_gcr_depth_report(
-                                phi, mat, tissue,
-                                planner::gcr_depth_rows(phi, mat, tissue, list, site, medium),
-                                fmt_choice, per_year, site, medium),
-                            fmt_choice, run_stamp(nullptr)));
+                // One set of rows for the report and the chart: the same numbers in both.
+                const auto rows = planner::gcr_depth_rows(phi, mat, tissue, list, site, medium);
+                const std::string report =
+                    stamped(planner::format_gcr_depth_report(phi, mat, tissue, rows, fmt_choice,
+                                                             per_year, site, medium),
+                            fmt_choice, run_stamp(nullptr));
+                const std::string chart =
+                    o->chart_path.empty()
+                        ? ""
+                        : planner::format_gcr_chart(phi, mat, tissue, rows, per_year, site, medium);
+                write_outputs(report, o->out_path, chart, o->chart_path);
                 return 0;
             }};
 }

@@ -21,8 +21,6 @@
 namespace crewdose::planner {
 namespace {
 
-constexpr double kDaysPerYear = 365.25;
-
 nlohmann::json dose_json(const exposure::DoseQuantities& d, double scale) {
     return {{"absorbed_mGy", 1e3 * scale * d.absorbed_Gy},
             {"dose_equivalent_mSv", 1e3 * scale * d.dose_equivalent_Sv},

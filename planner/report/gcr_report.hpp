@@ -10,6 +10,13 @@
 
 namespace crewdose::planner {
 
+/// Days in the year of the rates per year (--per-year): the Julian year.
+inline constexpr double kDaysPerYear = 365.25;
+
+/// Where the shield stands, in words for reports and charts: "in deep space", or the surface
+/// with what blocks the sky and, on Mars, the atmosphere's pressure and scale height.
+[[nodiscard]] std::string site_text(const GcrSiteSpec& site);
+
 /// The report in the chosen format; `per_year` scales the rates to 365.25 days.
 [[nodiscard]] std::string
 format_gcr_depth_report(double phi_MV, const exposure::Material& shield, const TissueDepth& tissue,

@@ -333,14 +333,24 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
                     "\n",
                     num(kPlotLeft), num(plot_top), num(kPlotRight - kPlotLeft), num(kPlotHeight));
     // Each series' label at the height of its last drawn point, with a sample of its line;
-    // labels closer than a line apart are pushed down.
+    // labels closer than a line apart are pushed down, then the lowest back up so that none
+    // falls below the plot onto the x axis's tick labels (several curves ending near zero).
     std::sort(ends.begin(), ends.end());
+    std::vector<double> label_y;
     double previous = -std::numeric_limits<double>::infinity();
-    for (const auto& [py, i] : ends) {
-        const double ly = std::max(py, previous + 13);
-        previous = ly;
-        line_sample(out, i, kPlotRight + 4, kPlotRight + 22, ly);
-        text(out, kPlotRight + 26, ly, c.series[i].label,
+    for (const auto& end : ends) {
+        label_y.push_back(std::max(end.first, previous + 13));
+        previous = label_y.back();
+    }
+    double lowest = plot_bottom;
+    for (std::size_t k = label_y.size(); k-- > 0;) {
+        label_y[k] = std::min(label_y[k], lowest);
+        lowest = label_y[k] - 13;
+    }
+    for (std::size_t k = 0; k < ends.size(); ++k) {
+        const std::size_t i = ends[k].second;
+        line_sample(out, i, kPlotRight + 4, kPlotRight + 22, label_y[k]);
+        text(out, kPlotRight + 26, label_y[k], c.series[i].label,
              R"( class="series-label" font-size="11" dominant-baseline="middle")");
     }
     // Axis titles.

@@ -8,8 +8,11 @@
 // colour alone: every series has its own dash pattern and a label at its end, limit lines are
 // labelled where they are drawn, each kind of band has its own hatching and its own labelled
 // row under the plot.
+#include <algorithm>
 #include <cstddef>
+#include <numeric>
 #include <string>
+#include <utility>
 #include <vector>
 
 namespace crewdose::planner::svg {
@@ -25,6 +28,26 @@ struct Series {
     std::vector<double> y;    ///< in the y axis's unit; same length as x
     bool show_points = false; ///< a small circle at each drawn point
 };
+
+/// A series through `rows`, a point (x_of(row), y_of(row)) per row, in ascending x (rows with
+/// equal x keep their order): for results kept in the order they were asked for. x_of must give
+/// finite values; y_of may give any (a value not drawable() is drawn as "not computed").
+template <class Row, class XOf, class YOf>
+[[nodiscard]] Series series_by_x(std::string label, const std::vector<Row>& rows, XOf x_of,
+                                 YOf y_of, bool show_points = false) {
+    std::vector<std::size_t> order(rows.size());
+    std::iota(order.begin(), order.end(), std::size_t{0});
+    std::stable_sort(order.begin(), order.end(),
+                     [&](std::size_t a, std::size_t b) { return x_of(rows[a]) < x_of(rows[b]); });
+    Series s;
+    s.label = std::move(label);
+    s.show_points = show_points;
+    for (const std::size_t i : order) {
+        s.x.push_back(x_of(rows[i]));
+        s.y.push_back(y_of(rows[i]));
+    }
+    return s;
+}
 
 /// A horizontal line at a fixed value (a limit or a target), labelled on the chart.
 struct LevelLine {

@@ -1118,6 +1118,104 @@ TEST_CASE("storm, shelter and shielding write --out, and never over their input"
     }
 }
 
+TEST_CASE("gcr and depth: --chart and --out write the design curve and the report, the same "
+          "numbers",
+          "[cli][svg]") {
+    const std::string dir = temp_dir();
+    const std::string band = " -s \"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25\"";
+    // gcr: the JSON report to --out (nothing on standard output), the chart to --chart.
+    const Run g = run("gcr --phi 400 -m polyethylene -d 10,0 -t bfo --format json --out " + dir +
+                          "/g.json --chart " + dir + "/g.svg",
+                      "SOURCE_DATE_EPOCH=0 ");
+    INFO(g.out);
+    REQUIRE(g.exit_code == 0);
+    CHECK(g.out.empty());
+    const auto report = nlohmann::json::parse(read_file(dir + "/g.json"));
+    CHECK(report.at("provenance").at("run_at") == "1970-01-01T00:00:00Z");
+    REQUIRE(report.at("rows").size() == 2);
+    const std::string svg = read_file(dir + "/g.svg");
+    const auto charts = svg_check::charts(svg_check::parse(svg)); // throws if not well-formed
+    REQUIRE(charts.size() == 2);
+    CHECK(svg.find("Cautions: crewdose is a planning tool.") != std::string::npos);
+    // The chart's points are the report's rows, in order of thickness: 0 g/cm2 (the report's
+    // second row, as asked for) first.
+    const auto& eq = charts[0];
+    REQUIRE(eq.paths.count("whole field") == 1);
+    const auto points = svg_check::path_points(eq.paths.at("whole field"));
+    REQUIRE(points.size() == 1);
+    REQUIRE(points[0].size() == 2);
+    const double tol = 2 * 0.01 * eq.y.per_pixel();
+    CHECK(eq.x.value_at(points[0][0].first) == Approx(0.0).margin(2 * 0.01 * eq.x.per_pixel()));
+    CHECK(eq.y.value_at(points[0][0].second) ==
+          Approx(report["rows"][1]["dose"]["dose_equivalent_mSv"].get<double>()).margin(tol));
+    CHECK(eq.y.value_at(points[0][1].second) ==
+          Approx(report["rows"][0]["dose"]["dose_equivalent_mSv"].get<double>()).margin(tol));
+    // The standard output without --out is the same report.
+    CHECK(run("gcr --phi 400 -m polyethylene -d 10,0 -t bfo --format json", "SOURCE_DATE_EPOCH=0 ")
+              .out == read_file(dir + "/g.json"));
+
+    // depth: the CSV report to --out with its provenance line, the chart to --chart.
+    const Run d = run("depth" + band + " -d 1,10 --format csv --out " + dir + "/d.csv --chart " +
+                      dir + "/d.svg");
+    INFO(d.out);
+    REQUIRE(d.exit_code == 0);
+    CHECK(d.out.empty());
+    CHECK(table(read_file(dir + "/d.csv")).rfind("shield_g_cm2,absorbed_mGy,", 0) == 0);
+    const auto depth_charts = svg_check::charts(svg_check::parse(read_file(dir + "/d.svg")));
+    REQUIRE(depth_charts.size() == 2);
+    CHECK(depth_charts[0].paths.count("for limits") == 1);
+    CHECK(depth_charts[1].paths.count("dose equivalent (mSv)") == 1);
+    // The text report to --out: the one the terminal shows.
+    CHECK(run("depth" + band + " -d 1 --out " + dir + "/d.txt").exit_code == 0);
+    CHECK(read_file(dir + "/d.txt") == run("depth" + band + " -d 1").out);
+    for (const auto& entry : std::filesystem::directory_iterator(dir)) {
+        CHECK(entry.path().filename().string().find("crewdose-") == std::string::npos);
+    }
+}
+
+TEST_CASE("gcr and depth: --out and --chart are checked before the run and bad ones write "
+          "nothing",
+          "[cli][svg]") {
+    const std::string dir = temp_dir();
+    write_file(dir + "/old.svg", "old chart\n");
+    for (const std::string cmd : {"gcr --phi 400", "depth -s \"exp-energy:J0=1e9,E0_MeV=30\""}) {
+        INFO(cmd);
+        // --out and --chart naming one file: exit 2, nothing written there.
+        const Run clash = run(cmd + " -d 1 --out " + dir + "/x --chart " + dir + "/x");
+        CHECK(clash.exit_code == 2);
+        CHECK(clash.out.find("--chart: '" + dir + "/x' is the same file as --out") !=
+              std::string::npos);
+        CHECK(!std::filesystem::exists(dir + "/x"));
+        // A chart in a folder that does not exist: exit 2 naming the option, no report (on
+        // standard output or in --out).
+        const Run missing =
+            run(cmd + " -d 1 --out " + dir + "/r.txt --chart " + dir + "/no-such-folder/c.svg");
+        CHECK(missing.exit_code == 2);
+        CHECK(missing.out.find("command line: --chart: cannot write '") != std::string::npos);
+        CHECK(missing.out.find("Cautions") == std::string::npos);
+        CHECK(!std::filesystem::exists(dir + "/r.txt"));
+        // Checked before the run: before the other inputs are even read (the bad --depths is
+        // not what is reported).
+        const Run first = run(cmd + " -d 1,x --chart " + dir + "/no-such-folder/c.svg");
+        CHECK(first.exit_code == 2);
+        CHECK(first.out.find("--chart: cannot write") != std::string::npos);
+        CHECK(first.out.find("--depths") == std::string::npos);
+        // Bad input: exit 2, an existing chart stays as it was.
+        const Run bad = run(cmd + " -d 1 -t liver --chart " + dir + "/old.svg");
+        CHECK(bad.exit_code == 2);
+        CHECK(bad.out.find("--tissue-depth: 'liver'") != std::string::npos);
+        CHECK(read_file(dir + "/old.svg") == "old chart\n");
+        // A folder given as the file.
+        const Run folder = run(cmd + " -d 1 --out " + dir);
+        CHECK(folder.exit_code == 2);
+        CHECK(folder.out.find("--out: '" + dir + "' is a folder; give a file name") !=
+              std::string::npos);
+    }
+    for (const auto& entry : std::filesystem::directory_iterator(dir)) {
+        CHECK(entry.path().filename().string().find("crewdose-") == std::string::npos);
+    }
+}
+
 TEST_CASE("check: --html is one deterministic page, and a bad path writes nothing",
           "[cli][check]") {
     const std::string dir = temp_dir();

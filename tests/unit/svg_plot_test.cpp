@@ -151,3 +151,37 @@ TEST_CASE("svg: a value that was not computed is never drawn as a value", "[svg]
     CHECK(svg_check::charts(svg_check::parse(none))[0].paths.empty());
     CHECK(count(none, ">not computed</text>") == 1);
 }
+
+TEST_CASE("svg: the labels at the curves' ends stay apart and above the x axis's tick labels",
+          "[svg]") {
+    // Three curves ending at or near zero at the axis's right end, where the x tick label
+    // stands: pushed apart, their labels would fall below the plot without the push back up.
+    svg::Figure f = one_chart({"a", {0, 10}, {30.0, 0.0}, false});
+    auto& c = f.panels[0].charts[0];
+    c.series.push_back({"b", {0, 10}, {20.0, 0.1}, false});
+    c.series.push_back({"c", {0, 10}, {10.0, 0.2}, false});
+    const auto elements = svg_check::parse(svg::render_svg(f));
+    double plot_bottom = kNaN;
+    std::vector<double> label_y;
+    for (const auto& e : elements) {
+        const auto cls = e.attributes.find("class");
+        if (cls == e.attributes.end()) {
+            continue;
+        }
+        if (e.name == "rect" && cls->second == "frame") {
+            plot_bottom = std::stod(e.attributes.at("y")) + std::stod(e.attributes.at("height"));
+        }
+        if (e.name == "text" && cls->second == "series-label") {
+            label_y.push_back(std::stod(e.attributes.at("y")));
+        }
+    }
+    REQUIRE(std::isfinite(plot_bottom));
+    REQUIRE(label_y.size() == 3);
+    std::sort(label_y.begin(), label_y.end());
+    for (std::size_t k = 0; k < 3; ++k) {
+        CHECK(label_y[k] <= plot_bottom + 0.005);
+        if (k > 0) {
+            CHECK(label_y[k] - label_y[k - 1] >= 13.0 - 0.01);
+        }
+    }
+}
