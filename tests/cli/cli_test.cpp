@@ -1147,12 +1147,16 @@ TEST_CASE("storm, shelter and compare: --html is one deterministic page with the
              {compare, "<p class=\"verdict\">Verdict A: ", 0}}) {
         INFO(cmd);
         const Run a = run(cmd + " --html " + dir + "/a.html", "SOURCE_DATE_EPOCH=0 ");
-        const Run b = run(cmd + " --html " + dir + "/b.html", "SOURCE_DATE_EPOCH=0 ");
         INFO(a.out);
         REQUIRE(a.exit_code == 0);
-        REQUIRE(b.exit_code == 0);
         const std::string page = read_file(dir + "/a.html");
-        CHECK(page == read_file(dir + "/b.html"));
+        // The same bytes on a second run: once, for the page with a chart and every part (the
+        // frame is shared; each run of the demo costs seconds).
+        if (cmd == sweep) {
+            const Run b = run(cmd + " --html " + dir + "/b.html", "SOURCE_DATE_EPOCH=0 ");
+            REQUIRE(b.exit_code == 0);
+            CHECK(page == read_file(dir + "/b.html"));
+        }
         CHECK(page.rfind("<!DOCTYPE html>", 0) == 0);
         CHECK(page.find(heading) != std::string::npos);
         CHECK(page.find(heading) < page.find("<pre>"));
