@@ -3,7 +3,7 @@
 #   scripts/test.sh              normal build in build/, all tests (slow ones included)
 #   scripts/test.sh --sanitize   AddressSanitizer + UndefinedBehaviorSanitizer build in
 #                                build-sanitize/, every test except those labelled 'slow' or
-#                                'expected' and six heavy end-to-end runs (below)
+#                                'expected' and eight heavy end-to-end runs (below)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -27,13 +27,15 @@ if ((sanitize)); then
   export ASAN_OPTIONS=detect_leaks=1:abort_on_error=1
   export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
   # The expected-output tests are skipped too: the ASan build runs each scenario slowly, and
-  # the normal build already compares every output. So are the six end-to-end runs that cost
+  # the normal build already compares every output. So are the eight end-to-end runs that cost
   # the most under ASan (each runs the whole lunar demo several times, 60-180 s apiece): the
   # code they drive is exercised under the sanitizers by the unit tests and the other CLI
   # tests, and the normal build runs them all. This keeps .ci/run under 25 minutes.
   heavy='cli:shelter: sizes per material|cli:storm: one what-if, a sweep|'
   heavy+='cli:storm, shelter and shielding write --out|cli:compare: the lunar demo|'
-  heavy+='cli:check: the same numbers, bit for bit|cli:check: json carries full precision'
+  heavy+='cli:check: the same numbers, bit for bit|cli:check: json carries full precision|'
+  heavy+='cli:storm, shelter and compare: --html is one deterministic page|'
+  heavy+='cli:storm --sweep --html and shelter --html: headless Chromium'
   (cd "$dir" && ctest --output-on-failure --no-tests=error -j "$jobs" -LE 'slow|expected' \
      -E "$heavy")
 else

@@ -35,7 +35,9 @@ fi
 
 # NAME  ARGUMENTS. The scenario commands each build the study (about 2 s on 2 cores), so the
 # list keeps to one run per command and format. The storm onset, 2032-03-09T10:00Z, is inside
-# the long geology traverse of osei and wren (EVA 08:00-14:00, 150 min from cover).
+# the long geology traverse of osei and wren (EVA 08:00-14:00, 150 min from cover). The
+# shelter-layer cases give the shelter's answer a thickness to find and a mass to weigh (a BFO
+# target of 40 mGy-Eq that the bare shelter misses, backed inside the habitat's first layer).
 cases='
 range.txt                 range --material aluminium --particle proton --energy 1,10,100,1000
 range.json                range --material aluminium --particle proton --energy 1,10,100,1000 --format json
@@ -74,6 +76,8 @@ storm-sweep-chart.svg     storm scenarios/lunar-demo.toml --event design-spe --s
 shelter.txt               shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water
 shelter.json              shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --format json
 shelter.csv               shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --format csv
+shelter-layer.txt         shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --material polyethylene --target bfo=40 --layer hab-module:1
+shelter-layer.csv         shelter scenarios/lunar-demo.toml --event design-spe --location storm-shelter --material water --material polyethylene --target bfo=40 --layer hab-module:1 --format csv
 shielding.txt             shielding scenarios/lunar-demo.toml --location storm-shelter --event design-spe
 shielding.json            shielding scenarios/lunar-demo.toml --location storm-shelter --event design-spe --format json
 shielding.csv             shielding scenarios/lunar-demo.toml --location storm-shelter --event design-spe --format csv

@@ -139,11 +139,7 @@ Command add_check_command(CLI::App& app) {
             const std::string html =
                 o->html_path.empty()
                     ? ""
-                    : planner::format_check_html(study, ledger, near_share,
-                                                 {{"tool", "crewdose " + stamp.version},
-                                                  {"scenario", stamp.scenario},
-                                                  {"scenario SHA-256", stamp.scenario_sha256},
-                                                  {"run at", stamp.run_at}});
+                    : planner::format_check_html(study, ledger, near_share, html_about(stamp));
             if (!series_path.empty()) {
                 planner::write_file_atomically(series_path, series, "--series");
             }

@@ -2,6 +2,7 @@
 #include "planner/analyses/compare.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/report/compare_html.hpp"
 #include "planner/report/compare_report.hpp"
 #include "planner/study/study.hpp"
 
@@ -9,6 +10,7 @@
 
 #include <memory>
 #include <string>
+#include <vector>
 
 namespace crewdose::cli {
 
@@ -18,6 +20,7 @@ Command add_compare_command(CLI::App& app) {
         std::string plan_a;
         std::string plan_b;
         std::string out_path;
+        std::string html_path;
         double near_percent = 100.0 * planner::kDefaultNearShare;
         bool quiet = false;
     };
@@ -37,11 +40,17 @@ Command add_compare_command(CLI::App& app) {
     sub->add_option("--near", o->near_percent,
                     "a dose at this percentage of its limit or more is 'near' (1 to 100)")
         ->capture_default_str();
+    sub->add_option("--html", o->html_path,
+                    "also write the comparison as one HTML file: both verdicts and every compared "
+                    "limit as a table, the cautions and the whole text report, self-contained "
+                    "(opens without a network, prints as shown; written when the run completes)");
     add_quiet_flag(sub, o->quiet);
     return {sub, [o] {
                 const auto fmt_choice = planner::parse_output_format(o->format);
                 const double near_share = near_share_of(o->near_percent);
-                planner::refuse_unwritable_outputs({{"--out", o->out_path}});
+                const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
+                                                              {"--html", o->html_path}};
+                planner::refuse_unwritable_outputs(outputs);
                 auto sa = planner::load_scenario(o->plan_a);
                 auto sb = planner::load_scenario(o->plan_b);
                 planner::refuse_timeline_gaps(sa);
@@ -50,7 +59,7 @@ Command add_compare_command(CLI::App& app) {
                 for (auto& f : scenario_inputs(sb, o->plan_b)) {
                     inputs.push_back(std::move(f));
                 }
-                planner::refuse_clashing_outputs(inputs, {{"--out", o->out_path}});
+                planner::refuse_clashing_outputs(inputs, outputs);
                 ProgressLine progress(o->quiet);
                 progress.stage("computing plan A");
                 const planner::Study a(std::move(sa), {}, [&](double f) { progress.update(f); });
@@ -60,10 +69,19 @@ Command add_compare_command(CLI::App& app) {
                 const auto ledger_b = planner::build_ledger(b);
                 progress.finish();
                 const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
-                write_report(
+                const RunStamp stamp = run_stamp(&a.scenario(), &b.scenario());
+                // Every file is prepared before any is written.
+                const std::string text =
                     stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
-                            fmt_choice, run_stamp(&a.scenario(), &b.scenario())),
-                    o->out_path);
+                            fmt_choice, stamp);
+                const std::string html =
+                    o->html_path.empty() ? ""
+                                         : planner::format_comparison_html(
+                                               cmp, a.scenario(), b.scenario(), html_about(stamp));
+                if (!o->html_path.empty()) {
+                    planner::write_file_atomically(o->html_path, html, "--html");
+                }
+                write_report(text, o->out_path);
                 return cmp.a_exceeded || cmp.b_exceeded ? 1 : 0;
             }};
 }

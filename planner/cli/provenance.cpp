@@ -90,4 +90,17 @@ std::string stamped(const std::string& output, planner::OutputFormat format,
     return output;
 }
 
+std::vector<std::pair<std::string, std::string>> html_about(const RunStamp& stamp) {
+    std::vector<std::pair<std::string, std::string>> about{{"tool", "crewdose " + stamp.version}};
+    const bool two = !stamp.scenario_b.empty();
+    about.emplace_back(two ? "plan A" : "scenario", stamp.scenario);
+    about.emplace_back(two ? "plan A SHA-256" : "scenario SHA-256", stamp.scenario_sha256);
+    if (two) {
+        about.emplace_back("plan B", stamp.scenario_b);
+        about.emplace_back("plan B SHA-256", stamp.scenario_b_sha256);
+    }
+    about.emplace_back("run at", stamp.run_at);
+    return about;
+}
+
 } // namespace crewdose::cli

@@ -8,6 +8,8 @@
 #include "planner/scenario/scenario.hpp"
 
 #include <string>
+#include <utility>
+#include <vector>
 
 namespace crewdose::cli {
 
@@ -31,6 +33,10 @@ struct RunStamp {
 /// returned as it is.
 [[nodiscard]] std::string stamped(const std::string& output, planner::OutputFormat format,
                                   const RunStamp& stamp);
+
+/// The stamp as an HTML page's foot (label and value): the tool, the scenario (both plans for
+/// `compare`) with its SHA-256, the run time.
+[[nodiscard]] std::vector<std::pair<std::string, std::string>> html_about(const RunStamp& stamp);
 
 /// "crewdose <version>", the build's project version.
 [[nodiscard]] std::string tool_version();

@@ -3,6 +3,7 @@
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
 #include "planner/report/shelter_chart.hpp"
+#include "planner/report/shelter_html.hpp"
 #include "planner/report/shelter_report.hpp"
 #include "planner/study/study.hpp"
 
@@ -25,6 +26,7 @@ Command add_shelter_command(CLI::App& app) {
         double shelter_max = 200.0;
         std::string out_path;
         std::string chart_path;
+        std::string html_path;
         bool quiet = false;
     };
     auto o = std::make_shared<Options>();
@@ -68,7 +70,16 @@ Command add_shelter_command(CLI::App& app) {
                             "number, 1 = outermost, or its material)");
         shelter->add_option("--max-g-cm2", shelter_max, "largest areal density to try")
             ->capture_default_str();
-        shelter->add_option("--format,-f", format, "text, json or csv")->capture_default_str();
+        shelter
+            ->add_option("--format,-f", format,
+                         "text, json or csv. CSV columns: material, areal_density_g_cm2, organ, "
+                         "event_mGyEq, other_30d_mGyEq, target_mGyEq, row, achievable, "
+                         "added_mass_kg; first a row = answer line per material (the least "
+                         "added areal density, empty when none is found; the binding organ and "
+                         "its event dose there; achievable yes, no or impossible; the added mass "
+                         "with --layer), then row = curve lines (the dose-thickness table, "
+                         "achievable and added_mass_kg empty)")
+            ->capture_default_str();
         shelter->add_option("--out,-o", o->out_path, kOutHelp);
         shelter->add_option("--chart", o->chart_path,
                             "also draw a chart to this SVG file: per material, the event's dose "
@@ -76,61 +87,75 @@ Command add_shelter_command(CLI::App& app) {
                             "areal density, with the target line and each material's answer "
                             "marked; the cautions on top (written only when the sizing "
                             "completes)");
+        shelter->add_option("--html", o->html_path,
+                            "also write the sizing as one HTML file: the answer table, the "
+                            "cautions, the chart of --chart and the whole text report, "
+                            "self-contained (opens without a network, prints as shown; written "
+                            "when the sizing completes, a target not met included)");
         add_quiet_flag(shelter, o->quiet);
         return shelter;
     }();
-    return {
-        sub, [o] {
-            auto& format = o->format;
-            auto& scenario_path = o->scenario_path;
-            auto& location_id = o->location_id;
-            auto& event_id = o->event_id;
-            auto& shelter_materials = o->shelter_materials;
-            auto& shelter_targets = o->shelter_targets;
-            auto& shelter_layer = o->shelter_layer;
-            auto& shelter_max = o->shelter_max;
-            const auto fmt_choice = planner::parse_output_format(format);
-            // A path that cannot be written fails now, before the computation.
-            planner::refuse_unwritable_outputs(
-                {{"--out", o->out_path}, {"--chart", o->chart_path}});
-            auto sc = planner::load_scenario(scenario_path);
-            planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path),
-                                             {{"--out", o->out_path}, {"--chart", o->chart_path}});
-            ProgressLine progress(o->quiet);
-            progress.stage("computing each location's doses");
-            const planner::Study study(std::move(sc), {}, [&](double f) { progress.update(f); });
-            planner::ShelterRequest request;
-            request.event_id = event_id;
-            request.location_id = location_id;
-            if (!shelter_materials.empty()) {
-                request.materials = shelter_materials;
-            }
-            for (const auto& t : shelter_targets) {
-                planner::parse_shelter_target(t, request.targets);
-            }
-            if (!shelter_layer.empty()) {
-                planner::parse_shelter_layer(study, shelter_layer, request);
-            }
-            request.max_g_cm2 = shelter_max;
-            progress.stage("sizing the shelter");
-            const auto report =
-                planner::size_shelter(study, request, [&](double f) { progress.update(f); });
-            progress.finish();
-            const std::string text =
-                stamped(planner::format_shelter_report(study, report, fmt_choice), fmt_choice,
-                        run_stamp(&study.scenario()));
-            if (!o->chart_path.empty()) {
-                planner::write_file_atomically(
-                    o->chart_path, planner::format_shelter_chart(study, report), "--chart");
-            }
-            write_report(text, o->out_path);
-            for (const auto& a : report.answers) {
-                if (!a.achievable) {
-                    return 1;
+    return {sub, [o] {
+                auto& format = o->format;
+                auto& scenario_path = o->scenario_path;
+                auto& location_id = o->location_id;
+                auto& event_id = o->event_id;
+                auto& shelter_materials = o->shelter_materials;
+                auto& shelter_targets = o->shelter_targets;
+                auto& shelter_layer = o->shelter_layer;
+                auto& shelter_max = o->shelter_max;
+                const auto fmt_choice = planner::parse_output_format(format);
+                // A path that cannot be written fails now, before the computation.
+                const std::vector<planner::NamedFile> outputs{
+                    {"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}};
+                planner::refuse_unwritable_outputs(outputs);
+                auto sc = planner::load_scenario(scenario_path);
+                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+                ProgressLine progress(o->quiet);
+                progress.stage("computing each location's doses");
+                const planner::Study study(std::move(sc), {},
+                                           [&](double f) { progress.update(f); });
+                planner::ShelterRequest request;
+                request.event_id = event_id;
+                request.location_id = location_id;
+                if (!shelter_materials.empty()) {
+                    request.materials = shelter_materials;
                 }
-            }
-            return 0;
-        }};
+                for (const auto& t : shelter_targets) {
+                    planner::parse_shelter_target(t, request.targets);
+                }
+                if (!shelter_layer.empty()) {
+                    planner::parse_shelter_layer(study, shelter_layer, request);
+                }
+                request.max_g_cm2 = shelter_max;
+                progress.stage("sizing the shelter");
+                const auto report = planner::size_shelter(study, request,
+                                                          [&](double f) { progress.update(f); });
+                progress.finish();
+                const RunStamp stamp = run_stamp(&study.scenario());
+                // Every file is prepared before any is written.
+                const std::string text = stamped(
+                    planner::format_shelter_report(study, report, fmt_choice), fmt_choice, stamp);
+                const std::string chart =
+                    o->chart_path.empty() ? "" : planner::format_shelter_chart(study, report);
+                const std::string html =
+                    o->html_path.empty()
+                        ? ""
+                        : planner::format_shelter_html(study, report, html_about(stamp));
+                if (!o->chart_path.empty()) {
+                    planner::write_file_atomically(o->chart_path, chart, "--chart");
+                }
+                if (!o->html_path.empty()) {
+                    planner::write_file_atomically(o->html_path, html, "--html");
+                }
+                write_report(text, o->out_path);
+                for (const auto& a : report.answers) {
+                    if (!a.achievable) {
+                        return 1;
+                    }
+                }
+                return 0;
+            }};
 }
 
 } // namespace crewdose::cli

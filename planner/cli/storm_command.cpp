@@ -2,9 +2,11 @@
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
 #include "planner/report/storm_chart.hpp"
+#include "planner/report/storm_html.hpp"
 #include "planner/report/storm_report.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/study.hpp"
+
 
 #include <memory>
 #include <string>
@@ -25,7 +27,9 @@ Command add_storm_command(CLI::App& app) {
         bool no_response = false;
         std::string out_path;
         std::string chart_path;
+        std::string html_path;
         bool quiet = false;
+        double near_percent = 100.0 * planner::kDefaultNearShare;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -84,6 +88,16 @@ Command add_storm_command(CLI::App& app) {
                          "the worst onset; written when the run completes, a limit exceeded "
                          "included")
             ->needs(sweep_opt);
+        storm->add_option("--html", o->html_path,
+                          "also write the report as one HTML file: the verdict table, the "
+                          "cautions, for a sweep the chart of --chart, and the whole text report, "
+                          "self-contained (opens without a network, prints as shown; written when "
+                          "the run completes, a limit exceeded included)");
+        storm
+            ->add_option("--near", o->near_percent,
+                         "a 30-day dose at this percentage of its limit or more is flagged "
+                         "'near' in the verdict (1 to 100)")
+            ->capture_default_str();
         add_quiet_flag(storm, o->quiet);
         return storm;
     }();
@@ -98,14 +112,15 @@ Command add_storm_command(CLI::App& app) {
                 auto& storm_to = o->storm_to;
                 auto& no_response = o->no_response;
                 const auto fmt_choice = planner::parse_output_format(format);
+                const double near_share = near_share_of(o->near_percent);
 
                 if (storm_onset.empty() && !storm_sweep) {
                     throw InputError({"command line", 0}, "storm",
                                      "give --onset TIME for one what-if or --sweep");
                 }
                 // A path that cannot be written fails now, before the computation.
-                const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
-                                                              {"--chart", o->chart_path}};
+                const std::vector<planner::NamedFile> outputs{
+                    {"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}};
                 planner::refuse_unwritable_outputs(outputs);
                 auto sc = planner::load_scenario(scenario_path);
                 // Before the study is built: a clashing output costs no computation.
@@ -134,9 +149,19 @@ Command add_storm_command(CLI::App& app) {
                 };
                 if (!storm_onset.empty()) {
                     const auto w = context.at(mission_time(storm_onset, "--onset", mission.start));
-                    write_report(stamped(planner::format_storm_whatif(context, w, fmt_choice),
-                                         fmt_choice, run_stamp(&study.scenario())),
-                                 o->out_path);
+                    const RunStamp stamp = run_stamp(&study.scenario());
+                    // Every file is prepared before any is written.
+                    const std::string text =
+                        stamped(planner::format_storm_whatif(context, w, fmt_choice, near_share),
+                                fmt_choice, stamp);
+                    const std::string html = o->html_path.empty()
+                                                 ? ""
+                                                 : planner::format_storm_whatif_html(
+                                                       context, w, near_share, html_about(stamp));
+                    if (!o->html_path.empty()) {
+                        planner::write_file_atomically(o->html_path, html, "--html");
+                    }
+                    write_report(text, o->out_path);
                     return w.any_exceeded() ? 1 : 0;
                 }
                 const auto step = planner::parse_duration(storm_step, "--step");
@@ -149,12 +174,22 @@ Command add_storm_command(CLI::App& app) {
                 const auto sweep = planner::sweep_storm(context, from, to, step,
                                                         [&](double f) { progress.update(f); });
                 progress.finish();
+                const RunStamp stamp = run_stamp(&study.scenario());
+                // Every file is prepared before any is written.
                 const std::string text =
-                    stamped(planner::format_storm_sweep(context, sweep, fmt_choice), fmt_choice,
-                            run_stamp(&study.scenario()));
+                    stamped(planner::format_storm_sweep(context, sweep, fmt_choice, near_share),
+                            fmt_choice, stamp);
+                const std::string chart =
+                    o->chart_path.empty() ? "" : planner::format_storm_chart(context, sweep);
+                const std::string html = o->html_path.empty()
+                                             ? ""
+                                             : planner::format_storm_sweep_html(
+                                                   context, sweep, near_share, html_about(stamp));
                 if (!o->chart_path.empty()) {
-                    planner::write_file_atomically(
-                        o->chart_path, planner::format_storm_chart(context, sweep), "--chart");
+                    planner::write_file_atomically(o->chart_path, chart, "--chart");
+                }
+                if (!o->html_path.empty()) {
+                    planner::write_file_atomically(o->html_path, html, "--html");
                 }
                 write_report(text, o->out_path);
                 return sweep.any_exceeded() ? 1 : 0;

@@ -39,7 +39,48 @@ nlohmann::json plan_json(const Scenario& sc, bool exceeded) {
     return {{"scenario", sc.file}, {"mission", sc.mission.name}, {"exceeded", exceeded}};
 }
 
+std::string status_word(LimitStatus s) {
+    return s == LimitStatus::exceeded ? "EXCEEDED" : to_string(s);
+}
+
+std::string status_class(LimitStatus s) {
+    return s == LimitStatus::exceeded ? "exceeded" : to_string(s);
+}
+
+std::size_t near_count(const PlanComparison& cmp, bool in_b) {
+    std::size_t n = 0;
+    for (const auto& r : cmp.rows) {
+        n += (in_b ? r.status_b : r.status_a) == LimitStatus::near ? 1U : 0U;
+    }
+    return n;
+}
+
 } // namespace
+
+VerdictTable comparison_verdict(const PlanComparison& cmp) {
+    VerdictTable t;
+    t.headline = fmt::format("Verdict A: {}. Verdict B: {}.",
+                             verdict_of(cmp.a_exceeded, near_count(cmp, false)),
+                             verdict_of(cmp.b_exceeded, near_count(cmp, true)));
+    t.columns = {"crew", "limit", "A", "B", "B - A", "planning limit", "status A", "status B"};
+    for (const auto& r : cmp.rows) {
+        const bool both = computed(r.dose_a) && computed(r.dose_b);
+        const std::string limit = r.limit_a == r.limit_b
+                                      ? significant(r.limit_b, 3)
+                                      : significant(r.limit_a, 3) + "/" + significant(r.limit_b, 3);
+        t.rows.push_back({{r.name},
+                          {organ_label(r.organ) + " " + r.window},
+                          {dose_text(r.dose_a) + " " + unit_of(r.organ), true},
+                          {dose_text(r.dose_b) + " " + unit_of(r.organ), true},
+                          {both ? significant(r.change(), 3) : "-", true},
+                          {limit + " " + unit_of(r.organ), true},
+                          {status_word(r.status_a), false, status_class(r.status_a)},
+                          {status_word(r.status_b), false, status_class(r.status_b)}});
+    }
+    t.note = "A, B: the dose the check compares with the limit in each plan (the highest window "
+             "for 30-day and annual limits).";
+    return t;
+}
 
 std::string format_comparison(const PlanComparison& cmp, const Scenario& a, const Scenario& b,
                               OutputFormat format) {
@@ -80,12 +121,8 @@ std::string format_comparison(const PlanComparison& cmp, const Scenario& a, cons
         }
         return out;
     }
-    std::size_t near_a = 0;
-    std::size_t near_b = 0;
-    for (const auto& r : cmp.rows) {
-        near_a += r.status_a == LimitStatus::near ? 1U : 0U;
-        near_b += r.status_b == LimitStatus::near ? 1U : 0U;
-    }
+    const std::size_t near_a = near_count(cmp, false);
+    const std::size_t near_b = near_count(cmp, true);
     std::string out = fmt::format("crewdose compare: plan A against plan B\n"
                                   "  A: {} ({})\n  B: {} ({})\n\n",
                                   a.mission.name, a.file, b.mission.name, b.file);

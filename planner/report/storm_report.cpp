@@ -10,6 +10,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 #include <optional>
 
 namespace crewdose::planner {
@@ -98,10 +99,176 @@ std::string policy_text(const StormPolicy& p) {
             : fmt::format("which comes {} h after t0", significant(p.all_clear_h, 3)));
 }
 
+// Every part of the 30-day dose was computed (finite, >= 0) and the limit is a positive number.
+bool computed(const StormOrgan& o, double event_mGyEq) {
+    return std::isfinite(event_mGyEq) && event_mGyEq >= 0.0 && std::isfinite(o.other_30d_mGyEq) &&
+           o.other_30d_mGyEq >= 0.0 && std::isfinite(o.limit_30d_mGyEq) && o.limit_30d_mGyEq > 0.0;
+}
+
+// The organ with the highest share of its 30-day limit; one whose dose was not computed first
+// of all (it must show).
+const StormOrgan* binding_organ(const StormCrew& c) {
+    const StormOrgan* b = nullptr;
+    double highest = 0.0;
+    for (const auto& o : c.organs) {
+        const double share = computed(o, o.with_response_mGyEq)
+                                 ? o.ratio()
+                                 : std::numeric_limits<double>::infinity();
+        if (!b || share > highest) {
+            b = &o;
+            highest = share;
+        }
+    }
+    return b;
+}
+
+// The verdict rows of `crew` (with each one's onset in a sweep); counts the exceeded and near.
+VerdictTable storm_verdict(const StormContext& ctx,
+                           const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
+                           double near_share, std::size_t& exceeded, std::size_t& near) {
+    const bool responds = ctx.responds();
+    const bool sweep = !crew.empty() && crew.front().second != nullptr;
+    // Crew members by name, or by id when a name would push the lines past 100 columns.
+    bool by_name = true;
+    for (const auto& [c, onset] : crew) {
+        by_name = by_name && c->name.size() <= 16;
+    }
+    VerdictTable t;
+    t.columns = {"crew member", "binding", "30-day dose / limit", "used", "status"};
+    if (sweep) {
+        t.columns.emplace_back("worst t0");
+    }
+    if (responds) {
+        t.columns.emplace_back("without response");
+    }
+    exceeded = 0;
+    near = 0;
+    for (const auto& [c, onset] : crew) {
+        std::vector<VerdictCell> row{{by_name ? c->name : c->crew}};
+        const StormOrgan* o = binding_organ(*c);
+        if (!o) {
+            row.push_back({"no organ checked"});
+            t.rows.push_back(std::move(row));
+            continue;
+        }
+        const double dose = o->with_response_mGyEq + o->other_30d_mGyEq;
+        const bool known = computed(*o, o->with_response_mGyEq);
+        // Written so that a dose that was not computed is never within: !(dose <= limit).
+        const bool over = !known || !(dose <= o->limit_30d_mGyEq);
+        const bool is_near = !over && dose >= near_share * o->limit_30d_mGyEq;
+        exceeded += over ? 1U : 0U;
+        near += is_near ? 1U : 0U;
+        row.push_back({organ_label(o->organ)});
+        row.push_back({fmt::format("{} / {} mGy-Eq", known ? significant(dose, 3) : "not computed",
+                                   verdict_dose_text(o->limit_30d_mGyEq)),
+                       true});
+        row.push_back(
+            {known ? fmt::format("{:.0f} %", 100.0 * dose / o->limit_30d_mGyEq) : "-", true});
+        row.push_back({over ? "EXCEEDED" : (is_near ? "near" : "within"), false,
+                       over ? "exceeded" : (is_near ? "near" : "within")});
+        if (sweep) {
+            // To the microsecond when the onset has a fraction of a second (a policy
+            // breakpoint): --onset then reads back the very onset.
+            row.push_back({format_time_exact(*onset)});
+        }
+        if (responds) {
+            const double without = o->without_response_mGyEq + o->other_30d_mGyEq;
+            row.push_back({computed(*o, o->without_response_mGyEq)
+                               ? fmt::format("{} mGy-Eq, {:.0f} %", significant(without, 3),
+                                             100.0 * without / o->limit_30d_mGyEq)
+                               : "not computed",
+                           true});
+        }
+        t.rows.push_back(std::move(row));
+    }
+    t.note = fmt::format(
+        "binding: the organ with the highest share of its 30-day limit; 30-day dose: the event "
+        "{}plus the crew member's highest other 30-day dose (mGy-Eq); near: {:.0f} % of the "
+        "limit or more (--near){}{}.",
+        responds ? "with the response " : "on the planned timeline ", 100.0 * near_share,
+        sweep ? "; worst t0: the onset that uses the most of a limit (give it to --onset for "
+                "its what-if)"
+              : "",
+        responds ? "; without response: the same organ if the crew kept to the planned timeline"
+                 : "");
+    return t;
+}
+
+std::string crew_count(std::size_t n, std::size_t of) {
+    return fmt::format("{} of {} crew member{}", n, of, of == 1 ? "" : "s");
+}
+
 } // namespace
 
-std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
-                                OutputFormat format) {
+VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
+                                  double near_share) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& c : w.crew) {
+        crew.emplace_back(&c, nullptr);
+    }
+    std::size_t exceeded = 0;
+    std::size_t near = 0;
+    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    const std::string how = w.respond ? "with the planned response"
+                                      : "no response: the crew keep to the planned timeline";
+    if (exceeded > 0) {
+        t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED for {} in this "
+                                 "what-if ({}).",
+                                 crew_count(exceeded, crew.size()), how);
+    } else if (near > 0) {
+        t.headline = fmt::format("Verdict: every 30-day planning limit is met in this what-if "
+                                 "({}); {} near a limit.",
+                                 how, crew_count(near, crew.size()));
+    } else {
+        t.headline =
+            fmt::format("Verdict: every 30-day planning limit is met in this what-if ({}).", how);
+    }
+    return t;
+}
+
+VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, double near_share) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& [onset, c] : s.worst) {
+        crew.emplace_back(&c, &onset);
+    }
+    std::size_t exceeded = 0;
+    std::size_t near = 0;
+    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    std::size_t no_go = 0;
+    std::size_t not_swept = 0;
+    for (const auto& e : s.evas) {
+        not_swept += e.swept() ? 0U : 1U;
+        no_go += e.swept() && !e.go() ? 1U : 0U;
+    }
+    std::string evas;
+    if (!s.evas.empty()) {
+        evas = no_go > 0
+                   ? fmt::format("; {} of {} EVAs and rover drives NO-GO", no_go, s.evas.size())
+                   : fmt::format("; every EVA and rover drive swept is go");
+        if (not_swept > 0) {
+            evas += fmt::format(" ({} not swept)", not_swept);
+        }
+    }
+    const std::string how =
+        ctx.responds() ? "with the planned response" : "no response: the planned timeline";
+    if (exceeded > 0) {
+        t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED at the worst onset "
+                                 "for {} ({}){}.",
+                                 crew_count(exceeded, crew.size()), how, evas);
+    } else if (near > 0) {
+        t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
+                                 "tried ({}); {} near a limit at the worst onset{}.",
+                                 how, crew_count(near, crew.size()), evas);
+    } else {
+        t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
+                                 "tried ({}){}.",
+                                 how, evas);
+    }
+    return t;
+}
+
+std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
+                                double near_share) {
     const Scenario& sc = ctx.study().scenario();
     if (format == OutputFormat::json) {
         nlohmann::json j{{"cautions", caution_text()},
@@ -133,6 +300,7 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
     }
     std::string out = fmt::format("crewdose storm: event {} with t0 at {}\nscenario: {}\n\n",
                                   w.event_id, format_time(w.times.onset), sc.file);
+    out += format_verdict_text(storm_whatif_verdict(ctx, w, near_share));
     out += caution_text() + "\n";
     out += wrap(model_note(ctx), 96);
     if (w.respond) {
@@ -176,7 +344,8 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w,
     return out;
 }
 
-std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format) {
+std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format,
+                               double near_share) {
     const Scenario& sc = ctx.study().scenario();
     if (format == OutputFormat::json) {
         nlohmann::json j{
@@ -229,6 +398,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                          responds ? "policy " : "timeline "),
              100, "  ") +
         fmt::format("scenario: {}\n\n", sc.file);
+    out += format_verdict_text(storm_sweep_verdict(ctx, s, near_share));
     out += caution_text() + "\n";
     out += wrap(model_note(ctx), 96);
     out += responds ? wrap(policy_text(sc.storm), 96) + "\n"

@@ -1,15 +1,32 @@
 #pragma once
-// The `storm` command's reports: one what-if, and a sweep of onsets.
+// The `storm` command's reports: one what-if, and a sweep of onsets. The text opens with the
+// verdict (storm_whatif_verdict, storm_sweep_verdict), then the cautions, the model and the
+// detail.
 #include "planner/analyses/storm.hpp"
 #include "planner/report/output_format.hpp"
+#include "planner/report/verdict_table.hpp"
 
 #include <string>
 
 namespace crewdose::planner {
 
+/// The verdict of one what-if: a row per crew member with the binding organ (the highest share
+/// of its 30-day limit), its 30-day dose (the event with the response, if any, plus the other
+/// 30-day dose) against the limit, the share used, within / near (from `near_share` of the
+/// limit) / EXCEEDED, and, with the response, the same organ's dose without it. A dose that
+/// was not computed reads "not computed" and counts as exceeded.
+[[nodiscard]] VerdictTable storm_whatif_verdict(const StormContext& context, const StormWhatIf& w,
+                                                double near_share = kDefaultNearShare);
+/// The verdict of a sweep: the same per crew member at their worst onset, with that onset
+/// (RFC 3339, as --onset reads it), and the EVAs' go/no-go count in the headline.
+[[nodiscard]] VerdictTable storm_sweep_verdict(const StormContext& context, const StormSweep& s,
+                                               double near_share = kDefaultNearShare);
+
 [[nodiscard]] std::string format_storm_whatif(const StormContext& context, const StormWhatIf& w,
-                                              OutputFormat format);
+                                              OutputFormat format,
+                                              double near_share = kDefaultNearShare);
 [[nodiscard]] std::string format_storm_sweep(const StormContext& context, const StormSweep& s,
-                                             OutputFormat format);
+                                             OutputFormat format,
+                                             double near_share = kDefaultNearShare);
 
 } // namespace crewdose::planner

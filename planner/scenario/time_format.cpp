@@ -15,6 +15,19 @@ std::string format_time(const boost::posix_time::ptime& t) {
                        tod.minutes(), tod.seconds());
 }
 
+std::string format_time_exact(const boost::posix_time::ptime& t) {
+    std::string text = format_time(t);
+    const auto us = t.time_of_day().total_microseconds() % 1'000'000;
+    if (us != 0) {
+        std::string fraction = fmt::format(".{:06d}", us);
+        while (fraction.back() == '0') {
+            fraction.pop_back();
+        }
+        text.insert(text.size() - 1, fraction);
+    }
+    return text;
+}
+
 double hours(const boost::posix_time::time_duration& d) {
     return static_cast<double>(d.total_microseconds()) / 3.6e9;
 }

@@ -11,6 +11,9 @@ namespace crewdose::planner {
 /// "YYYY-MM-DDTHH:MM:SSZ": RFC 3339 in UTC, whole seconds, as --onset, --from and the scenario
 /// read it back.
 [[nodiscard]] std::string format_time(const boost::posix_time::ptime& t);
+/// As format_time, with the fraction of the second when there is one
+/// ("2032-01-03T07:58:11.25Z"): what --onset reads back to the same instant.
+[[nodiscard]] std::string format_time_exact(const boost::posix_time::ptime& t);
 /// A duration in hours, for reports.
 [[nodiscard]] double hours(const boost::posix_time::time_duration& d);
 /// A duration in the largest of the units d, h, min and s that holds it a whole number of

@@ -12,6 +12,7 @@
 #include <filesystem>
 #include <string>
 #include <sys/wait.h>
+#include <tuple>
 #include <unistd.h>
 
 namespace {
@@ -1239,6 +1240,102 @@ TEST_CASE("check: --html is one deterministic page, and a bad path writes nothin
     const Run clash = run("check " + dir + "/plan.toml --html " + dir + "/plan.toml");
     CHECK(clash.exit_code == 2);
     CHECK(read_file(dir + "/plan.toml") == read_file(demo()));
+}
+
+TEST_CASE("storm: the verdict first, --near flags it, a bad --near is refused writing nothing",
+          "[cli][storm]") {
+    const std::string dir = temp_dir();
+    const std::string onset = " --event design-spe --onset 2032-03-09T10:00:00Z";
+    const Run r = run("storm " + demo() + onset + " --near 30");
+    INFO(r.out);
+    REQUIRE(r.exit_code == 0); // "near" never changes the exit code
+    // The demo at this onset with the response: osei and wren at 33 and 35 % of the lens limit,
+    // halvorsen and marlow at 13 and 14 % of the BFO limit (tests/expected/storm-onset.txt).
+    // The headline wraps at 100 columns: read it joined.
+    std::string joined = r.out;
+    for (auto at = joined.find("\n  m"); at != std::string::npos; at = joined.find("\n  m")) {
+        joined.replace(at, 3, " ");
+    }
+    const auto verdict = joined.find("Verdict: every 30-day planning limit is met in this what-if "
+                                     "(with the planned response); 2 of 4 crew members near a "
+                                     "limit.");
+    REQUIRE(verdict != std::string::npos);
+    CHECK(r.out.find("Verdict: ") < r.out.find("Cautions:"));
+    CHECK(r.out.find("  Tomasz Wren     lens       349 / 1000 mGy-Eq  35 %  near") <
+          r.out.find("Cautions:"));
+    CHECK(r.out.find("near: 30 % of the limit") != std::string::npos);
+    for (const std::string bad : {"0", "101", "nan", "lots"}) {
+        INFO(bad);
+        const Run b =
+            run("storm " + demo() + onset + " --near " + bad + " --html " + dir + "/near.html");
+        CHECK(b.exit_code == 2);
+        CHECK(b.out.find("--near") != std::string::npos);
+        CHECK_FALSE(std::filesystem::exists(dir + "/near.html"));
+    }
+}
+
+TEST_CASE("storm, shelter and compare: --html is one deterministic page with the verdict, and a "
+          "bad path writes nothing",
+          "[cli][storm][shelter][compare]") {
+    const std::string dir = temp_dir();
+    const std::string sweep =
+        "storm " + demo() +
+        " --event design-spe --sweep --step 12h --from 2032-03-09T00:00:00Z --to "
+        "2032-03-10T00:00:00Z";
+    const std::string shelter =
+        "shelter " + demo() + " --event design-spe --location storm-shelter --target bfo=40";
+    const std::string compare = "compare " + demo() + " " + demo();
+    for (const auto& [cmd, heading, svgs] : std::vector<std::tuple<std::string, std::string, int>>{
+             {sweep, "<p class=\"verdict\">Verdict: ", 1},
+             {"storm " + demo() + " --event design-spe --onset 2032-03-09T10:00:00Z",
+              "<p class=\"verdict\">Verdict: ", 0},
+             {shelter, "<p class=\"verdict\">Answer: add at least ", 1},
+             {compare, "<p class=\"verdict\">Verdict A: ", 0}}) {
+        INFO(cmd);
+        const Run a = run(cmd + " --html " + dir + "/a.html", "SOURCE_DATE_EPOCH=0 ");
+        INFO(a.out);
+        REQUIRE(a.exit_code == 0);
+        const std::string page = read_file(dir + "/a.html");
+        // The same bytes on a second run: once, for the page with a chart and every part (the
+        // frame is shared; each run of the demo costs seconds).
+        if (cmd == sweep) {
+            const Run b = run(cmd + " --html " + dir + "/b.html", "SOURCE_DATE_EPOCH=0 ");
+            REQUIRE(b.exit_code == 0);
+            CHECK(page == read_file(dir + "/b.html"));
+        }
+        CHECK(page.rfind("<!DOCTYPE html>", 0) == 0);
+        CHECK(page.find(heading) != std::string::npos);
+        CHECK(page.find(heading) < page.find("<pre>"));
+        CHECK_NOTHROW(svg_check::parse(page.substr(page.find('\n') + 1))); // well-formed
+        std::size_t n = 0;
+        for (auto at = page.find("<svg"); at != std::string::npos; at = page.find("<svg", at + 1)) {
+            ++n;
+        }
+        CHECK(n == static_cast<std::size_t>(svgs));
+        CHECK(page.find("1970-01-01T00:00:00Z") != std::string::npos); // the run time
+        CHECK(page.find("SHA-256") != std::string::npos);
+        // The standard output is the text report, as without --html.
+        CHECK(a.out.find("Cautions:") != std::string::npos);
+        // A folder that does not exist: exit 2 naming --html, before any computation; the other
+        // outputs of the same run are not written either.
+        const Run bad =
+            run(cmd + " --out " + dir + "/out.txt --html " + dir + "/missing/page.html");
+        CHECK(bad.exit_code == 2);
+        CHECK(bad.out.find("--html") != std::string::npos);
+        CHECK_FALSE(std::filesystem::exists(dir + "/out.txt"));
+    }
+    // Never over the scenario.
+    write_file(dir + "/plan.toml", read_file(demo()));
+    for (const std::string& cmd :
+         {"storm " + dir + "/plan.toml --event design-spe --onset 2032-03-09T10:00:00Z",
+          "shelter " + dir + "/plan.toml --event design-spe --location storm-shelter",
+          "compare " + demo() + " " + dir + "/plan.toml"}) {
+        INFO(cmd);
+        const Run clash = run(cmd + " --html " + dir + "/plan.toml");
+        CHECK(clash.exit_code == 2);
+        CHECK(clash.out.find("--html") != std::string::npos);
+        CHECK(read_file(dir + "/plan.toml") == read_file(demo()));
+    }
 }
 
 TEST_CASE("compare: the lunar demo against a variant with one EVA cancelled", "[cli][compare]") {

@@ -1,0 +1,42 @@
+#pragma once
+// The answer first: the short table a text report opens with and an HTML page shows as a
+// table (storm, shelter, compare). A headline sentence, one row per crew member or material,
+// and a line saying what the columns mean. The builders fill it from their results; the text
+// and the HTML (html_page.hpp) draw the same rows, so the two never disagree.
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace crewdose::planner {
+
+struct VerdictCell {
+    // Not explicit: a row reads {{"name"}, {"12.5 g/cm2", true}, {"met", false, "within"}}.
+    VerdictCell(std::string text_, bool number_ = false, std::string status_ = {}) // NOLINT
+        : text(std::move(text_)), number(number_), status(std::move(status_)) {}
+    std::string text;
+    bool number = false; ///< right-aligned (text) and tabular figures (HTML)
+    /// The status this cell states, for the page's colour: "within", "near", "exceeded" or
+    /// empty. The words carry the meaning; the colour only repeats them.
+    std::string status;
+};
+
+struct VerdictTable {
+    std::string headline;             ///< "Verdict: ..." or "Answer: ..."
+    std::vector<std::string> columns; ///< the headings
+    std::vector<std::vector<VerdictCell>> rows;
+    std::string note; ///< what the columns mean (may be empty)
+};
+
+/// The table as text: the headline wrapped at 100 columns, the columns aligned (two spaces
+/// indent), the note wrapped; ends with a blank line.
+[[nodiscard]] std::string format_verdict_text(const VerdictTable& table);
+
+/// A dose for a verdict cell: "not computed" unless `dose` is a finite number >= 0, else the
+/// dose to 3 significant figures.
+[[nodiscard]] std::string verdict_dose_text(double dose);
+
+/// True only when `dose` was computed (finite, >= 0) and is at or below `limit`: a dose that
+/// is not a number never reads as within.
+[[nodiscard]] bool dose_within(double dose, double limit);
+
+} // namespace crewdose::planner
