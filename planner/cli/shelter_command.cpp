@@ -129,8 +129,8 @@ Command add_shelter_command(CLI::App& app) {
                 }
                 request.max_g_cm2 = shelter_max;
                 progress.stage("sizing the shelter");
-                const auto report = planner::size_shelter(study, request,
-                                                          [&](double f) { progress.update(f); });
+                const auto report =
+                    planner::size_shelter(study, request, [&](double f) { progress.update(f); });
                 progress.finish();
                 const RunStamp stamp = run_stamp(&study.scenario());
                 // Every file is prepared before any is written.

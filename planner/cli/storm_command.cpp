@@ -7,7 +7,6 @@
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/study.hpp"
 
-
 #include <memory>
 #include <string>
 #include <vector>
