@@ -227,11 +227,7 @@ svg::Figure check_figure(const Study& study, const LedgerResult& ledger, double 
         "Doses from the check's ledger: SPE and GCR, uncertainty factor {:.2f} applied; organ "
         "doses RBE-weighted (mGy-Eq), the effective dose in mSv.",
         sc.limits.uncertainty_factor));
-    std::string cautions = caution_text();
-    std::replace(cautions.begin(), cautions.end(), '\n', ' ');
-    f.boxed_note = cautions +
-                   "A dose that was not computed is never drawn as a value: its line breaks "
-                   "and the stretch is marked \"not computed\".";
+    f.boxed_note = chart_caution_note();
     for (const auto& c : ledger.crew) {
         svg::Panel p;
         p.heading = heading(c, near_share);

@@ -22,11 +22,7 @@ svg::Figure depth_figure(const exposure::ProtonSpectrum& spectrum, const exposur
         "omnidirectional fluence through the same thickness in every direction. Each point is a "
         "row of the text report, the same numbers; the lines between points only join them.",
         shield.id(), shield.name(), tissue.label, detector.id()));
-    std::string cautions = caution_text();
-    std::replace(cautions.begin(), cautions.end(), '\n', ' ');
-    f.boxed_note = cautions +
-                   "A dose that was not computed is never drawn as a value: its line breaks "
-                   "and the stretch is marked \"not computed\".";
+    f.boxed_note = chart_caution_note();
 
     // Both charts: x the shield's areal density from zero, y a dose from zero.
     const auto chart = [&](std::string title, std::string y_title) {

@@ -29,11 +29,7 @@ svg::Figure gcr_figure(double phi_MV, const exposure::Material& shield, const Ti
         "tissue. Rates per {}. Each point is a row of the text report, the same numbers; the "
         "lines between points only join them.",
         per_year ? fmt::format("year of {:g} days", kDaysPerYear) : std::string("day")));
-    std::string cautions = caution_text();
-    std::replace(cautions.begin(), cautions.end(), '\n', ' ');
-    f.boxed_note = cautions +
-                   "A dose that was not computed is never drawn as a value: its line breaks "
-                   "and the stretch is marked \"not computed\".";
+    f.boxed_note = chart_caution_note();
 
     // Both charts: x the shield's areal density from zero, y a dose rate from zero.
     const auto chart = [&](std::string title, std::string y_title) {

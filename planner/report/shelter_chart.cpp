@@ -128,11 +128,7 @@ svg::Figure shelter_figure(const Study& study, const ShelterReport& rep) {
         "{} body model; the higher of the doses with and without nuclear reactions; uncertainty "
         "factor {:.2f} applied. Targets: the 30-day planning limits unless --target sets one.",
         to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor));
-    std::string cautions = caution_text();
-    std::replace(cautions.begin(), cautions.end(), '\n', ' ');
-    f.boxed_note = cautions +
-                   "A dose that was not computed is never drawn as a value: its line breaks "
-                   "and the stretch is marked \"not computed\".";
+    f.boxed_note = chart_caution_note();
     svg::Panel p;
     p.heading = fmt::format("Dose in shelter {} against added material", r.location_id);
     for (const auto& organ : organs_to_draw(rep)) {
