@@ -3,6 +3,7 @@
 // material, the chart inline where the command has one, and a dose that was not computed never
 // read as within.
 #include "fixture.hpp"
+#include "shelter_hut.hpp"
 #include "svg_check.hpp"
 
 #include "planner/analyses/compare.hpp"
@@ -219,17 +220,6 @@ TEST_CASE("storm html: the what-if and the sweep as pages, the sweep with its ch
 
 namespace {
 
-// A hut: an aluminium spherical shell around the dose point in deep space (the shelter unit
-// tests' fixture).
-ShelterRequest hut_request(std::vector<std::string> materials, double bfo_target) {
-    ShelterRequest r;
-    r.event_id = "spe";
-    r.location_id = "inside";
-    r.materials = std::move(materials);
-    r.targets["bfo"] = bfo_target;
-    return r;
-}
-
 // Targets so high that the bare hut meets them.
 ShelterRequest generous_request() {
     ShelterRequest r = hut_request({"water"}, 1e6);
@@ -239,7 +229,7 @@ ShelterRequest generous_request() {
 }
 
 std::string hut() {
-    return fill(read_fixture("shelter-hut.toml.in"), {{"@EXTRA_LAYERS@", ""}});
+    return hut_plan();
 }
 
 } // namespace

@@ -4,6 +4,7 @@
 #include "planner/analyses/shelter.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/report/shelter_report.hpp"
+#include "shelter_hut.hpp"
 
 #include "exposure/material_library.hpp"
 
@@ -18,19 +19,12 @@ using namespace crewdose::planner;
 
 namespace {
 
-// A hut: an aluminium spherical shell of 2 m radius around the dose point, in deep space (no
-// ground), 64 directions to keep the test quick. The event is invented.
 std::string plan(const std::string& extra_layer = "") {
-    return fill(read_fixture("shelter-hut.toml.in"), {{"@EXTRA_LAYERS@", extra_layer}});
+    return hut_plan(extra_layer);
 }
 
 ShelterRequest request(std::vector<std::string> materials, double bfo_target) {
-    ShelterRequest r;
-    r.event_id = "spe";
-    r.location_id = "inside";
-    r.materials = std::move(materials);
-    r.targets["bfo"] = bfo_target;
-    return r;
+    return hut_request(std::move(materials), bfo_target);
 }
 
 std::string error_of(const std::function<void()>& f) {
