@@ -9,6 +9,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <map>
 #include <set>
 #include <stdexcept>
 
@@ -136,8 +137,23 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
         return C[static_cast<std::size_t>(std::lower_bound(times.begin(), times.end(), t) -
                                           times.begin())];
     };
+    // A window is closed, [e - length, e]: a dose given at an instant (prior totals at the
+    // mission start) counts in the window that starts there. With a half-open window the
+    // highest dose was approached, never reached, by the candidates, and the result fell to the
+    // nearest activity boundary before (a prior total and 30 days of GCR could read as the
+    // prior and 10 days).
+    std::map<Time, double> instant;
+    for (const auto& p : pieces) {
+        if (p.end == p.start) {
+            instant[p.start] += 1e3 * p.dose.rbe_weighted_GyEq;
+        }
+    }
+    auto before = [&](const Time& t) {
+        const auto it = instant.find(t);
+        return at(t) - (it == instant.end() ? 0.0 : it->second);
+    };
     for (const Time& e : ends) {
-        const double d = require_finite(at(e) - at(e - length), "a rolling-window dose");
+        const double d = require_finite(at(e) - before(e - length), "a rolling-window dose");
         if (d > best.dose_mGyEq) {
             best.dose_mGyEq = d;
             best.window_end = e;
@@ -147,8 +163,13 @@ WindowMax window_maximum(const std::vector<DosePiece>& pieces, time_duration len
     if (best.dose_mGyEq > 0.0) {
         double top = 0.0;
         for (const auto& p : pieces) {
+            // An instant's dose is in the closed window when it lies inside it, its start too.
+            const bool instant_inside =
+                p.end == p.start && !(p.start < best.window_start) && !(best.window_end < p.start);
             const double part = 1e3 * p.dose.rbe_weighted_GyEq *
-                                (p.fraction_by(best.window_end) - p.fraction_by(best.window_start));
+                                (instant_inside ? 1.0
+                                                : p.fraction_by(best.window_end) -
+                                                      p.fraction_by(best.window_start));
             if (part > top) {
                 top = part;
                 best.top_contributor = p.source + " during " + p.activity;

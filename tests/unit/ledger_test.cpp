@@ -109,6 +109,38 @@ TEST_CASE("a small timeline checked against a hand computation", "[ledger]") {
     CHECK(first == Approx(1.5 * D * F4).epsilon(1e-9));
 }
 
+TEST_CASE("a prior total at the mission start counts in the 30-day window that starts there",
+          "[ledger]") {
+    // Regression (found trying the tool as a new user): windows were half-open, (end - 30 d,
+    // end], so the window that starts at the mission start, where prior totals are placed
+    // (scenarios/README.md: "they count in every window that includes it"), left the prior
+    // out, and the highest 30-day dose fell to the nearest activity boundary before: the prior
+    // and 10 days of GCR instead of the prior and 30. By construction, without the event: the
+    // highest 30-day BFO dose is the prior total (7) plus 30 days of the GCR rate times the
+    // factor 1.5, wherever the activity boundaries fall.
+    std::string quiet = kPlan;
+    const auto ev = quiet.find("[[event]]");
+    quiet.erase(ev, quiet.find("[[crew]]") - ev);
+    std::string split = quiet;
+    split.replace(split.find("end = 2032-03-01T00:00:00Z\n", split.find("kind = \"eva\"")), 27,
+                  "end = 2032-02-20T00:00:00Z\n\n[[activity]]\ncrew = \"a\"\nkind = \"eva\"\n"
+                  "location = \"free-too\"\nstart = 2032-02-20T00:00:00Z\n"
+                  "end = 2032-03-01T00:00:00Z\n");
+    for (const auto& text : {quiet, split}) {
+        const Study study(parse_scenario(text, "hand.toml"));
+        const double G =
+            1e3 * study.gcr_daily_dose("free", "bfo", 400.0).for_limits().rbe_weighted_GyEq;
+        const LedgerResult ledger = build_ledger(study);
+        const auto& organs = ledger.crew.at(0).organs;
+        const auto it = std::find_if(organs.begin(), organs.end(),
+                                     [](const OrganResult& o) { return o.organ == "bfo"; });
+        REQUIRE(it != organs.end());
+        const auto& bfo = *it;
+        CHECK(bfo.max_30d.dose_mGyEq == Approx(7.0 + 1.5 * G * 30.0).epsilon(1e-9));
+        CHECK(bfo.max_30d.window_start == study.scenario().mission.start);
+    }
+}
+
 TEST_CASE("recorded doses replace the modelled dose of their period and organs, and only it",
           "[ledger]") {
     // The event arrives at 01:00 on 10 January; a dosimeter reading of 2 mGy-Eq for 10 January
