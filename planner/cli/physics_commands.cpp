@@ -251,7 +251,7 @@ Command add_gcr_command(CLI::App& app) {
         gcr->add_option(
                "--phi,-p", gcr_phi,
                "modulation potential in MV (not GV), 100 to 3000, for the Burger et al. 2000 "
-               "interstellar spectrum (about 400 near solar minimum, 1000 or more near "
+               "interstellar spectrum (about 300 to 400 near solar minimum, 1000 or more near "
                "maximum; a phi derived with another spectrum is not interchangeable)")
             ->capture_default_str();
         add_shield_options(gcr, o->s, gcr_depths);

@@ -46,7 +46,7 @@ const char* kModelText =
     "nuclear reaction at all (every nucleus keeps its charge): crewdose check uses the higher "
     "of the two for each quantity. 'prim.' is the primaries and their fragments alone. Dose "
     "equivalent with ICRP 60 Q(L); RBE-weighted dose with NCRP 132 values. Tissue: ICRU "
-    "four-component soft tissue. phi belongs to the Burger et al. 2000 spectrum: about 400 MV "
+    "four-component soft tissue. phi belongs to the Burger et al. 2000 spectrum: about 300-400 MV "
     "near solar minimum, 1000 MV or more near maximum (planning examples).";
 
 } // namespace

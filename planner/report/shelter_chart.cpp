@@ -130,7 +130,7 @@ svg::Figure shelter_figure(const Study& study, const ShelterReport& rep) {
         to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor));
     f.boxed_note = chart_caution_note();
     svg::Panel p;
-    p.heading = fmt::format("Dose in shelter {} against added material", r.location_id);
+    p.heading = fmt::format("Dose at location '{}' against added material", r.location_id);
     for (const auto& organ : organs_to_draw(rep)) {
         p.charts.push_back(organ_chart(rep, organ));
     }

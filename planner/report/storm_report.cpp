@@ -444,8 +444,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                                 100.0 * e.ratio),
                     100, "        ");
     }
-    out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset "
-           "(each # is 5 %):\n";
+    out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset\n"
+           "  (each # is 5 %; a bar that ends in > goes beyond 200 %):\n";
     const boost::posix_time::time_duration bin = boost::posix_time::hours(kSweepProfileBin_h);
     std::optional<Time> last;
     for (const auto& [t, r] : s.profile) {
@@ -456,8 +456,8 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         }
         last = t;
         const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
-        out += fmt::format("  {} {:>4.0f} % {}\n", format_time(t), 100.0 * r,
-                           std::string(static_cast<std::size_t>(n), '#'));
+        out += fmt::format("  {} {:>4.0f} % {}{}\n", format_time(t), 100.0 * r,
+                           std::string(static_cast<std::size_t>(n), '#'), r > 2.0 ? ">" : "");
     }
     out += "\n";
     out += s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.\n"

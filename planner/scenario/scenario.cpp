@@ -17,8 +17,8 @@ std::optional<std::string> implausible_phi(double phi_MV, const std::string& as_
         return std::nullopt;
     }
     const std::string allowed =
-        fmt::format("allowed: a number of MV from {:g} to {:g} (for this LIS about 400 near "
-                    "solar minimum, 1000 or more near maximum)",
+        fmt::format("allowed: a number of MV from {:g} to {:g} (for this LIS about 300 to 400 "
+                    "near solar minimum, 1000 or more near maximum)",
                     kMinPhi_MV, kMaxPhi_MV);
     const double as_MV = 1000.0 * phi_MV;
     if (as_MV >= kMinPhi_MV && as_MV <= kMaxPhi_MV) {

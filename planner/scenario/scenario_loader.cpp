@@ -101,6 +101,11 @@ void apply_recorded_cycle(Mission& mission, const SourceLocation& where) {
     }
 }
 
+/// The message for an id that names no location: "unknown location 'x'; allowed: a, b, c".
+std::string unknown_location(const std::string& id, const std::set<std::string>& ids) {
+    return fmt::format("unknown location '{}'; allowed: {}", id, fmt::join(ids, ", "));
+}
+
 OrganDoses read_doses(const Section& s) {
     OrganDoses d;
     for (const auto& organ : ledger_organs()) {
@@ -732,7 +737,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         a.kind = k->second;
         a.location = s.text("location");
         if (!location_ids.count(a.location)) {
-            s.fail("location", "unknown location '" + a.location + "'");
+            s.fail("location", unknown_location(a.location, location_ids));
         }
         a.start = s.time("start");
         a.end = s.time("end");
@@ -741,7 +746,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (a.start < sc.mission.start || a.end > sc.mission.end) {
             s.fail(a.start < sc.mission.start ? "start" : "end",
-                   "lies outside the mission (mission.start to mission.end)");
+                   fmt::format("lies outside the mission ({} to {})", format_time(sc.mission.start),
+                               format_time(sc.mission.end)));
         }
         const bool outside = a.kind == ActivityKind::eva || a.kind == ActivityKind::rover;
         for (const std::string key : {"return_min", "distance_km"}) {
@@ -764,7 +770,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         if (s.has("refuge")) {
             a.refuge = s.text("refuge");
             if (!location_ids.count(*a.refuge)) {
-                s.fail("refuge", "unknown location '" + *a.refuge + "'");
+                s.fail("refuge", unknown_location(*a.refuge, location_ids));
             }
         }
         if (s.has("sun_distance_AU")) {
@@ -850,7 +856,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         p.given = true;
         p.shelter = s.text("shelter");
         if (!location_ids.count(p.shelter)) {
-            s.fail("shelter", "unknown location '" + p.shelter + "'");
+            s.fail("shelter", unknown_location(p.shelter, location_ids));
         }
         if (s.has("warning_delay_min")) {
             p.warning_delay_min = s.within("warning_delay_min", 0.0, kMaxMinutes, "minutes");

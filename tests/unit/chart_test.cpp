@@ -9,6 +9,7 @@
 #include "planner/report/number_format.hpp"
 #include "planner/report/shelter_chart.hpp"
 #include "planner/report/storm_chart.hpp"
+#include "planner/report/storm_report.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
 
@@ -362,6 +363,16 @@ TEST_CASE("storm chart: a step per profile bin at the sweep's share, the limit, 
                     "radiation-protection staff.") != std::string::npos);
     CHECK(doc.find("A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.") != std::string::npos);
     CHECK(doc.find("day 0 = 2032-01-01T00:00:00Z") != std::string::npos);
+    // The text profile: bars are 5 % a character up to 200 %; a longer one ends in '>' (a 409 %
+    // share read the same as 198 % before). Here 130 % is 26 characters, no mark.
+    {
+        std::vector<double> high = ratios;
+        high[3] = 4.09;
+        const std::string text = format_storm_sweep(ctx, hand_sweep(high), OutputFormat::text);
+        CHECK(text.find(" 409 % " + std::string(40, '#') + ">\n") != std::string::npos);
+        const std::string plain = format_storm_sweep(ctx, s, OutputFormat::text);
+        CHECK(plain.find(" 130 % " + std::string(26, '#') + "\n") != std::string::npos);
+    }
 
     // The curve: per bin two points, at its start and its end (the next bin's start), both at
     // the bin's share; by construction: the sweep's own number, times 100, read back through

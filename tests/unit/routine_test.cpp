@@ -232,10 +232,11 @@ TEST_CASE("a routine's faults name the file, the rule's line and key, and the in
     SECTION("an activity of an instance that runs past until") {
         const std::string text =
             replace(base, "every = \"2d\"", "every = \"2d\"\nuntil = 2032-01-09T12:00:00Z");
-        expect(text, fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-09T00:00:00Z: "
-                                 "its activity at line {} runs from 2032-01-09T10:00:00Z to "
-                                 "2032-01-09T15:00:00Z, past until",
-                                 every + 1, line_of(text, "kind = \"eva\"") - 1));
+        expect(text,
+               fmt::format("plan.toml:{}: routine.until: the instance of 2032-01-09T00:00:00Z: "
+                           "its activity at line {} runs from 2032-01-09T10:00:00Z to "
+                           "2032-01-09T15:00:00Z, past until",
+                           every + 1, line_of(text, "kind = \"eva\"") - 1));
     }
     SECTION("one instance overlapping a one-off activity") {
         const std::string text = base + R"(
@@ -246,18 +247,21 @@ location = "cabin"
 start = 2032-01-05T12:00:00Z
 end = 2032-01-05T13:00:00Z
 )";
-        expect(text, fmt::format("plan.toml:{}: activity.start: crew member 'b' is already busy "
-                                 "until 2032-01-05T15:00:00Z (the activity at line {}, from "
-                                 "2032-01-05T10:00:00Z) when this one starts at 2032-01-05T12:00:00Z",
-                                 line_of(text, "kind = \"shelter\"") - 2,
-                                 line_of(text, "kind = \"eva\"") - 1));
+        expect(text,
+               fmt::format("plan.toml:{}: activity.start: crew member 'b' is already busy "
+                           "until 2032-01-05T15:00:00Z (the activity at line {}, from "
+                           "2032-01-05T10:00:00Z) when this one starts at 2032-01-05T12:00:00Z",
+                           line_of(text, "kind = \"shelter\"") - 2,
+                           line_of(text, "kind = \"eva\"") - 1));
     }
     SECTION("the activities themselves, checked as [[activity]] entries are, per instance") {
         const std::string text = replace(base, "location = \"outside\"", "location = \"moon\"");
         expect(text, fmt::format("plan.toml:{}: routine.activity.location: unknown location "
-                                 "'moon' (the instance of 2032-01-01T00:00:00Z of the routine at "
-                                 "line {})",
-                                 line_of(text, "kind = \"eva\"") - 1, rule));
+                                 "'moon'; allowed: ",
+                                 line_of(text, "kind = \"eva\"") - 1));
+        expect(
+            text,
+            fmt::format(" (the instance of 2032-01-01T00:00:00Z of the routine at line {})", rule));
         expect(replace(base, "return_min = 40", "return_min = 4000"),
                "routine.activity.return_min: 4000 is outside the allowed range 0 to 2880 minutes "
                "(the instance of 2032-01-01T00:00:00Z");
@@ -272,11 +276,12 @@ end = 2032-01-05T13:00:00Z
                "routine.activity.at: '2d': write the start within the period (less than every)");
     }
     SECTION("except names instances") {
-        expect(replace(base, "every = \"2d\"", "every = \"2d\"\nexcept = [2032-01-04T00:00:00Z]"),
-               fmt::format("plan.toml:{}: routine.except: 2032-01-04T00:00:00Z is not the start of an "
-                           "instance; instances start at from = 2032-01-01T00:00:00Z and every 2d "
-                           "after it, the last at 2032-01-09T00:00:00Z",
-                           every + 1));
+        expect(
+            replace(base, "every = \"2d\"", "every = \"2d\"\nexcept = [2032-01-04T00:00:00Z]"),
+            fmt::format("plan.toml:{}: routine.except: 2032-01-04T00:00:00Z is not the start of an "
+                        "instance; instances start at from = 2032-01-01T00:00:00Z and every 2d "
+                        "after it, the last at 2032-01-09T00:00:00Z",
+                        every + 1));
         expect(replace(base, "every = \"2d\"",
                        "every = \"2d\"\nexcept = [2032-01-03T00:00:00Z, 2032-01-03T00:00:00Z]"),
                "routine.except: lists 2032-01-03T00:00:00Z twice");

@@ -79,6 +79,13 @@ TEST_CASE("non-positive sizes and durations, times out of order or outside the m
            "plan.toml:5: mission.end: must be after mission.start");
     expect(replace_last(kBase, "end = 2032-01-11T00:00:00Z", "end = 2032-01-01T00:00:00Z"),
            "activity.end: must be after start");
+    // An activity outside the mission says the mission's dates (it used to say only
+    // "mission.start to mission.end").
+    expect(replace_last(kBase, "end = 2032-01-11T00:00:00Z", "end = 2032-01-12T00:00:00Z"),
+           "activity.end: lies outside the mission (2032-01-01T00:00:00Z to "
+           "2032-01-11T00:00:00Z)");
+    expect(replace(kBase, "location = \"inside\"", "location = \"insid\""),
+           "activity.location: unknown location 'insid'; allowed: inside");
     expect(replace(kBase, "flare_seen = 2032-01-05T00:00:00Z", "flare_seen = 2033-01-05T00:00:00Z"),
            "plan.toml:22: event.flare_seen: lies outside the mission");
 }
