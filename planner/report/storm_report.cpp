@@ -330,6 +330,22 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, O
                                significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
                                significant(o.margin(), 3), o.exceeded() ? "  EXCEEDED" : "");
         }
+        // A response that adds dose (the crew wait out the event somewhere less shielded than
+        // where the plan had them) is said so: "saved" below zero is easy to miss.
+        std::vector<std::string> worse;
+        for (const auto& o : c.organs) {
+            if (w.respond && o.with_response_mGyEq > o.without_response_mGyEq) {
+                worse.push_back(organ_label(o.organ));
+            }
+        }
+        if (!worse.empty()) {
+            out += wrap(fmt::format("  NOTE: the response adds dose here ({}): the crew wait the "
+                                    "event out somewhere less shielded than the plan had them "
+                                    "(an EVA's refuge, or the place they are held until the "
+                                    "all-clear); check [storm_response] and the refuges",
+                                    fmt::format("{}", fmt::join(worse, ", "))),
+                        100, "    ");
+        }
         out += "  where (from t0):\n";
         for (const auto& s : c.responded) {
             out +=

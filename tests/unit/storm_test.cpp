@@ -654,3 +654,44 @@ TEST_CASE("storm: the sweep prints its step in a unit that reads right", "[storm
     CHECK(text.find("every 0 min") == std::string::npos);
     CHECK(nlohmann::json::parse(format_storm_sweep(ctx, s, OutputFormat::json))["step_s"] == 5);
 }
+
+TEST_CASE("storm: a response that adds dose is said so", "[storm]") {
+    // Found trying the tool as a new user: crew held in a thin refuge until the all-clear
+    // received more than the plan gave them, and the report showed it only as a negative
+    // "saved". By construction: the crew stay in the heavy shelter all along; the policy
+    // (invented) sends them to the thin cabin at once.
+    const std::string in_shelter = R"([[activity]]
+crew = "a"
+kind = "stay"
+location = "shelter"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+)";
+    const std::string to_cabin = R"([storm_response]
+shelter = "cabin"
+warning_delay_min = 0
+move_to_shelter_min = 0
+all_clear_h = 30
+)";
+    const Study study(parse_scenario(plan(in_shelter, to_cabin), "storm.toml"));
+    const auto onset = parse_command_time("2032-01-02T20:00:00Z", "--onset");
+    const StormContext respond(study, "spe", true);
+    const auto w = respond.at(onset);
+    bool more = false;
+    for (const auto& o : w.crew[0].organs) {
+        more = more || o.with_response_mGyEq > o.without_response_mGyEq;
+    }
+    REQUIRE(more); // the construction holds: the cabin is thinner than the shelter
+    const std::string text = format_storm_whatif(respond, w, OutputFormat::text);
+    CHECK(text.find("NOTE: the response adds dose here (BFO") != std::string::npos);
+    // Without a response there is nothing to add.
+    const StormContext none(study, "spe", false);
+    CHECK(
+        format_storm_whatif(none, none.at(onset), OutputFormat::text).find("NOTE: the response") ==
+        std::string::npos);
+    // The plan's own what-if (crew in the cabin, sent to the shelter) saves dose: no note.
+    const Study usual(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext usual_ctx(usual, "spe", true);
+    CHECK(format_storm_whatif(usual_ctx, usual_ctx.at(onset), OutputFormat::text)
+              .find("NOTE: the response") == std::string::npos);
+}
