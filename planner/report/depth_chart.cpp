@@ -1,6 +1,7 @@
 #include "planner/report/depth_chart.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/gcr_chart.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
 
 #include <fmt/format.h>
@@ -26,13 +27,7 @@ svg::Figure depth_figure(const exposure::ProtonSpectrum& spectrum, const exposur
 
     // Both charts: x the shield's areal density from zero, y a dose from zero.
     const auto chart = [&](std::string title, std::string y_title) {
-        svg::Chart c;
-        c.title = std::move(title);
-        c.x.title = fmt::format("shield areal density (g/cm2 of {})", shield.id());
-        c.x.from_zero = true;
-        c.y.title = std::move(y_title);
-        c.y.from_zero = true;
-        return c;
+        return areal_density_chart(std::move(title), std::move(y_title), shield.id());
     };
     // A curve of one quantity of the rows (Gy, Sv or Gy-Eq) in milli-units as the report prints
     // it; a point per row in order of thickness.

@@ -10,6 +10,17 @@
 
 namespace crewdose::planner {
 
+svg::Chart areal_density_chart(std::string title, std::string y_title,
+                               const std::string& material_id) {
+    svg::Chart c;
+    c.title = std::move(title);
+    c.x.title = fmt::format("shield areal density (g/cm2 of {})", material_id);
+    c.x.from_zero = true;
+    c.y.title = std::move(y_title);
+    c.y.from_zero = true;
+    return c;
+}
+
 svg::Figure gcr_figure(double phi_MV, const exposure::Material& shield, const TissueDepth& tissue,
                        const std::vector<GcrDepthRow>& rows, bool per_year, const GcrSiteSpec& site,
                        const exposure::Material& detector) {
@@ -33,13 +44,7 @@ svg::Figure gcr_figure(double phi_MV, const exposure::Material& shield, const Ti
 
     // Both charts: x the shield's areal density from zero, y a dose rate from zero.
     const auto chart = [&](std::string title, std::string y_title) {
-        svg::Chart c;
-        c.title = std::move(title);
-        c.x.title = fmt::format("shield areal density (g/cm2 of {})", shield.id());
-        c.x.from_zero = true;
-        c.y.title = std::move(y_title);
-        c.y.from_zero = true;
-        return c;
+        return areal_density_chart(std::move(title), std::move(y_title), shield.id());
     };
     // A curve of one quantity of the rows (Sv or Gy per day) in milli-units per day or per year,
     // the report's product 1e3 * scale * value; a point per row in order of thickness.

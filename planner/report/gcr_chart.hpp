@@ -11,6 +11,11 @@
 
 namespace crewdose::planner {
 
+/// A design-curve chart (gcr and depth --chart): x the shield's areal density in g/cm2 of the
+/// material, y a dose from zero, both titled.
+[[nodiscard]] svg::Chart areal_density_chart(std::string title, std::string y_title,
+                                             const std::string& material_id);
+
 /// The figure of a gcr run: one panel of two charts against the shield's areal density (g/cm2
 /// of `shield`), a point per row in order of areal density. The first chart: the dose
 /// equivalent rate (mSv per day, or per year of kDaysPerYear days when `per_year`) of the
