@@ -395,8 +395,15 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
            "without\nnuclear reactions, uncertainty factor " +
            fmt::format("{:.2f}", sc.limits.uncertainty_factor) +
            " applied; the whole description is at the end.\n\n";
-    out += "GCR dose rate at the mission start, per day, with nuclear reactions (removal and "
-           "projectile\nfragments) / without any (the higher is used for limits):\n";
+    out +=
+        wrap(fmt::format("GCR dose rate at the mission start (phi {:.0f} MV{}), per day, with "
+                         "nuclear reactions (removal and projectile fragments) / without any "
+                         "(the higher is used for limits):",
+                         sc.mission.gcr_phi_MV,
+                         sc.mission.gcr_phi_series.empty()
+                             ? ""
+                             : "; later months from the recorded solar cycle, listed at the end"),
+             96);
     out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");
     for (const auto& loc : sc.locations) {
         for (const auto& organ : study.body(loc.id).organs) {
