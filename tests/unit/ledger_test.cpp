@@ -257,7 +257,8 @@ TEST_CASE("phi by date: rates interpolated between 100 MV nodes, never below the
     // A phi the mission does not use was not computed: an error, not a number.
     CHECK_THROWS_AS(interpolated.gcr_daily_dose("free", "bfo", 650.0), std::out_of_range);
     // The ledger takes the interpolated rate: 1.5 times 60 days of it.
-    const auto& bfo = build_ledger(interpolated).crew.at(0).organs.at(0);
+    const LedgerResult ledger = build_ledger(interpolated);
+    const auto& bfo = ledger.crew.at(0).organs.at(0);
     CHECK(bfo.gcr.mGyEq ==
           Approx(1.5 * 60.0 * 1e3 *
                  interpolated.gcr_daily_dose("free", "bfo", 250.0).for_limits().rbe_weighted_GyEq)
