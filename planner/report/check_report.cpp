@@ -502,13 +502,18 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                 100, "    ");
         }
         if (lowest) {
-            out += wrap(fmt::format("  smallest margin: {} {} ({:.0f} % of the limit left){}",
-                                    organ_label(lowest->limit.organ), lowest->limit.window,
-                                    100.0 * lowest->margin / lowest->limit.value,
-                                    lowest->top_contributor.empty()
-                                        ? ""
-                                        : "; mostly " + lowest->top_contributor),
-                        100, "    ");
+            // An exceeded limit has a negative margin: say by how much it is over, not that a
+            // negative share is left.
+            const double share_left = 100.0 * lowest->margin / lowest->limit.value;
+            out += wrap(
+                fmt::format(
+                    "  smallest margin: {} {} ({}){}", organ_label(lowest->limit.organ),
+                    lowest->limit.window,
+                    share_left >= 0.0
+                        ? fmt::format("{:.0f} % of the limit left", share_left)
+                        : fmt::format("EXCEEDED, {:.0f} % over the limit", -share_left),
+                    lowest->top_contributor.empty() ? "" : "; mostly " + lowest->top_contributor),
+                100, "    ");
         }
         if (c.budget.binds && c.budget.days > 0.0) {
             out += wrap(fmt::format("  budget left: {} {} binds first, after about {} more days "

@@ -425,6 +425,15 @@ TEST_CASE("check: a larger event exceeds a limit and says who, what and when", "
     CHECK(r.out.find("PLANNING LIMIT EXCEEDED: Ines Halvorsen (halvorsen), BFO 30-day limit") !=
           std::string::npos);
     CHECK(r.out.find("window 2032-") != std::string::npos);
+    // The exceeded limit's margin says by how much it is over, never "-N % of the limit left".
+    CHECK(r.out.find("smallest margin: lens 30-day (EXCEEDED, ") != std::string::npos);
+    CHECK(r.out.find("% over the limit)") != std::string::npos);
+    for (std::size_t at = r.out.find("% of the limit left"); at != std::string::npos;
+         at = r.out.find("% of the limit left", at + 1)) {
+        const std::size_t open = r.out.rfind('(', at);
+        REQUIRE(open != std::string::npos);
+        CHECK(r.out[open + 1] != '-');
+    }
 }
 
 TEST_CASE("check: json carries full precision agreeing with the text", "[cli][check]") {
