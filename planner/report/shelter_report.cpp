@@ -213,16 +213,30 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["sun_distance_AU"] = rep.sun_distance_AU;
         j["fluence_scale"] = rep.fluence_scale;
         j["other_alone_exceeds_target"] = rep.other_alone_exceeds;
+        // The answer the text and HTML open with: its sentence, and per material the status
+        // word and class of the same table (so JSON, text and HTML cannot disagree).
+        const VerdictTable answer = shelter_answer(rep);
+        j["answer"] = answer.headline;
         j["answers"] = nlohmann::json::array();
-        for (const auto& a : rep.answers) {
-            nlohmann::json aj{{"material", a.material},
-                              {"density_g_cm3", a.density_g_cm3},
-                              {"achievable", a.achievable},
-                              {"none_needed", a.none_needed},
-                              {"binding_organ", a.binding_organ},
-                              {"searched_to_g_cm2", a.searched_to_g_cm2},
-                              {"limited_by_room", a.limited_by_room},
-                              {"evaluations", a.evaluations}};
+        for (std::size_t i = 0; i < rep.answers.size(); ++i) {
+            const ShelterAnswer& a = rep.answers[i];
+            // A dose that was not computed is null, never a number.
+            const auto dose_json = [](double v) {
+                return std::isfinite(v) && v >= 0.0 ? nlohmann::json(v) : nlohmann::json(nullptr);
+            };
+            nlohmann::json aj{
+                {"material", a.material},
+                {"status", answer.rows[i].back().status},
+                {"status_text", answer.rows[i].back().text},
+                {"dose_mGyEq", dose_json(answer_dose(rep, a))},
+                {"target_mGyEq", dose_json(value_or_nan(rep.target_mGyEq, a.binding_organ))},
+                {"density_g_cm3", a.density_g_cm3},
+                {"achievable", a.achievable},
+                {"none_needed", a.none_needed},
+                {"binding_organ", a.binding_organ},
+                {"searched_to_g_cm2", a.searched_to_g_cm2},
+                {"limited_by_room", a.limited_by_room},
+                {"evaluations", a.evaluations}};
             if (a.achievable) {
                 aj["areal_density_g_cm2"] = a.areal_density_g_cm2;
                 aj["thickness_cm"] = a.thickness_cm;

@@ -122,6 +122,39 @@ const StormOrgan* binding_organ(const StormCrew& c) {
     return b;
 }
 
+// One crew member's verdict: the binding organ, its 30-day dose with the response (the event
+// plus the highest other 30-day dose) and the status. Text, HTML and JSON all read these, so
+// they cannot disagree. A dose that was not computed is never within: !(dose <= limit).
+struct StormVerdictRow {
+    const StormCrew* crew = nullptr;
+    const Time* onset = nullptr;       ///< the worst onset, in a sweep
+    const StormOrgan* organ = nullptr; ///< null: no organ checked
+    double dose = 0.0;
+    bool known = false;
+    bool over = false;
+    bool near = false;
+};
+
+std::vector<StormVerdictRow>
+storm_verdict_rows(const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
+                   double near_share) {
+    std::vector<StormVerdictRow> rows;
+    for (const auto& [c, onset] : crew) {
+        StormVerdictRow r;
+        r.crew = c;
+        r.onset = onset;
+        r.organ = binding_organ(*c);
+        if (r.organ) {
+            r.dose = r.organ->with_response_mGyEq + r.organ->other_30d_mGyEq;
+            r.known = computed(*r.organ, r.organ->with_response_mGyEq);
+            r.over = !r.known || !(r.dose <= r.organ->limit_30d_mGyEq);
+            r.near = !r.over && r.dose >= near_share * r.organ->limit_30d_mGyEq;
+        }
+        rows.push_back(r);
+    }
+    return rows;
+}
+
 // The verdict rows of `crew` (with each one's onset in a sweep); counts the exceeded and near.
 VerdictTable storm_verdict(const StormContext& ctx,
                            const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
@@ -143,33 +176,30 @@ VerdictTable storm_verdict(const StormContext& ctx,
     }
     exceeded = 0;
     near = 0;
-    for (const auto& [c, onset] : crew) {
+    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+        const StormCrew* c = v.crew;
         std::vector<VerdictCell> row{{by_name ? c->name : c->crew}};
-        const StormOrgan* o = binding_organ(*c);
+        const StormOrgan* o = v.organ;
         if (!o) {
             row.push_back({"no organ checked"});
             t.rows.push_back(std::move(row));
             continue;
         }
-        const double dose = o->with_response_mGyEq + o->other_30d_mGyEq;
-        const bool known = computed(*o, o->with_response_mGyEq);
-        // Written so that a dose that was not computed is never within: !(dose <= limit).
-        const bool over = !known || !(dose <= o->limit_30d_mGyEq);
-        const bool is_near = !over && dose >= near_share * o->limit_30d_mGyEq;
-        exceeded += over ? 1U : 0U;
-        near += is_near ? 1U : 0U;
+        exceeded += v.over ? 1U : 0U;
+        near += v.near ? 1U : 0U;
         row.push_back({organ_label(o->organ)});
-        row.push_back({fmt::format("{} / {} mGy-Eq", known ? significant(dose, 3) : "not computed",
-                                   verdict_dose_text(o->limit_30d_mGyEq)),
-                       true});
         row.push_back(
-            {known ? fmt::format("{:.0f} %", 100.0 * dose / o->limit_30d_mGyEq) : "-", true});
-        row.push_back({over ? "EXCEEDED" : (is_near ? "near" : "within"), false,
-                       over ? "exceeded" : (is_near ? "near" : "within")});
+            {fmt::format("{} / {} mGy-Eq", v.known ? significant(v.dose, 3) : "not computed",
+                         verdict_dose_text(o->limit_30d_mGyEq)),
+             true});
+        row.push_back(
+            {v.known ? fmt::format("{:.0f} %", 100.0 * v.dose / o->limit_30d_mGyEq) : "-", true});
+        row.push_back({v.over ? "EXCEEDED" : (v.near ? "near" : "within"), false,
+                       v.over ? "exceeded" : (v.near ? "near" : "within")});
         if (sweep) {
             // To the microsecond when the onset has a fraction of a second (a policy
             // breakpoint): --onset then reads back the very onset.
-            row.push_back({format_time_exact(*onset)});
+            row.push_back({format_time_exact(*v.onset)});
         }
         if (responds) {
             const double without = o->without_response_mGyEq + o->other_30d_mGyEq;
@@ -192,6 +222,36 @@ VerdictTable storm_verdict(const StormContext& ctx,
         responds ? "; without response: the same organ if the crew kept to the planned timeline"
                  : "");
     return t;
+}
+
+// The verdict for JSON: the sentence, the near share and a row per crew member, the same
+// numbers the text table rounds. A dose that was not computed is null with status "exceeded".
+void add_verdict_json(nlohmann::json& j, const VerdictTable& table,
+                      const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
+                      double near_share) {
+    j["verdict"] = table.headline;
+    j["near_share"] = near_share;
+    j["headline"] = nlohmann::json::array();
+    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+        nlohmann::json row{{"crew", v.crew->crew}};
+        if (!v.organ) {
+            row["organ"] = nullptr;
+            row["status"] = "no organ checked";
+        } else {
+            row["organ"] = v.organ->organ;
+            row["window"] = "30-day";
+            row["dose"] = v.known ? nlohmann::json(v.dose) : nlohmann::json(nullptr);
+            row["limit"] = v.organ->limit_30d_mGyEq;
+            row["unit"] = "mGy-Eq";
+            row["share_of_limit"] =
+                v.known ? nlohmann::json(v.dose / v.organ->limit_30d_mGyEq) : nullptr;
+            row["status"] = v.over ? "exceeded" : (v.near ? "near" : "within");
+        }
+        if (v.onset) {
+            row["worst_onset"] = format_time_exact(*v.onset);
+        }
+        j["headline"].push_back(std::move(row));
+    }
 }
 
 std::string crew_count(std::size_t n, std::size_t of) {
@@ -279,9 +339,12 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, O
                          {"respond", w.respond},
                          {"model", model_note(ctx)},
                          {"any_limit_exceeded", w.any_exceeded()}};
+        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& c : w.crew) {
             j["crew"].push_back(crew_json(c));
+            crew.emplace_back(&c, nullptr);
         }
+        add_verdict_json(j, storm_whatif_verdict(ctx, w, near_share), crew, near_share);
         return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
@@ -370,11 +433,14 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
             {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
             {"response", ctx.responds()}};
+        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
             cj["worst_onset"] = format_time(onset);
             j["worst"].push_back(cj);
+            crew.emplace_back(&c, &onset);
         }
+        add_verdict_json(j, storm_sweep_verdict(ctx, s, near_share), crew, near_share);
         for (const auto& e : s.evas) {
             j["evas"].push_back({{"activity", e.label},
                                  {"start", format_time(e.start)},

@@ -744,6 +744,13 @@ TEST_CASE("shelter: sizes per material, says when a target cannot be met, reject
     CHECK(layer.exit_code == 0);
     const auto doc = nlohmann::json::parse(layer.out);
     CHECK(doc["answers"][0]["added_mass_kg"].get<double>() > 0.0);
+    // The JSON carries the answer the text opens with: the sentence, and per material the
+    // status with the binding organ's dose at the answer against its target.
+    CHECK(doc["answer"].get<std::string>().rfind("Answer: ", 0) == 0);
+    CHECK(doc["answers"][0]["status"] == "within");
+    CHECK(doc["answers"][0]["status_text"].get<std::string>().rfind("needs ", 0) == 0);
+    CHECK(doc["answers"][0]["target_mGyEq"].get<double>() == 40.0);
+    CHECK(doc["answers"][0]["dose_mGyEq"].get<double>() <= 40.0);
     // A target just above the crew's other 30-day dose: 5 g/cm2 cannot bring the event's
     // dose (tens of mGy-Eq as built) under the 1 mGy-Eq left.
     const double other = doc["other_30d_mGyEq"]["bfo"].get<double>();
@@ -816,6 +823,23 @@ TEST_CASE("storm: --chart draws the sweep's profile, the same bytes on every run
     CHECK(svg.find("A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.") != std::string::npos);
     // The curve: two points (a step) per bin of the report's profile, each at the bin's share;
     // by construction: the sweep's own number, the same as the JSON report's.
+    // The JSON carries the verdict the text opens with: the sentence, the near share and a
+    // row per crew member whose status agrees with its dose against its limit.
+    CHECK(doc["verdict"].get<std::string>().rfind(
+              "Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED at the worst onset", 0) == 0);
+    CHECK(doc["near_share"].get<double>() == 0.9);
+    REQUIRE(doc["headline"].size() == doc["worst"].size());
+    std::size_t exceeded = 0;
+    for (std::size_t k = 0; k < doc["headline"].size(); ++k) {
+        const auto& h = doc["headline"][k];
+        const double dose = h["dose"].get<double>();
+        const double limit = h["limit"].get<double>();
+        CHECK(h["crew"] == doc["worst"][k]["id"]);
+        CHECK(h["share_of_limit"].get<double>() == Approx(dose / limit).epsilon(1e-12));
+        CHECK(h["status"] == (dose > limit ? "exceeded" : dose >= 0.9 * limit ? "near" : "within"));
+        exceeded += h["status"] == "exceeded" ? 1U : 0U;
+    }
+    CHECK(exceeded > 0);
     const auto& profile = doc["profile"];
     REQUIRE(c.paths.count("highest share") == 1);
     const auto stretches = svg_check::path_points(c.paths.at("highest share"));
