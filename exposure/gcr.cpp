@@ -1,5 +1,7 @@
 #include "gcr.hpp"
 
+#include "units.hpp"
+
 #include <array>
 #include <cmath>
 #include <stdexcept>
@@ -7,8 +9,6 @@
 
 namespace crewdose::exposure {
 namespace {
-
-constexpr double kPi = 3.14159265358979323846;
 
 // Heavier nuclei, Z = 4..28: abundances relative to oxygen = 1000 at 10.6 GeV/n measured by
 // the French-Danish HEAO-3-C2 experiment (Engelmann et al. 1990, A&A 233, 96, table of
@@ -50,10 +50,14 @@ constexpr std::array<double, 29> kHeaoRelativeToOxygen1000{
 // HEAO-3 measured near solar maximum; its intensities are taken back to the LIS with the force
 // field at this potential (an assumption of ours: the solar-maximum example value).
 constexpr double kHeaoEpochPhi_MV = 1000.0;
-// Helium: Webber & Lezniak 1974 (Astrophys. Space Sci. 30, 361): "on a rigidity representation
-// the P/He ratio is also a constant ~7 above ~3 GeV". With the same LIS shape in rigidity for
-// both, the proton-to-helium intensity ratio per unit rigidity at high rigidity is 7.
-constexpr double kProtonToHeliumAtEqualRigidity = 7.0;
+// Helium: the proton LIS per unit rigidity divided by r(R) = r0 (R / 10 GV)^-delta. r0 and delta
+// are our fit (scripts/data/helium_lis.py) to the AMS-02 helium flux of Aguilar et al. 2021
+// (Physics Reports 894, 1; tests/data/crdb) from 2 to 100 GV, at the phi (629 MV) that this LIS
+// fits to the same report's protons; PAMELA's helium (Adriani et al. 2011, Science 332, 69) is
+// held out as the test. (The constant p/He = 7 at equal rigidity used before, after Webber &
+// Lezniak 1974, left helium at 0.72-0.84 of both measurements.)
+constexpr double kHeliumRatioAt10GV = 5.4606;
+constexpr double kHeliumRatioIndex = 0.0623;
 
 // Spectral shape of the nuclei Z >= 3 outside the heliosphere: the form of the ISO 15390
 // galactic cosmic ray model (after Nymmik et al. 1992, Nucl. Tracks Radiat. Meas. 20, 427),
@@ -124,10 +128,25 @@ double iso_shape(const Particle& p, double T) {
     return std::pow(beta_of(p, T), k.alpha - 1.0) * std::pow(rigidity_of(p, T), -k.gamma);
 }
 
+// Helium's LIS per unit energy per nucleon: the proton's per unit rigidity, shape(R) beta_p(R)
+// (the Burger form is per unit kinetic energy, and dT/dR = beta for a proton), divided by r(R),
+// times dR/dT_n = (A/Z) / beta for the helium nucleus.
+double helium_lis_shape(const Particle& p, double T) {
+    const double R = rigidity_of(p, T);
+    const double mp_GeV = kProtonMass_MeV * 1e-3;
+    const double beta_p = R / std::sqrt(R * R + mp_GeV * mp_GeV);
+    const double ratio = kHeliumRatioAt10GV * std::pow(R / 10.0, -kHeliumRatioIndex);
+    return burger_lis_shape(R) * beta_p / ratio * static_cast<double>(p.A) /
+           static_cast<double>(p.Z) / beta_of(p, T);
+}
+
 // The LIS shape of a nucleus per unit energy per nucleon, up to its scale.
 double lis_shape(const Particle& p, double T) {
-    if (p.Z <= 2) {
+    if (p.Z == 1) {
         return burger_lis_shape(rigidity_of(p, T));
+    }
+    if (p.Z == 2) {
+        return helium_lis_shape(p, T);
     }
     return iso_shape(p, T);
 }
@@ -182,13 +201,8 @@ double heao_lis_at_reference(const Particle& p) {
 
 // Scale c_Z of the LIS of nucleus Z: J_LIS(T) = c_Z lis_shape(T) per GeV/n.
 double lis_scale(const Particle& p) {
-    if (p.Z == 1) {
-        return 1.0;
-    }
-    if (p.Z == 2) {
-        // Per unit rigidity J = c shape(P) beta Z/A for the nucleus and shape(P) beta for the
-        // proton; at high rigidity (beta -> 1) the ratio is A / (Z c).
-        return static_cast<double>(p.A) / static_cast<double>(p.Z) / kProtonToHeliumAtEqualRigidity;
+    if (p.Z <= 2) {
+        return 1.0; // helium's scale is in its shape
     }
     if (relative_to_oxygen_1000(p.Z) <= 0.0) {
         return 0.0;
@@ -203,8 +217,9 @@ double lis_scale(const Particle& p) {
 } // namespace
 
 std::string_view gcr_composition_source() {
-    return "protons: Burger et al. 2000 LIS as given by Usoskin et al. 2005; helium: proton "
-           "LIS in rigidity with p/He = 7 at equal rigidity (Webber & Lezniak 1974); Z = 3-28: "
+    return "protons: Burger et al. 2000 LIS as given by Usoskin et al. 2005; helium: the proton "
+           "LIS per unit rigidity over p/He = 5.46 (R / 10 GV)^-0.062, our fit to AMS-02 helium "
+           "(Aguilar et al. 2021); Z = 3-28: "
            "each element's ISO 15390 spectral shape in rigidity (indices as tabulated by "
            "Matthiae et al. 2013), scaled to the HEAO-3-C2 abundances and oxygen intensity at "
            "10.6 GeV/n (Engelmann et al. 1990) taken back to the LIS with phi = 1000 MV; "

@@ -315,8 +315,8 @@ TEST_CASE("GCR mean quality factor behind 1 g/cm2 aluminium at solar minimum",
     // at solar minimum is about 2.5 to 4.5 (no single source; measured on the lunar surface by
     // Chang'E-4's dosimeter: about 4.3, Zhang et al. 2020, from memory). Gate: at the blood-
     // forming organs (5 cm of tissue) behind 1 g/cm2 aluminium, phi = 400 MV, with nuclear
-    // reactions, the range 2.5-4.5. As measured when this test was written: 4.46 at 5 cm and
-    // 5.62 at the skin. The skin lies above the range because the model lacks the low-LET
+    // reactions, the range 2.5-4.5. As measured: 4.23 at 5 cm and 5.30 at the skin
+    // (4.46 and 5.62 before helium was fitted to AMS-02). The skin lies above the range because the model lacks the low-LET
     // secondaries and because the heavy ions stopping near the surface carry Q of 10-30: it is
     // gated only to lie above the 5 cm value and below 7.
     TableLibrary tables(crewdose::planner::gcr_grid());

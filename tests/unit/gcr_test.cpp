@@ -212,8 +212,8 @@ TEST_CASE("lunar surface GCR dose in silicon against Chang'E-4", "[gcr][referenc
     // the free-space fluence), thin shielding (1 g/cm2 aluminium, our assumption: the
     // instrument's housing is not modelled in detail), phi = 400 MV (our solar-minimum example
     // for this LIS; lunar albedo protons and neutrons are not modelled). Gate: within +/- 30 %.
-    // The model gated is the one the check uses: the fragmentation march (7.59 uGy/h when
-    // measured, 25 % under: close to the gate; phi = 300 MV gives 10.0).
+    // The model gated is the one the check uses: the fragmentation march (8.22 uGy/h as
+    // measured, 19 % under; 7.59 before helium was fitted to AMS-02).
     TableLibrary tables(crewdose::planner::gcr_grid());
     FragmentTransport march(tables);
     const Material& al = *find_builtin_material("aluminium");
@@ -270,7 +270,8 @@ TEST_CASE("the GCR energy grid is converged to 0.2 %", "[gcr]") {
 
 namespace {
 
-// T (GeV/n) and flux (per m2 s sr GeV/n) of a CRDB export in tests/data/crdb.
+// The first two columns of a CSV in tests/data/crdb: T (GeV/n) or R (GV), and the flux (per
+// m2 s sr GeV/n or per m2 s sr GV).
 std::vector<std::pair<double, double>> crdb_protons(const std::string& name) {
     std::ifstream in(std::string(CREWDOSE_SOURCE_DIR) + "/tests/data/crdb/" + name);
     REQUIRE(in);
@@ -294,7 +295,55 @@ std::vector<std::pair<double, double>> crdb_protons(const std::string& name) {
     return out;
 }
 
+// The model's helium flux per (m2 s sr GV) at rigidity R (GV) at 1 AU.
+double helium_per_GV(double R, double phi_MV) {
+    const Particle he = *particle_by_Z(2);
+    const double M = he.mass_MeV * 1e-3; // GeV
+    const double Z = he.Z;
+    const double A = he.A;
+    const double Tn = (std::sqrt(Z * R * Z * R + M * M) - M) / A; // GeV/n
+    const double beta = Z * R / std::sqrt(Z * R * Z * R + M * M);
+    // per MeV/n -> per GeV/n, times dT_n/dR = (Z/A) beta.
+    return 1e3 * gcr_modulated(he, 1e3 * Tn, phi_MV) * Z / A * beta;
+}
+
 } // namespace
+
+TEST_CASE("GCR helium against AMS-02 (fitted) and PAMELA 2006-08 (held out)", "[gcr][reference]") {
+    // Sources: Aguilar et al. 2021, Physics Reports 894, 1 (AMS-02, proton and helium fluxes
+    // per rigidity, SSDC export) and Adriani et al. 2011, Science 332, 69 (PAMELA helium,
+    // 2006/07-2008/12), from the public repository carmeloevoli/crams; tests/data/crdb names
+    // the commits and files, scripts/data/helium_lis.py extracted them and fitted the helium
+    // LIS (p/He = r0 (R / 10 GV)^-delta) to the AMS-02 helium from 2 to 100 GV at 629 MV, the
+    // phi this LIS fits to the same report's protons (1-20 GV, within 5.9 %).
+    const auto ams = crdb_protons("ams02_2011_2018_helium_rigidity.csv");
+    REQUIRE(ams.size() > 60);
+    for (const auto& [R, J] : ams) {
+        if (R > 1000.0) {
+            continue; // above 1 TV the measured spectrum hardens; no dose comes from there
+        }
+        INFO("AMS-02 helium at " << R << " GV: model " << helium_per_GV(R, 629.0) << ", measured "
+                                 << J);
+        CHECK(helium_per_GV(R, 629.0) == Approx(J).epsilon(0.10)); // the fit left 8.0 %
+    }
+    // Held out: PAMELA's helium at the phi PAMELA's protons give (501 MV, the test below),
+    // from 1.6 GV (below, the force field at this phi overshoots the measured turnover: 2.2
+    // times the flux at 1.0 GV) to 200 GV. The model before this fit (p/He = 7) was 0.73-0.84
+    // of these points.
+    const auto pamela = crdb_protons("pamela_2006_2008_helium_rigidity.csv");
+    REQUIRE(pamela.size() > 60);
+    std::size_t tested = 0;
+    for (const auto& [R, J] : pamela) {
+        if (R < 1.6 || R > 200.0) {
+            continue;
+        }
+        ++tested;
+        INFO("PAMELA helium at " << R << " GV: model " << helium_per_GV(R, 501.0) << ", measured "
+                                 << J);
+        CHECK(helium_per_GV(R, 501.0) == Approx(J).epsilon(0.15)); // worst 14 % (1.6-1.9 GV)
+    }
+    CHECK(tested > 60);
+}
 
 TEST_CASE("GCR protons against PAMELA 2006-08 and AMS-02 2011-13 at the fitted phi, within 15 %",
           "[gcr][reference]") {
