@@ -2,6 +2,7 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_steps.hpp"
 #include "planner/report/check_chart.hpp"
 #include "planner/report/check_html.hpp"
 #include "planner/report/check_report.hpp"
@@ -104,21 +105,14 @@ Command add_check_command(CLI::App& app) {
             const auto fmt_choice = planner::parse_output_format(format);
             const double near_share = near_share_of(o->near_percent);
 
-            // A path that cannot be written fails now, before the computation.
-            const std::vector<planner::NamedFile> outputs{{"--out", out_path},
-                                                          {"--series", series_path},
-                                                          {"--chart", o->chart_path},
-                                                          {"--html", o->html_path}};
-            planner::refuse_unwritable_outputs(outputs);
-            auto sc = planner::load_scenario(scenario_path);
-            if (!allow_gaps) {
-                planner::refuse_timeline_gaps(sc);
-            }
-            // Before the study is built: a clashing output costs no computation.
-            planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+            auto sc = load_for_outputs(scenario_path,
+                                       {{"--out", out_path},
+                                        {"--series", series_path},
+                                        {"--chart", o->chart_path},
+                                        {"--html", o->html_path}},
+                                       !allow_gaps);
             ProgressLine progress(o->quiet);
-            progress.stage("computing each location's doses");
-            const planner::Study study(std::move(sc), {}, [&](double f) { progress.update(f); });
+            const planner::Study study = compute_study(std::move(sc), progress);
             progress.finish();
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;
@@ -140,16 +134,10 @@ Command add_check_command(CLI::App& app) {
                 o->html_path.empty()
                     ? ""
                     : planner::format_check_html(study, ledger, near_share, html_about(stamp));
-            if (!series_path.empty()) {
-                planner::write_file_atomically(series_path, series, "--series");
-            }
-            if (!o->html_path.empty()) {
-                planner::write_file_atomically(o->html_path, html, "--html");
-            }
-            if (!o->chart_path.empty()) {
-                planner::write_file_atomically(o->chart_path, chart, "--chart");
-            }
-            write_report(report, out_path);
+            write_outputs({{"--series", series_path, series},
+                           {"--html", o->html_path, html},
+                           {"--chart", o->chart_path, chart}},
+                          report, out_path);
             return ledger.any_exceeded ? 1 : 0;
         }};
 }

@@ -2,6 +2,7 @@
 #include "planner/analyses/compare.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_steps.hpp"
 #include "planner/report/compare_html.hpp"
 #include "planner/report/compare_report.hpp"
 #include "planner/study/study.hpp"
@@ -45,45 +46,34 @@ Command add_compare_command(CLI::App& app) {
                     "limit as a table, the cautions and the whole text report, self-contained "
                     "(opens without a network, prints as shown; written when the run completes)");
     add_quiet_flag(sub, o->quiet);
-    return {sub, [o] {
-                const auto fmt_choice = planner::parse_output_format(o->format);
-                const double near_share = near_share_of(o->near_percent);
-                const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
-                                                              {"--html", o->html_path}};
-                planner::refuse_unwritable_outputs(outputs);
-                auto sa = planner::load_scenario(o->plan_a);
-                auto sb = planner::load_scenario(o->plan_b);
-                planner::refuse_timeline_gaps(sa);
-                planner::refuse_timeline_gaps(sb);
-                auto inputs = scenario_inputs(sa, o->plan_a);
-                for (auto& f : scenario_inputs(sb, o->plan_b)) {
-                    inputs.push_back(std::move(f));
-                }
-                planner::refuse_clashing_outputs(inputs, outputs);
-                ProgressLine progress(o->quiet);
-                progress.stage("computing plan A");
-                const planner::Study a(std::move(sa), {}, [&](double f) { progress.update(f); });
-                const auto ledger_a = planner::build_ledger(a);
-                progress.stage("computing plan B");
-                const planner::Study b(std::move(sb), {}, [&](double f) { progress.update(f); });
-                const auto ledger_b = planner::build_ledger(b);
-                progress.finish();
-                const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
-                const RunStamp stamp = run_stamp(&a.scenario(), &b.scenario());
-                // Every file is prepared before any is written.
-                const std::string text =
-                    stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
-                            fmt_choice, stamp);
-                const std::string html =
-                    o->html_path.empty() ? ""
+    return {
+        sub, [o] {
+            const auto fmt_choice = planner::parse_output_format(o->format);
+            const double near_share = near_share_of(o->near_percent);
+            const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
+                                                          {"--html", o->html_path}};
+            // Both plans read (and checked against the outputs) before either is computed.
+            auto sa = load_for_outputs(o->plan_a, outputs, true);
+            auto sb = load_for_outputs(o->plan_b, outputs, true);
+            ProgressLine progress(o->quiet);
+            const planner::Study a = compute_study(std::move(sa), progress, {}, "computing plan A");
+            const auto ledger_a = planner::build_ledger(a);
+            const planner::Study b = compute_study(std::move(sb), progress, {}, "computing plan B");
+            const auto ledger_b = planner::build_ledger(b);
+            progress.finish();
+            const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
+            const RunStamp stamp = run_stamp(&a.scenario(), &b.scenario());
+            // Every file is prepared before any is written.
+            const std::string text =
+                stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
+                        fmt_choice, stamp);
+            const std::string html = o->html_path.empty()
+                                         ? ""
                                          : planner::format_comparison_html(
                                                cmp, a.scenario(), b.scenario(), html_about(stamp));
-                if (!o->html_path.empty()) {
-                    planner::write_file_atomically(o->html_path, html, "--html");
-                }
-                write_report(text, o->out_path);
-                return cmp.a_exceeded || cmp.b_exceeded ? 1 : 0;
-            }};
+            write_outputs({{"--html", o->html_path, html}}, text, o->out_path);
+            return cmp.a_exceeded || cmp.b_exceeded ? 1 : 0;
+        }};
 }
 
 } // namespace crewdose::cli

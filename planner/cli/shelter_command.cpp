@@ -2,6 +2,7 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_steps.hpp"
 #include "planner/report/shelter_chart.hpp"
 #include "planner/report/shelter_html.hpp"
 #include "planner/report/shelter_report.hpp"
@@ -105,16 +106,11 @@ Command add_shelter_command(CLI::App& app) {
                 auto& shelter_layer = o->shelter_layer;
                 auto& shelter_max = o->shelter_max;
                 const auto fmt_choice = planner::parse_output_format(format);
-                // A path that cannot be written fails now, before the computation.
-                const std::vector<planner::NamedFile> outputs{
-                    {"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}};
-                planner::refuse_unwritable_outputs(outputs);
-                auto sc = planner::load_scenario(scenario_path);
-                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+                auto sc = load_for_outputs(
+                    scenario_path,
+                    {{"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}});
                 ProgressLine progress(o->quiet);
-                progress.stage("computing each location's doses");
-                const planner::Study study(std::move(sc), {},
-                                           [&](double f) { progress.update(f); });
+                const planner::Study study = compute_study(std::move(sc), progress);
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;
@@ -142,13 +138,8 @@ Command add_shelter_command(CLI::App& app) {
                     o->html_path.empty()
                         ? ""
                         : planner::format_shelter_html(study, report, html_about(stamp));
-                if (!o->chart_path.empty()) {
-                    planner::write_file_atomically(o->chart_path, chart, "--chart");
-                }
-                if (!o->html_path.empty()) {
-                    planner::write_file_atomically(o->html_path, html, "--html");
-                }
-                write_report(text, o->out_path);
+                write_outputs({{"--chart", o->chart_path, chart}, {"--html", o->html_path, html}},
+                              text, o->out_path);
                 for (const auto& a : report.answers) {
                     if (!a.achievable) {
                         return 1;

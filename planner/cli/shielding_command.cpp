@@ -1,6 +1,7 @@
 // The shielding command: what one location's shielding looks like.
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_steps.hpp"
 #include "planner/report/shielding_report.hpp"
 #include "planner/study/study.hpp"
 
@@ -54,16 +55,11 @@ Command add_shielding_command(CLI::App& app) {
                 auto& event_id = o->event_id;
                 const auto fmt_choice = planner::parse_output_format(format);
 
-                // One location's view computes that location alone.
-                planner::refuse_unwritable_outputs({{"--out", o->out_path}});
-                auto sc = planner::load_scenario(scenario_path);
-                // Before the study is built: a clashing output costs no computation.
-                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path),
-                                                 {{"--out", o->out_path}});
+                auto sc = load_for_outputs(scenario_path, {{"--out", o->out_path}});
                 ProgressLine progress(o->quiet);
-                progress.stage("computing the location's doses");
-                const planner::Study study(std::move(sc), location_id,
-                                           [&](double f) { progress.update(f); });
+                // One location's view computes that location alone.
+                const planner::Study study = compute_study(std::move(sc), progress, location_id,
+                                                           "computing the location's doses");
                 progress.finish();
                 write_report(stamped(planner::format_shielding_report(
                                          study, location_id,

@@ -1,6 +1,7 @@
 // The storm command: one what-if of an event's onset, or a sweep of onsets.
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_steps.hpp"
 #include "planner/report/storm_chart.hpp"
 #include "planner/report/storm_html.hpp"
 #include "planner/report/storm_report.hpp"
@@ -117,17 +118,11 @@ Command add_storm_command(CLI::App& app) {
                     throw InputError({"command line", 0}, "storm",
                                      "give --onset TIME for one what-if or --sweep");
                 }
-                // A path that cannot be written fails now, before the computation.
-                const std::vector<planner::NamedFile> outputs{
-                    {"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}};
-                planner::refuse_unwritable_outputs(outputs);
-                auto sc = planner::load_scenario(scenario_path);
-                // Before the study is built: a clashing output costs no computation.
-                planner::refuse_clashing_outputs(scenario_inputs(sc, scenario_path), outputs);
+                auto sc = load_for_outputs(
+                    scenario_path,
+                    {{"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}});
                 ProgressLine progress(o->quiet);
-                progress.stage("computing each location's doses");
-                const planner::Study study(std::move(sc), {},
-                                           [&](double f) { progress.update(f); });
+                const planner::Study study = compute_study(std::move(sc), progress);
                 progress.finish();
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;
@@ -157,10 +152,7 @@ Command add_storm_command(CLI::App& app) {
                                                  ? ""
                                                  : planner::format_storm_whatif_html(
                                                        context, w, near_share, html_about(stamp));
-                    if (!o->html_path.empty()) {
-                        planner::write_file_atomically(o->html_path, html, "--html");
-                    }
-                    write_report(text, o->out_path);
+                    write_outputs({{"--html", o->html_path, html}}, text, o->out_path);
                     return w.any_exceeded() ? 1 : 0;
                 }
                 const auto step = planner::parse_duration(storm_step, "--step");
@@ -184,13 +176,8 @@ Command add_storm_command(CLI::App& app) {
                                              ? ""
                                              : planner::format_storm_sweep_html(
                                                    context, sweep, near_share, html_about(stamp));
-                if (!o->chart_path.empty()) {
-                    planner::write_file_atomically(o->chart_path, chart, "--chart");
-                }
-                if (!o->html_path.empty()) {
-                    planner::write_file_atomically(o->html_path, html, "--html");
-                }
-                write_report(text, o->out_path);
+                write_outputs({{"--chart", o->chart_path, chart}, {"--html", o->html_path, html}},
+                              text, o->out_path);
                 return sweep.any_exceeded() ? 1 : 0;
             }};
 }
