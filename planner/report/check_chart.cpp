@@ -106,6 +106,8 @@ svg::Chart timeline_chart(const Scenario& sc, const Timeline& tl, const CrewSpec
     for (const auto& [kind, label] : shaded_kinds()) {
         c.band_kinds.push_back(label);
     }
+    // A crew member without rover drives (or shelter stays) gets no empty row for them.
+    c.hide_empty_band_kinds = true;
     for (const auto& a : sc.activities) {
         if (std::find(a.crew.begin(), a.crew.end(), crew.id) == a.crew.end()) {
             continue;

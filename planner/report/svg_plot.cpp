@@ -364,7 +364,14 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
     y = plot_bottom + 44;
     // A labelled row per kind of band, on the plot's x scale: narrow stretches stay visible
     // here, and the row's name says what they are.
+    const auto shown = [&](std::size_t k) {
+        return !c.hide_empty_band_kinds || std::any_of(c.bands.begin(), c.bands.end(),
+                                                       [k](const Band& b) { return b.kind == k; });
+    };
     for (std::size_t k = 0; k < c.band_kinds.size(); ++k) {
+        if (!shown(k)) {
+            continue;
+        }
         text(out, kPlotLeft - 6, y + kLaneHeight / 2, c.band_kinds[k],
              R"( class="lane-label" font-size="11" text-anchor="end" dominant-baseline="middle")");
         out += fmt::format(R"(<rect x="{}" y="{}" width="{}" height="{}" fill="none" )"
@@ -405,6 +412,9 @@ double render_chart(std::string& out, const Chart& c, double top, const std::str
              R"( class="legend" font-size="11" dominant-baseline="middle")");
     }
     for (std::size_t k = 0; k < c.band_kinds.size(); ++k) {
+        if (!shown(k)) {
+            continue;
+        }
         const std::string label = "shaded: " + c.band_kinds[k];
         const double at = place(34 + kCharWidth * static_cast<double>(label.size()));
         out += fmt::format(R"(<rect x="{}" y="{}" width="22" height="11" fill="{}" )"

@@ -86,6 +86,10 @@ struct Chart {
     std::vector<Series> series;
     std::vector<LevelLine> levels;
     std::vector<std::string> band_kinds; ///< a labelled row under the plot for each
+    /// Leave out the row and the legend entry of a kind with no band in this chart (its
+    /// pattern stays the one of its index, so kinds look alike across charts). Off: an empty
+    /// row says "none" (a storm sweep's NO-GO rows).
+    bool hide_empty_band_kinds = false;
     std::vector<Band> bands;
     std::vector<Marker> markers;
     std::vector<std::string> notes; ///< short lines under the chart

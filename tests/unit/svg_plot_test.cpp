@@ -185,3 +185,28 @@ TEST_CASE("svg: the labels at the curves' ends stay apart and above the x axis's
         }
     }
 }
+
+TEST_CASE("svg: a kind of band with no stretch has no row when the chart hides empty kinds",
+          "[svg]") {
+    // By construction: kinds a, b, c with stretches of a and c only. Hidden empty kinds: rows
+    // and legend entries for a and c alone, c keeping its own (third) pattern. Shown: all three.
+    for (const bool hide : {true, false}) {
+        svg::Series s;
+        s.label = "s";
+        s.x = {0.0, 10.0};
+        s.y = {1.0, 2.0};
+        auto f = one_chart(s);
+        auto& c = f.panels[0].charts[0];
+        c.band_kinds = {"kind-a", "kind-b", "kind-c"};
+        c.bands = {{1.0, 2.0, 0}, {5.0, 6.0, 2}};
+        c.hide_empty_band_kinds = hide;
+        const std::string doc = svg::render_svg(f);
+        CHECK(count(doc, ">kind-a</text>") == 1);
+        CHECK(count(doc, ">kind-c</text>") == 1);
+        CHECK(count(doc, ">kind-b</text>") == (hide ? 0U : 1U));
+        CHECK(count(doc, ">shaded: kind-b</text>") == (hide ? 0U : 1U));
+        CHECK(count(doc, ">shaded: kind-c</text>") == 1);
+        // The stretch of kind c is filled with the third pattern in the plot and its row.
+        CHECK(count(doc, "-band-2)") >= 2);
+    }
+}
