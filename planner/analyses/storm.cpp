@@ -694,6 +694,23 @@ StormWhatIf StormContext::at(Time onset) const {
     return w;
 }
 
+long sweep_profile_bin_h(Time from, Time to) {
+    const double span_h = static_cast<double>((to - from).total_seconds()) / 3600.0;
+    for (const long h : {6L, 12L, 24L, 48L, 96L, 168L, 336L}) {
+        if (span_h / static_cast<double>(h) <= static_cast<double>(kMaxProfileBins)) {
+            return h;
+        }
+    }
+    return 672; // 28 days; a mission is at most a few years (the loader's bound)
+}
+
+std::string profile_bin_text(long hours) {
+    if (hours % 24 != 0) {
+        return fmt::format("{} hours", hours);
+    }
+    return hours == 24 ? std::string("1 day") : fmt::format("{} days", hours / 24);
+}
+
 StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duration step,
                        const std::function<void(double)>& progress) {
     const Scenario& sc = ctx.study().scenario();
@@ -703,6 +720,7 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
     out.step = step;
     out.from = from;
     out.to = to;
+    out.profile_bin_h = sweep_profile_bin_h(from, to);
     // A bound on the work a command line can ask for (a year at 30 s is about 1.05 million).
     const double count = static_cast<double>((to - from).total_seconds()) /
                          static_cast<double>(step.total_seconds());
@@ -806,7 +824,7 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         std::map<Time, double> profile;
         std::vector<EvaBest> evas;
     };
-    const time_duration bin = boost::posix_time::hours(kSweepProfileBin_h);
+    const time_duration bin = boost::posix_time::hours(out.profile_bin_h);
     const std::size_t chunk = 4096;
     const std::size_t n_chunks = (order.size() + chunk - 1) / chunk;
     std::vector<Partial> partial(n_chunks);

@@ -193,14 +193,21 @@ struct StormSweep {
         [[nodiscard]] bool go() const { return swept() && ratio <= 1.0; }
     };
     std::vector<Eva> evas;
-    /// Coarse profile: per onset bin (kSweepProfileBin_h from `from`; only bins an onset falls
+    /// Coarse profile: per onset bin (profile_bin_h wide from `from`; only bins an onset falls
     /// in), the highest ratio over the crew.
     std::vector<std::pair<Time, double>> profile;
+    long profile_bin_h = 6; ///< sweep_profile_bin_h(from, to)
     [[nodiscard]] bool any_exceeded() const;
 };
 
-/// The width of the sweep profile's onset bins, hours.
-inline constexpr long kSweepProfileBin_h = 6;
+/// The width of a sweep profile's onset bins, hours: 6 hours while that makes at most
+/// kMaxProfileBins bins (30 days of onsets), else the shortest of 12 h, 1, 2, 4, 7, 14 and 28
+/// days that does (a year's sweep: 4-day bins), so that the profile stays a page long.
+[[nodiscard]] long sweep_profile_bin_h(Time from, Time to);
+inline constexpr long kMaxProfileBins = 120;
+
+/// A profile bin's width in words: "6 hours", "1 day", "4 days".
+[[nodiscard]] std::string profile_bin_text(long hours);
 
 /// The most regular onsets a sweep takes (InputError naming --step beyond).
 inline constexpr long long kMaxSweepOnsets = 2'000'000;

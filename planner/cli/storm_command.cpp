@@ -82,8 +82,9 @@ Command add_storm_command(CLI::App& app) {
         storm->add_option("--out,-o", o->out_path, kOutHelp);
         storm
             ->add_option("--chart", o->chart_path,
-                         "also draw the sweep to this SVG file (needs --sweep): per 6 hours of "
-                         "onset t0, the highest share of a 30-day limit over the crew, the 100 % "
+                         "also draw the sweep to this SVG file (needs --sweep): per bin of "
+                         "onset t0 (6 hours, longer for sweeps over 30 days: at most 120 bins), "
+                         "the highest share of a 30-day limit over the crew, the 100 % "
                          "line, the EVAs and rover drives (go and no-go), the no-go onsets and "
                          "the worst onset; written when the run completes, a limit exceeded "
                          "included")

@@ -61,7 +61,7 @@ svg::Figure storm_figure(const StormContext& ctx, const StormSweep& s) {
     const auto days = [&](const Time& t) {
         return hours(t - s.from) / 24.0;
     };
-    const time_duration bin_width = boost::posix_time::hours(kSweepProfileBin_h);
+    const time_duration bin_width = boost::posix_time::hours(s.profile_bin_h);
 
     svg::Figure f;
     f.id = "crewdose-storm";
@@ -96,7 +96,9 @@ svg::Figure storm_figure(const StormContext& ctx, const StormSweep& s) {
     }
 
     svg::Chart c;
-    c.title = "Highest share of a 30-day planning limit over the crew, per 6 hours of onset t0";
+    c.title =
+        fmt::format("Highest share of a 30-day planning limit over the crew, per {} of onset t0",
+                    profile_bin_text(s.profile_bin_h));
     c.x.title =
         fmt::format("onset t0 (days from the sweep's start; day 0 = {})", format_time(s.from));
     c.x.exact = true;
@@ -173,16 +175,16 @@ svg::Figure storm_figure(const StormContext& ctx, const StormSweep& s) {
     }
     c.notes.push_back(fmt::format(
         "Each step: the highest share over the crew and the checked organs ({}) among the onsets "
-        "in the 6 hours from its start (the sweep's profile, as in the text report).",
-        fmt::join(organ_labels, ", ")));
+        "in the {} from its start (the sweep's profile, as in the text report).",
+        fmt::join(organ_labels, ", "), profile_bin_text(s.profile_bin_h)));
     c.notes.push_back("Hatched: EVAs and rover drives, go or NO-GO (NO-GO: an onset inside it "
                       "breaks a 30-day limit, or no onset of the sweep falls inside it), and the "
                       "onsets t0 that reach or exceed 100 % of a 30-day limit or were not "
                       "computed (t0: NO-GO).");
     if (gaps) {
-        c.notes.push_back(fmt::format("Some 6-hour bins hold no onset (--step {} is longer): the "
+        c.notes.push_back(fmt::format("Some bins of {} hold no onset (--step {} is longer): the "
                                       "line joins across them.",
-                                      format_duration(s.step)));
+                                      profile_bin_text(s.profile_bin_h), format_duration(s.step)));
     }
     for (const auto& [onset, crew] : s.worst) {
         const StormOrgan* o = worst_organ(crew);

@@ -455,6 +455,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
         for (const auto& [t, r] : s.profile) {
             j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
         }
+        j["profile_bin_h"] = s.profile_bin_h;
         return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
@@ -526,9 +527,10 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                                 100.0 * e.ratio),
                     100, "        ");
     }
-    out += "\nProfile: the highest share of a 30-day limit over the crew, per 6 hours of onset\n"
-           "  (each # is 5 %; a bar that ends in > goes beyond 200 %):\n";
-    const boost::posix_time::time_duration bin = boost::posix_time::hours(kSweepProfileBin_h);
+    out += fmt::format("\nProfile: the highest share of a 30-day limit over the crew, per {} of "
+                       "onset\n  (each # is 5 %; a bar that ends in > goes beyond 200 %):\n",
+                       profile_bin_text(s.profile_bin_h));
+    const boost::posix_time::time_duration bin = boost::posix_time::hours(s.profile_bin_h);
     std::optional<Time> last;
     for (const auto& [t, r] : s.profile) {
         // A bin no onset fell in (a step longer than the bin) is said so, never left out.

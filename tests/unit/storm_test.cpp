@@ -695,3 +695,22 @@ all_clear_h = 30
     CHECK(format_storm_whatif(usual_ctx, usual_ctx.at(onset), OutputFormat::text)
               .find("NOTE: the response") == std::string::npos);
 }
+
+TEST_CASE("storm: the sweep profile's bins widen so that a long sweep stays a page long",
+          "[storm]") {
+    // By construction: 6 hours while 120 bins or fewer cover the sweep (30 days), then the
+    // shortest of 12 h, 1, 2, 4, 7, 14, 28 days that does.
+    const Time t0 = parse_command_time("2032-01-01T00:00:00Z", "x");
+    const auto days = [&](long d) {
+        return t0 + boost::posix_time::hours(24 * d);
+    };
+    CHECK(sweep_profile_bin_h(t0, days(20)) == 6);
+    CHECK(sweep_profile_bin_h(t0, days(30)) == 6);
+    CHECK(sweep_profile_bin_h(t0, days(31)) == 12);
+    CHECK(sweep_profile_bin_h(t0, days(60)) == 12);
+    CHECK(sweep_profile_bin_h(t0, days(405)) == 96); // a Mars mission: 4-day bins, 102 of them
+    CHECK(sweep_profile_bin_h(t0, days(3 * 365)) == 336);
+    CHECK(profile_bin_text(6) == "6 hours");
+    CHECK(profile_bin_text(24) == "1 day");
+    CHECK(profile_bin_text(96) == "4 days");
+}

@@ -3,6 +3,7 @@
 #include "fixture.hpp"
 #include "planner/analyses/shelter.hpp"
 #include "planner/analyses/storm.hpp"
+#include "planner/report/storm_report.hpp"
 #include "planner/scenario/scenario.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
@@ -11,6 +12,7 @@
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
 
 #include <cmath>
 #include <map>
@@ -229,4 +231,25 @@ TEST_CASE("a shelter in space is sized where the crew come nearest the Sun", "[d
     const Study study(parse_scenario(legs(), "legs.toml"));
     CHECK(shelter_sun_distance(study, "cruise") == 1.0);
     CHECK(shelter_sun_distance(study, "hab") == kMars_AU);
+}
+
+TEST_CASE("a storm sweep over the whole Mars mission bins its profile by 4 days", "[distance]") {
+    // By construction (sweep_profile_bin_h): 396 days of onsets make 99 bins of 4 days, the
+    // shortest width that keeps the profile to 120 bins; every bin starts a whole number of
+    // bins after --from, and the text and JSON reports say the width.
+    const Study study(parse_scenario(legs(), "legs.toml"));
+    const StormContext ctx(study, "spe", false);
+    const Time from = at("2035-01-01T00:00:00Z");
+    const StormSweep s =
+        sweep_storm(ctx, from, at("2036-02-01T00:00:00Z"), boost::posix_time::hours(24));
+    CHECK(s.profile_bin_h == 96);
+    REQUIRE(!s.profile.empty());
+    CHECK(s.profile.size() <= 120);
+    for (const auto& [t, r] : s.profile) {
+        CHECK((t - from).total_seconds() % (96 * 3600) == 0);
+    }
+    CHECK(format_storm_sweep(ctx, s, OutputFormat::text).find("per 4 days of onset") !=
+          std::string::npos);
+    CHECK(nlohmann::json::parse(format_storm_sweep(ctx, s, OutputFormat::json))["profile_bin_h"] ==
+          96);
 }
