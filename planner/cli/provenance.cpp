@@ -1,5 +1,6 @@
 #include "planner/cli/provenance.hpp"
 
+#include "planner/report/cautions.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/time_format.hpp"
 #include "planner/study/result_guard.hpp"
@@ -8,6 +9,7 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <cstdlib>
 #include <stdexcept>
 #include <string_view>
@@ -85,7 +87,11 @@ std::string stamped(const std::string& output, planner::OutputFormat format,
             line += fmt::format("; scenario B {} (sha256 {})", stamp.scenario_b,
                                 stamp.scenario_b_sha256);
         }
-        return line + "\n" + output;
+        // The cautions travel with the numbers: a CSV opened alone in a spreadsheet still says
+        // that its limits are planning values.
+        std::string cautions = planner::caution_text();
+        std::replace(cautions.begin(), cautions.end(), '\n', ' ');
+        return line + "\n# " + cautions + "\n" + output;
     }
     return output;
 }

@@ -366,17 +366,29 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         // The effective dose is in mSv, every organ dose in mGy-Eq: a unit column says which.
         // status: within, near (from near_share of the limit) or exceeded; binding: the crew
         // member's highest share of a limit.
-        std::string out =
-            "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis\n";
+        // evaluated: "computed", "upper bound at LOCATIONS" (the quick model's bound of the
+        // effective dose) or, on a row of its own with no dose, "not evaluated at LOCATIONS".
+        std::string out = "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis,"
+                          "evaluated\n";
+        const auto at = [](const std::vector<std::string>& where) {
+            return fmt::format("{}", fmt::join(where, " "));
+        };
         for (const auto& c : ledger.crew) {
             const LimitCheck* b = binding_check(c);
             for (const auto& chk : c.checks) {
+                const auto bound = c.estimated.find(chk.limit.organ);
                 out +=
-                    fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},{},{},\"{}\"\n", c.crew,
+                    fmt::format("{},{},{},{:.10g},{:.10g},{:.10g},{},{},{},{},\"{}\",{}\n", c.crew,
                                 chk.limit.organ, chk.limit.window, chk.dose, chk.limit.value,
                                 chk.margin, unit_of(chk.limit.organ), chk.exceeded ? "yes" : "no",
                                 to_string(status_of(chk, near_share)), &chk == b ? "yes" : "no",
-                                chk.limit.basis);
+                                chk.limit.basis,
+                                bound == c.estimated.end() ? std::string("computed")
+                                                           : "upper bound at " + at(bound->second));
+            }
+            for (const auto& [organ, where] : c.not_evaluated) {
+                out += fmt::format("{},{},,,,,{},,not evaluated,no,,not evaluated at {}\n", c.crew,
+                                   organ, unit_of(organ), at(where));
             }
         }
         return out;

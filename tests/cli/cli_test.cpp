@@ -24,10 +24,13 @@ Run run(const std::string& args, const std::string& env = "") {
     return run_shell(env + std::string(CREWDOSE_BINARY) + " " + args + " 2>&1");
 }
 
-// A CSV output without its provenance line (the first, beginning with "# "): the table.
+// A CSV output without its two comment lines (the provenance, then the cautions): the table.
 std::string table(const std::string& csv) {
     REQUIRE(csv.rfind("# crewdose ", 0) == 0);
-    return csv.substr(csv.find('\n') + 1);
+    const std::string rest = csv.substr(csv.find('\n') + 1);
+    REQUIRE(rest.rfind("# Cautions: crewdose is a planning tool.", 0) == 0);
+    REQUIRE(rest.find("responsible agency") < rest.find('\n'));
+    return rest.substr(rest.find('\n') + 1);
 }
 
 } // namespace
@@ -504,8 +507,11 @@ TEST_CASE("check: json carries full precision agreeing with the text", "[cli][ch
     CHECK(doc["gcr"]["transport"].get<std::string>().find("fragmentation") != std::string::npos);
     const Run c = run("check " + demo() + " --format csv");
     CHECK(table(c.out).rfind(
-              "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis\n", 0) == 0);
+              "crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis,evaluated\n",
+              0) == 0);
     CHECK(c.out.find(",career,") != std::string::npos);
+    CHECK(c.out.find(",computed\n") != std::string::npos); // every demo location is a phantom
+    CHECK(c.out.find("not evaluated") == std::string::npos);
     CHECK(c.out.find(",mSv,") != std::string::npos);    // the effective dose's rows
     CHECK(c.out.find(",mGy-Eq,") != std::string::npos); // the organs' rows
 }

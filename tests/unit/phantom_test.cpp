@@ -4,12 +4,14 @@
 // long are in phantom_convergence_test.cpp (label slow).
 #include "fixture.hpp"
 #include "phantom_helpers.hpp"
+#include "planner/report/check_report.hpp"
 
 #include <catch2/catch.hpp>
 
 #include <algorithm>
 #include <cmath>
 #include <set>
+#include <sstream>
 
 using namespace crewdose;
 using habitats::Phantom;
@@ -348,4 +350,43 @@ TEST_CASE("phantom: in an isotropic field the posture and heading do not matter"
     const auto up = doses(ground, habitats::Posture::standing, 0.0);
     const auto down = doses(ground, habitats::Posture::lying, 0.0);
     CHECK(down[2] < 0.95 * up[2]); // BFO: most active marrow lies in the back, now below
+}
+
+TEST_CASE("phantom: the check CSV says which doses are bounded and which are not evaluated",
+          "[phantom][ledger]") {
+    // By construction (tests/fixtures/scenarios/phantom-mixed.toml): crew b spends time at the
+    // quick location "other": its career effective dose is an upper bound there, its heart and
+    // brain are not evaluated; crew a stays at the phantom location only. The CSV opened alone
+    // must say so, never show a bound as a computed dose or leave a limit out silently.
+    const planner::Study study(planner::parse_scenario(kMixed, "mixed.toml"));
+    const planner::LedgerResult ledger = planner::build_ledger(study);
+    const std::string csv =
+        planner::format_check_report(study, ledger, planner::OutputFormat::csv, false, 0.9);
+    CHECK(csv.rfind("crew,organ,window,dose,limit,margin,unit,exceeded,status,binding,basis,"
+                    "evaluated\n",
+                    0) == 0);
+    std::size_t a_rows = 0;
+    std::size_t a_computed = 0;
+    bool b_bound = false;
+    std::set<std::string> b_missing;
+    std::istringstream lines(csv);
+    for (std::string line; std::getline(lines, line);) {
+        if (line.rfind("a,", 0) == 0) {
+            ++a_rows;
+            a_computed += line.size() > 9 && line.substr(line.size() - 9) == ",computed" ? 1U : 0U;
+        }
+        if (line.rfind("b,effective,career,", 0) == 0) {
+            b_bound = line.find(",upper bound at other") != std::string::npos;
+        }
+        for (const char* organ : {"heart", "brain"}) {
+            if (line == "b," + std::string(organ) +
+                            ",,,,,mGy-Eq,,not evaluated,no,,not evaluated at other") {
+                b_missing.insert(organ);
+            }
+        }
+    }
+    CHECK(a_rows > 0);
+    CHECK(a_computed == a_rows);
+    CHECK(b_bound);
+    CHECK(b_missing == std::set<std::string>{"heart", "brain"});
 }
