@@ -15,6 +15,10 @@
 #include <set>
 #include <stdexcept>
 
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
+
 namespace crewdose::exposure {
 
 namespace {
@@ -44,23 +48,68 @@ std::size_t species_of(LightParticle p) {
 
 // sum of a[k] b[k] for k in [from, to): four accumulators, so that the sums of the light
 // group's dense products pipeline (the order of additions is fixed: results do not depend on
-// the machine).
+// the machine). With SSE2 the accumulators are two pairs of lanes doing the same operations
+// in the same order (no fused multiply-add), so the sum is bit for bit the scalar one.
 double dot(const double* a, const double* b, std::size_t from, std::size_t to) {
+    std::size_t k = from;
+#if defined(__SSE2__)
+    __m128d s01 = _mm_setzero_pd();
+    __m128d s23 = _mm_setzero_pd();
+    for (; k + 4 <= to; k += 4) {
+        s01 = _mm_add_pd(s01, _mm_mul_pd(_mm_loadu_pd(a + k), _mm_loadu_pd(b + k)));
+        s23 = _mm_add_pd(s23, _mm_mul_pd(_mm_loadu_pd(a + k + 2), _mm_loadu_pd(b + k + 2)));
+    }
+    alignas(16) double lanes[4];
+    _mm_store_pd(lanes, s01);
+    _mm_store_pd(lanes + 2, s23);
+    double s0 = lanes[0];
+    const double s1 = lanes[1];
+    const double s2 = lanes[2];
+    const double s3 = lanes[3];
+#else
     double s0 = 0.0;
     double s1 = 0.0;
     double s2 = 0.0;
     double s3 = 0.0;
-    std::size_t k = from;
     for (; k + 4 <= to; k += 4) {
         s0 += a[k] * b[k];
         s1 += a[k + 1] * b[k + 1];
         s2 += a[k + 2] * b[k + 2];
         s3 += a[k + 3] * b[k + 3];
     }
+#endif
     for (; k < to; ++k) {
         s0 += a[k] * b[k];
     }
     return (s0 + s1) + (s2 + s3);
+}
+
+// s[m] = sum over k < count of a[k][m] b[k][m], the terms added in the order of k from 0.0
+// (the same operations as accumulating each product into s in turn), four nodes at a time.
+void sum_of_products(const double* const* a, const double* const* b, std::size_t count,
+                     std::size_t n, double* s) {
+    std::size_t m = 0;
+#if defined(__SSE2__)
+    for (; m + 4 <= n; m += 4) {
+        __m128d s01 = _mm_setzero_pd();
+        __m128d s23 = _mm_setzero_pd();
+        for (std::size_t k = 0; k < count; ++k) {
+            const double* x = a[k] + m;
+            const double* y = b[k] + m;
+            s01 = _mm_add_pd(s01, _mm_mul_pd(_mm_loadu_pd(x), _mm_loadu_pd(y)));
+            s23 = _mm_add_pd(s23, _mm_mul_pd(_mm_loadu_pd(x + 2), _mm_loadu_pd(y + 2)));
+        }
+        _mm_storeu_pd(s + m, s01);
+        _mm_storeu_pd(s + m + 2, s23);
+    }
+#endif
+    for (; m < n; ++m) {
+        double v = 0.0;
+        for (std::size_t k = 0; k < count; ++k) {
+            v += a[k][m] * b[k][m];
+        }
+        s[m] = v;
+    }
 }
 
 // Hydrogen atoms per gram of `material` times 1e-27 (cm2 per mb): times a cross section in mb,
@@ -302,6 +351,18 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
     const auto edges = yield_edges_MeV();
     // Cell m of the march: ln E within half a step of node m.
     const double log_first = std::log(energies_.front());
+    const double half_cell_down = std::exp(-0.5 * step);
+    const double half_cell_up = std::exp(0.5 * step);
+    // track_quality() of the (species, energy) pairs met: the yield edges give a few dozen,
+    // met again at every node and element (each costs 32 exponentials).
+    std::map<std::pair<std::size_t, double>, double> quality;
+    auto quality_of = [&](std::size_t f, double E) {
+        auto it = quality.find({f, E});
+        if (it == quality.end()) {
+            it = quality.emplace(std::make_pair(f, E), track_quality(f, E)).first;
+        }
+        return it->second;
+    };
     for (std::size_t q = 0; q < 2; ++q) {
         for (auto& m : md.spread[q]) {
             m.assign(n * n, 0.0);
@@ -328,13 +389,13 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
             // Deposited where it is made, both hemispheres (kerma).
             const double e = all * mid * A_l;
             md.local_MeV[q][m] += rate * e;
-            md.local_Q_MeV[q][m] += rate * e * track_quality(f, mid);
+            md.local_Q_MeV[q][m] += rate * e * quality_of(f, mid);
             if (light_particle_Z(lp) > 1) {
                 md.local_heavy_MeV[q][m] += rate * e;
             }
             return;
         }
-        if (!(fwd > 0.0) || hi <= energies_.front() * std::exp(-0.5 * step)) {
+        if (!(fwd > 0.0) || hi <= energies_.front() * half_cell_down) {
             return; // backward: leaves; neutrons below the lowest cell: lost
         }
         // Spread the forward particles (uniform in energy) over the cells [lo, hi] overlaps;
@@ -347,8 +408,8 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
         k1 = std::min<std::ptrdiff_t>(k1, static_cast<std::ptrdiff_t>(n_cells) - 1);
         for (std::ptrdiff_t k = k0; k <= k1; ++k) {
             const auto ku = static_cast<std::size_t>(k);
-            const double c_lo = energies_[ku] * std::exp(-0.5 * step);
-            const double c_hi = energies_[ku] * std::exp(0.5 * step);
+            const double c_lo = energies_[ku] * half_cell_down;
+            const double c_hi = energies_[ku] * half_cell_up;
             const double overlap = std::min(hi, c_hi) - std::max(lo, c_lo);
             if (overlap > 0.0) {
                 mat[ku * n_cells + m] += rate * fwd * overlap / (hi - lo) / step * w_in;
@@ -701,23 +762,28 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         current[j] = &field.psi[j];
     }
     // The source of species j per g/cm2 (self channel apart): same-velocity production by its
-    // producers and, with secondaries, what nucleon reactions spread over energy.
+    // producers and, with secondaries, what nucleon reactions spread over energy (the light
+    // particle of nucleon_production.hpp that is species j: light_particle_of[j], if any).
+    std::array<std::size_t, kFieldSpecies> light_particle_of{};
+    light_particle_of.fill(kLightParticles);
+    for (std::size_t l = 0; l < kLightParticles; ++l) {
+        light_particle_of[species_of(static_cast<LightParticle>(l))] = l;
+    }
+    std::array<const double*, kFieldSpecies> prods{};
+    std::array<const double*, kFieldSpecies> psis{};
     auto sources_into = [&](std::size_t j, std::vector<double>& s, const Fields& from) {
-        s.assign(n, 0.0);
-        for (const std::size_t p : md.producers[j]) {
-            const double* prod = md.prod[p][j].data();
-            const double* psi = from[p]->data();
-            for (std::size_t m = 0; m < n; ++m) {
-                s[m] += prod[m] * psi[m];
-            }
+        s.resize(n);
+        const auto& producers = md.producers[j];
+        for (std::size_t k = 0; k < producers.size(); ++k) {
+            prods[k] = md.prod[producers[k]][j].data();
+            psis[k] = from[producers[k]]->data();
         }
+        sum_of_products(prods.data(), psis.data(), producers.size(), n, s.data());
         if (!light) {
             return;
         }
-        for (std::size_t l = 0; l < kLightParticles; ++l) {
-            if (species_of(static_cast<LightParticle>(l)) != j) {
-                continue;
-            }
+        const std::size_t l = light_particle_of[j];
+        if (l < kLightParticles) {
             for (std::size_t q = 0; q < 2; ++q) {
                 const double* mat = md.spread[q][l].data();
                 const double* psi = from[q == 0 ? 0 : kNeutronSpecies]->data();
