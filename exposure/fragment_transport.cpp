@@ -799,6 +799,20 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     for (std::size_t j = 0; j < active; ++j) {
         sources_into(j, source[j], current);
     }
+    // Species whose field and source are zero at every node (a solar event's protons make no
+    // nuclei): while their producers stay zero too, a step leaves them zero exactly, so it is
+    // skipped (the values are those the step would compute, bit for bit).
+    auto all_zero = [](const std::vector<double>& v) {
+        return std::all_of(v.begin(), v.end(), [](double x) { return x == 0.0; });
+    };
+    std::array<bool, kFieldSpecies> zero{};
+    for (std::size_t j = 0; j < active; ++j) {
+        zero[j] = all_zero(field.psi[j]) && all_zero(source[j]);
+    }
+    auto stays_zero = [&](std::size_t j) {
+        return zero[j] && std::all_of(md.producers[j].begin(), md.producers[j].end(),
+                                      [&](std::size_t p) { return zero[p]; });
+    };
     std::vector<double> old_total(n), moved(n), fresh;
     auto apply = [&](const StepMap& map, std::size_t j, const std::vector<double>& f,
                      std::vector<double>& out) {
@@ -833,6 +847,10 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         // light nuclei too, the same way.
         const std::size_t lowest = light ? 2 : 0;
         for (std::size_t jj = kIonSpecies; jj-- > lowest;) {
+            if (stays_zero(jj)) {
+                continue;
+            }
+            zero[jj] = false;
             auto& psi = field.psi[jj];
             const auto& self = md.self[jj];
             // T(psi) + h/2 T(source) = T(psi + h/2 source): the old field and what it emits
@@ -855,6 +873,9 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
             // secondaries stop within a step: a trapezoid would keep them), s the mean of the
             // sources at x and at x + h; Heun's predictor-corrector for the latter.
             Fields next = current;
+            for (const std::size_t j : kLightGroup) {
+                zero[j] = false;
+            }
             auto integrate = [&](std::size_t j, const std::vector<double>& src,
                                  std::vector<double>& out) {
                 const double* u = map.u[j].data();
