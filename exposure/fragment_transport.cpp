@@ -176,8 +176,9 @@ struct FragmentTransport::MaterialData {
     std::array<std::vector<double>, 2> local_MeV;
     std::array<std::vector<double>, 2> local_Q_MeV;
     std::array<std::vector<double>, 2> local_heavy_MeV;
-    std::map<double, StepMap> maps; ///< by step length, reused ones
-    std::set<double> seen;          ///< step lengths asked for once
+    std::map<double, StepMap> maps;     ///< by step length, reused ones
+    std::map<double, std::size_t> uses; ///< per kept map, how often it was asked for
+    std::set<double> seen;              ///< step lengths asked for once
     std::map<std::string, std::array<std::vector<DoseQuantities>, kFieldSpecies>> doses;
 };
 
@@ -718,7 +719,12 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
     auto& data = const_cast<MaterialData&>(md);
     auto it = data.maps.find(h);
     if (it != data.maps.end()) {
+        ++data.uses[h];
         return it->second;
+    }
+    // The same length again right away (the next field through the same layer).
+    if (scratch_for_ == &md && scratch_h_ == h) {
+        return *scratch_;
     }
     // Most layers are crossed once at their own slant thickness: a map is kept only when its
     // step comes back (the full step, tissue depths, suit layers), so memory stays with the
@@ -728,13 +734,27 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
             data.seen.clear();
         }
         *scratch_ = step_map(md, h);
+        scratch_for_ = &md;
+        scratch_h_ = h;
         return *scratch_;
     }
-    if (data.maps.size() >= 64) { // many repeated lengths: keep the full step only
-        for (auto m = data.maps.begin(); m != data.maps.end();) {
-            m = m->first == options_.max_step_g_cm2 ? std::next(m) : data.maps.erase(m);
+    if (data.maps.size() >= 64) {
+        // Many repeated lengths: keep the full step and the half used most (the tissue depths
+        // of the body model come back with every direction; a length two directions share
+        // rarely comes back a third time).
+        std::vector<std::pair<std::size_t, double>> by_use;
+        for (const auto& [length, map] : data.maps) {
+            if (length != options_.max_step_g_cm2) {
+                by_use.emplace_back(data.uses[length], length);
+            }
+        }
+        std::sort(by_use.begin(), by_use.end());
+        for (std::size_t k = 0; k < by_use.size() - by_use.size() / 2; ++k) {
+            data.maps.erase(by_use[k].second);
+            data.uses.erase(by_use[k].second);
         }
     }
+    data.uses[h] = 1;
     return data.maps.emplace(h, step_map(md, h)).first->second;
 }
 

@@ -160,7 +160,9 @@ class FragmentTransport {
     std::size_t first_node_ = 0; ///< table node of march node 0
     std::vector<double> energies_;
     std::map<std::string, std::unique_ptr<MaterialData>> materials_;
-    std::unique_ptr<StepMap> scratch_; ///< the map of a step length met for the first time
+    std::unique_ptr<StepMap> scratch_;          ///< the map of a step length met for the first time
+    const MaterialData* scratch_for_ = nullptr; ///< the material and length scratch_ is for
+    double scratch_h_ = 0.0;
 };
 
 } // namespace crewdose::exposure
