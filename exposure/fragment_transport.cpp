@@ -12,6 +12,7 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <mutex>
 #include <set>
 #include <stdexcept>
 
@@ -232,16 +233,106 @@ bool FragmentTransport::secondaries() const noexcept {
     return options_.secondaries && options_.fragmentation && options_.removal;
 }
 
+namespace {
+
+// What a material's march data depend on, exactly (hexadecimal floating point): the
+// composition, the options that shape them and the energy grid.
+std::string material_data_key(const Material& material, const MarchOptions& o,
+                              const EnergyGridSpec& grid, const std::vector<double>& energies) {
+    std::string key;
+    char buf[64];
+    auto add = [&](double x) {
+        std::snprintf(buf, sizeof buf, "%a|", x);
+        key += buf;
+    };
+    for (const auto& share : material.composition()) {
+        add(share.Z);
+        add(share.mass_fraction);
+    }
+    key += o.removal ? "R" : "r";
+    key += o.fragmentation ? "F" : "f";
+    key += o.secondaries ? "S" : "s";
+    add(o.local_below_MeV_per_n);
+    add(grid.min_MeV_per_n);
+    add(grid.max_MeV_per_n);
+    add(static_cast<double>(grid.nodes_per_decade));
+    for (const double e : energies) {
+        add(e);
+    }
+    return key;
+}
+
+// The march data of every material met in the process, shared by the threads' marches: each
+// is computed once (by the first march that needs it) and copied (a copy costs far less than
+// the cross sections and production spectra it holds).
+template <class Data> class SharedMaterialData {
+  public:
+    template <class Compute>
+    std::unique_ptr<Data> copy_of(const std::string& key, const Compute& compute) {
+        std::shared_ptr<Entry> entry;
+        {
+            const std::lock_guard<std::mutex> lock(mutex_);
+            auto it = entries_.find(key);
+            if (it != entries_.end()) {
+                entry = it->second;
+            } else if (entries_.size() < kMaxEntries) {
+                entry = entries_.emplace(key, std::make_shared<Entry>()).first->second;
+            }
+        }
+        if (!entry) {
+            return compute(); // many materials: the rest are computed by each march
+        }
+        std::call_once(entry->once, [&] { entry->data = compute(); });
+        return std::make_unique<Data>(*entry->data);
+    }
+
+  private:
+    static constexpr std::size_t kMaxEntries = 256;
+    struct Entry {
+        std::once_flag once;
+        std::unique_ptr<const Data> data;
+    };
+    std::mutex mutex_;
+    std::map<std::string, std::shared_ptr<Entry>> entries_;
+};
+
+} // namespace
+
 const FragmentTransport::MaterialData& FragmentTransport::data(const Material& material) {
     auto it = materials_.find(material.id());
     if (it != materials_.end()) {
         return *it->second;
     }
+    static SharedMaterialData<MaterialData> shared;
+    auto md = shared.copy_of(material_data_key(material, options_, tables_.grid(), energies_),
+                             [&] { return compute_data(material); });
+    md->material = &material;
+    for (std::size_t j = 0; j < active_species(); ++j) {
+        md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
+    }
+    // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
+    // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
+    double self_max = 0.0;
+    for (const auto& v : md->self) {
+        for (const double x : v) {
+            self_max = std::max(self_max, x);
+        }
+    }
+    if (0.5 * options_.max_step_g_cm2 * self_max >= 0.5) {
+        throw std::invalid_argument(
+            "FragmentTransport: max_step_g_cm2 = " + std::to_string(options_.max_step_g_cm2) +
+            " is too long for " + material.id() + " (at most " + std::to_string(1.0 / self_max) +
+            ")");
+    }
+    return *materials_.emplace(material.id(), std::move(md)).first->second;
+}
+
+std::unique_ptr<FragmentTransport::MaterialData>
+FragmentTransport::compute_data(const Material& material) const {
     auto md = std::make_unique<MaterialData>();
     md->material = &material;
     const std::size_t n = energies_.size();
     for (std::size_t j = 0; j < active_species(); ++j) {
-        md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
         md->removal[j].resize(n);
         md->self[j].assign(n, 0.0);
         md->neutrons[j].assign(n, 0.0);
@@ -329,21 +420,7 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
         build_nucleon_production(*md);
         index_spread(*md);
     }
-    // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
-    // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
-    double self_max = 0.0;
-    for (const auto& v : md->self) {
-        for (const double x : v) {
-            self_max = std::max(self_max, x);
-        }
-    }
-    if (0.5 * options_.max_step_g_cm2 * self_max >= 0.5) {
-        throw std::invalid_argument(
-            "FragmentTransport: max_step_g_cm2 = " + std::to_string(options_.max_step_g_cm2) +
-            " is too long for " + material.id() + " (at most " + std::to_string(1.0 / self_max) +
-            ")");
-    }
-    return *materials_.emplace(material.id(), std::move(md)).first->second;
+    return md;
 }
 
 void FragmentTransport::build_nucleon_production(MaterialData& md) const {

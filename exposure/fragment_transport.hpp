@@ -144,6 +144,8 @@ class FragmentTransport {
     [[nodiscard]] bool secondaries() const noexcept;
     [[nodiscard]] std::size_t active_species() const noexcept;
     const MaterialData& data(const Material& material);
+    /// The material's data (no range tables), computed: data() takes a copy of the process's.
+    [[nodiscard]] std::unique_ptr<MaterialData> compute_data(const Material& material) const;
     void build_nucleon_production(MaterialData& md) const;
     void index_spread(MaterialData& md) const;
     void source_integral(const MaterialData& md, double h, std::size_t j, StepMap& map) const;
