@@ -12,8 +12,13 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <mutex>
 #include <set>
 #include <stdexcept>
+
+#if defined(__SSE2__)
+#include <emmintrin.h>
+#endif
 
 namespace crewdose::exposure {
 
@@ -44,23 +49,68 @@ std::size_t species_of(LightParticle p) {
 
 // sum of a[k] b[k] for k in [from, to): four accumulators, so that the sums of the light
 // group's dense products pipeline (the order of additions is fixed: results do not depend on
-// the machine).
+// the machine). With SSE2 the accumulators are two pairs of lanes doing the same operations
+// in the same order (no fused multiply-add), so the sum is bit for bit the scalar one.
 double dot(const double* a, const double* b, std::size_t from, std::size_t to) {
+    std::size_t k = from;
+#if defined(__SSE2__)
+    __m128d s01 = _mm_setzero_pd();
+    __m128d s23 = _mm_setzero_pd();
+    for (; k + 4 <= to; k += 4) {
+        s01 = _mm_add_pd(s01, _mm_mul_pd(_mm_loadu_pd(a + k), _mm_loadu_pd(b + k)));
+        s23 = _mm_add_pd(s23, _mm_mul_pd(_mm_loadu_pd(a + k + 2), _mm_loadu_pd(b + k + 2)));
+    }
+    alignas(16) double lanes[4];
+    _mm_store_pd(lanes, s01);
+    _mm_store_pd(lanes + 2, s23);
+    double s0 = lanes[0];
+    const double s1 = lanes[1];
+    const double s2 = lanes[2];
+    const double s3 = lanes[3];
+#else
     double s0 = 0.0;
     double s1 = 0.0;
     double s2 = 0.0;
     double s3 = 0.0;
-    std::size_t k = from;
     for (; k + 4 <= to; k += 4) {
         s0 += a[k] * b[k];
         s1 += a[k + 1] * b[k + 1];
         s2 += a[k + 2] * b[k + 2];
         s3 += a[k + 3] * b[k + 3];
     }
+#endif
     for (; k < to; ++k) {
         s0 += a[k] * b[k];
     }
     return (s0 + s1) + (s2 + s3);
+}
+
+// s[m] = sum over k < count of a[k][m] b[k][m], the terms added in the order of k from 0.0
+// (the same operations as accumulating each product into s in turn), four nodes at a time.
+void sum_of_products(const double* const* a, const double* const* b, std::size_t count,
+                     std::size_t n, double* s) {
+    std::size_t m = 0;
+#if defined(__SSE2__)
+    for (; m + 4 <= n; m += 4) {
+        __m128d s01 = _mm_setzero_pd();
+        __m128d s23 = _mm_setzero_pd();
+        for (std::size_t k = 0; k < count; ++k) {
+            const double* x = a[k] + m;
+            const double* y = b[k] + m;
+            s01 = _mm_add_pd(s01, _mm_mul_pd(_mm_loadu_pd(x), _mm_loadu_pd(y)));
+            s23 = _mm_add_pd(s23, _mm_mul_pd(_mm_loadu_pd(x + 2), _mm_loadu_pd(y + 2)));
+        }
+        _mm_storeu_pd(s + m, s01);
+        _mm_storeu_pd(s + m + 2, s23);
+    }
+#endif
+    for (; m < n; ++m) {
+        double v = 0.0;
+        for (std::size_t k = 0; k < count; ++k) {
+            v += a[k][m] * b[k][m];
+        }
+        s[m] = v;
+    }
 }
 
 // Hydrogen atoms per gram of `material` times 1e-27 (cm2 per mb): times a cross section in mb,
@@ -127,8 +177,9 @@ struct FragmentTransport::MaterialData {
     std::array<std::vector<double>, 2> local_MeV;
     std::array<std::vector<double>, 2> local_Q_MeV;
     std::array<std::vector<double>, 2> local_heavy_MeV;
-    std::map<double, StepMap> maps; ///< by step length, reused ones
-    std::set<double> seen;          ///< step lengths asked for once
+    std::map<double, StepMap> maps;     ///< by step length, reused ones
+    std::map<double, std::size_t> uses; ///< per kept map, how often it was asked for
+    std::set<double> seen;              ///< step lengths asked for once
     std::map<std::string, std::array<std::vector<DoseQuantities>, kFieldSpecies>> doses;
 };
 
@@ -182,16 +233,106 @@ bool FragmentTransport::secondaries() const noexcept {
     return options_.secondaries && options_.fragmentation && options_.removal;
 }
 
+namespace {
+
+// What a material's march data depend on, exactly (hexadecimal floating point): the
+// composition, the options that shape them and the energy grid.
+std::string material_data_key(const Material& material, const MarchOptions& o,
+                              const EnergyGridSpec& grid, const std::vector<double>& energies) {
+    std::string key;
+    char buf[64];
+    auto add = [&](double x) {
+        std::snprintf(buf, sizeof buf, "%a|", x);
+        key += buf;
+    };
+    for (const auto& share : material.composition()) {
+        add(share.Z);
+        add(share.mass_fraction);
+    }
+    key += o.removal ? "R" : "r";
+    key += o.fragmentation ? "F" : "f";
+    key += o.secondaries ? "S" : "s";
+    add(o.local_below_MeV_per_n);
+    add(grid.min_MeV_per_n);
+    add(grid.max_MeV_per_n);
+    add(static_cast<double>(grid.nodes_per_decade));
+    for (const double e : energies) {
+        add(e);
+    }
+    return key;
+}
+
+// The march data of every material met in the process, shared by the threads' marches: each
+// is computed once (by the first march that needs it) and copied (a copy costs far less than
+// the cross sections and production spectra it holds).
+template <class Data> class SharedMaterialData {
+  public:
+    template <class Compute>
+    std::unique_ptr<Data> copy_of(const std::string& key, const Compute& compute) {
+        std::shared_ptr<Entry> entry;
+        {
+            const std::lock_guard<std::mutex> lock(mutex_);
+            auto it = entries_.find(key);
+            if (it != entries_.end()) {
+                entry = it->second;
+            } else if (entries_.size() < kMaxEntries) {
+                entry = entries_.emplace(key, std::make_shared<Entry>()).first->second;
+            }
+        }
+        if (!entry) {
+            return compute(); // many materials: the rest are computed by each march
+        }
+        std::call_once(entry->once, [&] { entry->data = compute(); });
+        return std::make_unique<Data>(*entry->data);
+    }
+
+  private:
+    static constexpr std::size_t kMaxEntries = 256;
+    struct Entry {
+        std::once_flag once;
+        std::unique_ptr<const Data> data;
+    };
+    std::mutex mutex_;
+    std::map<std::string, std::shared_ptr<Entry>> entries_;
+};
+
+} // namespace
+
 const FragmentTransport::MaterialData& FragmentTransport::data(const Material& material) {
     auto it = materials_.find(material.id());
     if (it != materials_.end()) {
         return *it->second;
     }
+    static SharedMaterialData<MaterialData> shared;
+    auto md = shared.copy_of(material_data_key(material, options_, tables_.grid(), energies_),
+                             [&] { return compute_data(material); });
+    md->material = &material;
+    for (std::size_t j = 0; j < active_species(); ++j) {
+        md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
+    }
+    // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
+    // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
+    double self_max = 0.0;
+    for (const auto& v : md->self) {
+        for (const double x : v) {
+            self_max = std::max(self_max, x);
+        }
+    }
+    if (0.5 * options_.max_step_g_cm2 * self_max >= 0.5) {
+        throw std::invalid_argument(
+            "FragmentTransport: max_step_g_cm2 = " + std::to_string(options_.max_step_g_cm2) +
+            " is too long for " + material.id() + " (at most " + std::to_string(1.0 / self_max) +
+            ")");
+    }
+    return *materials_.emplace(material.id(), std::move(md)).first->second;
+}
+
+std::unique_ptr<FragmentTransport::MaterialData>
+FragmentTransport::compute_data(const Material& material) const {
     auto md = std::make_unique<MaterialData>();
     md->material = &material;
     const std::size_t n = energies_.size();
     for (std::size_t j = 0; j < active_species(); ++j) {
-        md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
         md->removal[j].resize(n);
         md->self[j].assign(n, 0.0);
         md->neutrons[j].assign(n, 0.0);
@@ -279,21 +420,7 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
         build_nucleon_production(*md);
         index_spread(*md);
     }
-    // The implicit neutron-removal term divides by 1 - h/2 self: keep it well away from zero
-    // (at the default 4 g/cm2 step h/2 self is at most 0.18, in liquid hydrogen).
-    double self_max = 0.0;
-    for (const auto& v : md->self) {
-        for (const double x : v) {
-            self_max = std::max(self_max, x);
-        }
-    }
-    if (0.5 * options_.max_step_g_cm2 * self_max >= 0.5) {
-        throw std::invalid_argument(
-            "FragmentTransport: max_step_g_cm2 = " + std::to_string(options_.max_step_g_cm2) +
-            " is too long for " + material.id() + " (at most " + std::to_string(1.0 / self_max) +
-            ")");
-    }
-    return *materials_.emplace(material.id(), std::move(md)).first->second;
+    return md;
 }
 
 void FragmentTransport::build_nucleon_production(MaterialData& md) const {
@@ -302,6 +429,18 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
     const auto edges = yield_edges_MeV();
     // Cell m of the march: ln E within half a step of node m.
     const double log_first = std::log(energies_.front());
+    const double half_cell_down = std::exp(-0.5 * step);
+    const double half_cell_up = std::exp(0.5 * step);
+    // track_quality() of the (species, energy) pairs met: the yield edges give a few dozen,
+    // met again at every node and element (each costs 32 exponentials).
+    std::map<std::pair<std::size_t, double>, double> quality;
+    auto quality_of = [&](std::size_t f, double E) {
+        auto it = quality.find({f, E});
+        if (it == quality.end()) {
+            it = quality.emplace(std::make_pair(f, E), track_quality(f, E)).first;
+        }
+        return it->second;
+    };
     for (std::size_t q = 0; q < 2; ++q) {
         for (auto& m : md.spread[q]) {
             m.assign(n * n, 0.0);
@@ -328,13 +467,13 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
             // Deposited where it is made, both hemispheres (kerma).
             const double e = all * mid * A_l;
             md.local_MeV[q][m] += rate * e;
-            md.local_Q_MeV[q][m] += rate * e * track_quality(f, mid);
+            md.local_Q_MeV[q][m] += rate * e * quality_of(f, mid);
             if (light_particle_Z(lp) > 1) {
                 md.local_heavy_MeV[q][m] += rate * e;
             }
             return;
         }
-        if (!(fwd > 0.0) || hi <= energies_.front() * std::exp(-0.5 * step)) {
+        if (!(fwd > 0.0) || hi <= energies_.front() * half_cell_down) {
             return; // backward: leaves; neutrons below the lowest cell: lost
         }
         // Spread the forward particles (uniform in energy) over the cells [lo, hi] overlaps;
@@ -347,8 +486,8 @@ void FragmentTransport::build_nucleon_production(MaterialData& md) const {
         k1 = std::min<std::ptrdiff_t>(k1, static_cast<std::ptrdiff_t>(n_cells) - 1);
         for (std::ptrdiff_t k = k0; k <= k1; ++k) {
             const auto ku = static_cast<std::size_t>(k);
-            const double c_lo = energies_[ku] * std::exp(-0.5 * step);
-            const double c_hi = energies_[ku] * std::exp(0.5 * step);
+            const double c_lo = energies_[ku] * half_cell_down;
+            const double c_hi = energies_[ku] * half_cell_up;
             const double overlap = std::min(hi, c_hi) - std::max(lo, c_lo);
             if (overlap > 0.0) {
                 mat[ku * n_cells + m] += rate * fwd * overlap / (hi - lo) / step * w_in;
@@ -657,7 +796,12 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
     auto& data = const_cast<MaterialData&>(md);
     auto it = data.maps.find(h);
     if (it != data.maps.end()) {
+        ++data.uses[h];
         return it->second;
+    }
+    // The same length again right away (the next field through the same layer).
+    if (scratch_for_ == &md && scratch_h_ == h) {
+        return *scratch_;
     }
     // Most layers are crossed once at their own slant thickness: a map is kept only when its
     // step comes back (the full step, tissue depths, suit layers), so memory stays with the
@@ -667,13 +811,27 @@ const FragmentTransport::StepMap& FragmentTransport::cached_step_map(const Mater
             data.seen.clear();
         }
         *scratch_ = step_map(md, h);
+        scratch_for_ = &md;
+        scratch_h_ = h;
         return *scratch_;
     }
-    if (data.maps.size() >= 64) { // many repeated lengths: keep the full step only
-        for (auto m = data.maps.begin(); m != data.maps.end();) {
-            m = m->first == options_.max_step_g_cm2 ? std::next(m) : data.maps.erase(m);
+    if (data.maps.size() >= 64) {
+        // Many repeated lengths: keep the full step and the half used most (the tissue depths
+        // of the body model come back with every direction; a length two directions share
+        // rarely comes back a third time).
+        std::vector<std::pair<std::size_t, double>> by_use;
+        for (const auto& [length, map] : data.maps) {
+            if (length != options_.max_step_g_cm2) {
+                by_use.emplace_back(data.uses[length], length);
+            }
+        }
+        std::sort(by_use.begin(), by_use.end());
+        for (std::size_t k = 0; k < by_use.size() - by_use.size() / 2; ++k) {
+            data.maps.erase(by_use[k].second);
+            data.uses.erase(by_use[k].second);
         }
     }
+    data.uses[h] = 1;
     return data.maps.emplace(h, step_map(md, h)).first->second;
 }
 
@@ -701,23 +859,28 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         current[j] = &field.psi[j];
     }
     // The source of species j per g/cm2 (self channel apart): same-velocity production by its
-    // producers and, with secondaries, what nucleon reactions spread over energy.
+    // producers and, with secondaries, what nucleon reactions spread over energy (the light
+    // particle of nucleon_production.hpp that is species j: light_particle_of[j], if any).
+    std::array<std::size_t, kFieldSpecies> light_particle_of{};
+    light_particle_of.fill(kLightParticles);
+    for (std::size_t l = 0; l < kLightParticles; ++l) {
+        light_particle_of[species_of(static_cast<LightParticle>(l))] = l;
+    }
+    std::array<const double*, kFieldSpecies> prods{};
+    std::array<const double*, kFieldSpecies> psis{};
     auto sources_into = [&](std::size_t j, std::vector<double>& s, const Fields& from) {
-        s.assign(n, 0.0);
-        for (const std::size_t p : md.producers[j]) {
-            const double* prod = md.prod[p][j].data();
-            const double* psi = from[p]->data();
-            for (std::size_t m = 0; m < n; ++m) {
-                s[m] += prod[m] * psi[m];
-            }
+        s.resize(n);
+        const auto& producers = md.producers[j];
+        for (std::size_t k = 0; k < producers.size(); ++k) {
+            prods[k] = md.prod[producers[k]][j].data();
+            psis[k] = from[producers[k]]->data();
         }
+        sum_of_products(prods.data(), psis.data(), producers.size(), n, s.data());
         if (!light) {
             return;
         }
-        for (std::size_t l = 0; l < kLightParticles; ++l) {
-            if (species_of(static_cast<LightParticle>(l)) != j) {
-                continue;
-            }
+        const std::size_t l = light_particle_of[j];
+        if (l < kLightParticles) {
             for (std::size_t q = 0; q < 2; ++q) {
                 const double* mat = md.spread[q][l].data();
                 const double* psi = from[q == 0 ? 0 : kNeutronSpecies]->data();
@@ -733,6 +896,20 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
     for (std::size_t j = 0; j < active; ++j) {
         sources_into(j, source[j], current);
     }
+    // Species whose field and source are zero at every node (a solar event's protons make no
+    // nuclei): while their producers stay zero too, a step leaves them zero exactly, so it is
+    // skipped (the values are those the step would compute, bit for bit).
+    auto all_zero = [](const std::vector<double>& v) {
+        return std::all_of(v.begin(), v.end(), [](double x) { return x == 0.0; });
+    };
+    std::array<bool, kFieldSpecies> zero{};
+    for (std::size_t j = 0; j < active; ++j) {
+        zero[j] = all_zero(field.psi[j]) && all_zero(source[j]);
+    }
+    auto stays_zero = [&](std::size_t j) {
+        return zero[j] && std::all_of(md.producers[j].begin(), md.producers[j].end(),
+                                      [&](std::size_t p) { return zero[p]; });
+    };
     std::vector<double> old_total(n), moved(n), fresh;
     auto apply = [&](const StepMap& map, std::size_t j, const std::vector<double>& f,
                      std::vector<double>& out) {
@@ -767,6 +944,10 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
         // light nuclei too, the same way.
         const std::size_t lowest = light ? 2 : 0;
         for (std::size_t jj = kIonSpecies; jj-- > lowest;) {
+            if (stays_zero(jj)) {
+                continue;
+            }
+            zero[jj] = false;
             auto& psi = field.psi[jj];
             const auto& self = md.self[jj];
             // T(psi) + h/2 T(source) = T(psi + h/2 source): the old field and what it emits
@@ -789,6 +970,9 @@ void FragmentTransport::cross(IonField& field, const Material& material, double 
             // secondaries stop within a step: a trapezoid would keep them), s the mean of the
             // sources at x and at x + h; Heun's predictor-corrector for the latter.
             Fields next = current;
+            for (const std::size_t j : kLightGroup) {
+                zero[j] = false;
+            }
             auto integrate = [&](std::size_t j, const std::vector<double>& src,
                                  std::vector<double>& out) {
                 const double* u = map.u[j].data();

@@ -144,6 +144,8 @@ class FragmentTransport {
     [[nodiscard]] bool secondaries() const noexcept;
     [[nodiscard]] std::size_t active_species() const noexcept;
     const MaterialData& data(const Material& material);
+    /// The material's data (no range tables), computed: data() takes a copy of the process's.
+    [[nodiscard]] std::unique_ptr<MaterialData> compute_data(const Material& material) const;
     void build_nucleon_production(MaterialData& md) const;
     void index_spread(MaterialData& md) const;
     void source_integral(const MaterialData& md, double h, std::size_t j, StepMap& map) const;
@@ -160,7 +162,9 @@ class FragmentTransport {
     std::size_t first_node_ = 0; ///< table node of march node 0
     std::vector<double> energies_;
     std::map<std::string, std::unique_ptr<MaterialData>> materials_;
-    std::unique_ptr<StepMap> scratch_; ///< the map of a step length met for the first time
+    std::unique_ptr<StepMap> scratch_;          ///< the map of a step length met for the first time
+    const MaterialData* scratch_for_ = nullptr; ///< the material and length scratch_ is for
+    double scratch_h_ = 0.0;
 };
 
 } // namespace crewdose::exposure

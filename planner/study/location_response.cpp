@@ -429,7 +429,9 @@ field_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
     const double weight = 1.0 / static_cast<double>(used);
     std::vector<std::pair<const exposure::Material*, double>> path;
     std::vector<std::size_t> needed;
-    std::vector<exposure::DoseQuantities> at_node(n_grid);
+    std::vector<std::vector<exposure::DoseQuantities>> at_node(
+        fields.size(), std::vector<exposure::DoseQuantities>(n_grid));
+    std::vector<exposure::IonField> current;
     for (std::size_t k = 0; k < directions.size(); k += direction_stride) {
         const auto& d = directions[k];
         if (where.surroundings.blocked(d)) {
@@ -440,27 +442,32 @@ field_body_doses(const GcrMarches& marches, const MaterialResolver& materials,
             path.emplace_back(&materials(seg.material_id), seg.areal_density_g_cm2);
         }
         body.needed_nodes(k, needed);
-        for (std::size_t i = 0; i < fields.size(); ++i) {
-            for (const bool reactions : {true, false}) {
-                exposure::FragmentTransport& march =
-                    reactions ? marches.with_reactions : marches.without_reactions;
-                exposure::IonField field = fields[i];
-                for (const auto& [m, t] : path) {
+        for (const bool reactions : {true, false}) {
+            exposure::FragmentTransport& march =
+                reactions ? marches.with_reactions : marches.without_reactions;
+            // Layer by layer, every field in turn: the fields share each layer's step map.
+            current.assign(fields.begin(), fields.end());
+            for (const auto& [m, t] : path) {
+                for (auto& field : current) {
                     march.cross(field, *m, t);
                 }
-                double depth = 0.0;
-                for (const std::size_t g : needed) {
-                    march.cross(field, tissue, body.grid_g_cm2[g] - depth);
-                    depth = body.grid_g_cm2[g];
-                    at_node[g] = march.dose(field, tissue, water);
+            }
+            double depth = 0.0;
+            for (const std::size_t g : needed) {
+                for (std::size_t i = 0; i < fields.size(); ++i) {
+                    march.cross(current[i], tissue, body.grid_g_cm2[g] - depth);
+                    at_node[i][g] = march.dose(current[i], tissue, water);
                 }
+                depth = body.grid_g_cm2[g];
+            }
+            for (std::size_t i = 0; i < fields.size(); ++i) {
                 for (std::size_t o = 0; o < n_organs; ++o) {
                     const auto w = body.of(k, o);
                     auto& slot = acc[i][o];
                     auto& q = reactions ? slot.with_removal : slot.without_removal;
                     for (std::size_t g = 0; g < n_grid; ++g) {
                         if (w[g] != 0.0) {
-                            q += at_node[g].scaled(weight * w[g]);
+                            q += at_node[i][g].scaled(weight * w[g]);
                         }
                     }
                 }
