@@ -37,12 +37,6 @@ inline constexpr std::size_t kSpeSecondaryStride = 4;
 /// The march options of the check's GCR march with reactions: projectile fragments and the
 /// secondaries of nucleon reactions (MarchOptions::secondaries).
 [[nodiscard]] exposure::MarchOptions gcr_march_options();
-/// Nodes per decade of the proton tables for the SPE responses of phantom locations (quick
-/// ones keep the tables' default 64). Against 64 (phantom organs behind a suit, 10 g/cm2
-/// aluminium and 60 g/cm2 regolith, the demo Band event and a harder one): within 0.1 %
-/// (tests/unit/phantom_test); 16 would be within 0.45 %. The phantom's 25 depths per direction
-/// cost a response each: 32 halves that cost.
-inline constexpr std::size_t kPhantomSpeNodesPerDecade = 32;
 /// The proton table grid of a location's SPE responses.
 [[nodiscard]] exposure::EnergyGridSpec spe_grid(BodyModelKind body);
 /// The energy grid of the GCR tables (10 keV/n to 100 GeV/n).
