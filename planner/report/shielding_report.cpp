@@ -64,7 +64,7 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     std::size_t blocked = 0;
     const auto& dirs = study.directions(location);
     const BodyDepths& body = study.body(location);
-    const BodyModel& model = body_model(body.model);
+    const BodyModel& model = body_model(study.location(location).body);
     // Every point's own depth where the grid's weights split it between two nodes (the
     // phantom); nullopt where each organ's depth is a node (the quick model).
     const auto samples = model.depth_samples(placement_of(where), dirs, body);
