@@ -1,5 +1,6 @@
 #include "planner/analyses/shelter.hpp"
 
+#include "planner/study/body_model.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/result_guard.hpp"
 
@@ -217,7 +218,7 @@ std::map<std::string, double> sheltered_dose(const Study& study, const ShelterRe
 std::map<std::string, double> sheltered_event_dose(const Study& study, const ShelterRequest& r,
                                                    const std::string& material_id,
                                                    double areal_density_g_cm2) {
-    exposure::TableLibrary tables(spe_grid(location_of(study, r.location_id).body));
+    exposure::TableLibrary tables(body_model(location_of(study, r.location_id).body).spe_grid());
     SecondaryMarches secondary;
     return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables, secondary);
 }
@@ -383,7 +384,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
                          return rep.other_30d_mGyEq.at(x) / rep.target_mGyEq.at(x) >
                                 rep.other_30d_mGyEq.at(y) / rep.target_mGyEq.at(y);
                      });
-    exposure::TableLibrary tables(spe_grid(loc.body)); // shared by every evaluation
+    exposure::TableLibrary tables(body_model(loc.body).spe_grid()); // shared by every evaluation
     SecondaryMarches secondary;
     const auto n_materials = static_cast<double>(request.materials.size());
     for (std::size_t m = 0; m < request.materials.size(); ++m) {

@@ -398,8 +398,9 @@ StormContext::StormContext(const Study& study, const std::string& event_id, bool
             }
         }
         for (const auto& [organs, where] : left_out) {
-            unchecked.push_back(fmt::format("{} for {} (location {} uses the quick body model)",
-                                            organs, sc.crew[i].id, where));
+            unchecked.push_back(fmt::format("{} for {} (location {} uses the {} body model)",
+                                            organs, sc.crew[i].id, where,
+                                            study.location(where).body));
         }
     }
     std::vector<std::size_t> candidate_index; // organs_ index -> candidates index, or npos

@@ -4,6 +4,7 @@
 #include "planner/report/number_format.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
 #include "planner/scenario/time_format.hpp"
+#include "planner/study/body_model.hpp"
 #include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
@@ -22,28 +23,18 @@ const char* unit_of(const std::string& organ) {
 
 std::string body_text(const Study& study) {
     const Scenario& sc = study.scenario();
-    std::vector<std::string> quick;
-    std::vector<std::string> phantom;
-    for (const auto& loc : sc.locations) {
-        (loc.body == BodyModelKind::phantom ? phantom : quick).push_back(loc.id);
-    }
     std::string t;
-    if (!phantom.empty()) {
-        t += fmt::format(
-            "stylised adult phantom (MIRD-type hermaphrodite after MIRD Pamphlet 5, organ "
-            "tissue depths per direction from {} points per organ region (the skin {}), {} "
-            "directions for "
-            "SPEs; skin 0.07 mm below the body's surface, averaged over it; lens at 3 mm in every "
-            "direction (no eyes in the phantom); BFO = active marrow; effective dose with "
-            "ICRP 103 weights, oesophagus, salivary glands and bone surface by named proxies) "
-            "at {}",
-            kPhantomPointsPerDirection, kSkinPointsFactor * kPhantomPointsPerDirection,
-            sc.mission.phantom_directions, fmt::join(phantom, ", "));
-    }
-    if (!quick.empty()) {
-        t += fmt::format("{}quick screening model (skin 0.07 mm, lens 3 mm, BFO 5 cm of tissue in "
-                         "every direction; no heart, brain or effective dose) at {}",
-                         t.empty() ? "" : "; ", fmt::join(quick, ", "));
+    for (const BodyModel* model : body_models()) {
+        std::vector<std::string> at;
+        for (const auto& loc : sc.locations) {
+            if (loc.body == model->id()) {
+                at.push_back(loc.id);
+            }
+        }
+        if (!at.empty()) {
+            t += fmt::format("{}{} at {}", t.empty() ? "" : "; ", model->report_text(sc.mission),
+                             fmt::join(at, ", "));
+        }
     }
     return t;
 }
@@ -229,7 +220,7 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         j["phantom_directions"] = sc.mission.phantom_directions;
         j["body_models"] = nlohmann::json::object();
         for (const auto& loc : sc.locations) {
-            j["body_models"][loc.id] = to_string(loc.body);
+            j["body_models"][loc.id] = loc.body;
         }
         j["any_limit_exceeded"] = ledger.any_exceeded;
         j["near_share"] = near_share;
@@ -654,9 +645,10 @@ std::string format_validation(const Scenario& sc) {
             "  location {}: {}; body {}\n", l.id,
             l.shielding_table_file ? "imported table " + *l.shielding_table_file
                                    : count(l.solids.size(), "solid", "solids"),
-            l.body == BodyModelKind::phantom
-                ? (l.posture == habitats::Posture::lying ? "phantom (lying)" : "phantom (standing)")
-                : "quick");
+            body_model(l.body).has_posture()
+                ? fmt::format("{} ({})", l.body,
+                              l.posture == habitats::Posture::lying ? "lying" : "standing")
+                : l.body);
     }
     for (const auto& c : sc.crew) {
         out += fmt::format("  crew {}: {}\n", c.id, c.name);

@@ -127,7 +127,7 @@ svg::Figure shelter_figure(const Study& study, const ShelterReport& rep) {
     f.subtitle.push_back(fmt::format(
         "{} body model; the higher of the doses with and without nuclear reactions; uncertainty "
         "factor {:.2f} applied. Targets: the 30-day planning limits unless --target sets one.",
-        to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor));
+        study.location(r.location_id).body, sc.limits.uncertainty_factor));
     f.boxed_note = chart_caution_note();
     svg::Panel p;
     p.heading = fmt::format("Dose at location '{}' against added material", r.location_id);

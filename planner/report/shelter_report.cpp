@@ -205,7 +205,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["event"] = r.event_id;
         j["location"] = r.location_id;
         j["added_as"] = where;
-        j["body_model"] = to_string(study.location(r.location_id).body);
+        j["body_model"] = study.location(r.location_id).body;
         j["uncertainty_factor"] = sc.limits.uncertainty_factor;
         j["max_g_cm2"] = r.max_g_cm2;
         j["targets_mGyEq"] = rep.target_mGyEq;
@@ -307,7 +307,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                     "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
                     "below its target and within 0.5 % of it. The event is taken at {} AU from "
                     "the Sun ({}), its fluence {} times the spectrum as written.",
-                    to_string(study.location(r.location_id).body), sc.limits.uncertainty_factor,
+                    study.location(r.location_id).body, sc.limits.uncertainty_factor,
                     significant(r.max_g_cm2, 3), significant(rep.sun_distance_AU, 3),
                     rep.sun_distance_AU == sc.mission.sun_distance_AU
                         ? "the site's distance"

@@ -3,6 +3,7 @@
 #include "planner/report/cautions.hpp"
 #include "planner/report/depth_report.hpp"
 #include "planner/report/number_format.hpp"
+#include "planner/study/body_model.hpp"
 #include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
@@ -63,6 +64,10 @@ std::string format_shielding_report(const Study& study, const std::string& locat
     std::size_t blocked = 0;
     const auto& dirs = study.directions(location);
     const BodyDepths& body = study.body(location);
+    const BodyModel& model = body_model(study.location(location).body);
+    // Every point's own depth where the grid's weights split it between two nodes (the
+    // phantom); nullopt where each organ's depth is a node (the quick model).
+    const auto samples = model.depth_samples(placement_of(where), dirs, body);
     // Per organ: the external areal density plus the organ's tissue, over its points and the
     // open directions (the phantom: every traced point's own depth; the quick model: its fixed
     // depth), and the mean tissue.
@@ -86,22 +91,16 @@ std::string format_shielding_report(const Study& study, const std::string& locat
             double tissue = 0.0;
             for (std::size_t g = 0; g < w.size(); ++g) {
                 tissue += w[g] * body.grid_g_cm2[g];
-                if (w[g] > 0.0 && body.model != "phantom") {
+                if (w[g] > 0.0 && !samples) {
                     totals[o].emplace_back(total + body.grid_g_cm2[g], w[g]);
                 }
             }
             mean_tissue[o] += tissue;
         }
     }
-    if (body.model == "phantom") {
-        // The grid's weights only hold each depth split between two nodes: trace again, once,
-        // keeping every point's own depth.
-        std::vector<std::vector<DepthSample>> samples;
-        const std::vector<std::vector<double>> grid{body.grid_g_cm2};
-        (void)phantom_body_depths(shared_phantom(), where.posture, where.heading_deg, dirs, grid,
-                                  kPhantomPointsPerDirection, 1, &samples);
+    if (samples) {
         for (std::size_t o = 0; o < body.organs.size(); ++o) {
-            for (const auto& smp : samples.at(o)) {
+            for (const auto& smp : samples->at(o)) {
                 if (external_of[smp.direction] >= 0.0 && smp.weight > 0.0) {
                     totals[o].emplace_back(external_of[smp.direction] + smp.tissue_g_cm2,
                                            smp.weight);
@@ -195,19 +194,14 @@ std::string format_shielding_report(const Study& study, const std::string& locat
         ext += fmt::format(", p{:.0f} {}", 100 * p, significant(percentile(external, p), 3));
     }
     out += wrap(ext, 100, "    ");
-    out += body.model == "phantom"
-               ? "  per organ (stylised phantom: the organ's own tissue along each direction;\n"
-                 "  percentiles over the organ's points and the open directions; effective =\n"
-                 "  ICRP 103 weighted, its doses in mSv):\n"
-               : "  per organ (quick body model: the tissue depth is added in every "
-                 "direction):\n";
+    out += model.organ_table_heading();
     for (std::size_t o = 0; o < body.organs.size(); ++o) {
         const std::string& organ = body.organs[o];
         const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
         std::string line = fmt::format(
             "    {:<9} tissue {} g/cm2{}, total p5/p50/p95 {} / {} / {} g/cm2; GCR {} / {} mSv per "
             "day",
-            organ, significant(mean_tissue[o], 3), body.model == "phantom" ? " (mean)" : "",
+            organ, significant(mean_tissue[o], 3), samples ? " (mean)" : "",
             significant(weighted_percentile(totals[o], 0.05), 3),
             significant(weighted_percentile(totals[o], 0.5), 3),
             significant(weighted_percentile(totals[o], 0.95), 3),

@@ -9,6 +9,7 @@
 
 #include <algorithm>
 #include <cmath>
+#include <stdexcept>
 
 namespace crewdose::planner {
 
@@ -191,8 +192,13 @@ std::string to_string(SiteKind site) {
     return "?";
 }
 
-std::string to_string(BodyModelKind body) {
-    return body == BodyModelKind::phantom ? "phantom" : "quick";
+std::size_t spe_direction_count(const Mission& mission, std::string_view body) {
+    const BodyModelName* name = find_body_model_name(body);
+    if (!name) {
+        throw std::logic_error("unregistered body model " + std::string(body));
+    }
+    return name->spe_directions == SpeDirectionSet::phantom ? mission.phantom_directions
+                                                            : mission.directions;
 }
 
 std::string to_string(ActivityKind kind) {

@@ -1,6 +1,7 @@
 #pragma once
 // A study as the scenario file describes it: validated, immutable, every item keeping the
 // file and line where the user wrote it (scenarios/README.md documents every key).
+#include "planner/scenario/body_models.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/location_model.hpp"
 #include "planner/scenario/sun_distance.hpp"
@@ -103,8 +104,6 @@ struct Mission {
 inline constexpr const char* kRecordedCyclePhi = "recorded-cycle";
 inline constexpr double kRecordedPhiStep_MV = 25.0;
 
-enum class BodyModelKind { quick, phantom };
-
 struct LocationSpec {
     SourceLocation where;
     std::string id;
@@ -117,9 +116,10 @@ struct LocationSpec {
     std::optional<SuitModel> suit;
     double heading_deg = 0.0;
     bool deep_space = false; ///< surroundings: no ground, no atmosphere
-    /// The body model: the quick screening model (skin, lens, BFO at fixed depths) or the
-    /// stylised phantom (adds heart, brain and the effective dose).
-    BodyModelKind body = BodyModelKind::quick;
+    /// The body model's id, one of the registry's (planner/scenario/body_models.hpp): the quick
+    /// screening model (skin, lens, BFO at fixed depths) or the stylised phantom (adds heart,
+    /// brain and the effective dose).
+    std::string body{default_body_model_name().id};
     habitats::Posture posture = habitats::Posture::standing;
 };
 
@@ -328,7 +328,9 @@ void refuse_timeline_gaps(const Scenario& sc);
 [[nodiscard]] Scenario parse_scenario(const std::string& text, const std::string& file_name);
 
 [[nodiscard]] std::string to_string(ActivityKind kind);
-[[nodiscard]] std::string to_string(BodyModelKind body);
+/// The number of directions the SPE responses of a location with solids and body model `body`
+/// (a registered id) are computed over: mission.directions or mission.phantom_directions.
+[[nodiscard]] std::size_t spe_direction_count(const Mission& mission, std::string_view body);
 /// "moon", "mars" or "deep-space", as the scenario file spells it.
 [[nodiscard]] std::string to_string(SiteKind site);
 

@@ -19,6 +19,7 @@
 #include "planner/scenario/toml.hpp"
 #include "planner/scenario/toml_text.hpp"
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 
 #include <algorithm>
 #include <cmath>
@@ -555,14 +556,10 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 path.string(), [&sc](const std::string& id) { return sc.material(id) != nullptr; },
                 s.at(s.need("shielding_table")), s.field("shielding_table"));
         }
-        const std::string body = s.text_or("body", "quick");
-        if (body == "phantom") {
-            loc.body = BodyModelKind::phantom;
-        } else if (body != "quick") {
-            s.fail("body", "'" + body +
-                               "'; allowed: quick (skin, lens, BFO at fixed tissue depths), "
-                               "phantom (the stylised adult phantom: adds heart, brain and the "
-                               "effective dose)");
+        loc.body = s.text_or("body", loc.body);
+        const BodyModelName* body = find_body_model_name(loc.body);
+        if (!body) {
+            s.fail("body", "'" + loc.body + "'; allowed: " + allowed_body_models());
         }
         const std::string posture = s.text_or("posture", "standing");
         if (posture == "lying") {
@@ -572,8 +569,16 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                                   "'; allowed: standing, lying (on the back, head towards "
                                   "heading_deg)");
         }
-        if (s.has("posture") && loc.body != BodyModelKind::phantom) {
-            s.fail("posture", "only the phantom has a posture; set body = \"phantom\"");
+        if (s.has("posture") && !body->has_posture) {
+            std::vector<std::string_view> with_posture;
+            for (const auto& n : body_model_names()) {
+                if (n.has_posture) {
+                    with_posture.push_back(n.id);
+                }
+            }
+            s.fail("posture", fmt::format("only the {} has a posture; set body = \"{}\"",
+                                          fmt::join(with_posture, " or the "),
+                                          with_posture.empty() ? "" : with_posture.front()));
         }
         if (s.has("suit")) {
             const toml::node& n = s.need("suit");
@@ -972,9 +977,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             continue;
         }
         const habitats::Scene scene(std::move(around));
-        const std::size_t spe_count = loc.body == BodyModelKind::phantom
-                                          ? sc.mission.phantom_directions
-                                          : sc.mission.directions;
+        const std::size_t spe_count = spe_direction_count(sc.mission, loc.body);
         try {
             for (const std::size_t n : {spe_count, sc.mission.gcr_directions}) {
                 for (const auto& d : habitats::fibonacci_directions(n)) {

@@ -39,7 +39,7 @@ struct QuickOrgan {
 /// direction is then the weighted sum of the doses at the grid depths. The quick model has one
 /// node per organ and the same weights in every direction; the phantom's depend on direction.
 struct BodyDepths {
-    std::string model;               ///< "quick" or "phantom"
+    std::string model;               ///< the body model's id (location.body)
     std::vector<std::string> organs; ///< organ ids, in output order
     std::vector<double> grid_g_cm2;  ///< increasing tissue areal densities
     std::size_t directions = 0;      ///< 0: one block of weights for every direction
@@ -75,6 +75,13 @@ inline constexpr std::size_t kPhantomPointsPerDirection = 32;
 /// The skin takes this many times as many points per direction (whether a surface point faces
 /// the direction decides its dose; convergence: tests/unit/phantom_convergence_test).
 inline constexpr std::size_t kSkinPointsFactor = 4;
+
+/// Nodes per decade of the proton tables for the SPE responses of phantom locations (quick
+/// ones keep the tables' default 64). Against 64 (phantom organs behind a suit, 10 g/cm2
+/// aluminium and 60 g/cm2 regolith, the demo Band event and a harder one): within 0.1 %
+/// (tests/unit/phantom_test); 16 would be within 0.45 %. The phantom's 25 depths per direction
+/// cost a response each: 32 halves that cost.
+inline constexpr std::size_t kPhantomSpeNodesPerDecade = 32;
 
 /// The phantom's tissue-depth grid, g/cm2: the skin and lens depths, then nodes from 0.5 to
 /// 160 g/cm2 (the longest path through the body) about 20 % apart. Convergence against a grid

@@ -27,14 +27,6 @@ exposure::EnergyGridSpec gcr_grid() {
     return g;
 }
 
-exposure::EnergyGridSpec spe_grid(BodyModelKind body) {
-    exposure::EnergyGridSpec g;
-    if (body == BodyModelKind::phantom) {
-        g.nodes_per_decade = kPhantomSpeNodesPerDecade;
-    }
-    return g;
-}
-
 exposure::MarchOptions gcr_march_options() {
     exposure::MarchOptions o;
     o.max_step_g_cm2 = kGcrMarchStep_g_cm2;
@@ -57,10 +49,9 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
         }
         return *m;
     };
-    const auto dirs = habitats::fibonacci_directions(directions_);
     const auto gcr_dirs = habitats::fibonacci_directions(sc_.mission.gcr_directions);
-    const auto phantom_dirs = habitats::fibonacci_directions(sc_.mission.phantom_directions);
-    std::map<std::tuple<int, double, bool>, std::vector<BodyDepths>> phantom_cache;
+    // Locations that place the same body model alike share its depths.
+    std::map<std::tuple<std::string, int, double>, SourceBodyDepths> depths_cache;
     std::vector<double> phis{sc_.mission.gcr_phi_MV};
     for (const auto& phase : sc_.mission.gcr_phases) {
         phis.push_back(phase.phi_MV);
@@ -97,7 +88,7 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
                     sc_.mission.surface_pressure_Pa, sc_.mission.scale_height_km);
             }
         }
-        std::vector<habitats::Vector3> loc_dirs = dirs;
+        std::vector<habitats::Vector3> loc_dirs;
         if (loc.shielding_table) {
             where.imported = &*loc.shielding_table;
             loc_dirs = where.imported->directions;
@@ -112,40 +103,24 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
             where.scene = scenes_.back().get();
         }
         geometries_[loc.id] = where;
-        if (loc.body == BodyModelKind::phantom) {
-            if (!where.imported) {
-                loc_dirs = phantom_dirs;
-            }
-            // Locations that place the person alike share the body's depths; the SPE and
-            // GCR grids come from one ray trace when their directions are the same.
-            const auto key = std::make_tuple(static_cast<int>(loc.posture), loc.heading_deg,
-                                             where.imported != nullptr);
-            auto it = phantom_cache.find(key);
-            if (it == phantom_cache.end() || where.imported) {
-                const std::vector<std::vector<double>> grids{phantom_depth_grid(),
-                                                             phantom_gcr_depth_grid()};
-                std::vector<BodyDepths> both;
-                if (where.imported || loc_dirs.size() == gcr_dirs.size()) {
-                    // The same direction sets (Fibonacci sets of one size, or the table's).
-                    both = phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
-                                               loc_dirs, grids, kPhantomPointsPerDirection, wanted);
-                } else {
-                    for (std::size_t g = 0; g < 2; ++g) {
-                        both.push_back(std::move(
-                            phantom_body_depths(shared_phantom(), loc.posture, loc.heading_deg,
-                                                g == 0 ? loc_dirs : gcr_dirs,
-                                                std::span(grids).subspan(g, 1),
-                                                kPhantomPointsPerDirection, wanted)
-                                .front()));
-                    }
-                }
-                it = phantom_cache.insert_or_assign(key, std::move(both)).first;
-            }
-            bodies_[loc.id] = it->second[0];
-            gcr_bodies_[loc.id] = it->second[1];
+        const BodyModel& body = body_model(loc.body);
+        if (where.imported) {
+            // The table's own directions, for both sources.
+            const SourceBodyDepths d = body.depths(placement_of(where), loc_dirs, loc_dirs, wanted);
+            bodies_[loc.id] = d.spe;
+            gcr_bodies_[loc.id] = d.gcr;
         } else {
-            bodies_[loc.id] = quick_body_depths();
-            gcr_bodies_[loc.id] = quick_body_depths();
+            loc_dirs = habitats::fibonacci_directions(spe_direction_count(sc_.mission, loc.body));
+            const auto key =
+                std::make_tuple(loc.body, static_cast<int>(loc.posture), loc.heading_deg);
+            auto it = depths_cache.find(key);
+            if (it == depths_cache.end()) {
+                it = depths_cache
+                         .emplace(key, body.depths(placement_of(where), loc_dirs, gcr_dirs, wanted))
+                         .first;
+            }
+            bodies_[loc.id] = it->second.spe;
+            gcr_bodies_[loc.id] = it->second.gcr;
         }
         location_directions_[loc.id] = loc_dirs;
     }
@@ -187,7 +162,6 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
         spe_per_location[i] = body_responses(tables, materials, geometries_.at(loc.id),
                                              location_directions_.at(loc.id), bodies_.at(loc.id));
     };
-    const exposure::EnergyGridSpec phantom_spe_grid = spe_grid(BodyModelKind::phantom);
     const std::size_t threads =
         std::clamp<std::size_t>(wanted, 1, std::max<std::size_t>(1, 2 * n_loc));
     std::vector<std::exception_ptr> failures(threads);
@@ -228,19 +202,18 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
             primaries_only.secondaries = false;
             exposure::FragmentTransport primaries(gcr_tables, primaries_only);
             const GcrMarches spe_marches{with_reactions, primaries};
-            std::optional<exposure::TableLibrary> spe_tables;         // quick locations
-            std::optional<exposure::TableLibrary> phantom_spe_tables; // phantom ones
+            std::map<std::string, exposure::TableLibrary> spe_tables; // by body model
             for (std::size_t taken = next_job++; taken < 2 * n_loc; taken = next_job++) {
                 const std::size_t i = order[taken];
                 if (i < n_loc) {
                     gcr_location(i, marches, spe_marches);
                 } else {
-                    const bool phantom = sc_.locations[i - n_loc].body == BodyModelKind::phantom;
-                    auto& lib = phantom ? phantom_spe_tables : spe_tables;
-                    if (!lib) {
-                        lib.emplace(phantom ? phantom_spe_grid : tables_.grid());
+                    const std::string& id = sc_.locations[i - n_loc].body;
+                    auto lib = spe_tables.find(id);
+                    if (lib == spe_tables.end()) {
+                        lib = spe_tables.try_emplace(id, body_model(id).spe_grid()).first;
                     }
-                    spe_location(i - n_loc, *lib);
+                    spe_location(i - n_loc, lib->second);
                 }
                 job_done();
             }

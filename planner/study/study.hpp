@@ -1,6 +1,7 @@
 #pragma once
 // A scenario with its per-(location, organ) responses computed once per run.
 #include "planner/scenario/scenario.hpp"
+#include "planner/study/body_model.hpp"
 #include "planner/study/location_response.hpp"
 
 #include "exposure/table_library.hpp"
@@ -37,14 +38,6 @@ inline constexpr std::size_t kSpeSecondaryStride = 4;
 /// The march options of the check's GCR march with reactions: projectile fragments and the
 /// secondaries of nucleon reactions (MarchOptions::secondaries).
 [[nodiscard]] exposure::MarchOptions gcr_march_options();
-/// Nodes per decade of the proton tables for the SPE responses of phantom locations (quick
-/// ones keep the tables' default 64). Against 64 (phantom organs behind a suit, 10 g/cm2
-/// aluminium and 60 g/cm2 regolith, the demo Band event and a harder one): within 0.1 %
-/// (tests/unit/phantom_test); 16 would be within 0.45 %. The phantom's 25 depths per direction
-/// cost a response each: 32 halves that cost.
-inline constexpr std::size_t kPhantomSpeNodesPerDecade = 32;
-/// The proton table grid of a location's SPE responses.
-[[nodiscard]] exposure::EnergyGridSpec spe_grid(BodyModelKind body);
 /// The energy grid of the GCR tables (10 keV/n to 100 GeV/n).
 [[nodiscard]] exposure::EnergyGridSpec gcr_grid();
 
@@ -183,7 +176,6 @@ class Study {
 
   private:
     Scenario sc_;
-    exposure::TableLibrary tables_;
     std::vector<std::unique_ptr<habitats::Scene>> scenes_;
     std::map<std::pair<std::string, std::string>, OrganResponse> responses_;
     std::map<std::string, LocationGeometry> geometries_;

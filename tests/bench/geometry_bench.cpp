@@ -5,6 +5,7 @@
 #include "exposure/material_library.hpp"
 #include "habitats/direction_set.hpp"
 #include "habitats/scene.hpp"
+#include "planner/study/body_model.hpp"
 #include "planner/study/location_response.hpp"
 #include "planner/study/study.hpp"
 
@@ -161,7 +162,7 @@ BENCHMARK(BM_PhantomBodyDepths)->Arg(256)->Unit(benchmark::kMillisecond);
 // computes them: the phantom's energy grid, one response per needed tissue depth.
 static void BM_PhantomModelLocation(benchmark::State& state) {
     const habitats::Scene scene = twenty_solids();
-    exposure::TableLibrary tables(planner::spe_grid(planner::BodyModelKind::phantom));
+    exposure::TableLibrary tables(planner::body_model("phantom").spe_grid());
     const planner::LocationGeometry where = module_deck(scene);
     const auto dirs = habitats::fibonacci_directions(static_cast<std::size_t>(state.range(0)));
     const auto body =

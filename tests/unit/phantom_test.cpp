@@ -324,7 +324,7 @@ TEST_CASE("phantom: in an isotropic field the posture and heading do not matter"
     // most of the body between the open sky and the marrow of the spine, ribs and pelvis (seen:
     // 19 % less BFO dose than standing; checked: more than 5 % less).
     const auto dirs = habitats::fibonacci_directions(128);
-    exposure::TableLibrary tables(planner::spe_grid(planner::BodyModelKind::phantom));
+    exposure::TableLibrary tables(planner::body_model("phantom").spe_grid());
     auto doses = [&](const planner::LocationGeometry& where, habitats::Posture posture,
                      double heading) {
         const auto body = planner::phantom_body_depths(planner::shared_phantom(), posture, heading,
