@@ -56,13 +56,14 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
     if (colon == std::string_view::npos) {
         fail(where, field,
              fmt::format("'{}' has no form; write FORM:key=value,... with FORM one of "
-                         "band, weibull, exp-rigidity, exp-energy, power, table",
+                         "band, band-differential, weibull, exp-rigidity, exp-energy, power, table",
                          text));
     }
     const std::string form(text.substr(0, colon));
     const std::string_view rest = text.substr(colon + 1);
     static const std::map<std::string, std::set<std::string>> kKeys{
         {"band", {"J0", "gamma_a", "gamma_b", "R0_GV"}},
+        {"band-differential", {"C", "gamma_a", "gamma_b", "R0_GV"}},
         {"weibull", {"J0", "k", "alpha"}},
         {"exp-rigidity", {"J0", "R0_GV"}},
         {"exp-energy", {"J0", "E0_MeV"}},
@@ -71,8 +72,8 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
     const auto allowed = kKeys.find(form);
     if (allowed == kKeys.end()) {
         fail(where, field,
-             fmt::format("unknown spectrum form '{}'; allowed: band, weibull, "
-                         "exp-rigidity, exp-energy, power, table",
+             fmt::format("unknown spectrum form '{}'; allowed: band, band-differential, "
+                         "weibull, exp-rigidity, exp-energy, power, table",
                          form));
     }
     const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to"};
@@ -137,6 +138,12 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                                            required(where, k, "gamma_a", field, form),
                                            required(where, k, "gamma_b", field, form),
                                            required(where, k, "R0_GV", field, form)};
+        } else if (form == "band-differential") {
+            shape =
+                exposure::BandDifferentialRigidity{per_sr * required(where, k, "C", field, form),
+                                                   required(where, k, "gamma_a", field, form),
+                                                   required(where, k, "gamma_b", field, form),
+                                                   required(where, k, "R0_GV", field, form)};
         } else if (form == "weibull") {
             shape = exposure::WeibullEnergy{per_sr * required(where, k, "J0", field, form),
                                             required(where, k, "k", field, form),
@@ -186,7 +193,10 @@ std::string describe_spectrum(const exposure::ProtonSpectrum& s) {
 
 std::string spectrum_help() {
     return "SPECTRUM is FORM:key=value,... (omnidirectional fluence, protons/cm2):\n"
-           "  band:J0=..,gamma_a=..,gamma_b=..,R0_GV=..   Band function in rigidity\n"
+           "  band:J0=..,gamma_a=..,gamma_b=..,R0_GV=..   Band function in rigidity, J(>R)\n"
+           "  band-differential:C=..,gamma_a=..,gamma_b=..,R0_GV=..\n"
+           "                                              the same form as dJ/dR, C in\n"
+           "                                              protons/(cm2 GV)\n"
            "  weibull:J0=..,k=..,alpha=..                 J(>E) = J0 exp(-k E^alpha)\n"
            "  exp-rigidity:J0=..,R0_GV=..                 J(>R) = J0 exp(-R/R0)\n"
            "  exp-energy:J0=..,E0_MeV=..                  J(>E) = J0 exp(-E/E0)\n"

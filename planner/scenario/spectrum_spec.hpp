@@ -2,7 +2,8 @@
 // The command-line spelling of an SPE proton spectrum, for example
 //   band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25
 // Forms and their keys (fluences omnidirectional, protons/cm2; energies MeV; rigidities GV):
-//   band          J0 gamma_a gamma_b R0_GV        Band function in rigidity
+//   band          J0 gamma_a gamma_b R0_GV        Band function in rigidity, of J(>R)
+//   band-differential C gamma_a gamma_b R0_GV     the Band function as dJ/dR, C in /(cm2 GV)
 //   weibull       J0 k alpha                      J(>E) = J0 exp(-k E^alpha)
 //   exp-rigidity  J0 R0_GV                        J(>R) = J0 exp(-R/R0)
 //   exp-energy    J0 E0_MeV                       J(>E) = J0 exp(-E/E0)
