@@ -1,5 +1,6 @@
 #include "planner/scenario/spectrum_spec.hpp"
 
+#include "planner/scenario/event_library.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/number_parse.hpp"
 
@@ -52,11 +53,53 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
 
 exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view field,
                                         const SourceLocation& where) {
+    // library:ID[,key=value...]: the reference event's own spelling, then the options given.
+    if (text.substr(0, 8) == "library:") {
+        const std::string_view rest = text.substr(8);
+        const auto comma = rest.find(',');
+        const std::string id(rest.substr(0, comma));
+        const ReferenceEvent* ev = find_reference_event(id);
+        if (!ev) {
+            std::string ids;
+            for (const auto& e : reference_events()) {
+                ids += (ids.empty() ? "" : ", ") + std::string(e.id);
+            }
+            fail(where, field,
+                 fmt::format("'{}' is not in the event library; allowed: {} (see 'crewdose "
+                             "events')",
+                             id, ids));
+        }
+        std::string spelled(ev->spectrum);
+        if (comma != std::string_view::npos) {
+            // Only a scaling may follow: the shape and its normalisation are the source's.
+            const std::string_view options = rest.substr(comma + 1);
+            std::size_t start = 0;
+            while (start <= options.size()) {
+                const auto next = options.find(',', start);
+                const auto item = options.substr(
+                    start, (next == std::string_view::npos ? options.size() : next) - start);
+                const auto key = item.substr(0, item.find('='));
+                if (key != "scale" && key != "scale_to") {
+                    fail(where, field,
+                         fmt::format("'{}' after library:{} is not allowed: a library event "
+                                     "takes only scale=X (the fluence times X) or scale_to=F@E",
+                                     item, id));
+                }
+                if (next == std::string_view::npos) {
+                    break;
+                }
+                start = next + 1;
+            }
+            spelled += std::string(rest.substr(comma));
+        }
+        return parse_spectrum(spelled, field, where);
+    }
     const auto colon = text.find(':');
     if (colon == std::string_view::npos) {
         fail(where, field,
              fmt::format("'{}' has no form; write FORM:key=value,... with FORM one of "
-                         "band, band-differential, weibull, exp-rigidity, exp-energy, power, table",
+                         "band, band-differential, weibull, exp-rigidity, exp-energy, power, "
+                         "table, or library:ID (see 'crewdose events')",
                          text));
     }
     const std::string form(text.substr(0, colon));
@@ -76,7 +119,7 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                          "weibull, exp-rigidity, exp-energy, power, table",
                          form));
     }
-    const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to"};
+    const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to", "scale"};
     Keys k;
     std::size_t start = 0;
     while (start <= rest.size()) {
@@ -100,7 +143,7 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                 }
                 fail(where, field,
                      fmt::format("the {} form has no key '{}'; allowed: {}fit_min_MeV, "
-                                 "fit_max_MeV, per_sr, scale_to",
+                                 "fit_max_MeV, per_sr, scale_to, scale",
                                  form, key, list));
             }
             if (!k.values.emplace(key, value).second) {
@@ -177,6 +220,19 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                 to_number(where, std::string_view(v).substr(0, at), field, "scale_to fluence"),
                 to_number(where, std::string_view(v).substr(at + 1), field, "scale_to energy"));
         }
+        if (k.values.count("scale")) {
+            if (k.values.count("scale_to")) {
+                fail(where, field, "give scale or scale_to, not both");
+            }
+            const double x = to_number(where, k.values["scale"], field, "scale");
+            if (!(x > 0.0 && x <= 1000.0)) {
+                fail(where, field,
+                     fmt::format("scale: a factor on the fluence, more than 0 and at most 1000, "
+                                 "got {}",
+                                 k.values["scale"]));
+            }
+            spectrum = spectrum.scaled_to(x * spectrum.integral_fluence_per_cm2(30.0), 30.0);
+        }
         return spectrum;
     } catch (const exposure::ParameterError& e) {
         fail(where, field, fmt::format("{}: {}", e.field(), e.detail()));
@@ -205,7 +261,8 @@ std::string spectrum_help() {
            "Any form also takes fit_min_MeV=, fit_max_MeV= (fit range, default 10 to 1000;\n"
            "dose from energies outside it is reported as extrapolated), per_sr=yes (the\n"
            "fluence is per steradian of an isotropic field: times 4 pi) and scale_to=F@E\n"
-           "(the same shape with F protons/cm2 above E MeV).\n"
+           "(the same shape with F protons/cm2 above E MeV) or scale=X (the fluence times X).\n"
+           "library:ID[,scale=X] names a published event of the library ('crewdose events').\n"
            "Example (invented demo values): "
            "band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25";
 }

@@ -11,7 +11,8 @@
 //   table         E1=J1,E2=J2,...                 tabulated J(>E), E in MeV
 // Keys every form takes: fit_min_MeV, fit_max_MeV (the range the fit was made over, default
 // 10 to 1000), per_sr=yes (J0 or the table is per steradian of an isotropic field: x 4 pi),
-// scale_to=F@E (same shape, F protons/cm2 above E MeV).
+// scale_to=F@E (same shape, F protons/cm2 above E MeV) or scale=X (the fluence times X).
+//   library:ID[,scale=X,...]                      a published event (event_library.hpp)
 #include "planner/scenario/input_error.hpp"
 
 #include "exposure/spectrum.hpp"
