@@ -168,7 +168,7 @@ TEST_CASE("help teaches the commands", "[cli]") {
     CHECK(rr.exit_code == 0);
     CHECK(rr.out.find("MeV/n") != std::string::npos);
     for (const char* command :
-         {"depth", "gcr", "check", "validate", "shielding", "shelter", "storm"}) {
+         {"events", "depth", "gcr", "check", "validate", "shielding", "shelter", "storm"}) {
         INFO(command);
         CHECK(r.out.find(std::string("  ") + command + " ") != std::string::npos);
     }
