@@ -17,6 +17,20 @@ struct BandRigidity {
     double R0_GV;      ///< e-folding rigidity, GV, > 0
 };
 
+/// Band function DIFFERENTIAL in rigidity, as the SAPPHIRE design events are given (Jiggens et
+/// al. 2018, J. Space Weather Space Clim. 8, A31; the form read in the public transcription
+/// named in planner/scenario/event_library.cpp):
+///   dJ/dR = C R^-gamma_a exp(-R / R0)                                   for R <= (gb - ga) R0
+///   dJ/dR = C R^-gamma_b [(gb - ga) R0]^(gb - ga) exp(ga - gb)           above,
+/// R in GV. J(>R) is its integral from R upwards: closed form above the break, numerical
+/// (Gauss-Legendre in ln R) below it.
+struct BandDifferentialRigidity {
+    double C_per_cm2_GV; ///< normalisation, protons / (cm2 GV) (times GV^gamma_a)
+    double gamma_a;      ///< low-rigidity index, 0 to 20
+    double gamma_b;      ///< high-rigidity index, > gamma_a and > 1 (finite J(>R))
+    double R0_GV;        ///< e-folding rigidity, GV
+};
+
 /// Weibull in energy (Xapsos et al. 2000, from memory): J(>E) = J0 exp(-k E^alpha), E in MeV.
 struct WeibullEnergy {
     double J0_per_cm2;
@@ -51,8 +65,9 @@ struct TabulatedIntegral {
     std::vector<double> J_per_cm2;
 };
 
-using SpectrumForm = std::variant<BandRigidity, WeibullEnergy, ExponentialRigidity,
-                                  ExponentialEnergy, PowerLawEnergy, TabulatedIntegral>;
+using SpectrumForm =
+    std::variant<BandRigidity, BandDifferentialRigidity, WeibullEnergy, ExponentialRigidity,
+                 ExponentialEnergy, PowerLawEnergy, TabulatedIntegral>;
 
 /// Energy range over which a fit was made, MeV; outside it a spectrum is extrapolation.
 struct FitRange {

@@ -50,6 +50,7 @@ inline constexpr const char* kOutHelp =
 // One per subcommand, in the order `crewdose --help` lists them.
 [[nodiscard]] Command add_range_command(CLI::App& app);
 [[nodiscard]] Command add_materials_command(CLI::App& app);
+[[nodiscard]] Command add_events_command(CLI::App& app);
 [[nodiscard]] Command add_depth_command(CLI::App& app);
 [[nodiscard]] Command add_gcr_command(CLI::App& app);
 [[nodiscard]] Command add_check_command(CLI::App& app);

@@ -80,11 +80,12 @@ int main(int argc, char** argv) {
     app.set_version_flag("--version", "crewdose " + cli::tool_version());
 
     const std::vector<cli::Command> commands{
-        cli::add_range_command(app),     cli::add_materials_command(app),
-        cli::add_depth_command(app),     cli::add_gcr_command(app),
-        cli::add_check_command(app),     cli::add_validate_command(app),
-        cli::add_shielding_command(app), cli::add_shelter_command(app),
-        cli::add_storm_command(app),     cli::add_compare_command(app)};
+        cli::add_range_command(app),    cli::add_materials_command(app),
+        cli::add_events_command(app),   cli::add_depth_command(app),
+        cli::add_gcr_command(app),      cli::add_check_command(app),
+        cli::add_validate_command(app), cli::add_shielding_command(app),
+        cli::add_shelter_command(app),  cli::add_storm_command(app),
+        cli::add_compare_command(app)};
 
     try {
         app.parse(argc, argv);

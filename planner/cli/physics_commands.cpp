@@ -1,7 +1,8 @@
-// The look-up commands that need no scenario: range, materials, depth and gcr.
+// The look-up commands that need no scenario: range, materials, events, depth and gcr.
 #include "planner/cli/command.hpp"
 #include "planner/report/depth_chart.hpp"
 #include "planner/report/depth_report.hpp"
+#include "planner/report/events_report.hpp"
 #include "planner/report/gcr_chart.hpp"
 #include "planner/report/gcr_report.hpp"
 #include "planner/report/physics_report.hpp"
@@ -141,6 +142,22 @@ Command add_materials_command(CLI::App& app) {
     return {materials, [format] {
                 const auto fmt_choice = planner::parse_output_format(*format);
                 write_stdout(stamped(planner::format_materials_report(fmt_choice), fmt_choice,
+                                     run_stamp(nullptr)));
+                return 0;
+            }};
+}
+
+Command add_events_command(CLI::App& app) {
+    auto format = std::make_shared<std::string>("text");
+    auto* events = app.add_subcommand(
+        "events", "List the library of reference solar particle events (published fits of "
+                  "statistical design events, and of historical events as sources allow): their "
+                  "integral fluences, sources and known gaps. A scenario names one with "
+                  "spectrum = \"library:ID\", optionally scaled (\"library:ID,scale=0.5\").");
+    events->add_option("--format,-f", *format, "text, json or csv")->capture_default_str();
+    return {events, [format] {
+                const auto fmt_choice = planner::parse_output_format(*format);
+                write_stdout(stamped(planner::format_events_report(fmt_choice), fmt_choice,
                                      run_stamp(nullptr)));
                 return 0;
             }};

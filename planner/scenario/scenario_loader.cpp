@@ -657,6 +657,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                 s.fail("spectrum_at_AU", kSunDistanceRange);
             }
             ev.spectrum_at_AU = r;
+        } else if (text_spec.rfind("library:", 0) == 0) {
+            ev.spectrum_at_AU = 1.0; // the library's fits are of events observed near Earth
         }
         if (s.has("rise_h")) {
             ev.profile.rise_h = s.within("rise_h", 0.01, 240.0, "h");

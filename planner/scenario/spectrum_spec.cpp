@@ -1,5 +1,6 @@
 #include "planner/scenario/spectrum_spec.hpp"
 
+#include "planner/scenario/event_library.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/number_parse.hpp"
 
@@ -52,17 +53,60 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
 
 exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view field,
                                         const SourceLocation& where) {
+    // library:ID[,key=value...]: the reference event's own spelling, then the options given.
+    if (text.substr(0, 8) == "library:") {
+        const std::string_view rest = text.substr(8);
+        const auto comma = rest.find(',');
+        const std::string id(rest.substr(0, comma));
+        const ReferenceEvent* ev = find_reference_event(id);
+        if (!ev) {
+            std::string ids;
+            for (const auto& e : reference_events()) {
+                ids += (ids.empty() ? "" : ", ") + std::string(e.id);
+            }
+            fail(where, field,
+                 fmt::format("'{}' is not in the event library; allowed: {} (see 'crewdose "
+                             "events')",
+                             id, ids));
+        }
+        std::string spelled(ev->spectrum);
+        if (comma != std::string_view::npos) {
+            // Only a scaling may follow: the shape and its normalisation are the source's.
+            const std::string_view options = rest.substr(comma + 1);
+            std::size_t start = 0;
+            while (start <= options.size()) {
+                const auto next = options.find(',', start);
+                const auto item = options.substr(
+                    start, (next == std::string_view::npos ? options.size() : next) - start);
+                const auto key = item.substr(0, item.find('='));
+                if (key != "scale" && key != "scale_to") {
+                    fail(where, field,
+                         fmt::format("'{}' after library:{} is not allowed: a library event "
+                                     "takes only scale=X (the fluence times X) or scale_to=F@E",
+                                     item, id));
+                }
+                if (next == std::string_view::npos) {
+                    break;
+                }
+                start = next + 1;
+            }
+            spelled += std::string(rest.substr(comma));
+        }
+        return parse_spectrum(spelled, field, where);
+    }
     const auto colon = text.find(':');
     if (colon == std::string_view::npos) {
         fail(where, field,
              fmt::format("'{}' has no form; write FORM:key=value,... with FORM one of "
-                         "band, weibull, exp-rigidity, exp-energy, power, table",
+                         "band, band-differential, weibull, exp-rigidity, exp-energy, power, "
+                         "table, or library:ID (see 'crewdose events')",
                          text));
     }
     const std::string form(text.substr(0, colon));
     const std::string_view rest = text.substr(colon + 1);
     static const std::map<std::string, std::set<std::string>> kKeys{
         {"band", {"J0", "gamma_a", "gamma_b", "R0_GV"}},
+        {"band-differential", {"C", "gamma_a", "gamma_b", "R0_GV"}},
         {"weibull", {"J0", "k", "alpha"}},
         {"exp-rigidity", {"J0", "R0_GV"}},
         {"exp-energy", {"J0", "E0_MeV"}},
@@ -71,11 +115,11 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
     const auto allowed = kKeys.find(form);
     if (allowed == kKeys.end()) {
         fail(where, field,
-             fmt::format("unknown spectrum form '{}'; allowed: band, weibull, "
-                         "exp-rigidity, exp-energy, power, table",
+             fmt::format("unknown spectrum form '{}'; allowed: band, band-differential, "
+                         "weibull, exp-rigidity, exp-energy, power, table",
                          form));
     }
-    const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to"};
+    const std::set<std::string> common{"fit_min_MeV", "fit_max_MeV", "per_sr", "scale_to", "scale"};
     Keys k;
     std::size_t start = 0;
     while (start <= rest.size()) {
@@ -99,7 +143,7 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                 }
                 fail(where, field,
                      fmt::format("the {} form has no key '{}'; allowed: {}fit_min_MeV, "
-                                 "fit_max_MeV, per_sr, scale_to",
+                                 "fit_max_MeV, per_sr, scale_to, scale",
                                  form, key, list));
             }
             if (!k.values.emplace(key, value).second) {
@@ -137,6 +181,12 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                                            required(where, k, "gamma_a", field, form),
                                            required(where, k, "gamma_b", field, form),
                                            required(where, k, "R0_GV", field, form)};
+        } else if (form == "band-differential") {
+            shape =
+                exposure::BandDifferentialRigidity{per_sr * required(where, k, "C", field, form),
+                                                   required(where, k, "gamma_a", field, form),
+                                                   required(where, k, "gamma_b", field, form),
+                                                   required(where, k, "R0_GV", field, form)};
         } else if (form == "weibull") {
             shape = exposure::WeibullEnergy{per_sr * required(where, k, "J0", field, form),
                                             required(where, k, "k", field, form),
@@ -170,6 +220,19 @@ exposure::ProtonSpectrum parse_spectrum(std::string_view text, std::string_view 
                 to_number(where, std::string_view(v).substr(0, at), field, "scale_to fluence"),
                 to_number(where, std::string_view(v).substr(at + 1), field, "scale_to energy"));
         }
+        if (k.values.count("scale")) {
+            if (k.values.count("scale_to")) {
+                fail(where, field, "give scale or scale_to, not both");
+            }
+            const double x = to_number(where, k.values["scale"], field, "scale");
+            if (!(x > 0.0 && x <= 1000.0)) {
+                fail(where, field,
+                     fmt::format("scale: a factor on the fluence, more than 0 and at most 1000, "
+                                 "got {}",
+                                 k.values["scale"]));
+            }
+            spectrum = spectrum.scaled_to(x * spectrum.integral_fluence_per_cm2(30.0), 30.0);
+        }
         return spectrum;
     } catch (const exposure::ParameterError& e) {
         fail(where, field, fmt::format("{}: {}", e.field(), e.detail()));
@@ -186,7 +249,10 @@ std::string describe_spectrum(const exposure::ProtonSpectrum& s) {
 
 std::string spectrum_help() {
     return "SPECTRUM is FORM:key=value,... (omnidirectional fluence, protons/cm2):\n"
-           "  band:J0=..,gamma_a=..,gamma_b=..,R0_GV=..   Band function in rigidity\n"
+           "  band:J0=..,gamma_a=..,gamma_b=..,R0_GV=..   Band function in rigidity, J(>R)\n"
+           "  band-differential:C=..,gamma_a=..,gamma_b=..,R0_GV=..\n"
+           "                                              the same form as dJ/dR, C in\n"
+           "                                              protons/(cm2 GV)\n"
            "  weibull:J0=..,k=..,alpha=..                 J(>E) = J0 exp(-k E^alpha)\n"
            "  exp-rigidity:J0=..,R0_GV=..                 J(>R) = J0 exp(-R/R0)\n"
            "  exp-energy:J0=..,E0_MeV=..                  J(>E) = J0 exp(-E/E0)\n"
@@ -195,7 +261,8 @@ std::string spectrum_help() {
            "Any form also takes fit_min_MeV=, fit_max_MeV= (fit range, default 10 to 1000;\n"
            "dose from energies outside it is reported as extrapolated), per_sr=yes (the\n"
            "fluence is per steradian of an isotropic field: times 4 pi) and scale_to=F@E\n"
-           "(the same shape with F protons/cm2 above E MeV).\n"
+           "(the same shape with F protons/cm2 above E MeV) or scale=X (the fluence times X).\n"
+           "library:ID[,scale=X] names a published event of the library ('crewdose events').\n"
            "Example (invented demo values): "
            "band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25";
 }

@@ -91,6 +91,56 @@ TEST_CASE("materials lists the library", "[cli]") {
     CHECK(nlohmann::json::parse(j.out).at("materials").size() == 18);
 }
 
+TEST_CASE("events lists the library with its sources and its known gap", "[cli]") {
+    const Run r = run("events");
+    INFO(r.out);
+    REQUIRE(r.exit_code == 0);
+    std::string flat = r.out; // the sources are wrapped: read them as one line
+    std::replace(flat.begin(), flat.end(), '\n', ' ');
+    while (flat.find("  ") != std::string::npos) {
+        flat.replace(flat.find("  "), 2, " ");
+    }
+    for (const char* id : {"design-10yr", "design-20yr", "design-50yr", "design-100yr",
+                           "design-300yr", "design-1000yr", "design-10000yr"}) {
+        CHECK(r.out.find(std::string("  ") + id + " ") != std::string::npos);
+        CHECK(flat.find(std::string(id) + ": Design event") != std::string::npos);
+        CHECK(
+            flat.find(std::string("Sources: design-10yr to design-10000yr: Jiggens et al. 2018")) !=
+            std::string::npos);
+    }
+    CHECK(flat.find("Jiggens et al. 2018") != std::string::npos);
+    CHECK(flat.find("doi:10.1051/swsc/2018010, Table 8") != std::string::npos);
+    CHECK(flat.find("drflei/sapphire-event-spectra at commit "
+                    "f7cc9a6e5eba56da9007cfc053a3ed2bc19de6ec") != std::string::npos);
+    CHECK(flat.find("not checked against the paper itself") != std::string::npos);
+    CHECK(flat.find("Not in the library (known gaps): the August 1972 event") != std::string::npos);
+    // The 1-in-100-year row: J(>30 MeV) 3.85e9 (scripts/data/sapphire_fluences.py, the
+    // independent integration tests/unit/event_library_test.cpp uses).
+    const auto row = r.out.find("  design-100yr ");
+    REQUIRE(row != std::string::npos);
+    CHECK(r.out.substr(row, r.out.find('\n', row) - row).find("3.85e+09") != std::string::npos);
+
+    const Run j = run("events --format json");
+    REQUIRE(j.exit_code == 0);
+    const auto doc = nlohmann::json::parse(j.out);
+    REQUIRE(doc.at("events").size() == 7);
+    for (const auto& e : doc.at("events")) {
+        INFO(e.dump());
+        CHECK(e.at("source").get<std::string>().find("Jiggens et al. 2018") != std::string::npos);
+        CHECK(e.at("use_as").get<std::string>() == "library:" + e.at("id").get<std::string>());
+        CHECK(e.at("J_above_10MeV_per_cm2").get<double>() >
+              e.at("J_above_30MeV_per_cm2").get<double>());
+    }
+    CHECK(doc.at("events")[3].at("J_above_30MeV_per_cm2").get<double>() ==
+          Approx(3.85082e9).epsilon(0.01));
+    CHECK(doc.at("not_in_library")[0].at("event").get<std::string>().find("August 1972") !=
+          std::string::npos);
+    const Run c = run("events --format csv");
+    REQUIRE(c.exit_code == 0);
+    CHECK(table(c.out).rfind("id,kind,return_period_years,J_above_10MeV_per_cm2", 0) == 0);
+    CHECK(std::count(c.out.begin(), c.out.end(), '\n') == 1 + 1 + 7);
+}
+
 TEST_CASE("bad input exits 2 and names the option and what is allowed", "[cli]") {
     struct Case {
         const char* args;
@@ -121,7 +171,7 @@ TEST_CASE("help teaches the commands", "[cli]") {
     CHECK(rr.exit_code == 0);
     CHECK(rr.out.find("MeV/n") != std::string::npos);
     for (const char* command :
-         {"depth", "gcr", "check", "validate", "shielding", "shelter", "storm"}) {
+         {"events", "depth", "gcr", "check", "validate", "shielding", "shelter", "storm"}) {
         INFO(command);
         CHECK(r.out.find(std::string("  ") + command + " ") != std::string::npos);
     }
@@ -282,6 +332,8 @@ TEST_CASE("every spectrum form has a spelling", "[cli]") {
          {"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25", "weibull:J0=5e9,k=0.9,alpha=0.4",
           "exp-rigidity:J0=3e9,R0_GV=0.12", "exp-energy:J0=1e9,E0_MeV=30",
           "power:J0=1e9,gamma=2.5,E_ref_MeV=30", "table:10=1e9,30=2e8,100=1e7",
+          "band-differential:C=8.73e10,gamma_a=0.48,gamma_b=5.7,R0_GV=6.71e-2,per_sr=yes",
+          "library:design-100yr", "library:design-100yr,scale=0.5",
           "band:J0=1e8,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25,per_sr=yes,scale_to=1e9@30,fit_min_MeV=5,"
           "fit_max_MeV=500"}) {
         const Run r = run(std::string("depth -d 5 -f csv -s \"") + s + "\"");
@@ -437,6 +489,39 @@ TEST_CASE("check: a larger event exceeds a limit and says who, what and when", "
         REQUIRE(open != std::string::npos);
         CHECK(r.out[open + 1] != '-');
     }
+}
+
+TEST_CASE("check: a scenario naming a library event runs, its dose following the scale",
+          "[cli][check]") {
+    const std::string dir = temp_dir();
+    const std::string from = "spectrum = \"band:J0=6e8,gamma_a=1.1,gamma_b=3.6,R0_GV=0.22\"";
+    const std::string text = read_file(demo());
+    REQUIRE(text.find(from) != std::string::npos);
+    double total[2] = {0.0, 0.0};
+    int i = 0;
+    for (const char* scale : {"0.05", "0.1"}) {
+        std::string t = text;
+        t.replace(t.find(from), from.size(),
+                  std::string("spectrum = \"library:design-10yr,scale=") + scale + "\"");
+        const std::string path = dir + "/library-" + scale + ".toml";
+        write_file(path, t);
+        const Run v = run("validate " + path);
+        INFO(v.out);
+        CHECK(v.exit_code == 0);
+        const Run r = run("check " + path + " --format json");
+        INFO(r.out.substr(0, 2000));
+        REQUIRE((r.exit_code == 0 || r.exit_code == 1));
+        const auto doc = nlohmann::json::parse(r.out);
+        const std::string dump = doc.dump();
+        CHECK(dump.find("library:design-10yr,scale=") != std::string::npos);
+        CHECK(doc.at("events").at(0).at("spectrum_at_AU").get<double>() == 1.0);
+        const auto& crew = doc.at("crew").at(0);
+        total[i++] =
+            crew.at("organs").at("bfo").at("mission_by_source").at("spe").at("dose").get<double>();
+    }
+    // The event's fluence doubles, so does its dose (the GCR background is not in it).
+    CHECK(total[0] > 0.0);
+    CHECK(total[1] == Approx(2.0 * total[0]).epsilon(1e-6));
 }
 
 TEST_CASE("check: json carries full precision agreeing with the text", "[cli][check]") {

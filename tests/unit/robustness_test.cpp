@@ -73,14 +73,18 @@ TEST_CASE("spectra: every accepted spectrum is finite and non-negative on the wh
     CHECK_THROWS_AS(e20.scaled_to(1e9, 1000.0), ParameterError);
     CHECK_THROWS_AS(e20.scaled_to(kNaN, 30.0), ParameterError);
     // The extremes of every range that is accepted stay finite and non-negative.
-    for (const SpectrumForm& f : {SpectrumForm{PowerLawEnergy{1e9, 20.0, 100.0}},
-                                  SpectrumForm{PowerLawEnergy{1e3, 0.01, 0.01}},
-                                  SpectrumForm{BandRigidity{1e9, 0.0, 20.0, 0.005}},
-                                  SpectrumForm{BandRigidity{1e5, 19.0, 20.0, 10.0}},
-                                  SpectrumForm{WeibullEnergy{1e9, 100.0, 0.05}},
-                                  SpectrumForm{WeibullEnergy{1e9, 1e-3, 5.0}},
-                                  SpectrumForm{ExponentialRigidity{1e9, 0.005}},
-                                  SpectrumForm{ExponentialEnergy{1e9, 1e4}}}) {
+    for (const SpectrumForm& f :
+         {SpectrumForm{PowerLawEnergy{1e9, 20.0, 100.0}},
+          SpectrumForm{PowerLawEnergy{1e3, 0.01, 0.01}},
+          SpectrumForm{BandRigidity{1e9, 0.0, 20.0, 0.005}},
+          SpectrumForm{BandRigidity{1e5, 19.0, 20.0, 10.0}},
+          SpectrumForm{BandDifferentialRigidity{1e9, 0.0, 20.0, 0.005}},
+          SpectrumForm{BandDifferentialRigidity{1e-30, 20.0, 20.0001, 10.0}},
+          SpectrumForm{BandDifferentialRigidity{1e5, 0.0, 1.0001, 10.0}},
+          SpectrumForm{WeibullEnergy{1e9, 100.0, 0.05}},
+          SpectrumForm{WeibullEnergy{1e9, 1e-3, 5.0}},
+          SpectrumForm{ExponentialRigidity{1e9, 0.005}},
+          SpectrumForm{ExponentialEnergy{1e9, 1e4}}}) {
         const std::string err = spectrum_error(f);
         if (err != "no error") {
             // A refusal is fine (the form may be empty in the fit range or too large), as long

@@ -68,6 +68,49 @@ TEST_CASE("the Band differential fluence integrates back to J(>E)", "[spectrum]"
     }
 }
 
+TEST_CASE("the differential Band form: its J(>E) and its dJ/dR agree", "[spectrum]") {
+    // Demo parameters (invented). J(>E) is the form's own numerical integral below the break;
+    // phi is dJ/dR dR/dE in closed form. Both ways round, to the quadrature's accuracy:
+    const BandDifferentialRigidity d{1.0e11, 0.6, 5.0, 0.07};
+    const ProtonSpectrum s(d, kWide);
+    // 1. phi integrated over E (Simpson in ln E, independent of the form's Gauss-Legendre)
+    //    gives back J(>E) - J(>Emax), below and above the break (0.31 GV, 50 MeV).
+    for (double E : {0.1, 1.0, 10.0, 30.0, 49.0, 52.0, 100.0, 500.0}) {
+        INFO(E);
+        const double expected = s.integral_fluence_per_cm2(E) - s.integral_fluence_per_cm2(1.0e5);
+        CHECK(integrate_phi(s, E, 1.0e5) == Approx(expected).epsilon(1e-6));
+    }
+    // 2. -dJ/dE of the integral (central difference) is phi.
+    for (double E : {0.05, 12.0, 50.0, 200.0, 5000.0}) {
+        const double h = E * 1e-5;
+        const double fd =
+            -(s.integral_fluence_per_cm2(E + h) - s.integral_fluence_per_cm2(E - h)) / (2 * h);
+        CHECK(s.differential_fluence_per_cm2_MeV(E) == Approx(fd).epsilon(1e-6));
+    }
+    // 3. Analytic: above the break J(>R) = C [(gb-ga) R0]^(gb-ga) e^(ga-gb) R^(1-gb) / (gb-1),
+    //    and dJ/dR is C R^-ga e^(-R/R0) below it.
+    const double R = 1.0;
+    const double E = energy_MeV_per_n_from_rigidity(proton(), R);
+    const double K = std::pow((d.gamma_b - d.gamma_a) * d.R0_GV, d.gamma_b - d.gamma_a) *
+                     std::exp(d.gamma_a - d.gamma_b);
+    CHECK(s.integral_fluence_per_cm2(E) ==
+          Approx(d.C_per_cm2_GV * K * std::pow(R, 1.0 - d.gamma_b) / (d.gamma_b - 1.0))
+              .epsilon(1e-12));
+    const double R_low = 0.1;
+    const double E_low = energy_MeV_per_n_from_rigidity(proton(), R_low);
+    CHECK(s.differential_fluence_per_cm2_MeV(E_low) ==
+          Approx(d.C_per_cm2_GV * std::pow(R_low, -d.gamma_a) * std::exp(-R_low / d.R0_GV) *
+                 rigidity_per_energy_GV_per_MeV_n(proton(), E_low))
+              .epsilon(1e-12));
+    // 4. A steep low-rigidity index (gamma_a 19) still integrates back.
+    const ProtonSpectrum steep(BandDifferentialRigidity{1.0e-6, 19.0, 20.0, 0.5}, kWide);
+    for (double E2 : {10.0, 100.0}) {
+        const double expected =
+            steep.integral_fluence_per_cm2(E2) - steep.integral_fluence_per_cm2(1.0e5);
+        CHECK(integrate_phi(steep, E2, 1.0e5) == Approx(expected).epsilon(1e-6));
+    }
+}
+
 TEST_CASE("the Band function and its slope are continuous at the break", "[spectrum]") {
     // Analytic: the two branches meet with equal value and slope at R = (gb - ga) R0.
     const ProtonSpectrum s(kDemoBand, kWide);
@@ -123,6 +166,12 @@ TEST_CASE("bad spectrum parameters name the parameter", "[spectrum]") {
     CHECK(error_field(BandRigidity{1e10, 3.5, 1.1, 0.25}) == "gamma_b");
     CHECK(error_field(BandRigidity{-1.0, 1.1, 3.5, 0.25}) == "J0");
     CHECK(error_field(BandRigidity{1e10, 1.1, 3.5, 0.0}) == "R0_GV");
+    CHECK(error_field(BandDifferentialRigidity{1e10, 0.5, 0.9, 0.07}) == "gamma_b"); // J infinite
+    CHECK(error_field(BandDifferentialRigidity{1e10, 3.0, 2.0, 0.07}) == "gamma_b");
+    CHECK(error_field(BandDifferentialRigidity{0.0, 0.5, 5.7, 0.07}) == "C");
+    CHECK(error_field(BandDifferentialRigidity{1e10, -0.1, 5.7, 0.07}) == "gamma_a");
+    CHECK(error_field(BandDifferentialRigidity{1e10, 0.5, 5.7, 0.001}) == "R0_GV");
+    CHECK(error_field(BandDifferentialRigidity{1e10, 0.5, 5.7, std::nan("")}) == "R0_GV");
     CHECK(error_field(WeibullEnergy{1e9, 0.0, 0.5}) == "k");
     CHECK(error_field(WeibullEnergy{1e9, 1.0, -0.5}) == "alpha");
     CHECK(error_field(ExponentialEnergy{1e9, std::nan("")}) == "E0_MeV");

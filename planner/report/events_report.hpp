@@ -1,0 +1,13 @@
+#pragma once
+// The `events` report: the library of reference solar particle events, each with its integral
+// fluences and its source.
+#include "planner/report/output_format.hpp"
+
+#include <string>
+
+namespace crewdose::planner {
+
+/// The event library in the chosen format.
+[[nodiscard]] std::string format_events_report(OutputFormat format);
+
+} // namespace crewdose::planner
