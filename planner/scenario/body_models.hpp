@@ -26,9 +26,9 @@ struct BodyModelName {
 // make_body_model_foo() returns (planner/study/foo_body_model.cpp; DEVELOPERS.md, "Adding a
 // body model").
 #define CREWDOSE_BODY_MODELS(X)                                                                    \
-    X(quick, "skin, lens, BFO at fixed tissue depths", false, SpeDirectionSet::mission)            \
     X(phantom, "the stylised adult phantom: adds heart, brain and the effective dose", true,       \
-      SpeDirectionSet::phantom)
+      SpeDirectionSet::phantom)                                                                    \
+    X(quick, "screening: skin, lens, BFO at fixed tissue depths", false, SpeDirectionSet::mission)
 
 /// Every registered body model, in the registry's order (the default first).
 [[nodiscard]] std::span<const BodyModelName> body_model_names();

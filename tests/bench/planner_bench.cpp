@@ -123,12 +123,12 @@ layers = [ {{ material = "polyethylene", thickness_m = 0.2 }} ]
 id = "hab"
 point_m = [0.0, 0.0, 2.5]
 solids = ["hab", "bunker"]
-
+body = "quick"
 [[location]]
 id = "shelter"
 point_m = [0.0, 0.0, 1.0]
 solids = ["hab", "bunker"]
-
+body = "quick"
 [storm_response]
 shelter = "shelter"
 warning_delay_min = 10
@@ -138,8 +138,9 @@ all_clear_h = 24
                                 stamp(0), stamp(24L * 7 * weeks));
     for (int k = 0; k < 18; ++k) {
         s += fmt::format(
-            "\n[[location]]\nid = \"site{}\"\npoint_m = [{}.0, 5.0, 1.0]\nsuit = true\n", k,
-            10 + 3 * k);
+            "\n[[location]]\nid = \"site{}\"\npoint_m = [{}.0, 5.0, 1.0]\nsuit = true\nbody = "
+            "\"quick\"\n",
+            k, 10 + 3 * k);
     }
     for (int e = 0; e < 4; ++e) {
         s += fmt::format("\n[[event]]\nid = \"spe{}\"\nflare_seen = {}\nspectrum = "

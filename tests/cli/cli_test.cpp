@@ -138,7 +138,7 @@ TEST_CASE("events lists the library with its sources and its known gap", "[cli]"
     const Run c = run("events --format csv");
     REQUIRE(c.exit_code == 0);
     CHECK(table(c.out).rfind("id,kind,return_period_years,J_above_10MeV_per_cm2", 0) == 0);
-    CHECK(std::count(c.out.begin(), c.out.end(), '\n') == 1 + 1 + 7);
+    CHECK(std::count(c.out.begin(), c.out.end(), '\n') == 2 + 1 + 7); // comments, header, rows
 }
 
 TEST_CASE("bad input exits 2 and names the option and what is allowed", "[cli]") {

@@ -66,19 +66,21 @@ planner::LocationGeometry eva_site() {
 
 } // namespace
 
-TEST_CASE("body models: the registry lists quick and phantom, the default first", "[body]") {
+TEST_CASE("body models: the registry lists phantom and quick, the default first", "[body]") {
     std::vector<std::string> ids;
     for (const planner::BodyModel* m : planner::body_models()) {
         ids.emplace_back(m->id());
     }
-    CHECK(ids == std::vector<std::string>{"quick", "phantom"});
+    CHECK(ids == std::vector<std::string>{"phantom", "quick"});
     std::vector<std::string> names;
     for (const auto& n : planner::body_model_names()) {
         names.emplace_back(n.id);
     }
     CHECK(names == ids); // the loader's list and the study's models are one list
-    CHECK(planner::default_body_model_name().id == "quick");
-    CHECK(planner::LocationSpec{}.body == "quick");
+    // The phantom is the default (issue 19): heart, brain and the effective dose are evaluated
+    // unless a scenario asks for the quick screening model.
+    CHECK(planner::default_body_model_name().id == "phantom");
+    CHECK(planner::LocationSpec{}.body == "phantom");
     CHECK_FALSE(planner::body_model("quick").has_posture());
     CHECK(planner::body_model("phantom").has_posture());
 }
@@ -94,8 +96,7 @@ TEST_CASE("body models: each id round-trips through the registry and the loader"
         CHECK(m->summary() == name->summary);
         CHECK(!m->summary().empty());
         const planner::Scenario sc = planner::parse_scenario(
-            replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"" + id + "\""),
-            "plan.toml");
+            replace(kBase, "body = \"quick\"", "body = \"" + id + "\""), "plan.toml");
         REQUIRE(sc.locations.size() == 1);
         CHECK(sc.locations[0].body == id);
         CHECK(&planner::body_model(sc.locations[0].body) == m);
@@ -103,8 +104,7 @@ TEST_CASE("body models: each id round-trips through the registry and the loader"
 }
 
 TEST_CASE("body models: an unknown id is refused with the allowed list", "[body]") {
-    const std::string e =
-        error_of(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"voxel\""));
+    const std::string e = error_of(replace(kBase, "body = \"quick\"", "body = \"voxel\""));
     INFO(e);
     CHECK(e.find("plan.toml:19: location.body: 'voxel'; allowed: ") != std::string::npos);
     for (const auto& n : planner::body_model_names()) {
@@ -114,8 +114,8 @@ TEST_CASE("body models: an unknown id is refused with the allowed list", "[body]
     CHECK(planner::find_body_model_name("") == nullptr);
     CHECK_THROWS_AS(planner::body_model("voxel"), std::logic_error);
     // Ids are case-sensitive, as the scenario is.
-    CHECK(error_of(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"Phantom\""))
-              .find("location.body: 'Phantom'; allowed: quick") != std::string::npos);
+    CHECK(error_of(replace(kBase, "body = \"quick\"", "body = \"Phantom\""))
+              .find("location.body: 'Phantom'; allowed: phantom") != std::string::npos);
 }
 
 TEST_CASE("body models: the quick model through the registry is the direct quick model", "[body]") {

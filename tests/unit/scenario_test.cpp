@@ -104,12 +104,11 @@ TEST_CASE("spectrum parameters, shapes and geometry are checked at their line", 
            "plan.toml:10: solid.shape: 'torus' is not a supported shape; allowed: sphere");
     expect(replace(kBase, "point_m = [0.0, 0.0, 2.0]", "point_m = [0.0, 0.0, 3.995]"),
            "plan.toml:17: location.point_m: the dose point lies inside solid 'hut'");
-    expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nbody = \"voxel\""),
-           "plan.toml:19: location.body: 'voxel'; allowed: quick");
+    expect(replace(kBase, "body = \"quick\"", "body = \"voxel\""),
+           "plan.toml:19: location.body: 'voxel'; allowed: phantom");
     expect(replace(kBase, "solids = [\"hut\"]", "solids = [\"hut\"]\nposture = \"lying\""),
            "location.posture: only the phantom has a posture");
-    expect(replace(kBase, "solids = [\"hut\"]",
-                   "solids = [\"hut\"]\nbody = \"phantom\"\nposture = \"seated\""),
+    expect(replace(kBase, "body = \"quick\"", "body = \"phantom\"\nposture = \"seated\""),
            "location.posture: 'seated'; allowed: standing, lying");
     expect(replace(kBase, "solids = [\"hut\"]", "shielding_table = \"x.dirs\"\nsolids = [\"hut\"]"),
            "location.shielding_table: give either solids or a shielding table, not both");

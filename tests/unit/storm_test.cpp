@@ -326,10 +326,14 @@ std::string with_phantom(std::string text, const std::vector<std::string>& locat
     const std::string mission = "gcr_directions = 16\n";
     text.replace(text.find(mission), mission.size(), mission + "phantom_directions = 16\n");
     for (const auto& id : locations) {
-        const std::string line = "id = \"" + id + "\"\n";
-        const auto at = text.find("[[location]]\n" + line);
+        // The fixture names the quick model at each location (the default is the phantom).
+        const auto at = text.find("[[location]]\nid = \"" + id + "\"\n");
         REQUIRE(at != std::string::npos);
-        text.insert(at + 13 + line.size(), "body = \"phantom\"\n");
+        const std::string quick = "body = \"quick\"";
+        const auto body = text.find(quick, at);
+        REQUIRE(body != std::string::npos);
+        REQUIRE(body < text.find("\n[", at + 1));
+        text.replace(body, quick.size(), "body = \"phantom\"");
     }
     return text;
 }
@@ -451,7 +455,9 @@ TEST_CASE("storm: a refuge counts among a crew member's places only with a respo
     text.replace(text.find(ret), ret.size(), ret + "refuge = \"hut\"\n");
     const std::string crew = "[[crew]]\n";
     text.replace(text.find(crew), crew.size(),
-                 "[[location]]\nid = \"hut\"\npoint_m = [0.0, 12.0, 0.0]\nsuit = true\n\n" + crew);
+                 "[[location]]\nid = \"hut\"\npoint_m = [0.0, 12.0, 0.0]\nsuit = true\nbody = "
+                 "\"quick\"\n\n" +
+                     crew);
     const Study study(parse_scenario(text, "refuge.toml"));
     const StormContext with(study, "spe", true);
     CHECK(with.organs() == std::vector<std::string>{"bfo", "lens", "skin"});
