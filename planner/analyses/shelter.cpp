@@ -334,11 +334,18 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
     std::vector<std::string> organs;
     for (const auto& organ : ledger_organs()) {
         bool known = organ != "effective" && study.has_organ(loc.id, organ);
+        std::vector<std::string> why;
         for (const auto& c : ledger.crew) {
-            known = known && !c.not_evaluated.count(organ);
+            const auto missing = c.not_evaluated.find(organ);
+            if (known && missing != c.not_evaluated.end()) {
+                why.push_back(fmt::format("{} at {}", c.crew, fmt::join(missing->second, ", ")));
+            }
         }
-        if (known) {
+        if (known && why.empty()) {
             organs.push_back(organ);
+        } else if (known) {
+            // Said in the report, never dropped silently.
+            rep.not_targets[organ] = fmt::format("{}", fmt::join(why, "; "));
         }
     }
     // Targets: the 30-day planning limits, overridden per organ.

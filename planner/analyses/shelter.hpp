@@ -58,6 +58,9 @@ struct ShelterReport {
     /// Organs whose other 30-day dose alone already reaches or exceeds the target (or is not a
     /// number): no shelter can meet those targets, and no thickness is searched for.
     std::vector<std::string> other_alone_exceeds;
+    /// Organs the shelter's body model gives that are not targets, and why: "cho at rover"
+    /// (a crew member's ledger lacks them where the quick model stands), per organ.
+    std::map<std::string, std::string> not_targets;
     std::vector<ShelterAnswer> answers;
     /// The heliocentric distance the event is taken at (shelter_sun_distance) and the factor on
     /// its spectrum as written there.

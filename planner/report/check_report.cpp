@@ -403,8 +403,9 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                          "nuclear reactions (removal and projectile fragments) / without any "
                          "(the higher is used for limits):",
                          sc.mission.gcr_phi_MV,
-                         sc.mission.gcr_phi_series.empty()
-                             ? ""
+                         sc.mission.gcr_phi_series.empty() ? ""
+                         : sc.mission.gcr_phases.empty()
+                             ? "; from the recorded solar cycle, the same over the whole mission"
                              : "; later months from the recorded solar cycle, listed at the end"),
              96);
     out += fmt::format("  {:<20} {:<9} {:>22} {:>22}\n", "location", "organ", "mGy-Eq", "mSv");

@@ -72,6 +72,22 @@ double answer_dose(const ShelterReport& rep, const ShelterAnswer& a) {
                                     : event_at(a, answer_depth(k, a), a.binding_organ) + other;
 }
 
+// Where the layer's room stopped the search short of --max-g-cm2: "; the room allows no more
+// than 61.1 g/cm2 of polyethylene", or nothing.
+std::string room_note(const ShelterReport& rep) {
+    std::vector<std::string> parts;
+    for (const auto& a : rep.answers) {
+        if (a.limited_by_room) {
+            parts.push_back(
+                fmt::format("{} g/cm2 of {}", significant(a.searched_to_g_cm2, 3), a.material));
+        }
+    }
+    if (parts.empty()) {
+        return "";
+    }
+    return fmt::format(" (the room in the layer allows no more than {})", fmt::join(parts, ", "));
+}
+
 } // namespace
 
 VerdictTable shelter_answer(const ShelterReport& rep) {
@@ -213,6 +229,7 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
         j["sun_distance_AU"] = rep.sun_distance_AU;
         j["fluence_scale"] = rep.fluence_scale;
         j["other_alone_exceeds_target"] = rep.other_alone_exceeds;
+        j["not_targets"] = rep.not_targets;
         // The answer the text and HTML open with: its sentence, and per material the status
         // word and class of the same table (so JSON, text and HTML cannot disagree).
         const VerdictTable answer = shelter_answer(rep);
@@ -299,26 +316,34 @@ std::string format_shelter_report(const Study& study, const ShelterReport& rep,
                       fmt::format("scenario: {}\n\n", sc.file);
     out += format_verdict_text(shelter_answer(rep));
     out += caution_text() + "\n";
-    out += wrap(fmt::format(
-                    "Sizing rule: the crew receive the whole event in the shelter; its dose ({} "
-                    "body model at the shelter; the higher "
-                    "of with and without nuclear reactions; uncertainty factor {:.2f}) plus the "
-                    "highest 30-day dose any crew member has from everything else must stay "
-                    "within each target. Searched from 0 to {} g/cm2; the answer's dose is at or "
-                    "below its target and within 0.5 % of it. The event is taken at {} AU from "
-                    "the Sun ({}), its fluence {} times the spectrum as written.",
-                    study.location(r.location_id).body, sc.limits.uncertainty_factor,
-                    significant(r.max_g_cm2, 3), significant(rep.sun_distance_AU, 3),
-                    rep.sun_distance_AU == sc.mission.sun_distance_AU
-                        ? "the site's distance"
-                        : "the nearest to the Sun a crew member comes: a shelter in space",
-                    significant(rep.fluence_scale, 3)),
-                96) +
-           "\n";
+    out +=
+        wrap(fmt::format(
+                 "Sizing rule: the crew receive the whole event in the shelter; its dose ({} "
+                 "body model at the shelter; the higher "
+                 "of with and without nuclear reactions; uncertainty factor {:.2f}) plus the "
+                 "highest 30-day dose any crew member has from everything else must stay "
+                 "within each target. Searched from 0 to {} g/cm2{}; the answer's dose is at or "
+                 "below its target and within 0.5 % of it. The event is taken at {} AU from "
+                 "the Sun ({}), its fluence {} times the spectrum as written.",
+                 study.location(r.location_id).body, sc.limits.uncertainty_factor,
+                 significant(r.max_g_cm2, 3), room_note(rep), significant(rep.sun_distance_AU, 3),
+                 rep.sun_distance_AU == sc.mission.sun_distance_AU
+                     ? "the site's distance"
+                     : "the nearest to the Sun a crew member comes: a shelter in space",
+                 significant(rep.fluence_scale, 3)),
+             96) +
+        "\n";
     out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
     for (const auto& [organ, target] : rep.target_mGyEq) {
         out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ_label(organ),
                            significant(target, 3), significant(rep.other_30d_mGyEq.at(organ), 3));
+    }
+    for (const auto& [organ, why] : rep.not_targets) {
+        out += wrap(fmt::format("  {}: not a target: the crew's 30-day {} dose is not evaluated "
+                                "for {} (the quick body model; body = \"phantom\" there "
+                                "makes it one)",
+                                organ_label(organ), organ_label(organ), why),
+                    100, "    ");
     }
     out += "\n";
     for (const auto& a : rep.answers) {

@@ -106,7 +106,8 @@ svg::Figure storm_figure(const StormContext& ctx, const StormSweep& s) {
     c.y.title = "share of the 30-day limit (%)";
     c.y.from_zero = true;
     // Short row names: they stand left of the plot, in its margin.
-    c.band_kinds = {"EVA: go", "EVA: NO-GO", "t0: NO-GO"};
+    // EVAs and rover drives share the rows: both take the crew outside the refuge.
+    c.band_kinds = {"EVA/drive: go", "EVA/drive: NO-GO", "t0: NO-GO"};
 
     // The profile as a step: a bin's value holds across the bin.
     svg::Series curve;
@@ -216,7 +217,7 @@ svg::Figure storm_figure(const StormContext& ctx, const StormSweep& s) {
         }
     }
     if (!ctx.unchecked_note().empty()) {
-        c.notes.push_back(ctx.unchecked_note());
+        c.notes.push_back("Not checked: " + ctx.unchecked_note() + ".");
     }
 
     svg::Panel p;

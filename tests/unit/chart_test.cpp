@@ -419,7 +419,7 @@ TEST_CASE("storm chart: a step per profile bin at the sweep's share, the limit, 
     expect_band(bands[2], 18.0, 24.0, StormBand::no_go);
     // Each kind has its labelled row under the plot, so that no-go reads without colour.
     CHECK(rects(elements, "lane").size() == 3);
-    for (const char* row : {"EVA: go", "EVA: NO-GO", "t0: NO-GO"}) {
+    for (const char* row : {"EVA/drive: go", "EVA/drive: NO-GO", "t0: NO-GO"}) {
         CHECK(std::find(c.texts.begin(), c.texts.end(), row) != c.texts.end());
     }
     CHECK(doc.find("NO-GO: onsets from 2032-01-01T18:00:00Z to 2032-01-02T00:00:00Z") !=

@@ -4,7 +4,9 @@
 // long are in phantom_convergence_test.cpp (label slow).
 #include "fixture.hpp"
 #include "phantom_helpers.hpp"
+#include "planner/analyses/shelter.hpp"
 #include "planner/report/check_report.hpp"
+#include "planner/report/shelter_report.hpp"
 
 #include <catch2/catch.hpp>
 
@@ -389,4 +391,27 @@ TEST_CASE("phantom: the check CSV says which doses are bounded and which are not
     CHECK(a_computed == a_rows);
     CHECK(b_bound);
     CHECK(b_missing == std::set<std::string>{"heart", "brain"});
+}
+
+TEST_CASE("phantom: a shelter names the organs it cannot target and why, never drops them",
+          "[phantom][shelter]") {
+    // By construction: the shelter (cabin) is a phantom location, but crew b also stays at the
+    // quick location "other", so b's heart and brain are not evaluated: they cannot be targets,
+    // and the report says so with the crew member and the location.
+    const std::string text = kMixed + "\n[[event]]\nid = \"spe\"\nflare_seen = "
+                                      "2032-01-05T00:00:00Z\nspectrum = "
+                                      "\"exp-energy:J0=1e8,E0_MeV=30\"\n";
+    const planner::Study study(planner::parse_scenario(text, "mixed.toml"));
+    planner::ShelterRequest request;
+    request.event_id = "spe";
+    request.location_id = "cabin";
+    const planner::ShelterReport rep = planner::size_shelter(study, request);
+    CHECK(rep.target_mGyEq.count("bfo") == 1);
+    CHECK(rep.target_mGyEq.count("heart") == 0);
+    CHECK(rep.not_targets.at("heart") == "b at other");
+    CHECK(rep.not_targets.at("brain") == "b at other");
+    const std::string report =
+        planner::format_shelter_report(study, rep, planner::OutputFormat::text);
+    CHECK(report.find("heart: not a target: the crew's 30-day heart dose is not evaluated for b "
+                      "at other") != std::string::npos);
 }
