@@ -316,9 +316,9 @@ TEST_CASE("GCR mean quality factor behind 1 g/cm2 aluminium at solar minimum",
     // Chang'E-4's dosimeter: about 4.3, Zhang et al. 2020, from memory). Gate: at the blood-
     // forming organs (5 cm of tissue) behind 1 g/cm2 aluminium, phi = 400 MV, with nuclear
     // reactions, the range 2.5-4.5. As measured: 4.23 at 5 cm and 5.30 at the skin
-    // (4.46 and 5.62 before helium was fitted to AMS-02). The skin lies above the range because the model lacks the low-LET
-    // secondaries and because the heavy ions stopping near the surface carry Q of 10-30: it is
-    // gated only to lie above the 5 cm value and below 7.
+    // (4.46 and 5.62 before helium was fitted to AMS-02). The skin lies above the range because the
+    // model lacks the low-LET secondaries and because the heavy ions stopping near the surface
+    // carry Q of 10-30: it is gated only to lie above the 5 cm value and below 7.
     TableLibrary tables(crewdose::planner::gcr_grid());
     FragmentTransport march(tables);
     const Material& al = builtin("aluminium");
