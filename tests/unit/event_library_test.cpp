@@ -18,7 +18,7 @@ using namespace crewdose::planner;
 
 namespace {
 
-// J(>10), J(>30), J(>100 MeV), omnidirectional protons/cm2, of each entry as computed by
+// Source: J(>10), J(>30), J(>100 MeV), omnidirectional protons/cm2, of each entry as computed by
 // scripts/data/sapphire_fluences.py (mpmath, 30 digits: the closed form with the incomplete
 // gamma function, checked there against mpmath's quadrature to 1e-12) from the form and the
 // parameters of Jiggens et al. 2018, J. Space Weather Space Clim. 8, A31, Table 8
@@ -93,6 +93,7 @@ TEST_CASE("library:ID is the entry's spelling, and scales as asked", "[library]"
         CHECK(named.differential_fluence_per_cm2_MeV(E) ==
               direct.differential_fluence_per_cm2_MeV(E));
     }
+    // By construction: scale=0.5 halves the fluence at every energy; scale_to fixes J(>30).
     const auto half = parse_spectrum("library:design-100yr,scale=0.5", "test");
     for (const double E : {10.0, 30.0, 100.0, 1000.0}) {
         CHECK(half.integral_fluence_per_cm2(E) ==
