@@ -1,12 +1,10 @@
 #include "planner/report/events_report.hpp"
 
-#include "planner/report/number_format.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/scenario/event_library.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
-#include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <array>
 
@@ -21,84 +19,119 @@ std::array<double, 3> fluences(const ReferenceEvent& e) {
             s.integral_fluence_per_cm2(100.0)};
 }
 
-std::string csv_quoted(std::string_view text) {
-    std::string out = "\"";
-    for (const char c : text) {
-        out += c == '"' ? std::string("\"\"") : std::string(1, c);
-    }
-    return out + "\"";
+report::Column column(std::string key, std::string header, bool left) {
+    report::Column c;
+    c.key = std::move(key);
+    c.header = std::move(header);
+    c.left = left;
+    c.gap = 1;
+    c.digits = 3;
+    c.csv_digits = 6;
+    return c;
+}
+
+report::Column hidden(std::string key) {
+    auto c = column(std::move(key), "", true);
+    c.in_text = false;
+    return c;
 }
 
 } // namespace
 
-std::string format_events_report(OutputFormat format) {
+report::Document events_document() {
     const auto& events = reference_events();
-    if (format == OutputFormat::json) {
-        nlohmann::json list = nlohmann::json::array();
-        for (const auto& e : events) {
-            const auto J = fluences(e);
-            nlohmann::json ej{{"id", e.id},
-                              {"title", e.title},
-                              {"kind", e.kind},
-                              {"spectrum", e.spectrum},
-                              {"use_as", fmt::format("library:{}", e.id)},
-                              {"spectrum_at_AU", 1.0},
-                              {"J_above_10MeV_per_cm2", J[0]},
-                              {"J_above_30MeV_per_cm2", J[1]},
-                              {"J_above_100MeV_per_cm2", J[2]},
-                              {"source", e.source},
-                              {"read_in", e.read_in},
-                              {"note", e.note}};
-            if (e.return_period_years) {
-                ej["return_period_years"] = *e.return_period_years;
-            }
-            list.push_back(ej);
-        }
-        nlohmann::json gaps = nlohmann::json::array();
-        for (const auto& m : missing_reference_events()) {
-            gaps.push_back({{"event", m.what}, {"why", m.why}});
-        }
-        return dump_checked(nlohmann::json{{"events", list}, {"not_in_library", gaps}});
-    }
-    if (format == OutputFormat::csv) {
-        std::string out = "id,kind,return_period_years,J_above_10MeV_per_cm2,"
-                          "J_above_30MeV_per_cm2,J_above_100MeV_per_cm2,spectrum,source,read_in,"
-                          "note\n";
-        for (const auto& e : events) {
-            const auto J = fluences(e);
-            out += fmt::format("{},{},{},{:.6g},{:.6g},{:.6g},{},{},{},{}\n", e.id, e.kind,
-                               e.return_period_years ? fmt::format("{:g}", *e.return_period_years)
-                                                     : std::string(),
-                               J[0], J[1], J[2], csv_quoted(e.spectrum), csv_quoted(e.source),
-                               csv_quoted(e.read_in), csv_quoted(e.note));
-        }
-        return out;
-    }
-    std::string out = "crewdose events: reference solar particle events (omnidirectional proton "
-                      "fluence, protons/cm2)\n\n";
-    out += wrap("Name one in a scenario with spectrum = \"library:ID\" (optionally "
-                "\"library:ID,scale=0.5\" or \"library:ID,scale_to=1e9@30\"). Each is a fit of "
-                "events seen near Earth, so an event naming one is taken as given at 1 AU "
-                "(spectrum_at_AU = 1 unless the scenario says otherwise) and scaled to where each "
-                "crew member is. A design event is the fluence of one event exceeded on average "
-                "once in its return period: a statistical statement, not a forecast.",
-                96);
-    out += "\n";
-    out += fmt::format("  {:<15} {:<7} {:>12} {:>10} {:>10} {:>10}\n", "id", "kind", "return",
-                       "J(>10)", "J(>30)", "J(>100)");
+    report::Document doc;
+    doc.text("crewdose events: reference solar particle events (omnidirectional proton fluence, "
+             "protons/cm2)");
+    doc.blank();
+    doc.text("Name one in a scenario with spectrum = \"library:ID\" (optionally "
+             "\"library:ID,scale=0.5\" or \"library:ID,scale_to=1e9@30\"). Each is a fit of "
+             "events seen near Earth, so an event naming one is taken as given at 1 AU "
+             "(spectrum_at_AU = 1 unless the scenario says otherwise) and scaled to where each "
+             "crew member is. A design event is the fluence of one event exceeded on average "
+             "once in its return period: a statistical statement, not a forecast.",
+             {}, 96);
+    doc.blank();
+
+    report::Table t;
+    t.key = "events";
+    t.is_csv = true;
+    auto id = column("id", "id", true);
+    id.min_width = 15;
+    auto kind = column("kind", "kind", true);
+    kind.min_width = 7;
+    auto period = column("return_period_years", "return", false);
+    period.min_width = 12;
+    period.in_text = false;
+    period.omit_absent_in_json = true;
+    period.rounding = report::Rounding::general;
+    auto period_text = column("return_text", "return", false);
+    period_text.min_width = 12;
+    period_text.in_json = false;
+    period_text.in_csv = false;
+    auto J = [](std::string key, std::string header) {
+        auto c = column(std::move(key), std::move(header), false);
+        c.min_width = 10;
+        return c;
+    };
+    auto title = hidden("title");
+    title.in_csv = false;
+    auto use_as = hidden("use_as");
+    use_as.in_csv = false;
+    auto at_AU = hidden("spectrum_at_AU");
+    at_AU.in_csv = false;
+    t.columns = {id,
+                 kind,
+                 period,
+                 period_text,
+                 J("J_above_10MeV_per_cm2", "J(>10)"),
+                 J("J_above_30MeV_per_cm2", "J(>30)"),
+                 J("J_above_100MeV_per_cm2", "J(>100)"),
+                 title,
+                 hidden("spectrum"),
+                 use_as,
+                 at_AU,
+                 hidden("source"),
+                 hidden("read_in"),
+                 hidden("note")};
+    report::Table fits;
+    fits.key = "fits";
+    fits.title = "Fits (crewdose's spectrum spelling):";
+    fits.view = report::Table::View::list;
+    fits.item_pattern = "{}: {}: {}";
+    fits.in_json = false;
+    fits.columns = {column("id", "", true), column("title", "", true),
+                    column("spectrum", "", true)};
     for (const auto& e : events) {
-        const auto J = fluences(e);
-        out += fmt::format("  {:<15} {:<7} {:>12} {:>10} {:>10} {:>10}\n", e.id, e.kind,
-                           e.return_period_years ? fmt::format("{:g} years", *e.return_period_years)
-                                                 : "-",
-                           significant(J[0], 3), significant(J[1], 3), significant(J[2], 3));
+        const auto f = fluences(e);
+        report::Value period_value;
+        if (e.return_period_years) {
+            period_value = *e.return_period_years;
+        }
+        t.rows.push_back(
+            {std::string(e.id), std::string(e.kind), period_value,
+             std::string(e.return_period_years ? fmt::format("{:g} years", *e.return_period_years)
+                                               : "-"),
+             f[0], f[1], f[2], std::string(e.title), std::string(e.spectrum),
+             fmt::format("library:{}", e.id), 1.0, std::string(e.source), std::string(e.read_in),
+             std::string(e.note)});
+        fits.rows.push_back({std::string(e.id), std::string(e.title), std::string(e.spectrum)});
     }
-    out += "\nFits (crewdose's spectrum spelling):\n";
-    for (const auto& e : events) {
-        out += wrap(fmt::format("  {}: {}: {}", e.id, e.title, e.spectrum), 96, "    ");
-    }
-    // Each source once, with the entries it covers (entries sharing one are listed together).
-    out += "\nSources:\n";
+    doc.table(std::move(t));
+    doc.blank();
+    doc.table(std::move(fits));
+    doc.blank();
+
+    // Each source once, with the entries it covers (entries sharing one are listed together):
+    // a text view of the events' source columns.
+    report::Table sources;
+    sources.key = "sources";
+    sources.title = "Sources:";
+    sources.view = report::Table::View::list;
+    sources.item_pattern = "{}: {}; read {}. Note: {}.";
+    sources.in_json = false;
+    sources.columns = {column("ids", "", true), column("source", "", true),
+                       column("read_in", "", true), column("note", "", true)};
     for (std::size_t i = 0; i < events.size();) {
         std::size_t j = i;
         while (j < events.size() && events[j].source == events[i].source &&
@@ -106,17 +139,29 @@ std::string format_events_report(OutputFormat format) {
             ++j;
         }
         const auto& e = events[i];
-        const std::string ids =
-            j - i == 1 ? std::string(e.id) : fmt::format("{} to {}", e.id, events[j - 1].id);
-        out += wrap(fmt::format("  {}: {}; read {}. Note: {}.", ids, e.source, e.read_in, e.note),
-                    96, "    ");
+        sources.rows.push_back(
+            {j - i == 1 ? std::string(e.id) : fmt::format("{} to {}", e.id, events[j - 1].id),
+             std::string(e.source), std::string(e.read_in), std::string(e.note)});
         i = j;
     }
-    out += "\nNot in the library (known gaps):\n";
+    doc.table(std::move(sources));
+    doc.blank();
+
+    report::Table gaps;
+    gaps.key = "not_in_library";
+    gaps.title = "Not in the library (known gaps):";
+    gaps.view = report::Table::View::list;
+    gaps.item_pattern = "{}: {}.";
+    gaps.columns = {column("event", "", true), column("why", "", true)};
     for (const auto& m : missing_reference_events()) {
-        out += wrap(fmt::format("  {}: {}.", m.what, m.why), 96, "    ");
+        gaps.rows.push_back({std::string(m.what), std::string(m.why)});
     }
-    return out;
+    doc.table(std::move(gaps));
+    return doc;
+}
+
+std::string format_events_report(OutputFormat format) {
+    return report::write(events_document(), format);
 }
 
 } // namespace crewdose::planner

@@ -1,15 +1,12 @@
 #include "planner/report/physics_report.hpp"
 
-#include "planner/report/number_format.hpp"
-#include "planner/study/result_guard.hpp"
+#include "planner/report/document.hpp"
+#include "planner/report/document_writer.hpp"
 
 #include "exposure/element.hpp"
 #include "exposure/material_library.hpp"
 
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
-
-#include <cmath>
 
 namespace crewdose::planner {
 namespace {
@@ -28,98 +25,139 @@ std::string composition_text(const exposure::Material& m) {
     return out;
 }
 
+report::Column number_column(std::string key, std::string header, std::string unit, int min_width) {
+    report::Column c;
+    c.key = std::move(key);
+    c.header = std::move(header);
+    c.unit = std::move(unit);
+    c.min_width = min_width;
+    return c;
+}
+
 } // namespace
+
+report::Document range_document(const exposure::Material& material,
+                                const exposure::Particle& particle,
+                                const std::vector<RangeRow>& rows) {
+    using report::Field;
+    report::Document doc;
+    doc.group({"material",
+               {{"id", material.id()},
+                {"density_g_cm3", material.density_g_cm3()},
+                {"mean_excitation_eV", material.mean_excitation_eV()}}});
+    doc.group({"particle",
+               {{"name", std::string(particle.name)},
+                {"Z", std::int64_t{particle.Z}},
+                {"A", std::int64_t{particle.A}}}});
+    doc.text("{} in {} ({}; {} g/cm3; I = {} eV)",
+             {Field{"particle", std::string(particle.name)}, Field{"material", material.id()},
+              Field{"name", material.name()}, Field{"density", material.density_g_cm3()},
+              Field{"I", material.mean_excitation_eV()}});
+    doc.text("electronic stopping, continuous-slowing-down (CSDA) range");
+    doc.blank();
+    report::Table t;
+    t.key = "rows";
+    t.is_csv = true;
+    auto energy = number_column("energy_MeV_per_n", "energy", "MeV/n", 11);
+    energy.rounding = report::Rounding::general;
+    t.columns = {energy, number_column("stopping_MeV_cm2_g", "stopping power", "MeV cm2/g", 14),
+                 number_column("let_keV_um", "LET", "keV/um", 10),
+                 number_column("csda_range_g_cm2", "CSDA range", "g/cm2", 13),
+                 number_column("csda_range_cm", "CSDA range", "cm", 13)};
+    for (const auto& r : rows) {
+        t.rows.push_back({r.energy_MeV_per_n, r.stopping_MeV_cm2_g, r.let_keV_um,
+                          r.csda_range_g_cm2, r.csda_range_cm});
+    }
+    doc.table(std::move(t));
+    doc.blank();
+    doc.text("LET is unrestricted, in the material itself. Energies are kinetic energy per "
+             "nucleon.");
+    return doc;
+}
 
 std::string format_range_report(const exposure::Material& material,
                                 const exposure::Particle& particle,
                                 const std::vector<RangeRow>& rows, OutputFormat format) {
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["material"] = {{"id", material.id()},
-                         {"density_g_cm3", material.density_g_cm3()},
-                         {"mean_excitation_eV", material.mean_excitation_eV()}};
-        j["particle"] = {{"name", particle.name}, {"Z", particle.Z}, {"A", particle.A}};
-        j["rows"] = nlohmann::json::array();
-        for (const auto& r : rows) {
-            j["rows"].push_back({{"energy_MeV_per_n", r.energy_MeV_per_n},
-                                 {"stopping_MeV_cm2_g", r.stopping_MeV_cm2_g},
-                                 {"let_keV_um", r.let_keV_um},
-                                 {"csda_range_g_cm2", r.csda_range_g_cm2},
-                                 {"csda_range_cm", r.csda_range_cm}});
+    return report::write(range_document(material, particle, rows), format);
+}
+
+report::Document materials_document() {
+    const auto materials = exposure::builtin_materials();
+    report::Document doc;
+    doc.text("{} built-in materials (mass fractions; I marked * is the Bragg-additivity value)",
+             {report::Field{"count", static_cast<std::int64_t>(materials.size())}});
+    doc.blank();
+    report::Table t;
+    t.key = "materials";
+    t.is_csv = true;
+    auto text_column = [](std::string key, std::string header) {
+        report::Column c;
+        c.key = std::move(key);
+        c.header = std::move(header);
+        c.left = true;
+        return c;
+    };
+    auto id = text_column("id", "id");
+    id.min_width = 21;
+    auto name = text_column("name", "name");
+    name.in_text = false;
+    name.in_csv = false;
+    auto density = number_column("density_g_cm3", "g/cm3", "", 10);
+    density.rounding = report::Rounding::general;
+    density.gap = 1;
+    auto excitation = number_column("mean_excitation_eV", "I (eV)", "", 8);
+    excitation.rounding = report::Rounding::general;
+    excitation.gap = 1;
+    auto bragg = text_column("mean_excitation_is_bragg", "");
+    bragg.suffix_when_true = "*";
+    bragg.gap = 0;
+    bragg.min_width = 1;
+    bragg.in_json = false;
+    bragg.in_csv = false;
+    auto own = text_column("mean_excitation_is_own", "");
+    own.in_text = false;
+    own.in_csv = false;
+    auto origin = text_column("i_value_origin", "");
+    origin.in_text = false;
+    origin.in_json = false;
+    auto tabulated = text_column("density_effect_tabulated", "");
+    tabulated.in_text = false;
+    tabulated.in_csv = false;
+    auto gas = text_column("gas", "");
+    gas.in_text = false;
+    gas.in_csv = false;
+    auto composition = text_column("composition", "composition");
+    composition.gap = 1;
+    auto composition_records = text_column("composition", "");
+    composition_records.in_text = false;
+    composition_records.in_csv = false;
+    auto source = text_column("source", "");
+    source.in_text = false;
+    source.in_csv = false;
+    composition.in_json = false;
+    t.columns = {id,        name, density,     excitation,          bragg, own, origin,
+                 tabulated, gas,  composition, composition_records, source};
+    for (const auto& m : materials) {
+        report::Records comp;
+        for (const auto& share : m.composition()) {
+            comp.items.push_back({{"element", symbol_of(share.Z)},
+                                  {"Z", std::int64_t{share.Z}},
+                                  {"mass_fraction", share.mass_fraction}});
         }
-        return dump_checked(j);
+        const bool own_I = m.has_own_mean_excitation();
+        t.rows.push_back({m.id(), m.name(), m.density_g_cm3(), m.mean_excitation_eV(), !own_I,
+                          own_I, std::string(own_I ? "published" : "bragg"),
+                          m.has_tabulated_density_effect(), m.phase() == exposure::Phase::gas,
+                          composition_text(m), std::move(comp), std::string(m.source())});
     }
-    if (format == OutputFormat::csv) {
-        std::string out =
-            "energy_MeV_per_n,stopping_MeV_cm2_g,let_keV_um,csda_range_g_cm2,csda_range_cm\n";
-        for (const auto& r : rows) {
-            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g}\n", r.energy_MeV_per_n,
-                               r.stopping_MeV_cm2_g, r.let_keV_um, r.csda_range_g_cm2,
-                               r.csda_range_cm);
-        }
-        return out;
-    }
-    std::string out =
-        fmt::format("{} in {} ({}; {:.4g} g/cm3; I = {:.4g} eV)\n", particle.name, material.id(),
-                    material.name(), material.density_g_cm3(), material.mean_excitation_eV());
-    out += "electronic stopping, continuous-slowing-down (CSDA) range\n\n";
-    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "energy", "stopping power",
-                       "LET", "CSDA range", "CSDA range");
-    out += fmt::format("  {:>11}  {:>14}  {:>10}  {:>13}  {:>13}\n", "MeV/n", "MeV cm2/g", "keV/um",
-                       "g/cm2", "cm");
-    for (const auto& r : rows) {
-        out += fmt::format("  {:>11.4g}  {:>14}  {:>10}  {:>13}  {:>13}\n", r.energy_MeV_per_n,
-                           significant(r.stopping_MeV_cm2_g, 4), significant(r.let_keV_um, 4),
-                           significant(r.csda_range_g_cm2, 4), significant(r.csda_range_cm, 4));
-    }
-    out += "\nLET is unrestricted, in the material itself. Energies are kinetic energy per "
-           "nucleon.\n";
-    return out;
+    doc.table(std::move(t));
+    doc.blank();
+    doc.text("Sources of each material: crewdose materials --format json (field 'source').");
+    return doc;
 }
 
 std::string format_materials_report(OutputFormat format) {
-    const auto materials = exposure::builtin_materials();
-    if (format == OutputFormat::json) {
-        nlohmann::json j = nlohmann::json::array();
-        for (const auto& m : materials) {
-            nlohmann::json comp = nlohmann::json::array();
-            for (const auto& share : m.composition()) {
-                comp.push_back({{"element", symbol_of(share.Z)},
-                                {"Z", share.Z},
-                                {"mass_fraction", share.mass_fraction}});
-            }
-            j.push_back({{"id", m.id()},
-                         {"name", m.name()},
-                         {"density_g_cm3", m.density_g_cm3()},
-                         {"mean_excitation_eV", m.mean_excitation_eV()},
-                         {"mean_excitation_is_own", m.has_own_mean_excitation()},
-                         {"density_effect_tabulated", m.has_tabulated_density_effect()},
-                         {"gas", m.phase() == exposure::Phase::gas},
-                         {"composition", comp},
-                         {"source", m.source()}});
-        }
-        return dump_checked(nlohmann::json{{"materials", j}});
-    }
-    if (format == OutputFormat::csv) {
-        std::string out = "id,density_g_cm3,mean_excitation_eV,i_value_origin,composition\n";
-        for (const auto& m : materials) {
-            out += fmt::format(
-                "{},{:.10g},{:.10g},{},\"{}\"\n", m.id(), m.density_g_cm3(), m.mean_excitation_eV(),
-                m.has_own_mean_excitation() ? "published" : "bragg", composition_text(m));
-        }
-        return out;
-    }
-    std::string out = fmt::format("{} built-in materials (mass fractions; I marked * is the "
-                                  "Bragg-additivity value)\n\n",
-                                  materials.size());
-    out += fmt::format("  {:<21} {:>10} {:>9}  {}\n", "id", "g/cm3", "I (eV)", "composition");
-    for (const auto& m : materials) {
-        out += fmt::format("  {:<21} {:>10.4g} {:>8.4g}{} {}\n", m.id(), m.density_g_cm3(),
-                           m.mean_excitation_eV(), m.has_own_mean_excitation() ? " " : "*",
-                           composition_text(m));
-    }
-    out += "\nSources of each material: crewdose materials --format json (field 'source').\n";
-    return out;
+    return report::write(materials_document(), format);
 }
 
 } // namespace crewdose::planner

@@ -2,6 +2,7 @@
 // The `range` and `materials` reports: look-up tables of the stopping and range physics for
 // engineers who want to see the numbers behind a shielding result.
 #include "planner/analyses/physics_lookup.hpp"
+#include "planner/report/document.hpp"
 #include "planner/report/output_format.hpp"
 
 #include "exposure/material.hpp"
@@ -11,6 +12,14 @@
 #include <vector>
 
 namespace crewdose::planner {
+
+/// The range report as a report model: the material and particle as fields, one row per energy.
+[[nodiscard]] report::Document range_document(const exposure::Material& material,
+                                              const exposure::Particle& particle,
+                                              const std::vector<RangeRow>& rows);
+
+/// The built-in materials as a report model.
+[[nodiscard]] report::Document materials_document();
 
 /// The range report in the chosen format (text: 4 significant figures; json: full precision).
 [[nodiscard]] std::string format_range_report(const exposure::Material& material,

@@ -1,0 +1,109 @@
+#pragma once
+// The report model: what a command reports, as data, apart from how it is laid out. A
+// Document is a sequence of blocks: text (a sentence pattern with its values), groups of named
+// fields, and tables with named columns and units. One writer per format (document_writer.hpp)
+// turns it into text, JSON or CSV; the writers are the only place where a number is scaled to
+// its display unit and rounded, so every format of a command shows the same values.
+//
+// A value is a number, a whole number, a flag, text, a list of records (JSON only) or nothing.
+// "Nothing" is how a builder says "not computed" or "does not apply": it prints as the
+// column's `absent` text, JSON null (or no key), an empty CSV cell. A number that is not finite
+// never reaches a writer as a number: the writers refuse it (a logic error), so a dose that was
+// not computed cannot be printed as one.
+#include <cstdint>
+#include <string>
+#include <variant>
+#include <vector>
+
+namespace crewdose::planner::report {
+
+struct Field;
+
+/// Records of named fields, written as a JSON array of objects (e.g. a material's
+/// composition inside its row).
+struct Records {
+    std::vector<std::vector<Field>> items;
+};
+
+using Value = std::variant<std::monostate, double, std::int64_t, bool, std::string, Records>;
+
+/// How a number is rounded in text: `significant` keeps trailing zeros to the given figures
+/// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732).
+enum class Rounding { significant, general };
+
+struct Column {
+    std::string key;    ///< JSON and CSV name, with the unit in it (e.g. "csda_range_g_cm2")
+    std::string header; ///< text heading
+    std::string unit;   ///< text unit line; empty for none
+    int digits = 4;     ///< significant figures in text
+    Rounding rounding = Rounding::significant;
+    int csv_digits = 10; ///< significant figures in CSV ({:.Ng})
+    double scale = 1.0;  ///< every format shows value * scale (e.g. 1e3: a value in Gy, in mGy)
+    bool left = false;   ///< left-aligned (text columns) instead of right-aligned
+    int min_width = 0;   ///< text width at least this
+    int gap = 2;         ///< spaces before the column in text
+    std::string absent = "not computed"; ///< text for a value that is nothing
+    std::string suffix_when_true;        ///< text: for a flag column, shown when true
+    bool in_text = true;
+    bool in_json = true;
+    bool in_csv = true;
+    bool omit_absent_in_json = false; ///< leave the key out instead of writing null
+};
+
+/// A table. In text, `aligned` writes a heading line, a unit line (when any column has a
+/// unit) and one line per row; `list` writes one wrapped line per row from `item_pattern`
+/// ({0}, {1}, ... are the columns in order, formatted as in an aligned table).
+struct Table {
+    enum class View { aligned, list };
+    std::string key;   ///< JSON key of the array of row objects
+    std::string title; ///< text line before the table; empty for none
+    std::vector<Column> columns;
+    std::vector<std::vector<Value>> rows;
+    View view = View::aligned;
+    std::string item_pattern;
+    std::string indent = "  ";
+    std::size_t wrap_width = 96;
+    std::string wrap_indent = "    ";
+    bool in_text = true;
+    bool in_json = true;
+    bool is_csv = false; ///< the table the CSV format writes (one per document)
+};
+
+struct Field {
+    std::string key;
+    Value value;
+    int digits = 4; ///< significant figures where text shows it
+    Rounding rounding = Rounding::general;
+};
+
+/// Named fields written as one JSON object under `key` (nothing in text: a Text block shows
+/// what the reader needs).
+struct Group {
+    std::string key;
+    std::vector<Field> fields;
+};
+
+/// A text paragraph: `pattern` with {0}, {1}, ... replaced by the formatted fields; wrapped
+/// to `wrap_width` (0: written as is). Text only.
+struct Text {
+    std::string pattern;
+    std::vector<Field> args;
+    std::size_t wrap_width = 0;
+    std::string wrap_indent;
+};
+
+struct Blank {};
+
+using Block = std::variant<Text, Blank, Group, Table>;
+
+struct Document {
+    std::vector<Block> blocks;
+
+    Document& text(std::string pattern, std::vector<Field> args = {}, std::size_t wrap_width = 0,
+                   std::string wrap_indent = "");
+    Document& blank();
+    Document& group(Group g);
+    Document& table(Table t);
+};
+
+} // namespace crewdose::planner::report
