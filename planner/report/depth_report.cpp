@@ -1,6 +1,7 @@
 #include "planner/report/depth_report.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/number_parse.hpp"
@@ -43,68 +44,104 @@ nlohmann::json dose_si_json(const exposure::DoseQuantities& d) {
             {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}};
 }
 
+report::Object dose_si_object(const exposure::DoseQuantities& d) {
+    return {{{"absorbed_Gy", d.absorbed_Gy},
+             {"dose_equivalent_Sv", d.dose_equivalent_Sv},
+             {"rbe_weighted_GyEq", d.rbe_weighted_GyEq}}};
+}
+
+report::Document depth_document(const exposure::ProtonSpectrum& spectrum,
+                                const exposure::Material& shield, const TissueDepth& tissue,
+                                const std::vector<DepthRow>& rows,
+                                const exposure::Material& detector) {
+    using report::Field;
+    report::Document doc;
+    doc.group(
+        {"",
+         {{"shield_material", shield.id()},
+          {"tissue_depth_g_cm2", tissue.g_cm2},
+          {"tissue", std::string("soft-tissue")},
+          {"detector", detector.id()},
+          {"spectrum", describe_spectrum(spectrum)},
+          {"geometry",
+           std::string("shell-equivalent: every direction sees the shield, then the tissue")}}});
+    doc.text("SPE dose behind {} ({}) at {}, scored in {}",
+             {Field{"shield", shield.id()}, Field{"name", shield.name()},
+              Field{"tissue", tissue.label}, Field{"detector", detector.id()}});
+    doc.text("spectrum: {}", {Field{"spectrum", describe_spectrum(spectrum)}}, 100, "  ");
+    doc.text("geometry: shell-equivalent (the event's full omnidirectional fluence through the "
+             "same\nthickness in every direction: the dose at the centre of a spherical shell)");
+    doc.blank();
+
+    report::Table t;
+    t.key = "rows";
+    t.is_csv = true;
+    auto col = [](std::string key, std::string header, std::string unit, int width, double scale) {
+        report::Column c;
+        c.key = std::move(key);
+        c.header = std::move(header);
+        c.unit = std::move(unit);
+        c.min_width = width;
+        c.scale = scale;
+        c.digits = 3;
+        c.in_json = false;
+        return c;
+    };
+    auto json_only = [](std::string key) {
+        report::Column c;
+        c.key = std::move(key);
+        c.in_text = false;
+        c.in_csv = false;
+        return c;
+    };
+    auto shield_col = col("shield_g_cm2", "shield", "g/cm2", 8, 1.0);
+    shield_col.rounding = report::Rounding::general;
+    shield_col.digits = 4;
+    shield_col.in_json = true;
+    auto share = col("extrapolated_share", "", "", 0, 1.0);
+    share.in_text = false;
+    share.in_json = true;
+    share.csv_digits = 6;
+    auto share_text = col("extrapolated_percent", "share from", "extrapolated", 12, 100.0);
+    share_text.rounding = report::Rounding::fixed;
+    share_text.digits = 1;
+    share_text.text_suffix = "%";
+    share_text.in_csv = false;
+    t.columns = {shield_col,
+                 col("absorbed_mGy", "absorbed", "mGy", 12, 1e3),
+                 col("dose_equivalent_mSv", "dose equiv.", "mSv", 12, 1e3),
+                 col("rbe_weighted_mGyEq", "RBE-weighted", "mGy-Eq", 12, 1e3),
+                 col("absorbed_with_reactions_mGy", "absorbed with", "reactions, mGy", 14, 1e3),
+                 col("absorbed_primaries_only_mGy", "absorbed,", "primaries mGy", 14, 1e3),
+                 share_text,
+                 share,
+                 json_only("for_limits"),
+                 json_only("with_reactions"),
+                 json_only("without_reactions"),
+                 json_only("primaries_with_reactions")};
+    for (const auto& r : rows) {
+        const auto d = r.dose.for_limits();
+        t.rows.push_back({r.shield_g_cm2, d.absorbed_Gy, d.dose_equivalent_Sv, d.rbe_weighted_GyEq,
+                          r.dose.with_removal.absorbed_Gy, r.primaries.absorbed_Gy,
+                          r.dose.extrapolated_share, r.dose.extrapolated_share, dose_si_object(d),
+                          dose_si_object(r.dose.with_removal),
+                          dose_si_object(r.dose.without_removal), dose_si_object(r.primaries)});
+    }
+    doc.table(std::move(t));
+    doc.blank();
+    doc.keyed_text("model", kDepthModelText, 92);
+    doc.text("Tissue: ICRU four-component soft tissue. 'share from extrapolated' is the part of "
+             "the\nabsorbed dose from incident energies outside the spectrum's fit range.");
+    doc.blank();
+    doc.keyed_text("cautions", caution_text());
+    return doc;
+}
+
 std::string format_depth_report(const exposure::ProtonSpectrum& spectrum,
                                 const exposure::Material& shield, const TissueDepth& tissue,
                                 const std::vector<DepthRow>& rows, OutputFormat format,
                                 const exposure::Material& detector) {
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["shield_material"] = shield.id();
-        j["tissue_depth_g_cm2"] = tissue.g_cm2;
-        j["tissue"] = "soft-tissue";
-        j["detector"] = detector.id();
-        j["spectrum"] = describe_spectrum(spectrum);
-        j["geometry"] = "shell-equivalent: every direction sees the shield, then the tissue";
-        j["rows"] = nlohmann::json::array();
-        for (const auto& r : rows) {
-            j["rows"].push_back({{"shield_g_cm2", r.shield_g_cm2},
-                                 {"for_limits", dose_si_json(r.dose.for_limits())},
-                                 {"with_reactions", dose_si_json(r.dose.with_removal)},
-                                 {"without_reactions", dose_si_json(r.dose.without_removal)},
-                                 {"primaries_with_reactions", dose_si_json(r.primaries)},
-                                 {"extrapolated_share", r.dose.extrapolated_share}});
-        }
-        j["model"] = kDepthModelText;
-        j["cautions"] = caution_text();
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        std::string out = "shield_g_cm2,absorbed_mGy,dose_equivalent_mSv,rbe_weighted_mGyEq,"
-                          "absorbed_with_reactions_mGy,absorbed_primaries_only_mGy,"
-                          "extrapolated_share\n";
-        for (const auto& r : rows) {
-            const auto d = r.dose.for_limits();
-            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.6g}\n",
-                               r.shield_g_cm2, 1e3 * d.absorbed_Gy, 1e3 * d.dose_equivalent_Sv,
-                               1e3 * d.rbe_weighted_GyEq, 1e3 * r.dose.with_removal.absorbed_Gy,
-                               1e3 * r.primaries.absorbed_Gy, r.dose.extrapolated_share);
-        }
-        return out;
-    }
-    std::string out = fmt::format("SPE dose behind {} ({}) at {}, scored in {}\n", shield.id(),
-                                  shield.name(), tissue.label, detector.id());
-    out += wrap("spectrum: " + describe_spectrum(spectrum), 100, "  ");
-    out += "geometry: shell-equivalent (the event's full omnidirectional fluence through the same\n"
-           "thickness in every direction: the dose at the centre of a spherical shell)\n\n";
-    out += fmt::format("  {:>8}  {:>12}  {:>12}  {:>12}  {:>14}  {:>14}  {:>12}\n", "shield",
-                       "absorbed", "dose equiv.", "RBE-weighted", "absorbed with", "absorbed,",
-                       "share from");
-    out += fmt::format("  {:>8}  {:>12}  {:>12}  {:>12}  {:>14}  {:>14}  {:>12}\n", "g/cm2", "mGy",
-                       "mSv", "mGy-Eq", "reactions, mGy", "primaries mGy", "extrapolated");
-    for (const auto& r : rows) {
-        const auto d = r.dose.for_limits();
-        out += fmt::format(
-            "  {:>8.4g}  {:>12}  {:>12}  {:>12}  {:>14}  {:>14}  {:>11.1f}%\n", r.shield_g_cm2,
-            significant(1e3 * d.absorbed_Gy, 3), significant(1e3 * d.dose_equivalent_Sv, 3),
-            significant(1e3 * d.rbe_weighted_GyEq, 3),
-            significant(1e3 * r.dose.with_removal.absorbed_Gy, 3),
-            significant(1e3 * r.primaries.absorbed_Gy, 3), 100.0 * r.dose.extrapolated_share);
-    }
-    out += "\n" + wrap(kDepthModelText, 92);
-    out += "Tissue: ICRU four-component soft tissue. 'share from extrapolated' is the part of the\n"
-           "absorbed dose from incident energies outside the spectrum's fit range.\n\n";
-    out += caution_text();
-    return out;
+    return report::write(depth_document(spectrum, shield, tissue, rows, detector), format);
 }
 
 } // namespace crewdose::planner

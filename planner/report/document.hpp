@@ -25,11 +25,17 @@ struct Records {
     std::vector<std::vector<Field>> items;
 };
 
-using Value = std::variant<std::monostate, double, std::int64_t, bool, std::string, Records>;
+/// Named fields written as one JSON object (e.g. the three dose quantities of a row).
+struct Object {
+    std::vector<Field> fields;
+};
+
+using Value =
+    std::variant<std::monostate, double, std::int64_t, bool, std::string, Records, Object>;
 
 /// How a number is rounded in text: `significant` keeps trailing zeros to the given figures
-/// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732).
-enum class Rounding { significant, general };
+/// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732), `fixed` keeps `digits` decimals.
+enum class Rounding { significant, general, fixed };
 
 struct Column {
     std::string key;    ///< JSON and CSV name, with the unit in it (e.g. "csda_range_g_cm2")
@@ -44,6 +50,7 @@ struct Column {
     int gap = 2;         ///< spaces before the column in text
     std::string absent = "not computed"; ///< text for a value that is nothing
     std::string suffix_when_true;        ///< text: for a flag column, shown when true
+    std::string text_suffix;             ///< text: after a number (e.g. "%")
     bool in_text = true;
     bool in_json = true;
     bool in_csv = true;
@@ -76,20 +83,21 @@ struct Field {
     Rounding rounding = Rounding::general;
 };
 
-/// Named fields written as one JSON object under `key` (nothing in text: a Text block shows
-/// what the reader needs).
+/// Named fields written as one JSON object under `key`, or at the top level when `key` is
+/// empty (nothing in text: a Text block shows what the reader needs).
 struct Group {
     std::string key;
     std::vector<Field> fields;
 };
 
 /// A text paragraph: `pattern` with {0}, {1}, ... replaced by the formatted fields; wrapped
-/// to `wrap_width` (0: written as is). Text only.
+/// to `wrap_width` (0: written as is). JSON carries it under `json_key` when that is set.
 struct Text {
     std::string pattern;
     std::vector<Field> args;
     std::size_t wrap_width = 0;
     std::string wrap_indent;
+    std::string json_key;
 };
 
 struct Blank {};
@@ -101,6 +109,9 @@ struct Document {
 
     Document& text(std::string pattern, std::vector<Field> args = {}, std::size_t wrap_width = 0,
                    std::string wrap_indent = "");
+    /// A paragraph that JSON also carries, under `json_key`.
+    Document& keyed_text(std::string json_key, std::string pattern, std::size_t wrap_width = 0,
+                         std::string wrap_indent = "");
     Document& blank();
     Document& group(Group g);
     Document& table(Table t);

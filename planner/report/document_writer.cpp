@@ -15,7 +15,14 @@ namespace crewdose::planner::report {
 Document& Document::text(std::string pattern, std::vector<Field> args, std::size_t wrap_width,
                          std::string wrap_indent) {
     blocks.emplace_back(
-        Text{std::move(pattern), std::move(args), wrap_width, std::move(wrap_indent)});
+        Text{std::move(pattern), std::move(args), wrap_width, std::move(wrap_indent), {}});
+    return *this;
+}
+
+Document& Document::keyed_text(std::string json_key, std::string pattern, std::size_t wrap_width,
+                               std::string wrap_indent) {
+    blocks.emplace_back(
+        Text{std::move(pattern), {}, wrap_width, std::move(wrap_indent), std::move(json_key)});
     return *this;
 }
 
@@ -47,20 +54,26 @@ std::string text_number(double v, int digits, Rounding rounding) {
     if (rounding == Rounding::general) {
         return fmt::format("{:.{}g}", v, digits);
     }
+    if (rounding == Rounding::fixed) {
+        const std::string s = fmt::format("{:.{}f}", v, digits);
+        // No negative zero after rounding either (-0.04 at one decimal).
+        return s.find_first_not_of("-0.") == std::string::npos && s.front() == '-' ? s.substr(1)
+                                                                                   : s;
+    }
     return significant(v, digits);
 }
 
 // A value as text, the way an aligned cell or a pattern argument shows it.
 std::string text_of(const Value& value, int digits, Rounding rounding, double scale,
                     const std::string& absent, const std::string& suffix_when_true,
-                    std::string_view what) {
+                    const std::string& text_suffix, std::string_view what) {
     return std::visit(
         [&](const auto& v) -> std::string {
             using T = std::decay_t<decltype(v)>;
             if constexpr (std::is_same_v<T, std::monostate>) {
                 return absent;
             } else if constexpr (std::is_same_v<T, double>) {
-                return text_number(shown(v, scale, what), digits, rounding);
+                return text_number(shown(v, scale, what), digits, rounding) + text_suffix;
             } else if constexpr (std::is_same_v<T, std::int64_t>) {
                 return fmt::format("{}", v);
             } else if constexpr (std::is_same_v<T, bool>) {
@@ -71,18 +84,20 @@ std::string text_of(const Value& value, int digits, Rounding rounding, double sc
             } else if constexpr (std::is_same_v<T, std::string>) {
                 return v;
             } else {
-                throw std::logic_error(fmt::format("report: records ({}) have no text form", what));
+                throw std::logic_error(
+                    fmt::format("report: records and objects ({}) have no text form", what));
             }
         },
         value);
 }
 
 std::string cell_text(const Column& c, const Value& v) {
-    return text_of(v, c.digits, c.rounding, c.scale, c.absent, c.suffix_when_true, c.key);
+    return text_of(v, c.digits, c.rounding, c.scale, c.absent, c.suffix_when_true, c.text_suffix,
+                   c.key);
 }
 
 std::string field_text(const Field& f) {
-    return text_of(f.value, f.digits, f.rounding, 1.0, "not computed", {}, f.key);
+    return text_of(f.value, f.digits, f.rounding, 1.0, "not computed", {}, {}, f.key);
 }
 
 // Display width of UTF-8 text: its code points (the reports' symbols, such as µ, are one
@@ -105,7 +120,12 @@ std::string trimmed_line(std::string line) {
     return line + "\n";
 }
 
+// The pattern with its arguments; a pattern without arguments is text as it stands (braces
+// and all).
 std::string filled(const std::string& pattern, const std::vector<std::string>& args) {
+    if (args.empty()) {
+        return pattern;
+    }
     fmt::dynamic_format_arg_store<fmt::format_context> store;
     for (const auto& a : args) {
         store.push_back(a);
@@ -195,6 +215,8 @@ nlohmann::json json_of(const Value& value, double scale, std::string_view what) 
                     a.push_back(json_of_fields(item));
                 }
                 return a;
+            } else if constexpr (std::is_same_v<T, Object>) {
+                return json_of_fields(v.fields);
             } else {
                 return v;
             }
@@ -228,7 +250,8 @@ std::string csv_cell(const Column& c, const Value& value) {
             } else if constexpr (std::is_same_v<T, std::string>) {
                 return csv_quoted(v);
             } else {
-                throw std::logic_error("report: records have no CSV form (" + c.key + ")");
+                throw std::logic_error("report: records and objects have no CSV form (" + c.key +
+                                       ")");
             }
         },
         value);
@@ -245,7 +268,11 @@ std::string write_text(const Document& doc) {
                 args.push_back(field_text(f));
             }
             const std::string line = filled(t->pattern, args);
-            out += t->wrap_width > 0 ? wrap(line, t->wrap_width, t->wrap_indent) : line + "\n";
+            if (t->wrap_width > 0) {
+                out += wrap(line, t->wrap_width, t->wrap_indent);
+            } else {
+                out += !line.empty() && line.back() == '\n' ? line : line + "\n";
+            }
         } else if (std::holds_alternative<Blank>(block)) {
             out += "\n";
         } else if (const auto* tab = std::get_if<Table>(&block); tab && tab->in_text) {
@@ -259,7 +286,17 @@ std::string write_json(const Document& doc) {
     nlohmann::json j = nlohmann::json::object();
     for (const auto& block : doc.blocks) {
         if (const auto* g = std::get_if<Group>(&block)) {
-            j[g->key] = json_of_fields(g->fields);
+            if (g->key.empty()) {
+                j.update(json_of_fields(g->fields));
+            } else {
+                j[g->key] = json_of_fields(g->fields);
+            }
+        } else if (const auto* p = std::get_if<Text>(&block); p && !p->json_key.empty()) {
+            std::vector<std::string> args;
+            for (const auto& f : p->args) {
+                args.push_back(field_text(f));
+            }
+            j[p->json_key] = filled(p->pattern, args);
         } else if (const auto* t = std::get_if<Table>(&block); t && t->in_json) {
             nlohmann::json rows = nlohmann::json::array();
             for (const auto& row : t->rows) {

@@ -1,235 +1,198 @@
 #include "planner/report/shielding_report.hpp"
 
+#include "planner/analyses/shielding_summary.hpp"
 #include "planner/report/cautions.hpp"
 #include "planner/report/depth_report.hpp"
-#include "planner/report/number_format.hpp"
-#include "planner/study/body_model.hpp"
-#include "planner/study/result_guard.hpp"
+#include "planner/report/document_writer.hpp"
 
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
-
-#include <algorithm>
-#include <cmath>
 
 namespace crewdose::planner {
 namespace {
 
-// The value below which a share p of the weight lies, for (value, weight) pairs sorted by
-// value: the i-th value sits at (S_i - w_i) / (S_n - w_n) of the cumulative weight S
-// (inclusive), linear in between; with equal weights the usual (n - 1) p interpolation.
-double weighted_percentile(const std::vector<std::pair<double, double>>& sorted, double p) {
-    if (sorted.empty()) {
-        return 0.0;
-    }
-    double total = 0.0;
-    for (const auto& [v, w] : sorted) {
-        total += w;
-    }
-    const double span = total - sorted.back().second;
-    if (!(span > 0.0)) {
-        return sorted.back().first;
-    }
-    const double target = p * span;
-    double before = 0.0; // S_i - w_i of the current pair
-    for (std::size_t i = 0; i + 1 < sorted.size(); ++i) {
-        const double next = before + sorted[i].second;
-        if (target <= next) {
-            const double f = sorted[i].second > 0.0 ? (target - before) / sorted[i].second : 0.0;
-            return sorted[i].first + f * (sorted[i + 1].first - sorted[i].first);
-        }
-        before = next;
-    }
-    return sorted.back().first;
+report::Column column(std::string key, std::string header, std::string unit, double scale = 1.0) {
+    report::Column c;
+    c.key = std::move(key);
+    c.header = std::move(header);
+    c.unit = std::move(unit);
+    c.scale = scale;
+    c.digits = 3;
+    return c;
 }
 
-double percentile(const std::vector<double>& sorted, double p) {
-    std::vector<std::pair<double, double>> unit;
-    unit.reserve(sorted.size());
-    for (const double v : sorted) {
-        unit.emplace_back(v, 1.0);
-    }
-    return weighted_percentile(unit, p);
+// A column of the CSV only (the location's own figures, repeated on every organ's row so that
+// each row stands alone).
+report::Column csv_only(std::string key, bool is_text = false) {
+    auto c = column(std::move(key), "", "");
+    c.in_text = false;
+    c.left = is_text;
+    return c;
 }
 
 } // namespace
 
+report::Document shielding_document(const ShieldingSummary& s) {
+    using report::Field;
+    report::Document doc;
+    report::Object external{{{"mean", s.external_mean_g_cm2}}};
+    for (std::size_t i = 0; i < kShieldingPercentiles.size(); ++i) {
+        external.fields.push_back(
+            {fmt::format("p{:02.0f}", 100.0 * kShieldingPercentiles[i]), s.external_g_cm2[i]});
+    }
+    doc.group({"",
+               {{"location", s.location},
+                {"directions", static_cast<std::int64_t>(s.directions)},
+                {"blocked_by_ground_share", s.blocked_share},
+                {"external_g_cm2", external},
+                {"gcr_phi_MV", s.gcr_phi_MV},
+                {"body_model", s.body_model}}});
+    report::Group organs{"organs", {}};
+    for (const auto& o : s.organs) {
+        report::Object oj{
+            {{"mean_tissue_g_cm2", o.mean_tissue_g_cm2},
+             {"total_g_cm2", report::Object{{{"p05", o.total_p05_g_cm2},
+                                             {"p50", o.total_p50_g_cm2},
+                                             {"p95", o.total_p95_g_cm2}}}},
+             {"gcr_per_day",
+              report::Object{
+                  {{"with_reactions", dose_si_object(o.gcr_per_day.with_removal)},
+                   {"without_reactions", dose_si_object(o.gcr_per_day.without_removal)}}}}}};
+        if (o.event) {
+            oj.fields.push_back({"event", dose_si_object(*o.event)});
+        }
+        organs.fields.push_back({o.organ, std::move(oj)});
+    }
+    if (!organs.fields.empty()) {
+        doc.group(std::move(organs));
+    }
+
+    doc.text("Shielding at {} ({}), {} directions",
+             {Field{"location", s.location}, Field{"scenario", s.scenario_file},
+              Field{"directions", static_cast<std::int64_t>(s.directions)}});
+    report::Field blocked{"blocked", 100.0 * s.blocked_share, 1, report::Rounding::fixed};
+    doc.text("  blocked by the ground or terrain: {} % of the sky (counted as zero dose)",
+             {blocked});
+    std::string pattern = "  external areal density over the open sky, g/cm2: mean {}";
+    std::vector<Field> args{{"mean", s.external_mean_g_cm2, 3, report::Rounding::significant}};
+    for (std::size_t i = 0; i < kShieldingPercentiles.size(); ++i) {
+        pattern += fmt::format(", p{:.0f} {{}}", 100.0 * kShieldingPercentiles[i]);
+        args.push_back({"p", s.external_g_cm2[i], 3, report::Rounding::significant});
+    }
+    doc.text(pattern, args, 100, "    ");
+    doc.text(s.organ_heading);
+
+    report::Table t;
+    t.key = "organs";
+    t.in_json = false; // JSON: the "organs" object above
+    t.is_csv = true;
+    t.indent = "    ";
+    auto organ = column("organ", "organ", "");
+    organ.left = true;
+    auto tissue = column("mean_tissue_g_cm2", s.tissue_is_mean ? "tissue*" : "tissue", "g/cm2");
+    auto event_col = [&](std::string key, std::string header, std::string unit) {
+        auto c = column(std::move(key), std::move(header), std::move(unit), 1e3);
+        c.absent = "-";
+        c.in_text = s.event_id.has_value();
+        return c;
+    };
+    auto event_id = csv_only("event", true);
+    auto csv_event_col = [&](std::string key) {
+        auto c = csv_only(std::move(key));
+        c.scale = 1e3;
+        return c;
+    };
+    // Text: the effective dose is a dose equivalent only ("-" for its absorbed and RBE-weighted
+    // dose), so these two have their own text columns; the CSV keeps the study's numbers.
+    auto text_event_col = [&](std::string key, std::string header, std::string unit) {
+        auto c = event_col(std::move(key), std::move(header), std::move(unit));
+        c.in_csv = false;
+        return c;
+    };
+    t.columns = {
+        csv_only("location", true),
+        csv_only("body_model", true),
+        csv_only("directions"),
+        csv_only("blocked_by_ground_share"),
+        csv_only("external_mean_g_cm2"),
+        csv_only("external_p05_g_cm2"),
+        csv_only("external_p50_g_cm2"),
+        csv_only("external_p95_g_cm2"),
+        organ,
+        tissue,
+        column("total_p05_g_cm2", "p5", "g/cm2"),
+        column("total_p50_g_cm2", "p50", "g/cm2"),
+        column("total_p95_g_cm2", "p95", "g/cm2"),
+        csv_only("gcr_phi_MV"),
+        column("gcr_dose_equivalent_with_reactions_mSv_per_day", "GCR, with", "mSv/day", 1e3),
+        column("gcr_dose_equivalent_without_reactions_mSv_per_day", "GCR, w/o", "mSv/day", 1e3),
+        event_id,
+        csv_event_col("event_absorbed_mGy"),
+        text_event_col("absorbed", "absorbed", "mGy"),
+        event_col("event_dose_equivalent_mSv", "dose eq.", "mSv"),
+        csv_event_col("event_rbe_weighted_mGyEq"),
+        text_event_col("rbe_weighted", "RBE-wtd", "mGy-Eq")};
+    for (const auto& o : s.organs) {
+        report::Value id;
+        report::Value absorbed;
+        report::Value equivalent;
+        report::Value rbe;
+        report::Value absorbed_text;
+        report::Value rbe_text;
+        if (o.event) {
+            id = *s.event_id;
+            equivalent = o.event->dose_equivalent_Sv;
+            absorbed = o.event->absorbed_Gy;
+            rbe = o.event->rbe_weighted_GyEq;
+            if (o.organ != "effective") {
+                absorbed_text = absorbed;
+                rbe_text = rbe;
+            }
+        }
+        t.rows.push_back({s.location,
+                          s.body_model,
+                          static_cast<std::int64_t>(s.directions),
+                          s.blocked_share,
+                          s.external_mean_g_cm2,
+                          s.external_g_cm2[0],
+                          s.external_g_cm2[2],
+                          s.external_g_cm2[4],
+                          o.organ,
+                          o.mean_tissue_g_cm2,
+                          o.total_p05_g_cm2,
+                          o.total_p50_g_cm2,
+                          o.total_p95_g_cm2,
+                          s.gcr_phi_MV,
+                          o.gcr_per_day.with_removal.dose_equivalent_Sv,
+                          o.gcr_per_day.without_removal.dose_equivalent_Sv,
+                          id,
+                          absorbed,
+                          absorbed_text,
+                          equivalent,
+                          rbe,
+                          rbe_text});
+    }
+    doc.table(std::move(t));
+    if (s.tissue_is_mean) {
+        doc.text("  * the mean over the organ's points and the open directions.");
+    }
+    doc.text("  p5 / p50 / p95: external shielding plus the organ's tissue, percentiles.");
+    doc.text("  GCR per day at the mission start, phi = {} MV, with / without nuclear reactions; "
+             "no uncertainty factor.",
+             {Field{"phi", s.gcr_phi_MV, 6, report::Rounding::general}}, 100, "  ");
+    if (s.event_id) {
+        doc.text("  The last three columns: the whole event " + *s.event_id +
+                     " at this location, no uncertainty factor, the higher of the reactions "
+                     "bracket; the effective dose is a dose equivalent (mSv) only.",
+                 {}, 100, "  ");
+    }
+    doc.blank();
+    doc.keyed_text("cautions", caution_text());
+    return doc;
+}
+
 std::string format_shielding_report(const Study& study, const std::string& location,
                                     const std::optional<std::string>& event, OutputFormat format) {
-    const Scenario& sc = study.scenario();
-    (void)sc.location_named(location, "--location");
-    const EventSpec* ev = event ? &sc.event_named(*event, "--event") : nullptr;
-    const LocationGeometry& where = study.geometry(location);
-    std::vector<double> external;
-    std::size_t blocked = 0;
-    const auto& dirs = study.directions(location);
-    const BodyDepths& body = study.body(location);
-    const BodyModel& model = body_model(study.location(location).body);
-    // Every point's own depth where the grid's weights split it between two nodes (the
-    // phantom); nullopt where each organ's depth is a node (the quick model).
-    const auto samples = model.depth_samples(placement_of(where), dirs, body);
-    // Per organ: the external areal density plus the organ's tissue, over its points and the
-    // open directions (the phantom: every traced point's own depth; the quick model: its fixed
-    // depth), and the mean tissue.
-    std::vector<std::vector<std::pair<double, double>>> totals(body.organs.size());
-    std::vector<double> mean_tissue(body.organs.size(), 0.0);
-    std::vector<double> external_of(dirs.size(), -1.0); // < 0: blocked
-    for (std::size_t k = 0; k < dirs.size(); ++k) {
-        const auto& d = dirs[k];
-        if (where.surroundings.blocked(d)) {
-            ++blocked;
-            continue;
-        }
-        double total = 0.0;
-        for (const auto& seg : external_path(where, d)) {
-            total += seg.areal_density_g_cm2;
-        }
-        external.push_back(total);
-        external_of[k] = total;
-        for (std::size_t o = 0; o < body.organs.size(); ++o) {
-            const auto w = body.of(k, o);
-            double tissue = 0.0;
-            for (std::size_t g = 0; g < w.size(); ++g) {
-                tissue += w[g] * body.grid_g_cm2[g];
-                if (w[g] > 0.0 && !samples) {
-                    totals[o].emplace_back(total + body.grid_g_cm2[g], w[g]);
-                }
-            }
-            mean_tissue[o] += tissue;
-        }
-    }
-    if (samples) {
-        for (std::size_t o = 0; o < body.organs.size(); ++o) {
-            for (const auto& smp : samples->at(o)) {
-                if (external_of[smp.direction] >= 0.0 && smp.weight > 0.0) {
-                    totals[o].emplace_back(external_of[smp.direction] + smp.tissue_g_cm2,
-                                           smp.weight);
-                }
-            }
-        }
-    }
-    for (std::size_t o = 0; o < body.organs.size(); ++o) {
-        std::sort(totals[o].begin(), totals[o].end());
-        mean_tissue[o] /= std::max<double>(1.0, static_cast<double>(external.size()));
-    }
-    std::sort(external.begin(), external.end());
-    double mean = 0.0;
-    for (double v : external) {
-        mean += v;
-    }
-    mean = external.empty() ? 0.0 : mean / static_cast<double>(external.size());
-    const double blocked_share = static_cast<double>(blocked) / static_cast<double>(dirs.size());
-    const std::vector<double> ps{0.05, 0.25, 0.5, 0.75, 0.95};
-
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["location"] = location;
-        j["directions"] = dirs.size();
-        j["blocked_by_ground_share"] = blocked_share;
-        j["external_g_cm2"] = {{"mean", mean},
-                               {"p05", percentile(external, 0.05)},
-                               {"p25", percentile(external, 0.25)},
-                               {"p50", percentile(external, 0.5)},
-                               {"p75", percentile(external, 0.75)},
-                               {"p95", percentile(external, 0.95)}};
-        j["gcr_phi_MV"] = sc.mission.gcr_phi_MV;
-        j["body_model"] = body.model;
-        for (std::size_t o = 0; o < body.organs.size(); ++o) {
-            const std::string& organ = body.organs[o];
-            auto& oj = j["organs"][organ];
-            oj["mean_tissue_g_cm2"] = mean_tissue[o];
-            oj["total_g_cm2"] = {{"p05", weighted_percentile(totals[o], 0.05)},
-                                 {"p50", weighted_percentile(totals[o], 0.5)},
-                                 {"p95", weighted_percentile(totals[o], 0.95)}};
-            const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
-            oj["gcr_per_day"] = {{"with_reactions", dose_si_json(g.with_removal)},
-                                 {"without_reactions", dose_si_json(g.without_removal)}};
-            if (ev) {
-                oj["event"] = dose_si_json(study.event_dose(location, organ, *ev));
-            }
-        }
-        j["cautions"] = caution_text();
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        // One row per organ; the location's own figures repeat on every row so that each row
-        // stands alone. Doses per day at the mission's starting phi; the event's whole dose.
-        std::string out =
-            "location,body_model,directions,blocked_by_ground_share,external_mean_g_cm2,"
-            "external_p05_g_cm2,external_p50_g_cm2,external_p95_g_cm2,organ,mean_tissue_g_cm2,"
-            "total_p05_g_cm2,total_p50_g_cm2,total_p95_g_cm2,gcr_phi_MV,"
-            "gcr_dose_equivalent_with_reactions_mSv_per_day,"
-            "gcr_dose_equivalent_without_reactions_mSv_per_day,event,event_absorbed_mGy,"
-            "event_dose_equivalent_mSv,event_rbe_weighted_mGyEq\n";
-        for (std::size_t o = 0; o < body.organs.size(); ++o) {
-            const std::string& organ = body.organs[o];
-            const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
-            out += fmt::format(
-                "{},{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{},{:.10g},{:.10g},{:.10g},"
-                "{:.10g},{:.10g},{:.10g},{:.10g}",
-                location, body.model, dirs.size(), blocked_share, mean, percentile(external, 0.05),
-                percentile(external, 0.5), percentile(external, 0.95), organ, mean_tissue[o],
-                weighted_percentile(totals[o], 0.05), weighted_percentile(totals[o], 0.5),
-                weighted_percentile(totals[o], 0.95), sc.mission.gcr_phi_MV,
-                1e3 * g.with_removal.dose_equivalent_Sv,
-                1e3 * g.without_removal.dose_equivalent_Sv);
-            if (ev) {
-                const auto d = study.event_dose(location, organ, *ev);
-                out += fmt::format(",{},{:.10g},{:.10g},{:.10g}\n", ev->id, 1e3 * d.absorbed_Gy,
-                                   1e3 * d.dose_equivalent_Sv, 1e3 * d.rbe_weighted_GyEq);
-            } else {
-                out += ",,,,\n";
-            }
-        }
-        return out;
-    }
-    std::string out =
-        fmt::format("Shielding at {} ({}), {} directions\n", location, sc.file, dirs.size());
-    out += fmt::format(
-        "  blocked by the ground or terrain: {:.1f} % of the sky (counted as zero dose)\n",
-        100.0 * blocked_share);
-    std::string ext = fmt::format("  external areal density over the open sky, g/cm2: mean {}",
-                                  significant(mean, 3));
-    for (double p : ps) {
-        ext += fmt::format(", p{:.0f} {}", 100 * p, significant(percentile(external, p), 3));
-    }
-    out += wrap(ext, 100, "    ");
-    out += model.organ_table_heading();
-    for (std::size_t o = 0; o < body.organs.size(); ++o) {
-        const std::string& organ = body.organs[o];
-        const auto& g = study.gcr_daily_dose(location, organ, sc.mission.gcr_phi_MV);
-        std::string line = fmt::format(
-            "    {:<9} tissue {} g/cm2{}, total p5/p50/p95 {} / {} / {} g/cm2; GCR {} / {} mSv per "
-            "day",
-            organ, significant(mean_tissue[o], 3), samples ? " (mean)" : "",
-            significant(weighted_percentile(totals[o], 0.05), 3),
-            significant(weighted_percentile(totals[o], 0.5), 3),
-            significant(weighted_percentile(totals[o], 0.95), 3),
-            significant(1e3 * g.with_removal.dose_equivalent_Sv, 3),
-            significant(1e3 * g.without_removal.dose_equivalent_Sv, 3));
-        if (ev) {
-            const auto d = study.event_dose(location, organ, *ev);
-            if (organ == "effective") {
-                line +=
-                    fmt::format("; {}: {} mSv", ev->id, significant(1e3 * d.dose_equivalent_Sv, 3));
-            } else {
-                line += fmt::format("; {}: {} mGy, {} mSv, {} mGy-Eq", ev->id,
-                                    significant(1e3 * d.absorbed_Gy, 3),
-                                    significant(1e3 * d.dose_equivalent_Sv, 3),
-                                    significant(1e3 * d.rbe_weighted_GyEq, 3));
-            }
-        }
-        out += wrap(line, 100, "              ");
-    }
-    out += fmt::format("  (GCR at the mission start, phi = {:g} MV, with / without nuclear "
-                       "reactions;\n  no uncertainty factor)\n",
-                       sc.mission.gcr_phi_MV);
-    if (ev) {
-        out += "  (event doses: the whole event at this location, no uncertainty factor, the "
-               "higher of the\n  reactions bracket)\n";
-    }
-    out += "\n" + caution_text();
-    return out;
+    return report::write(shielding_document(shielding_summary(study, location, event)), format);
 }
 
 } // namespace crewdose::planner

@@ -1,5 +1,7 @@
 #pragma once
 // The `shielding` command: what a location's shielding looks like, for shield engineers.
+#include "planner/analyses/shielding_summary.hpp"
+#include "planner/report/document.hpp"
 #include "planner/report/output_format.hpp"
 #include "planner/study/study.hpp"
 
@@ -7,6 +9,9 @@
 #include <string>
 
 namespace crewdose::planner {
+
+/// The summary as a report model.
+[[nodiscard]] report::Document shielding_document(const ShieldingSummary& summary);
 
 /// Areal-density distribution over the location's directions (external shielding, and per
 /// organ with the body's tissue added), the share of the sky blocked by the ground, and with

@@ -754,7 +754,9 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     INFO(r.out);
     CHECK(r.exit_code == 0);
     CHECK(r.out.find("blocked by the ground or terrain") != std::string::npos);
-    CHECK(r.out.find("design-spe:") != std::string::npos);
+    // The event's columns are named and explained (the table of organs).
+    CHECK(r.out.find("the whole event design-spe at this location") != std::string::npos);
+    CHECK(r.out.find("RBE-wtd") != std::string::npos);
     const Run j = run("shielding " + demo() + " --location storm-shelter --format json");
     REQUIRE(j.exit_code == 0);
     const auto doc = nlohmann::json::parse(j.out);
@@ -791,7 +793,7 @@ TEST_CASE("shielding shows the areal-density distribution and event doses", "[cl
     const auto& skin = doc["organs"]["skin"]["total_g_cm2"];
     CHECK(skin["p05"].get<double>() < ext["p05"].get<double>() + 0.5);
     CHECK(skin["p05"].get<double>() < doc["organs"]["bfo"]["total_g_cm2"]["p05"].get<double>());
-    CHECK(r.out.find("GCR at the mission start, phi = 650 MV") != std::string::npos);
+    CHECK(r.out.find("GCR per day at the mission start, phi = 650 MV") != std::string::npos);
     // The quick model adds its fixed depth in every direction: each organ's percentiles are
     // the walls' plus that depth (by construction; one percentile definition for both).
     {
