@@ -7,6 +7,8 @@
 
 #include <fmt/format.h>
 
+#include <algorithm>
+
 namespace crewdose::planner {
 namespace {
 
@@ -180,10 +182,15 @@ report::Document shielding_document(const ShieldingSummary& s) {
              "no uncertainty factor.",
              {Field{"phi", s.gcr_phi_MV, 6, report::Rounding::general}}, 100, "  ");
     if (s.event_id) {
-        doc.text("  The last three columns: the whole event " + *s.event_id +
-                     " at this location, no uncertainty factor, the higher of the reactions "
-                     "bracket; the effective dose is a dose equivalent (mSv) only.",
-                 {}, 100, "  ");
+        const bool has_effective =
+            std::any_of(s.organs.begin(), s.organs.end(),
+                        [](const OrganShielding& o) { return o.organ == "effective"; });
+        doc.text(
+            "  The last three columns: the whole event " + *s.event_id +
+                " at this location, no uncertainty factor, the higher of the reactions "
+                "bracket" +
+                (has_effective ? "; the effective dose is a dose equivalent (mSv) only." : "."),
+            {}, 100, "  ");
     }
     doc.blank();
     doc.keyed_text("cautions", caution_text());
