@@ -81,6 +81,7 @@ struct Field {
     Value value;
     int digits = 4; ///< significant figures where text shows it
     Rounding rounding = Rounding::general;
+    double scale = 1.0; ///< every format shows value * scale (the key names the shown unit)
 };
 
 /// Named fields written as one JSON object under `key`, or at the top level when `key` is

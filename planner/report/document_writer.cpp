@@ -97,7 +97,7 @@ std::string cell_text(const Column& c, const Value& v) {
 }
 
 std::string field_text(const Field& f) {
-    return text_of(f.value, f.digits, f.rounding, 1.0, "not computed", {}, {}, f.key);
+    return text_of(f.value, f.digits, f.rounding, f.scale, "not computed", {}, {}, f.key);
 }
 
 // Display width of UTF-8 text: its code points (the reports' symbols, such as µ, are one
@@ -196,7 +196,7 @@ nlohmann::json json_of(const Value& value, double scale, std::string_view what);
 nlohmann::json json_of_fields(const std::vector<Field>& fields) {
     nlohmann::json j = nlohmann::json::object();
     for (const auto& f : fields) {
-        j[f.key] = json_of(f.value, 1.0, f.key);
+        j[f.key] = json_of(f.value, f.scale, f.key);
     }
     return j;
 }
