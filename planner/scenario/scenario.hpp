@@ -39,6 +39,13 @@ enum class SiteKind { moon, mars, deep_space };
 inline constexpr double kMinPhi_MV = 100.0;
 inline constexpr double kMaxPhi_MV = 3000.0;
 
+/// The Martian surface pressure a scenario or a command line may give, Pa: one range for
+/// both. The floor is below the summit of Olympus Mons (about 70 Pa) and the ceiling above the
+/// floor of Hellas (about 1200 Pa, both from memory), so no site on Mars is refused, while a
+/// typical pressure typed in hPa or mbar (6 to 9) is.
+inline constexpr double kMinSurfacePressure_Pa = 10.0;
+inline constexpr double kMaxSurfacePressure_Pa = 2000.0;
+
 /// Why `phi_MV` is not a plausible modulation potential, or nullopt when it is: the allowed
 /// range and, for a value that reads as GV, the value in MV ("0.45 looks like GV; give 450").
 /// `as_typed` is how the value is named in the message (the number, or the option's text).

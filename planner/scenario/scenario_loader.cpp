@@ -303,7 +303,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             }
         }
         if (m.has("surface_pressure_Pa")) {
-            sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", 10.0, 2000.0, "Pa");
+            sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", kMinSurfacePressure_Pa,
+                                                      kMaxSurfacePressure_Pa, "Pa");
         }
         if (m.has("scale_height_km")) {
             sc.mission.scale_height_km = m.within("scale_height_km", 5.0, 30.0, "km");

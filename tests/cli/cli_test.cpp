@@ -327,6 +327,27 @@ TEST_CASE("gcr: the design curve of a shield, its charge groups, and bad input",
     }
 }
 
+TEST_CASE("gcr: --help gives the surface pressure range the command enforces", "[cli]") {
+    // Found in a new-user trial: --help said 100 to 2000 Pa, the scenario guide 10 to 2000 Pa.
+    // The range (by construction, the loader's): 10 and 2000 accepted, just outside refused.
+    const Run help = run("gcr --help");
+    INFO(help.out);
+    CHECK(help.out.find("10 to 2000 Pa") != std::string::npos);
+    CHECK(help.out.find("100 to 2000") == std::string::npos);
+    for (const char* edge : {"10", "2000"}) {
+        const Run ok =
+            run(std::string("gcr --site mars -d 0 -f json --surface-pressure-Pa ") + edge);
+        INFO(ok.out.substr(0, 400));
+        CHECK(ok.exit_code == 0);
+    }
+    for (const char* outside : {"9.9", "2000.1"}) {
+        const Run bad = run(std::string("gcr --site mars -d 0 --surface-pressure-Pa ") + outside);
+        INFO(bad.out);
+        CHECK(bad.exit_code == 2);
+        CHECK(bad.out.find("allowed: a number of Pa from 10 to 2000") != std::string::npos);
+    }
+}
+
 TEST_CASE("every spectrum form has a spelling", "[cli]") {
     for (const char* s :
          {"band:J0=1e10,gamma_a=1.1,gamma_b=3.5,R0_GV=0.25", "weibull:J0=5e9,k=0.9,alpha=0.4",
