@@ -215,7 +215,22 @@ struct ActivitySpec {
     /// Heliocentric distance during the activity, AU, at its start and end (interpolated);
     /// without it, see build_sun_distance_tracks.
     std::optional<std::pair<double, double>> sun_distance_AU;
+    /// An activity of a [[routine]]: the start of its instance and the line of the routine
+    /// (`where` is the line of its [[routine.activity]] entry); nullopt for an [[activity]].
+    struct RoutineInstance {
+        Time start;
+        int routine_line = 0;
+    };
+    std::optional<RoutineInstance> instance;
 };
+
+/// Where an activity was written, for reports: "line 80", or for an activity of a routine
+/// "line 84, instance of 2035-06-10T09:00:00Z" (the rule's line and the instance), so that
+/// each instance is told apart from the others.
+[[nodiscard]] std::string activity_origin(const ActivitySpec& a);
+/// The same for messages: "the activity at line 80", or "the activity at line 84 in the
+/// instance of 2035-06-10T09:00:00Z of the routine at line 80".
+[[nodiscard]] std::string activity_origin_text(const ActivitySpec& a);
 
 /// What the crew do when a storm warning comes ([storm_response]): the policy of the storm
 /// what-ifs. Times after the flare is seen at the site (t0).
