@@ -155,16 +155,32 @@ storm_verdict_rows(const std::vector<std::pair<const StormCrew*, const Time*>>& 
     return rows;
 }
 
-// The verdict rows of `crew` (with each one's onset in a sweep); counts the exceeded and near.
-VerdictTable storm_verdict(const StormContext& ctx,
-                           const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
+// The crew of a what-if, or each crew member's worst onset of a sweep.
+std::vector<std::pair<const StormCrew*, const Time*>> verdict_crew(const StormWhatIf& w) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& c : w.crew) {
+        crew.emplace_back(&c, nullptr);
+    }
+    return crew;
+}
+
+std::vector<std::pair<const StormCrew*, const Time*>> verdict_crew(const StormSweep& s) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& [onset, c] : s.worst) {
+        crew.emplace_back(&c, &onset);
+    }
+    return crew;
+}
+
+// The verdict table of `rows` (with each one's onset in a sweep); counts the exceeded and near.
+VerdictTable storm_verdict(const StormContext& ctx, const std::vector<StormVerdictRow>& rows,
                            double near_share, std::size_t& exceeded, std::size_t& near) {
     const bool responds = ctx.responds();
-    const bool sweep = !crew.empty() && crew.front().second != nullptr;
+    const bool sweep = !rows.empty() && rows.front().onset != nullptr;
     // Crew members by name, or by id when a name would push the lines past 100 columns.
     bool by_name = true;
-    for (const auto& [c, onset] : crew) {
-        by_name = by_name && c->name.size() <= 16;
+    for (const StormVerdictRow& v : rows) {
+        by_name = by_name && v.crew->name.size() <= 16;
     }
     VerdictTable t;
     t.columns = {"crew member", "binding", "30-day dose / limit", "used", "status"};
@@ -176,7 +192,7 @@ VerdictTable storm_verdict(const StormContext& ctx,
     }
     exceeded = 0;
     near = 0;
-    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+    for (const StormVerdictRow& v : rows) {
         const StormCrew* c = v.crew;
         std::vector<VerdictCell> row{{by_name ? c->name : c->crew}};
         const StormOrgan* o = v.organ;
@@ -227,12 +243,11 @@ VerdictTable storm_verdict(const StormContext& ctx,
 // The verdict for JSON: the sentence, the near share and a row per crew member, the same
 // numbers the text table rounds. A dose that was not computed is null with status "exceeded".
 void add_verdict_json(nlohmann::json& j, const VerdictTable& table,
-                      const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
-                      double near_share) {
+                      const std::vector<StormVerdictRow>& rows, double near_share) {
     j["verdict"] = table.headline;
     j["near_share"] = near_share;
     j["headline"] = nlohmann::json::array();
-    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+    for (const StormVerdictRow& v : rows) {
         nlohmann::json row{{"crew", v.crew->crew}};
         if (!v.organ) {
             row["organ"] = nullptr;
@@ -258,27 +273,22 @@ std::string crew_count(std::size_t n, std::size_t of) {
     return fmt::format("{} of {} crew member{}", n, of, of == 1 ? "" : "s");
 }
 
-} // namespace
-
-VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
-                                  double near_share) {
-    std::vector<std::pair<const StormCrew*, const Time*>> crew;
-    for (const auto& c : w.crew) {
-        crew.emplace_back(&c, nullptr);
-    }
+// The what-if's verdict from its rows (storm_verdict_rows of verdict_crew(w)).
+VerdictTable whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
+                            const std::vector<StormVerdictRow>& rows, double near_share) {
     std::size_t exceeded = 0;
     std::size_t near = 0;
-    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    VerdictTable t = storm_verdict(ctx, rows, near_share, exceeded, near);
     const std::string how = w.respond ? "with the planned response"
                                       : "no response: the crew keep to the planned timeline";
     if (exceeded > 0) {
         t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED for {} in this "
                                  "what-if ({}).",
-                                 crew_count(exceeded, crew.size()), how);
+                                 crew_count(exceeded, rows.size()), how);
     } else if (near > 0) {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met in this what-if "
                                  "({}); {} near a limit.",
-                                 how, crew_count(near, crew.size()));
+                                 how, crew_count(near, rows.size()));
     } else {
         t.headline =
             fmt::format("Verdict: every 30-day planning limit is met in this what-if ({}).", how);
@@ -286,14 +296,12 @@ VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
     return t;
 }
 
-VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, double near_share) {
-    std::vector<std::pair<const StormCrew*, const Time*>> crew;
-    for (const auto& [onset, c] : s.worst) {
-        crew.emplace_back(&c, &onset);
-    }
+// The sweep's verdict from its rows (storm_verdict_rows of verdict_crew(s)).
+VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
+                           const std::vector<StormVerdictRow>& rows, double near_share) {
     std::size_t exceeded = 0;
     std::size_t near = 0;
-    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    VerdictTable t = storm_verdict(ctx, rows, near_share, exceeded, near);
     std::size_t no_go = 0;
     std::size_t not_swept = 0;
     for (const auto& e : s.evas) {
@@ -314,17 +322,28 @@ VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, d
     if (exceeded > 0) {
         t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED at the worst onset "
                                  "for {} ({}){}.",
-                                 crew_count(exceeded, crew.size()), how, evas);
+                                 crew_count(exceeded, rows.size()), how, evas);
     } else if (near > 0) {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
                                  "tried ({}); {} near a limit at the worst onset{}.",
-                                 how, crew_count(near, crew.size()), evas);
+                                 how, crew_count(near, rows.size()), evas);
     } else {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
                                  "tried ({}){}.",
                                  how, evas);
     }
     return t;
+}
+
+} // namespace
+
+VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
+                                  double near_share) {
+    return whatif_verdict(ctx, w, storm_verdict_rows(verdict_crew(w), near_share), near_share);
+}
+
+VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, double near_share) {
+    return sweep_verdict(ctx, s, storm_verdict_rows(verdict_crew(s), near_share), near_share);
 }
 
 std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
@@ -339,12 +358,12 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, O
                          {"respond", w.respond},
                          {"model", model_note(ctx)},
                          {"any_limit_exceeded", w.any_exceeded()}};
-        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& c : w.crew) {
             j["crew"].push_back(crew_json(c));
-            crew.emplace_back(&c, nullptr);
         }
-        add_verdict_json(j, storm_whatif_verdict(ctx, w, near_share), crew, near_share);
+        // One set of rows for the sentence and the headline: they cannot disagree.
+        const auto rows = storm_verdict_rows(verdict_crew(w), near_share);
+        add_verdict_json(j, whatif_verdict(ctx, w, rows, near_share), rows, near_share);
         return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
@@ -433,24 +452,25 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
             {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
             {"response", ctx.responds()}};
-        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
             cj["worst_onset"] = format_time(onset);
             j["worst"].push_back(cj);
-            crew.emplace_back(&c, &onset);
         }
-        add_verdict_json(j, storm_sweep_verdict(ctx, s, near_share), crew, near_share);
+        // One set of rows for the sentence and the headline: they cannot disagree.
+        const auto rows = storm_verdict_rows(verdict_crew(s), near_share);
+        add_verdict_json(j, sweep_verdict(ctx, s, rows, near_share), rows, near_share);
         for (const auto& e : s.evas) {
-            j["evas"].push_back({{"activity", e.label},
-                                 {"start", format_time(e.start)},
-                                 {"end", format_time(e.end)},
-                                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
-                                 {"crew", e.crew},
-                                 {"organ", e.organ},
-                                 {"ratio_to_30d_limit", e.ratio},
-                                 {"swept", e.swept()},
-                                 {"go", e.go()}});
+            j["evas"].push_back(
+                {{"activity", e.label},
+                 {"start", format_time(e.start)},
+                 {"end", format_time(e.end)},
+                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
+                 {"crew", e.crew},
+                 {"organ", e.organ},
+                 {"ratio_to_30d_limit", e.ratio},
+                 {"swept", e.swept()},
+                 {"go", e.go()}});
         }
         for (const auto& [t, r] : s.profile) {
             j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
