@@ -454,7 +454,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             {"response", ctx.responds()}};
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
-            cj["worst_onset"] = format_time(onset);
+            cj["worst_onset"] = format_time_exact(onset);
             j["worst"].push_back(cj);
         }
         // One set of rows for the sentence and the headline: they cannot disagree.
@@ -465,7 +465,7 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                 {{"activity", e.label},
                  {"start", format_time(e.start)},
                  {"end", format_time(e.end)},
-                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
+                 {"worst_onset", e.ratio >= 0 ? format_time_exact(e.worst_onset) : ""},
                  {"crew", e.crew},
                  {"organ", e.organ},
                  {"ratio_to_30d_limit", e.ratio},
@@ -481,10 +481,10 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     if (format == OutputFormat::csv) {
         std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
         for (const auto& e : s.evas) {
-            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
-                               format_time(e.end), e.ratio >= 0 ? format_time(e.worst_onset) : "",
-                               e.crew, e.organ, e.ratio,
-                               !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
+            out += fmt::format(
+                "\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
+                format_time(e.end), e.ratio >= 0 ? format_time_exact(e.worst_onset) : "", e.crew,
+                e.organ, e.ratio, !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
         }
         return out;
     }
@@ -506,26 +506,70 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     out += wrap(model_note(ctx), 96);
     out += responds ? wrap(policy_text(sc.storm), 96) + "\n"
                     : "No response (--no-response): the crew keep to the planned timeline.\n\n";
-    out += fmt::format("Worst onset per crew member (30-day dose {}, mGy-Eq):\n",
+    // The worst onset itself is the verdict's "worst t0": said once.
+    out += fmt::format("At each crew member's worst onset (the verdict's worst t0; 30-day dose {}, "
+                       "mGy-Eq):\n",
                        responds ? "with the response" : "without a response");
+    // Where the response gives an organ more of the event than the planned timeline would.
+    std::vector<std::string> adds;
+    const StormOrgan* most_saved = nullptr;
+    const StormCrew* most_saved_by = nullptr;
     for (const auto& [onset, c] : s.worst) {
         const StormOrgan* worst = nullptr;
+        std::vector<std::string> more;
         for (const auto& o : c.organs) {
             if (!worst || o.ratio() > worst->ratio()) {
                 worst = &o;
             }
+            const double saved = o.without_response_mGyEq - o.with_response_mGyEq;
+            if (saved < 0.0) {
+                more.push_back(
+                    fmt::format("{} +{} mGy-Eq", organ_label(o.organ), significant(-saved, 3)));
+            } else if (!most_saved || saved > most_saved->without_response_mGyEq -
+                                                  most_saved->with_response_mGyEq) {
+                most_saved = &o;
+                most_saved_by = &c;
+            }
+        }
+        if (!more.empty()) {
+            adds.push_back(fmt::format("{} ({})", c.name, fmt::join(more, ", ")));
         }
         if (!worst) {
             continue;
         }
-        out += wrap(fmt::format("  {} ({}): t0 {}; {} {} = {} event + {} other of {} ({:.0f} %){}",
-                                c.name, c.crew, format_time(onset), organ_label(worst->organ),
+        out += wrap(fmt::format("  {} ({}): {} {} = {} event + {} other of {} ({:.0f} %){}", c.name,
+                                c.crew, organ_label(worst->organ),
                                 significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
                                 significant(worst->with_response_mGyEq, 3),
                                 significant(worst->other_30d_mGyEq, 3),
                                 significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
                                 worst->exceeded() ? "  EXCEEDED" : ""),
                     100, "      ");
+    }
+    // Whether the response helps there, from these numbers (the sweep computes the planned
+    // timeline's dose beside the response's only at the worst onsets).
+    if (responds && !adds.empty()) {
+        out += wrap(fmt::format("  NOTE: the response adds dose at the worst onset for {} "
+                                "(with the response, more than on the planned timeline): the "
+                                "crew wait the event out somewhere less shielded than the plan "
+                                "had them (an EVA's refuge, or the place they are held until the "
+                                "all-clear); check [storm_response] and the refuges",
+                                fmt::format("{}", fmt::join(adds, "; "))),
+                    100, "    ");
+    } else if (responds && most_saved &&
+               most_saved->without_response_mGyEq == most_saved->with_response_mGyEq) {
+        out += "  At every crew member's worst onset the response leaves the event's dose as "
+               "planned.\n";
+    } else if (responds && most_saved) {
+        out += wrap(fmt::format("  At every crew member's worst onset the response lowers the "
+                                "event's dose or leaves it as planned, organ by organ; it saves "
+                                "most for {}: {} {} mGy-Eq of {} on the planned timeline.",
+                                most_saved_by->name, organ_label(most_saved->organ),
+                                significant(most_saved->without_response_mGyEq -
+                                                most_saved->with_response_mGyEq,
+                                            3),
+                                significant(most_saved->without_response_mGyEq, 3)),
+                    100, "    ");
     }
     out += "\n" + wrap(fmt::format("Go/no-go per EVA and rover drive (the design event starting at "
                                    "the worst moment of it, {}):",
@@ -540,11 +584,13 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                         100, "        ");
             continue;
         }
+        // The onset exact to the fraction of a second of a policy breakpoint, as in the
+        // verdict: --onset reads it back to the very onset.
         out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
                                 "30-day limit",
                                 e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
-                                e.label, format_time(e.worst_onset), e.crew, organ_label(e.organ),
-                                100.0 * e.ratio),
+                                e.label, format_time_exact(e.worst_onset), e.crew,
+                                organ_label(e.organ), 100.0 * e.ratio),
                     100, "        ");
     }
     out += fmt::format("\nProfile: the highest share of a 30-day limit over the crew, per {} of "
