@@ -1167,7 +1167,7 @@ TEST_CASE("storm: a sweep without a response says so, not 'with the response'", 
     CHECK(without.out.find("with the planned") == std::string::npos);
     const Run with = run(base);
     CHECK(with.out.find("Response: warning") != std::string::npos);
-    CHECK(with.out.find("(30-day dose with the response") != std::string::npos);
+    CHECK(with.out.find("; 30-day dose with the response, mGy-Eq") != std::string::npos);
     CHECK(with.out.find("planned response):") != std::string::npos);
     const Run j = run(base + " --no-response --format json");
     CHECK(nlohmann::json::parse(j.out)["response"] == false);
