@@ -35,11 +35,12 @@ double parse_phi(std::string_view text, std::string_view field) {
 
 double parse_surface_pressure(std::string_view text, std::string_view field) {
     const auto v = parse_finite(text);
-    if (!v || *v < 100.0 || *v > 2000.0) {
+    // The scenario's range (scenario.hpp); NaN fails every comparison.
+    if (!v || !(*v >= kMinSurfacePressure_Pa && *v <= kMaxSurfacePressure_Pa)) {
         throw InputError(kCommandLine, std::string(field),
                          fmt::format("'{}' is not a Martian surface pressure; allowed: a number "
-                                     "of Pa from 100 to 2000",
-                                     text));
+                                     "of Pa from {:g} to {:g}",
+                                     text, kMinSurfacePressure_Pa, kMaxSurfacePressure_Pa));
     }
     return *v;
 }

@@ -59,8 +59,8 @@ struct GcrSiteSpec {
 /// "deep-space", "moon" or "mars"; InputError naming `field` otherwise.
 [[nodiscard]] GcrSite parse_site(std::string_view text, std::string_view field);
 
-/// The Martian surface pressure from the command line: 100 to 2000 Pa; InputError naming
-/// `field` otherwise.
+/// The Martian surface pressure from the command line: kMinSurfacePressure_Pa (10) to
+/// kMaxSurfacePressure_Pa (2000) Pa, the scenario's range; InputError naming `field` otherwise.
 [[nodiscard]] double parse_surface_pressure(std::string_view text, std::string_view field);
 
 /// The modulation potential from the command line: a number of MV from kMinPhi_MV (100) to

@@ -786,7 +786,7 @@ StormSweep sweep_storm(const StormContext& ctx, Time from, Time to, time_duratio
         }
         outside_activities.emplace_back(&a, std::move(members));
         StormSweep::Eva e;
-        e.label = fmt::format("{} at {} (line {})", to_string(a.kind), a.location, a.where.line);
+        e.label = fmt::format("{} at {} ({})", to_string(a.kind), a.location, activity_origin(a));
         e.start = a.start;
         e.end = a.end;
         out.evas.push_back(e);

@@ -6,6 +6,7 @@
 #include "planner/report/gcr_chart.hpp"
 #include "planner/report/gcr_report.hpp"
 #include "planner/report/physics_report.hpp"
+#include "planner/scenario/scenario.hpp"
 #include "planner/scenario/spectrum_spec.hpp"
 
 #include "exposure/range_table.hpp"
@@ -281,9 +282,11 @@ Command add_gcr_command(CLI::App& app) {
             ->capture_default_str();
         o->pressure_option =
             gcr->add_option("--surface-pressure-Pa", gcr_pressure,
-                            "with --site mars only: surface pressure, 100 to 2000 Pa (about 600 "
-                            "at the mean datum, 750 to 900 in low-lying sites such as Gale "
-                            "crater)")
+                            fmt::format("with --site mars only: surface pressure, {:g} to {:g} "
+                                        "Pa (about 600 at the mean datum, 750 to 900 in "
+                                        "low-lying sites such as Gale crater)",
+                                        planner::kMinSurfacePressure_Pa,
+                                        planner::kMaxSurfacePressure_Pa))
                 ->capture_default_str();
         add_detector_option(gcr, o->s);
         gcr->add_option("--format,-f", format, "text (3 significant figures), json or csv")

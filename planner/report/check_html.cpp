@@ -20,6 +20,9 @@ VerdictTable check_verdict(const LedgerResult& ledger, double near_share) {
     std::size_t exceeded = 0;
     std::size_t near = 0;
     for (const auto& c : ledger.crew) {
+        for (const std::string& note : check_verdict_notes(c)) {
+            t.notes.push_back(note);
+        }
         const LimitCheck* b = binding_check(c);
         if (!b) {
             t.rows.push_back({{c.name}, {"no limit evaluated"}, {"-"}, {"-"}, {"-"}, {"-"}, {"-"}});

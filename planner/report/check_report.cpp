@@ -148,21 +148,8 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
             organ_label(b->limit.organ) + " " + b->limit.window, significant(b->dose, 3),
             unit_of(b->limit.organ), significant(b->limit.value, 3),
             fmt::format("{:.0f} %", 100.0 * b->dose / b->limit.value), on, word, reset, budget);
-        if (!c.not_evaluated.empty()) {
-            std::vector<std::string> organs;
-            for (const auto& [organ, locs] : c.not_evaluated) {
-                organs.push_back(organ_label(organ));
-            }
-            unevaluated += wrap(fmt::format("  not evaluated for {}: {} (the quick body model; "
-                                            "see below)",
-                                            c.crew, fmt::join(organs, ", ")),
-                                100, "    ");
-        }
-        for (const auto& [organ, locs] : c.estimated) {
-            unevaluated += wrap(fmt::format("  {} dose of {}: an upper bound where the quick body "
-                                            "model stands ({}; see below)",
-                                            organ, c.crew, fmt::join(locs, ", ")),
-                                100, "    ");
+        for (const std::string& note : check_verdict_notes(c)) {
+            unevaluated += wrap("  " + note, 100, "    ");
         }
     }
     std::string out;
@@ -189,6 +176,24 @@ std::string verdict_block(const LedgerResult& ledger, double near_share, bool co
 }
 
 } // namespace
+
+std::vector<std::string> check_verdict_notes(const CrewResult& c) {
+    std::vector<std::string> notes;
+    if (!c.not_evaluated.empty()) {
+        std::vector<std::string> organs;
+        for (const auto& [organ, locs] : c.not_evaluated) {
+            organs.push_back(organ_label(organ));
+        }
+        notes.push_back(fmt::format("not evaluated for {}: {} (the quick body model; see below)",
+                                    c.crew, fmt::join(organs, ", ")));
+    }
+    for (const auto& [organ, locs] : c.estimated) {
+        notes.push_back(fmt::format("{} dose of {}: an upper bound where the quick body model "
+                                    "stands ({}; see below)",
+                                    organ, c.crew, fmt::join(locs, ", ")));
+    }
+    return notes;
+}
 
 std::string budget_left_text(const CrewResult& c, LimitStatus status) {
     if (status == LimitStatus::exceeded) {
@@ -226,8 +231,23 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
         j["near_share"] = near_share;
         j["headline"] = nlohmann::json::array();
         for (const auto& c : ledger.crew) {
+            // What the text verdict says beside the row: the organs not evaluated and the
+            // doses that are only an upper bound (their locations are under "crew").
+            nlohmann::json not_evaluated = nlohmann::json::array();
+            for (const auto& [organ, where] : c.not_evaluated) {
+                not_evaluated.push_back(organ);
+            }
+            nlohmann::json bounded = nlohmann::json::array();
+            for (const auto& [organ, where] : c.estimated) {
+                bounded.push_back(organ);
+            }
             const LimitCheck* b = binding_check(c);
             if (!b) {
+                j["headline"].push_back({{"crew", c.crew},
+                                         {"organ", nullptr},
+                                         {"status", "no limit evaluated"},
+                                         {"not_evaluated", not_evaluated},
+                                         {"bounded", bounded}});
                 continue;
             }
             j["headline"].push_back(
@@ -240,7 +260,9 @@ std::string format_check_report(const Study& study, const LedgerResult& ledger, 
                  {"share_of_limit", b->dose / b->limit.value},
                  {"status", to_string(status_of(*b, near_share))},
                  {"budget_days", c.budget.binds ? nlohmann::json(c.budget.days) : nullptr},
-                 {"budget_binds", c.budget.binds ? c.budget.organ + " " + c.budget.window : ""}});
+                 {"budget_binds", c.budget.binds ? c.budget.organ + " " + c.budget.window : ""},
+                 {"not_evaluated", not_evaluated},
+                 {"bounded", bounded}});
         }
         {
             nlohmann::json g{{"phi_MV", sc.mission.gcr_phi_MV},

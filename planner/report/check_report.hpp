@@ -4,6 +4,7 @@
 #include "planner/study/ledger.hpp"
 
 #include <string>
+#include <vector>
 
 namespace crewdose::planner {
 
@@ -19,6 +20,12 @@ namespace crewdose::planner {
 /// more of the timeline's activity mix at its GCR rate until a limit binds, "none" (exceeded, or
 /// no day left) or "not bound by GCR alone".
 [[nodiscard]] std::string budget_left_text(const CrewResult& crew, LimitStatus status);
+
+/// What the verdict says beside a crew member's row, the same in text and HTML: the organs not
+/// evaluated for them ("not evaluated for b: heart, brain (...)") and the doses that are an
+/// upper bound ("effective dose of b: an upper bound where the quick body model stands
+/// (...)"); empty when every dose was computed.
+[[nodiscard]] std::vector<std::string> check_verdict_notes(const CrewResult& crew);
 
 /// Cumulative dose and dose rate against time per crew member and organ, CSV.
 [[nodiscard]] std::string format_series(const Study& study, const LedgerResult& ledger);

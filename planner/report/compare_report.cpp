@@ -136,7 +136,7 @@ std::string format_comparison(const PlanComparison& cmp, const Scenario& a, cons
         const bool both = computed(r.dose_a) && computed(r.dose_b);
         const std::string delta = both ? significant(r.change(), 3) : "-";
         const std::string share =
-            both && r.dose_a > 0.0 ? fmt::format("{:+.0f}", 100.0 * r.change() / r.dose_a) : "-";
+            both && r.dose_a > 0.0 ? signed_whole(100.0 * r.change() / r.dose_a) : "-";
         const bool status_changed = r.status_a != r.status_b;
         changed += status_changed ? 1U : 0U;
         const std::string limit = r.limit_a == r.limit_b

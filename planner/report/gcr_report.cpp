@@ -17,6 +17,7 @@
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
+#include <array>
 
 namespace crewdose::planner {
 namespace {
@@ -185,26 +186,37 @@ std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shi
     for (const auto& g : kChargeGroups) {
         head += fmt::format(" {:>7}", g.label);
     }
-    head += " |";
-    for (const auto& k : kDoseSources) {
-        head += fmt::format(
-            " {:>9}", k.substr(0, k.find(' ') == std::string_view::npos ? k.size() : k.find(' ')));
+    head += fmt::format(" {:>7} |", "rest");
+    // Each source's column as wide as its heading's first word (at least "100.0"), so that
+    // the table, the rest column included, stays within 100 columns.
+    std::array<std::size_t, kDoseSources.size()> width{};
+    for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
+        const std::string_view word = kDoseSources[k].substr(0, kDoseSources[k].find(' '));
+        width[k] = std::max<std::size_t>(word.size(), 5);
+        head += fmt::format(" {:>{}}", word, width[k]);
     }
     out += head + "\n";
     for (const auto& r : rows) {
         std::string line = fmt::format("  {:>6.4g}", r.shield_g_cm2);
+        double charged = 0.0;
         for (const double v : r.equivalent_share) {
             line += fmt::format(" {:>7.1f}", 100.0 * v);
+            charged += v;
         }
-        line += " |";
-        for (const double v : r.source_equivalent_share) {
-            line += fmt::format(" {:>9.1f}", 100.0 * v);
+        // The rest is what no charged particle crossing the point carries: the energy that
+        // reactions deposit there (neutron reactions, target fragments). It is never below
+        // zero; a rounding error of the sum is not shown as -0.0.
+        line += fmt::format(" {:>7.1f} |", 100.0 * std::max(0.0, 1.0 - charged));
+        for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
+            line += fmt::format(" {:>{}.1f}", 100.0 * r.source_equivalent_share[k], width[k]);
         }
         out += line + "\n";
     }
-    out += wrap("  (sources: primaries and their fragments; secondary protons; light ions d, t, "
-                "He-3 and secondary alphas; energy deposited by neutron reactions; target "
-                "fragments and slow light ions of proton reactions)",
+    out += wrap("  (charge: the particles of each charge crossing the point; rest: the energy "
+                "reactions deposit at the point, no charged particle crossing it; sources: "
+                "primaries and their fragments; secondary protons; light ions d, t, He-3 and "
+                "secondary alphas; energy deposited by neutron reactions; target fragments and "
+                "slow light ions of proton reactions)",
                 100, "   ");
     out += "\n" + wrap(kModelText, 92) + "\n";
     out += caution_text();

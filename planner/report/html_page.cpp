@@ -73,8 +73,12 @@ std::string html_verdict(const VerdictTable& table) {
         }
         rows += "</tr>\n";
     }
-    return fmt::format("<p class=\"verdict\">{}</p>\n<table>\n<tr>{}</tr>\n{}</table>\n{}",
-                       html_escape(table.headline), head, rows,
+    std::string notes;
+    for (const auto& n : table.notes) {
+        notes += fmt::format("<p>{}</p>\n", html_escape(n));
+    }
+    return fmt::format("<p class=\"verdict\">{}</p>\n<table>\n<tr>{}</tr>\n{}</table>\n{}{}",
+                       html_escape(table.headline), head, rows, notes,
                        table.note.empty() ? ""
                                           : fmt::format("<p>{}</p>\n", html_escape(table.note)));
 }

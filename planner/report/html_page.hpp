@@ -39,7 +39,7 @@ struct HtmlPage {
 [[nodiscard]] std::string html_escape(const std::string& text);
 
 /// The verdict as markup: the headline, the table (a status cell carries its status as its
-/// class), the note.
+/// class), the notes, the note.
 [[nodiscard]] std::string html_verdict(const VerdictTable& table);
 
 /// An SVG chart to put inside a page: its XML declaration removed, in a <div class="chart">.

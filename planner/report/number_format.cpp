@@ -25,6 +25,13 @@ std::string significant(double value, int digits) {
     return fmt::format("{:.{}f}", rounded, decimals);
 }
 
+std::string signed_whole(double value) {
+    require_finite(value, "a number to print");
+    const double rounded = std::round(value);
+    // -0.4 rounds to -0.0, which fmt prints as "-0".
+    return rounded == 0.0 ? "0" : fmt::format("{:+.0f}", rounded);
+}
+
 std::string wrap(const std::string& text, std::size_t width, const std::string& indent) {
     const std::size_t lead = text.find_first_not_of(' ');
     if (lead == std::string::npos) {

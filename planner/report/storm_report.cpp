@@ -155,16 +155,32 @@ storm_verdict_rows(const std::vector<std::pair<const StormCrew*, const Time*>>& 
     return rows;
 }
 
-// The verdict rows of `crew` (with each one's onset in a sweep); counts the exceeded and near.
-VerdictTable storm_verdict(const StormContext& ctx,
-                           const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
+// The crew of a what-if, or each crew member's worst onset of a sweep.
+std::vector<std::pair<const StormCrew*, const Time*>> verdict_crew(const StormWhatIf& w) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& c : w.crew) {
+        crew.emplace_back(&c, nullptr);
+    }
+    return crew;
+}
+
+std::vector<std::pair<const StormCrew*, const Time*>> verdict_crew(const StormSweep& s) {
+    std::vector<std::pair<const StormCrew*, const Time*>> crew;
+    for (const auto& [onset, c] : s.worst) {
+        crew.emplace_back(&c, &onset);
+    }
+    return crew;
+}
+
+// The verdict table of `rows` (with each one's onset in a sweep); counts the exceeded and near.
+VerdictTable storm_verdict(const StormContext& ctx, const std::vector<StormVerdictRow>& rows,
                            double near_share, std::size_t& exceeded, std::size_t& near) {
     const bool responds = ctx.responds();
-    const bool sweep = !crew.empty() && crew.front().second != nullptr;
+    const bool sweep = !rows.empty() && rows.front().onset != nullptr;
     // Crew members by name, or by id when a name would push the lines past 100 columns.
     bool by_name = true;
-    for (const auto& [c, onset] : crew) {
-        by_name = by_name && c->name.size() <= 16;
+    for (const StormVerdictRow& v : rows) {
+        by_name = by_name && v.crew->name.size() <= 16;
     }
     VerdictTable t;
     t.columns = {"crew member", "binding", "30-day dose / limit", "used", "status"};
@@ -176,7 +192,7 @@ VerdictTable storm_verdict(const StormContext& ctx,
     }
     exceeded = 0;
     near = 0;
-    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+    for (const StormVerdictRow& v : rows) {
         const StormCrew* c = v.crew;
         std::vector<VerdictCell> row{{by_name ? c->name : c->crew}};
         const StormOrgan* o = v.organ;
@@ -227,12 +243,11 @@ VerdictTable storm_verdict(const StormContext& ctx,
 // The verdict for JSON: the sentence, the near share and a row per crew member, the same
 // numbers the text table rounds. A dose that was not computed is null with status "exceeded".
 void add_verdict_json(nlohmann::json& j, const VerdictTable& table,
-                      const std::vector<std::pair<const StormCrew*, const Time*>>& crew,
-                      double near_share) {
+                      const std::vector<StormVerdictRow>& rows, double near_share) {
     j["verdict"] = table.headline;
     j["near_share"] = near_share;
     j["headline"] = nlohmann::json::array();
-    for (const StormVerdictRow& v : storm_verdict_rows(crew, near_share)) {
+    for (const StormVerdictRow& v : rows) {
         nlohmann::json row{{"crew", v.crew->crew}};
         if (!v.organ) {
             row["organ"] = nullptr;
@@ -258,27 +273,22 @@ std::string crew_count(std::size_t n, std::size_t of) {
     return fmt::format("{} of {} crew member{}", n, of, of == 1 ? "" : "s");
 }
 
-} // namespace
-
-VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
-                                  double near_share) {
-    std::vector<std::pair<const StormCrew*, const Time*>> crew;
-    for (const auto& c : w.crew) {
-        crew.emplace_back(&c, nullptr);
-    }
+// The what-if's verdict from its rows (storm_verdict_rows of verdict_crew(w)).
+VerdictTable whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
+                            const std::vector<StormVerdictRow>& rows, double near_share) {
     std::size_t exceeded = 0;
     std::size_t near = 0;
-    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    VerdictTable t = storm_verdict(ctx, rows, near_share, exceeded, near);
     const std::string how = w.respond ? "with the planned response"
                                       : "no response: the crew keep to the planned timeline";
     if (exceeded > 0) {
         t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED for {} in this "
                                  "what-if ({}).",
-                                 crew_count(exceeded, crew.size()), how);
+                                 crew_count(exceeded, rows.size()), how);
     } else if (near > 0) {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met in this what-if "
                                  "({}); {} near a limit.",
-                                 how, crew_count(near, crew.size()));
+                                 how, crew_count(near, rows.size()));
     } else {
         t.headline =
             fmt::format("Verdict: every 30-day planning limit is met in this what-if ({}).", how);
@@ -286,14 +296,12 @@ VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
     return t;
 }
 
-VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, double near_share) {
-    std::vector<std::pair<const StormCrew*, const Time*>> crew;
-    for (const auto& [onset, c] : s.worst) {
-        crew.emplace_back(&c, &onset);
-    }
+// The sweep's verdict from its rows (storm_verdict_rows of verdict_crew(s)).
+VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
+                           const std::vector<StormVerdictRow>& rows, double near_share) {
     std::size_t exceeded = 0;
     std::size_t near = 0;
-    VerdictTable t = storm_verdict(ctx, crew, near_share, exceeded, near);
+    VerdictTable t = storm_verdict(ctx, rows, near_share, exceeded, near);
     std::size_t no_go = 0;
     std::size_t not_swept = 0;
     for (const auto& e : s.evas) {
@@ -314,17 +322,28 @@ VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, d
     if (exceeded > 0) {
         t.headline = fmt::format("Verdict: A 30-DAY PLANNING LIMIT IS EXCEEDED at the worst onset "
                                  "for {} ({}){}.",
-                                 crew_count(exceeded, crew.size()), how, evas);
+                                 crew_count(exceeded, rows.size()), how, evas);
     } else if (near > 0) {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
                                  "tried ({}); {} near a limit at the worst onset{}.",
-                                 how, crew_count(near, crew.size()), evas);
+                                 how, crew_count(near, rows.size()), evas);
     } else {
         t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
                                  "tried ({}){}.",
                                  how, evas);
     }
     return t;
+}
+
+} // namespace
+
+VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
+                                  double near_share) {
+    return whatif_verdict(ctx, w, storm_verdict_rows(verdict_crew(w), near_share), near_share);
+}
+
+VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, double near_share) {
+    return sweep_verdict(ctx, s, storm_verdict_rows(verdict_crew(s), near_share), near_share);
 }
 
 std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
@@ -339,12 +358,12 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, O
                          {"respond", w.respond},
                          {"model", model_note(ctx)},
                          {"any_limit_exceeded", w.any_exceeded()}};
-        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& c : w.crew) {
             j["crew"].push_back(crew_json(c));
-            crew.emplace_back(&c, nullptr);
         }
-        add_verdict_json(j, storm_whatif_verdict(ctx, w, near_share), crew, near_share);
+        // One set of rows for the sentence and the headline: they cannot disagree.
+        const auto rows = storm_verdict_rows(verdict_crew(w), near_share);
+        add_verdict_json(j, whatif_verdict(ctx, w, rows, near_share), rows, near_share);
         return dump_checked(j);
     }
     if (format == OutputFormat::csv) {
@@ -433,24 +452,25 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
             {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
             {"response", ctx.responds()}};
-        std::vector<std::pair<const StormCrew*, const Time*>> crew;
         for (const auto& [onset, c] : s.worst) {
             auto cj = crew_json(c);
-            cj["worst_onset"] = format_time(onset);
+            cj["worst_onset"] = format_time_exact(onset);
             j["worst"].push_back(cj);
-            crew.emplace_back(&c, &onset);
         }
-        add_verdict_json(j, storm_sweep_verdict(ctx, s, near_share), crew, near_share);
+        // One set of rows for the sentence and the headline: they cannot disagree.
+        const auto rows = storm_verdict_rows(verdict_crew(s), near_share);
+        add_verdict_json(j, sweep_verdict(ctx, s, rows, near_share), rows, near_share);
         for (const auto& e : s.evas) {
-            j["evas"].push_back({{"activity", e.label},
-                                 {"start", format_time(e.start)},
-                                 {"end", format_time(e.end)},
-                                 {"worst_onset", e.ratio >= 0 ? format_time(e.worst_onset) : ""},
-                                 {"crew", e.crew},
-                                 {"organ", e.organ},
-                                 {"ratio_to_30d_limit", e.ratio},
-                                 {"swept", e.swept()},
-                                 {"go", e.go()}});
+            j["evas"].push_back(
+                {{"activity", e.label},
+                 {"start", format_time(e.start)},
+                 {"end", format_time(e.end)},
+                 {"worst_onset", e.ratio >= 0 ? format_time_exact(e.worst_onset) : ""},
+                 {"crew", e.crew},
+                 {"organ", e.organ},
+                 {"ratio_to_30d_limit", e.ratio},
+                 {"swept", e.swept()},
+                 {"go", e.go()}});
         }
         for (const auto& [t, r] : s.profile) {
             j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
@@ -461,10 +481,10 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     if (format == OutputFormat::csv) {
         std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
         for (const auto& e : s.evas) {
-            out += fmt::format("\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
-                               format_time(e.end), e.ratio >= 0 ? format_time(e.worst_onset) : "",
-                               e.crew, e.organ, e.ratio,
-                               !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
+            out += fmt::format(
+                "\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
+                format_time(e.end), e.ratio >= 0 ? format_time_exact(e.worst_onset) : "", e.crew,
+                e.organ, e.ratio, !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
         }
         return out;
     }
@@ -486,26 +506,70 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
     out += wrap(model_note(ctx), 96);
     out += responds ? wrap(policy_text(sc.storm), 96) + "\n"
                     : "No response (--no-response): the crew keep to the planned timeline.\n\n";
-    out += fmt::format("Worst onset per crew member (30-day dose {}, mGy-Eq):\n",
+    // The worst onset itself is the verdict's "worst t0": said once.
+    out += fmt::format("At each crew member's worst onset (the verdict's worst t0; 30-day dose {}, "
+                       "mGy-Eq):\n",
                        responds ? "with the response" : "without a response");
+    // Where the response gives an organ more of the event than the planned timeline would.
+    std::vector<std::string> adds;
+    const StormOrgan* most_saved = nullptr;
+    const StormCrew* most_saved_by = nullptr;
     for (const auto& [onset, c] : s.worst) {
         const StormOrgan* worst = nullptr;
+        std::vector<std::string> more;
         for (const auto& o : c.organs) {
             if (!worst || o.ratio() > worst->ratio()) {
                 worst = &o;
             }
+            const double saved = o.without_response_mGyEq - o.with_response_mGyEq;
+            if (saved < 0.0) {
+                more.push_back(
+                    fmt::format("{} +{} mGy-Eq", organ_label(o.organ), significant(-saved, 3)));
+            } else if (!most_saved || saved > most_saved->without_response_mGyEq -
+                                                  most_saved->with_response_mGyEq) {
+                most_saved = &o;
+                most_saved_by = &c;
+            }
+        }
+        if (!more.empty()) {
+            adds.push_back(fmt::format("{} ({})", c.name, fmt::join(more, ", ")));
         }
         if (!worst) {
             continue;
         }
-        out += wrap(fmt::format("  {} ({}): t0 {}; {} {} = {} event + {} other of {} ({:.0f} %){}",
-                                c.name, c.crew, format_time(onset), organ_label(worst->organ),
+        out += wrap(fmt::format("  {} ({}): {} {} = {} event + {} other of {} ({:.0f} %){}", c.name,
+                                c.crew, organ_label(worst->organ),
                                 significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
                                 significant(worst->with_response_mGyEq, 3),
                                 significant(worst->other_30d_mGyEq, 3),
                                 significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
                                 worst->exceeded() ? "  EXCEEDED" : ""),
                     100, "      ");
+    }
+    // Whether the response helps there, from these numbers (the sweep computes the planned
+    // timeline's dose beside the response's only at the worst onsets).
+    if (responds && !adds.empty()) {
+        out += wrap(fmt::format("  NOTE: the response adds dose at the worst onset for {} "
+                                "(with the response, more than on the planned timeline): the "
+                                "crew wait the event out somewhere less shielded than the plan "
+                                "had them (an EVA's refuge, or the place they are held until the "
+                                "all-clear); check [storm_response] and the refuges",
+                                fmt::format("{}", fmt::join(adds, "; "))),
+                    100, "    ");
+    } else if (responds && most_saved &&
+               most_saved->without_response_mGyEq == most_saved->with_response_mGyEq) {
+        out += "  At every crew member's worst onset the response leaves the event's dose as "
+               "planned.\n";
+    } else if (responds && most_saved) {
+        out += wrap(fmt::format("  At every crew member's worst onset the response lowers the "
+                                "event's dose or leaves it as planned, organ by organ; it saves "
+                                "most for {}: {} {} mGy-Eq of {} on the planned timeline.",
+                                most_saved_by->name, organ_label(most_saved->organ),
+                                significant(most_saved->without_response_mGyEq -
+                                                most_saved->with_response_mGyEq,
+                                            3),
+                                significant(most_saved->without_response_mGyEq, 3)),
+                    100, "    ");
     }
     out += "\n" + wrap(fmt::format("Go/no-go per EVA and rover drive (the design event starting at "
                                    "the worst moment of it, {}):",
@@ -520,11 +584,13 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
                         100, "        ");
             continue;
         }
+        // The onset exact to the fraction of a second of a policy breakpoint, as in the
+        // verdict: --onset reads it back to the very onset.
         out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
                                 "30-day limit",
                                 e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
-                                e.label, format_time(e.worst_onset), e.crew, organ_label(e.organ),
-                                100.0 * e.ratio),
+                                e.label, format_time_exact(e.worst_onset), e.crew,
+                                organ_label(e.organ), 100.0 * e.ratio),
                     100, "        ");
     }
     out += fmt::format("\nProfile: the highest share of a 30-day limit over the crew, per {} of "

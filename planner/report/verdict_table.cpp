@@ -40,6 +40,9 @@ std::string format_verdict_text(const VerdictTable& table) {
     for (const auto& row : table.rows) {
         out += line([&](std::size_t k) { return k < row.size() ? row[k].text : std::string(); });
     }
+    for (const auto& remark : table.notes) {
+        out += wrap("  " + remark, 100, "    ");
+    }
     if (!table.note.empty()) {
         out += wrap("  " + table.note, 100, "    ");
     }

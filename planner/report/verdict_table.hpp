@@ -24,11 +24,13 @@ struct VerdictTable {
     std::string headline;             ///< "Verdict: ..." or "Answer: ..."
     std::vector<std::string> columns; ///< the headings
     std::vector<std::vector<VerdictCell>> rows;
+    /// Remarks on single rows, each a sentence under the table ("not evaluated for b: ...").
+    std::vector<std::string> notes;
     std::string note; ///< what the columns mean (may be empty)
 };
 
 /// The table as text: the headline wrapped at 100 columns, the columns aligned (two spaces
-/// indent), the note wrapped; ends with a blank line.
+/// indent), the notes and the note wrapped; ends with a blank line.
 [[nodiscard]] std::string format_verdict_text(const VerdictTable& table);
 
 /// A dose for a verdict cell: "not computed" unless `dose` is a finite number >= 0, else the

@@ -219,6 +219,7 @@ void expand(const toml::table& r, const std::string& file, const Mission& missio
             e.origin = toml_read::Origin{
                 step.where, fmt::format(" (the instance of {} of the routine at line {})",
                                         format_time(t0), line)};
+            e.routine = ActivitySpec::RoutineInstance{t0, line};
             e.order_line = line;
             out.push_back(std::move(e));
         }

@@ -30,6 +30,8 @@ struct ActivityTable {
     /// For an instance: the line of its [[routine.activity]] entry (which every message about
     /// the activity names, here and later) and which instance it is.
     std::optional<toml_read::Origin> origin;
+    /// For an instance: its start and the line of its [[routine]] (ActivitySpec::instance).
+    std::optional<ActivitySpec::RoutineInstance> routine;
     int order_line = 0; ///< the line of the [[activity]] or [[routine]] header: file order
 
     [[nodiscard]] const toml::table& table() const { return entry ? *entry : instance; }

@@ -219,6 +219,21 @@ std::string to_string(ActivityKind kind) {
     return "?";
 }
 
+std::string activity_origin(const ActivitySpec& a) {
+    if (!a.instance) {
+        return fmt::format("line {}", a.where.line);
+    }
+    return fmt::format("line {}, instance of {}", a.where.line, format_time(a.instance->start));
+}
+
+std::string activity_origin_text(const ActivitySpec& a) {
+    if (!a.instance) {
+        return fmt::format("the activity at line {}", a.where.line);
+    }
+    return fmt::format("the activity at line {} in the instance of {} of the routine at line {}",
+                       a.where.line, format_time(a.instance->start), a.instance->routine_line);
+}
+
 std::vector<const ActivitySpec*> activities_of(const Scenario& sc, std::string_view crew_id) {
     std::vector<const ActivitySpec*> mine;
     for (const auto& a : sc.activities) {

@@ -39,6 +39,13 @@ enum class SiteKind { moon, mars, deep_space };
 inline constexpr double kMinPhi_MV = 100.0;
 inline constexpr double kMaxPhi_MV = 3000.0;
 
+/// The Martian surface pressure a scenario or a command line may give, Pa: one range for
+/// both. The floor is below the summit of Olympus Mons (about 70 Pa) and the ceiling above the
+/// floor of Hellas (about 1200 Pa, both from memory), so no site on Mars is refused, while a
+/// typical pressure typed in hPa or mbar (6 to 9) is.
+inline constexpr double kMinSurfacePressure_Pa = 10.0;
+inline constexpr double kMaxSurfacePressure_Pa = 2000.0;
+
 /// Why `phi_MV` is not a plausible modulation potential, or nullopt when it is: the allowed
 /// range and, for a value that reads as GV, the value in MV ("0.45 looks like GV; give 450").
 /// `as_typed` is how the value is named in the message (the number, or the option's text).
@@ -208,7 +215,22 @@ struct ActivitySpec {
     /// Heliocentric distance during the activity, AU, at its start and end (interpolated);
     /// without it, see build_sun_distance_tracks.
     std::optional<std::pair<double, double>> sun_distance_AU;
+    /// An activity of a [[routine]]: the start of its instance and the line of the routine
+    /// (`where` is the line of its [[routine.activity]] entry); nullopt for an [[activity]].
+    struct RoutineInstance {
+        Time start;
+        int routine_line = 0;
+    };
+    std::optional<RoutineInstance> instance;
 };
+
+/// Where an activity was written, for reports: "line 80", or for an activity of a routine
+/// "line 84, instance of 2035-06-10T09:00:00Z" (the rule's line and the instance), so that
+/// each instance is told apart from the others.
+[[nodiscard]] std::string activity_origin(const ActivitySpec& a);
+/// The same for messages: "the activity at line 80", or "the activity at line 84 in the
+/// instance of 2035-06-10T09:00:00Z of the routine at line 80".
+[[nodiscard]] std::string activity_origin_text(const ActivitySpec& a);
 
 /// What the crew do when a storm warning comes ([storm_response]): the policy of the storm
 /// what-ifs. Times after the flare is seen at the site (t0).

@@ -303,7 +303,8 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             }
         }
         if (m.has("surface_pressure_Pa")) {
-            sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", 10.0, 2000.0, "Pa");
+            sc.mission.surface_pressure_Pa = m.within("surface_pressure_Pa", kMinSurfacePressure_Pa,
+                                                      kMaxSurfacePressure_Pa, "Pa");
         }
         if (m.has("scale_height_km")) {
             sc.mission.scale_height_km = m.within("scale_height_km", 5.0, 30.0, "km");
@@ -723,6 +724,7 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         const Section s(e.table(), file, e.name, activity_keys, e.origin);
         ActivitySpec a;
         a.where = s.where();
+        a.instance = e.routine;
         a.crew = s.strings("crew");
         if (a.crew.empty()) {
             s.fail("crew", "names no crew member; give a crew id or a list of ids");
@@ -935,14 +937,22 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         for (std::size_t i = 1; i < mine.size(); ++i) {
             if (mine[i]->start < mine[i - 1]->end) {
+                // An activity of a routine starts where its `at` puts it in its instance: the
+                // message names that key, the rule's line and the instance, as the routine's
+                // other messages do.
+                const auto& routine = mine[i]->instance;
                 throw InputError(
-                    mine[i]->where, "activity.start",
-                    fmt::format("crew member '{}' is already busy until {} (the "
-                                "activity at line {}, from {}) when this one "
-                                "starts at {}; activities of one crew member must "
-                                "not overlap",
-                                c.id, format_time(mine[i - 1]->end), mine[i - 1]->where.line,
-                                format_time(mine[i - 1]->start), format_time(mine[i]->start)));
+                    mine[i]->where, routine ? "routine.activity.at" : "activity.start",
+                    fmt::format(
+                        "crew member '{}' is already busy until {} ({}, from {}) when "
+                        "this one starts at {}; activities of one crew member must not "
+                        "overlap{}",
+                        c.id, format_time(mine[i - 1]->end), activity_origin_text(*mine[i - 1]),
+                        format_time(mine[i - 1]->start), format_time(mine[i]->start),
+                        routine ? fmt::format(" (the instance of {} of the routine at "
+                                              "line {})",
+                                              format_time(routine->start), routine->routine_line)
+                                : std::string()));
             }
         }
     }

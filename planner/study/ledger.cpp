@@ -185,7 +185,8 @@ std::vector<TimelineSpan> crew_timeline(const Scenario& sc, const CrewSpec& crew
     for (const ActivitySpec* a : activities_of(sc, crew.id)) {
         spans.push_back(
             {a->start, a->end, a->location,
-             fmt::format("{} at {} (line {})", to_string(a->kind), a->location, a->where.line), a});
+             fmt::format("{} at {} ({})", to_string(a->kind), a->location, activity_origin(*a)),
+             a});
     }
     if (spans.empty()) {
         throw InputError(crew.where, "crew",

@@ -3,6 +3,7 @@
 #include "fixture.hpp"
 
 #include "planner/analyses/compare.hpp"
+#include "planner/report/compare_html.hpp"
 #include "planner/report/compare_report.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
@@ -11,6 +12,9 @@
 
 #include <algorithm>
 #include <limits>
+#include <regex>
+#include <string>
+#include <utility>
 
 using namespace crewdose;
 using namespace crewdose::planner;
@@ -85,4 +89,43 @@ TEST_CASE("compare: a dose that was not computed is never printed as a number", 
     CHECK(text.find("nan") == std::string::npos);
     CHECK_THROWS(format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::json));
     CHECK_THROWS(format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::csv));
+}
+
+TEST_CASE("compare: a change that rounds to nothing is never printed as a negative zero",
+          "[compare]") {
+    // Found in a new-user trial: a dose 0.2 % lower printed "-0" in the % column. By
+    // construction: B is A with every dose 0.2 % lower, a change of -0.2 % (0 in whole per
+    // cent) on every row with a dose.
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    const LedgerResult a = build_ledger(study);
+    LedgerResult b = a;
+    bool lowered = false;
+    for (auto& c : b.crew) {
+        for (auto& check : c.checks) {
+            check.dose *= 0.998;
+            lowered = lowered || check.dose > 0.0;
+        }
+    }
+    REQUIRE(lowered); // some row changes, so the test can see a sign
+    const PlanComparison cmp = compare_plans(a, b);
+    // A minus sign before a zero that no other digit follows: "-0", "-0.0", "-0 %".
+    const std::regex negative_zero(R"((^|[^0-9.eE])-0(\.0*)?(?![0-9.]))");
+    const HtmlAbout about{{"tool", "crewdose test"}};
+    for (const auto& [what, out] :
+         {std::pair{"text",
+                    format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text)},
+          std::pair{"json",
+                    format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::json)},
+          std::pair{"csv",
+                    format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::csv)},
+          std::pair{"html",
+                    format_comparison_html(cmp, study.scenario(), study.scenario(), about)}}) {
+        INFO(what << ":\n" << out);
+        std::smatch m;
+        CHECK_FALSE(std::regex_search(out, m, negative_zero));
+    }
+    // The change itself keeps its sign (B - A is negative, not rounded away).
+    const std::string text =
+        format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
+    CHECK(std::regex_search(text, std::regex(R"( -[0-9.]*[1-9][0-9.]* +0 )")));
 }

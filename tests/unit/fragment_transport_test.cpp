@@ -16,6 +16,7 @@
 #include <catch2/catch.hpp>
 
 #include <cmath>
+#include <map>
 #include <string>
 #include <utility>
 #include <vector>
@@ -59,6 +60,42 @@ DoseQuantities exact_primaries(TableLibrary& tables, const Path& path, const Mat
     }
     return total;
 }
+
+// The quick body model's GCR doses at a location, as the study computes them: one table
+// library, the march with nuclear reactions (`with_reactions` its options) and the march
+// without any, built-in materials by id.
+class QuickModelGcr {
+  public:
+    explicit QuickModelGcr(const MarchOptions& with_reactions)
+        : tables_(crewdose::planner::gcr_grid()), with_(tables_, with_reactions),
+          without_(tables_, no_reactions()) {}
+
+    QuickModelGcr(const QuickModelGcr&) = delete; // the marches hold the library's address
+    QuickModelGcr& operator=(const QuickModelGcr&) = delete;
+
+    // gcr_quick_model_doses at `where` over `dirs` for each phi (MV) of `phis`.
+    std::map<std::pair<std::string, double>, BracketedDose>
+    doses(const crewdose::planner::LocationGeometry& where,
+          const std::vector<crewdose::habitats::Vector3>& dirs, const std::vector<double>& phis) {
+        const crewdose::planner::GcrMarches marches{with_, without_};
+        const crewdose::planner::MaterialResolver materials =
+            [](const std::string& id) -> const Material& {
+            return builtin(id.c_str());
+        };
+        return crewdose::planner::gcr_quick_model_doses(marches, materials, where, dirs, phis);
+    }
+
+  private:
+    static MarchOptions no_reactions() {
+        MarchOptions none;
+        none.removal = false;
+        return none;
+    }
+
+    TableLibrary tables_;
+    FragmentTransport with_;
+    FragmentTransport without_;
+};
 
 } // namespace
 
@@ -338,23 +375,12 @@ TEST_CASE("GCR mean quality factor behind 1 g/cm2 aluminium at solar minimum",
 
 TEST_CASE("a phi given twice is counted once", "[fragmentation]") {
     // By construction: the organ doses for {400, 400} equal those for {400}.
-    TableLibrary tables(crewdose::planner::gcr_grid());
-    FragmentTransport with_reactions(tables);
-    MarchOptions none;
-    none.removal = false;
-    FragmentTransport without_reactions(tables, none);
-    const crewdose::planner::GcrMarches marches{with_reactions, without_reactions};
-    const crewdose::planner::MaterialResolver materials =
-        [](const std::string& id) -> const Material& {
-        return builtin(id.c_str());
-    };
+    QuickModelGcr gcr{MarchOptions{}};
     crewdose::planner::LocationGeometry where;
     where.shell = {{"aluminium", 5.0}};
     const auto dirs = crewdose::habitats::fibonacci_directions(16);
-    const std::vector<double> once{400.0};
-    const std::vector<double> twice{400.0, 400.0};
-    const auto a = crewdose::planner::gcr_quick_model_doses(marches, materials, where, dirs, once);
-    const auto b = crewdose::planner::gcr_quick_model_doses(marches, materials, where, dirs, twice);
+    const auto a = gcr.doses(where, dirs, {400.0});
+    const auto b = gcr.doses(where, dirs, {400.0, 400.0});
     REQUIRE(a.size() == b.size());
     for (const auto& [key, d] : a) {
         CHECK(b.at(key).with_removal.dose_equivalent_Sv == d.with_removal.dose_equivalent_Sv);
@@ -365,26 +391,14 @@ TEST_CASE("a phi given twice is counted once", "[fragmentation]") {
 TEST_CASE("phi values marched together equal each marched alone bit for bit", "[fragmentation]") {
     // The fields cross each layer one after another and share its step map: every number
     // must be the one a march of that field alone gives.
-    TableLibrary tables(crewdose::planner::gcr_grid());
-    FragmentTransport with_reactions(tables, crewdose::planner::gcr_march_options());
-    MarchOptions none;
-    none.removal = false;
-    FragmentTransport without_reactions(tables, none);
-    const crewdose::planner::GcrMarches marches{with_reactions, without_reactions};
-    const crewdose::planner::MaterialResolver materials =
-        [](const std::string& id) -> const Material& {
-        return builtin(id.c_str());
-    };
+    QuickModelGcr gcr{crewdose::planner::gcr_march_options()};
     crewdose::planner::LocationGeometry where;
     where.shell = {{"aluminium", 5.0}, {"polyethylene", 5.0}}; // one step length, two maps
     const auto dirs = crewdose::habitats::fibonacci_directions(12);
     const std::vector<double> both{400.0, 900.0};
-    const auto together =
-        crewdose::planner::gcr_quick_model_doses(marches, materials, where, dirs, both);
+    const auto together = gcr.doses(where, dirs, both);
     for (const double phi : both) {
-        const std::vector<double> one{phi};
-        const auto alone =
-            crewdose::planner::gcr_quick_model_doses(marches, materials, where, dirs, one);
+        const auto alone = gcr.doses(where, dirs, {phi});
         REQUIRE(!alone.empty());
         for (const auto& [key, d] : alone) {
             const auto& t = together.at(key);

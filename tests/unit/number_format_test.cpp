@@ -2,6 +2,7 @@
 
 #include <catch2/catch.hpp>
 
+using crewdose::planner::signed_whole;
 using crewdose::planner::significant;
 
 TEST_CASE("significant figures for text reports", "[format]") {
@@ -13,4 +14,15 @@ TEST_CASE("significant figures for text reports", "[format]") {
     CHECK(significant(12345678.0, 3) == "1.23e+07");
     CHECK(significant(0.000123, 3) == "1.23e-04");
     CHECK(significant(0.0, 3) == "0");
+}
+
+TEST_CASE("a change in whole numbers keeps its sign and has no negative zero", "[format]") {
+    // By construction of the rule in number_format.hpp.
+    CHECK(signed_whole(3.4) == "+3");
+    CHECK(signed_whole(-12.6) == "-13");
+    CHECK(signed_whole(-0.4) == "0");
+    CHECK(signed_whole(0.4) == "0");
+    CHECK(signed_whole(-0.0) == "0");
+    CHECK(significant(-0.0, 3) == "0");
+    CHECK(significant(-0.0004, 3) == "-4.00e-04");
 }

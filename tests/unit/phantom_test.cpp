@@ -5,10 +5,12 @@
 #include "fixture.hpp"
 #include "phantom_helpers.hpp"
 #include "planner/analyses/shelter.hpp"
+#include "planner/report/check_html.hpp"
 #include "planner/report/check_report.hpp"
 #include "planner/report/shelter_report.hpp"
 
 #include <catch2/catch.hpp>
+#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
@@ -391,6 +393,36 @@ TEST_CASE("phantom: the check CSV says which doses are bounded and which are not
     CHECK(a_computed == a_rows);
     CHECK(b_bound);
     CHECK(b_missing == std::set<std::string>{"heart", "brain"});
+}
+
+TEST_CASE("phantom: the JSON headline and the HTML verdict say what is bounded and not evaluated",
+          "[phantom][ledger]") {
+    // Found in a new-user trial: the text verdict says that b's effective dose is an upper bound
+    // and that b's heart and brain are not evaluated, the JSON headline and the HTML verdict did
+    // not. By construction (tests/fixtures/scenarios/phantom-mixed.toml): b spends time at the
+    // quick location "other", a never does.
+    const planner::Study study(planner::parse_scenario(kMixed, "mixed.toml"));
+    const planner::LedgerResult ledger = planner::build_ledger(study);
+    const auto json = nlohmann::json::parse(
+        planner::format_check_report(study, ledger, planner::OutputFormat::json, false, 0.9));
+    const auto& headline = json.at("headline");
+    REQUIRE(headline.size() == 2);
+    CHECK(headline[0].at("crew") == "a");
+    CHECK(headline[0].at("not_evaluated") == nlohmann::json::array());
+    CHECK(headline[0].at("bounded") == nlohmann::json::array());
+    CHECK(headline[1].at("crew") == "b");
+    CHECK(headline[1].at("not_evaluated") == nlohmann::json({"brain", "heart"}));
+    CHECK(headline[1].at("bounded") == nlohmann::json({"effective"}));
+    // The HTML verdict section itself (the page also holds the whole text report below it).
+    const std::string page = planner::format_check_html(study, ledger, 0.9, {});
+    const auto from = page.find("<h2>Verdict</h2>");
+    REQUIRE(from != std::string::npos);
+    const std::string verdict = page.substr(from, page.find("<h2>", from + 1) - from);
+    INFO(verdict);
+    CHECK(verdict.find("not evaluated for b: brain, heart") != std::string::npos);
+    CHECK(verdict.find("effective dose of b: an upper bound where the quick body model stands "
+                       "(other") != std::string::npos);
+    CHECK(verdict.find("for a:") == std::string::npos);
 }
 
 TEST_CASE("phantom: a shelter names the organs it cannot target and why, never drops them",

@@ -16,6 +16,7 @@
 
 #include <algorithm>
 #include <cstddef>
+#include <set>
 #include <string>
 
 using namespace crewdose;
@@ -166,6 +167,37 @@ TEST_CASE("a repeated block expands to exactly the activities written out, with 
     CHECK(event_dose); // the event meets the EVA of day 5: the comparison sees its dose
 }
 
+TEST_CASE("each instance of a routine's activity is named by the rule's line and its date",
+          "[routine]") {
+    // Found in code review: the check's contributors named every instance of a routine's
+    // activity by the same line, so two instances could not be told apart. By construction:
+    // the EVA of the instance of 2032-01-05 meets the event; every contributor's name is its
+    // own.
+    const std::string with_rule = plan(kRoutine);
+    const LedgerResult ledger = build_ledger(Study(parse_scenario(with_rule, "plan.toml")));
+    const int eva = line_of(with_rule, "kind = \"eva\"") - 1;
+    for (const auto& c : ledger.crew) {
+        INFO(c.crew);
+        std::set<std::string> names;
+        for (const auto& [name, dose] : c.contributors) {
+            INFO(name);
+            CHECK(names.insert(name).second);
+        }
+        CHECK(names.count(fmt::format("SPE spe during eva at outside (line {}, instance of "
+                                      "2032-01-05T00:00:00Z)",
+                                      eva)) == 1);
+        CHECK(names.count(fmt::format("GCR during eva at outside (line {}, instance of "
+                                      "2032-01-01T00:00:00Z)",
+                                      eva)) == 1);
+    }
+    // An [[activity]] entry keeps its line alone.
+    const LedgerResult plain =
+        build_ledger(Study(parse_scenario(plan(written_out(0, 5)), "plan.toml")));
+    for (const auto& [name, dose] : plain.crew.at(0).contributors) {
+        CHECK(name.find("instance") == std::string::npos);
+    }
+}
+
 TEST_CASE("except leaves instances out, until ends a routine part way through its block",
           "[routine]") {
     // Blocks 1 and 3 are left out and written out instead; the routine stops at day 9's end of
@@ -247,12 +279,39 @@ location = "cabin"
 start = 2032-01-05T12:00:00Z
 end = 2032-01-05T13:00:00Z
 )";
+        // The one-off activity starts inside the instance's EVA: the error is the one-off's,
+        // and names the EVA by its rule's line and its instance.
         expect(text,
                fmt::format("plan.toml:{}: activity.start: crew member 'b' is already busy "
-                           "until 2032-01-05T15:00:00Z (the activity at line {}, from "
+                           "until 2032-01-05T15:00:00Z (the activity at line {} in the instance "
+                           "of 2032-01-05T00:00:00Z of the routine at line {}, from "
                            "2032-01-05T10:00:00Z) when this one starts at 2032-01-05T12:00:00Z",
                            line_of(text, "kind = \"shelter\"") - 2,
-                           line_of(text, "kind = \"eva\"") - 1));
+                           line_of(text, "kind = \"eva\"") - 1, rule));
+    }
+    SECTION("one instance starting inside a one-off activity") {
+        // Found in code review: the instance's error named activity.start, a key the routine
+        // does not have. A one-off shelter stay written before the routine starts with the EVA
+        // of the instance of the 5th (10:00) and runs to 10:30: the EVA is the activity that
+        // starts while crew member b is busy, and the error names the rule's key and line and
+        // the instance.
+        const std::string text = plan(R"([[activity]]
+crew = "b"
+kind = "shelter"
+location = "cabin"
+start = 2032-01-05T10:00:00Z
+end = 2032-01-05T10:30:00Z
+
+)" + kRoutine);
+        expect(text,
+               fmt::format("plan.toml:{}: routine.activity.at: crew member 'b' is already busy "
+                           "until 2032-01-05T10:30:00Z (the activity at line {}, from "
+                           "2032-01-05T10:00:00Z) when this one starts at 2032-01-05T10:00:00Z; "
+                           "activities of one crew member must not overlap (the instance of "
+                           "2032-01-05T00:00:00Z of the routine at line {})",
+                           line_of(text, "kind = \"eva\"") - 1,
+                           line_of(text, "kind = \"shelter\"") - 2,
+                           line_of(text, "\n[[routine]]") + 1));
     }
     SECTION("the activities themselves, checked as [[activity]] entries are, per instance") {
         const std::string text = replace(base, "location = \"outside\"", "location = \"moon\"");

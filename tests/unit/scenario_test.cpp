@@ -223,3 +223,33 @@ TEST_CASE("GCR modulation: a constant, dated phases, and their errors", "[scenar
     expect(replace(kBase, "directions = 16", "directions = 16\ngcr_directions = 2.5"),
            "mission.gcr_directions: must be a whole number from 16 to 65536");
 }
+
+TEST_CASE("the Martian surface pressure: one range for the scenario and gcr, tried at both edges",
+          "[scenario]") {
+    // Found in a new-user trial: `gcr --help` said 100 to 2000 Pa and refused 50 Pa, the
+    // scenario took 10 to 2000 Pa. By construction the one range, 10 to 2000 Pa, at its edges.
+    const std::string mars = replace(kBase, "site = \"moon\"", "site = \"mars\"");
+    const auto with_pressure = [&](const std::string& value) {
+        return replace(mars, "directions = 16", "directions = 16\nsurface_pressure_Pa = " + value);
+    };
+    for (const std::string edge : {"10.0", "2000.0"}) {
+        INFO(edge);
+        CHECK(parse_scenario(with_pressure(edge), "plan.toml").mission.surface_pressure_Pa ==
+              std::stod(edge));
+        CHECK(parse_surface_pressure(edge, "--surface-pressure-Pa") == std::stod(edge));
+    }
+    for (const std::string outside : {"9.99", "2000.01"}) {
+        INFO(outside);
+        expect(with_pressure(outside), "plan.toml:7: mission.surface_pressure_Pa: " + outside +
+                                           " is outside the allowed range 10 to 2000 Pa");
+        try {
+            (void)parse_surface_pressure(outside, "--surface-pressure-Pa");
+            FAIL("--surface-pressure-Pa " << outside << " was accepted");
+        } catch (const InputError& e) {
+            CHECK(std::string(e.what()) ==
+                  "command line: --surface-pressure-Pa: '" + outside +
+                      "' is not a Martian surface pressure; allowed: a number of Pa from 10 to "
+                      "2000");
+        }
+    }
+}

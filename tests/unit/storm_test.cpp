@@ -2,6 +2,7 @@
 // rate-based all-clear, and the sweep on the lunar demo.
 #include "fixture.hpp"
 #include "planner/analyses/storm.hpp"
+#include "planner/report/number_format.hpp"
 #include "planner/report/storm_report.hpp"
 
 #include "exposure/arrival.hpp"
@@ -12,8 +13,10 @@
 #include <fmt/format.h>
 #include <nlohmann/json.hpp>
 
+#include <algorithm>
 #include <cmath>
 #include <cstdlib>
+#include <regex>
 
 using namespace crewdose;
 using namespace crewdose::planner;
@@ -700,6 +703,103 @@ all_clear_h = 30
     const StormContext usual_ctx(usual, "spe", true);
     CHECK(format_storm_whatif(usual_ctx, usual_ctx.at(onset), OutputFormat::text)
               .find("NOTE: the response") == std::string::npos);
+}
+
+TEST_CASE("storm: a sweep's text gives each worst onset once, in one format", "[storm]") {
+    // Found in a new-user trial: the worst onset stood in the verdict (to the fraction of a
+    // second a policy breakpoint may have), again in the list of worst onsets (cut to the
+    // second) and the EVA's in the go/no-go list (cut to the second). By construction: each
+    // crew member's worst onset is given once before the go/no-go list, and every onset printed
+    // reads back to itself, whole seconds or not.
+    const Study study(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    const StormSweep s = sweep_storm(ctx, parse_command_time("2032-01-03T06:00:00Z", "--from"),
+                                     parse_command_time("2032-01-03T16:00:00Z", "--to"),
+                                     boost::posix_time::hours(1));
+    // The text with its wrapped lines joined again.
+    const std::string text =
+        std::regex_replace(format_storm_sweep(ctx, s, OutputFormat::text), std::regex("\n +"), " ");
+    INFO(text);
+    const std::string before_go = text.substr(0, text.find("Go/no-go"));
+    const auto count = [](const std::string& in, const std::string& what) {
+        std::size_t n = 0;
+        for (auto at = in.find(what); at != std::string::npos; at = in.find(what, at + 1)) {
+            ++n;
+        }
+        return n;
+    };
+    REQUIRE(s.worst.size() == 1);
+    const Time worst = s.worst[0].first;
+    CHECK(count(before_go, format_time_exact(worst)) == 1);
+    if (format_time(worst) != format_time_exact(worst)) {
+        CHECK(count(text, format_time(worst)) == 0); // never cut to the second
+    }
+    REQUIRE(!s.evas.empty());
+    for (const auto& e : s.evas) {
+        REQUIRE(e.swept());
+        CHECK(count(text, "worst t0 " + format_time_exact(e.worst_onset)) == 1);
+        // What is printed is the onset itself.
+        CHECK(parse_command_time(format_time_exact(e.worst_onset), "--onset") == e.worst_onset);
+    }
+}
+
+TEST_CASE("storm: a sweep says whether the response adds dose at the worst onsets", "[storm]") {
+    // Found in a new-user trial: the sweep's text never said when the response gives more dose
+    // than keeping to the plan. By construction, as above: crew a stays in the heavy shelter
+    // all along and the policy sends them to the thin cabin; the usual plan sends them from
+    // the cabin to the shelter and saves dose.
+    const std::string in_shelter = R"([[activity]]
+crew = "a"
+kind = "stay"
+location = "shelter"
+start = 2032-01-01T00:00:00Z
+end = 2032-01-11T00:00:00Z
+)";
+    const std::string to_cabin = R"([storm_response]
+shelter = "cabin"
+warning_delay_min = 0
+move_to_shelter_min = 0
+all_clear_h = 30
+)";
+    const Time from = parse_command_time("2032-01-02T18:00:00Z", "--from");
+    const Time to = parse_command_time("2032-01-02T22:00:00Z", "--to");
+    {
+        const Study study(parse_scenario(plan(in_shelter, to_cabin), "storm.toml"));
+        const StormContext respond(study, "spe", true);
+        const StormSweep s = sweep_storm(respond, from, to, boost::posix_time::hours(1));
+        REQUIRE(s.worst.size() == 1);
+        const auto& organs = s.worst[0].second.organs;
+        const auto bfo = std::find_if(organs.begin(), organs.end(),
+                                      [](const StormOrgan& o) { return o.organ == "bfo"; });
+        REQUIRE(bfo != organs.end());
+        REQUIRE(bfo->with_response_mGyEq > bfo->without_response_mGyEq); // the construction holds
+        // The text with its wrapped lines joined again.
+        const std::string text = std::regex_replace(
+            format_storm_sweep(respond, s, OutputFormat::text), std::regex("\n +"), " ");
+        INFO(text);
+        CHECK(text.find("NOTE: the response adds dose at the worst onset for a (") !=
+              std::string::npos);
+        CHECK(text.find(fmt::format("BFO +{} mGy-Eq", significant(bfo->with_response_mGyEq -
+                                                                      bfo->without_response_mGyEq,
+                                                                  3))) != std::string::npos);
+        CHECK(text.find("the response lowers") == std::string::npos);
+        // Without a response there is nothing to compare.
+        const StormContext none(study, "spe", false);
+        const std::string plain = format_storm_sweep(
+            none, sweep_storm(none, from, to, boost::posix_time::hours(1)), OutputFormat::text);
+        CHECK(plain.find("NOTE: the response") == std::string::npos);
+        CHECK(plain.find("the response lowers") == std::string::npos);
+    }
+    const Study usual(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(usual, "spe", true);
+    const std::string text = std::regex_replace(
+        format_storm_sweep(ctx, sweep_storm(ctx, from, to, boost::posix_time::hours(1)),
+                           OutputFormat::text),
+        std::regex("\n +"), " ");
+    INFO(text);
+    CHECK(text.find("NOTE: the response adds dose") == std::string::npos);
+    CHECK(text.find("At every crew member's worst onset the response lowers the event's dose") !=
+          std::string::npos);
 }
 
 TEST_CASE("storm: the sweep profile's bins widen so that a long sweep stays a page long",
