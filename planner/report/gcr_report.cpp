@@ -1,6 +1,7 @@
 #include "planner/report/gcr_report.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/scenario/input_error.hpp"
 #include "planner/scenario/number_parse.hpp"
@@ -21,12 +22,6 @@
 
 namespace crewdose::planner {
 namespace {
-
-nlohmann::json dose_json(const exposure::DoseQuantities& d, double scale) {
-    return {{"absorbed_mGy", 1e3 * scale * d.absorbed_Gy},
-            {"dose_equivalent_mSv", 1e3 * scale * d.dose_equivalent_Sv},
-            {"rbe_weighted_mGyEq", 1e3 * scale * d.rbe_weighted_GyEq}};
-}
 
 double mean_q(const exposure::DoseQuantities& d) {
     return d.absorbed_Gy > 0.0 ? d.dose_equivalent_Sv / d.absorbed_Gy : 0.0;
@@ -69,158 +64,219 @@ std::string site_text(const GcrSiteSpec& site) {
     return "in deep space";
 }
 
+report::Document gcr_depth_document(double phi_MV, const exposure::Material& shield,
+                                    const TissueDepth& tissue, const std::vector<GcrDepthRow>& rows,
+                                    bool per_year, const GcrSiteSpec& site,
+                                    const exposure::Material& detector) {
+    using report::Field;
+    const double days = per_year ? kDaysPerYear : 1.0;
+    const std::string per = per_year ? "year" : "day";
+    const std::string unit = per_year ? "yr" : "d";
+    report::Document doc;
+    std::vector<Field> top{{"phi_MV", phi_MV},
+                           {"shield_material", shield.id()},
+                           {"tissue_depth_g_cm2", tissue.g_cm2},
+                           {"tissue", std::string("soft-tissue")},
+                           {"detector", detector.id()},
+                           {"per", per},
+                           {"site", std::string(site.kind == GcrSite::deep_space ? "deep-space"
+                                                : site.kind == GcrSite::moon     ? "moon"
+                                                                                 : "mars")},
+                           {"geometry", "shell-equivalent: every open direction sees the shield, "
+                                        "then the tissue; " +
+                                            site_text(site)}};
+    if (site.kind == GcrSite::mars) {
+        top.push_back({"surface_pressure_Pa", site.surface_pressure_Pa});
+    }
+    doc.group({"", std::move(top)});
+    doc.text("GCR dose rate behind {} ({}) at {}, phi = {} MV{}",
+             {Field{"shield", shield.id()}, Field{"name", shield.name()},
+              Field{"tissue", tissue.label}, Field{"phi", phi_MV, 6},
+              Field{"scored", detector.id() == "soft-tissue" ? std::string()
+                                                             : ", scored in " + detector.id()}},
+             100, "  ");
+    doc.text("geometry: shell-equivalent (the isotropic field through the same thickness in "
+             "every open direction: the dose at the centre of a spherical shell), " +
+                 site_text(site),
+             {}, 92);
+    doc.blank();
+
+    // The dose per day (or year) in mGy, mSv, mGy-Eq: the model's Gy per day times 1e3 days.
+    const double to_milli = 1e3 * days;
+    auto dose_object = [&](const exposure::DoseQuantities& d) {
+        return report::Object{
+            {{"absorbed_mGy", d.absorbed_Gy, 4, report::Rounding::general, to_milli},
+             {"dose_equivalent_mSv", d.dose_equivalent_Sv, 4, report::Rounding::general, to_milli},
+             {"rbe_weighted_mGyEq", d.rbe_weighted_GyEq, 4, report::Rounding::general, to_milli}}};
+    };
+    auto shares = [](const auto& labels, const auto& values) {
+        report::Object o;
+        for (std::size_t g = 0; g < values.size(); ++g) {
+            o.fields.push_back({std::string(labels(g)), values[g]});
+        }
+        return o;
+    };
+    auto group_label = [](std::size_t g) {
+        return kChargeGroups[g].label;
+    };
+    auto source_label = [](std::size_t k) {
+        return kDoseSources[k];
+    };
+    auto csv_label = [](std::string_view k) {
+        std::string label(k);
+        std::replace(label.begin(), label.end(), ' ', '_');
+        return label;
+    };
+
+    auto col = [](std::string key, std::string header, std::string unit_line, int width,
+                  double scale) {
+        report::Column c;
+        c.key = std::move(key);
+        c.header = std::move(header);
+        c.unit = std::move(unit_line);
+        c.min_width = width;
+        c.scale = scale;
+        c.digits = 3;
+        c.in_json = false;
+        return c;
+    };
+    auto json_only = [](std::string key) {
+        report::Column c;
+        c.key = std::move(key);
+        c.in_text = false;
+        c.in_csv = false;
+        return c;
+    };
+    report::Table t;
+    t.key = "rows";
+    t.is_csv = true;
+    auto shield_col = col("shield_g_cm2", "shield", "g/cm2", 8, 1.0);
+    shield_col.rounding = report::Rounding::general;
+    shield_col.digits = 4;
+    shield_col.in_json = true;
+    auto q_col = col("mean_quality_factor", "mean", "Q", 5, 1.0);
+    q_col.rounding = report::Rounding::fixed;
+    q_col.digits = 2;
+    q_col.csv_digits = 6;
+    q_col.in_json = true;
+    t.columns = {
+        shield_col,
+        col("absorbed_mGy_per_" + per, "absorbed", "mGy/" + unit, 10, to_milli),
+        col("dose_equivalent_mSv_per_" + per, "dose equiv.", "mSv/" + unit, 11, to_milli),
+        col("rbe_weighted_mGyEq_per_" + per, "RBE-weighted", "mGy-Eq/" + unit, 12, to_milli),
+        q_col,
+        col("dose_equivalent_without_reactions_mSv_per_" + per, "dose eq.", "no react.", 10,
+            to_milli),
+        col("dose_equivalent_primaries_only_mSv_per_" + per, "dose eq.", "prim.", 10, to_milli)};
+    for (const auto& g : kChargeGroups) {
+        auto c = col(fmt::format("equivalent_share_{}", g.label), "", "", 0, 1.0);
+        c.in_text = false;
+        c.csv_digits = 6;
+        t.columns.push_back(c);
+    }
+    for (const auto& k : kDoseSources) {
+        auto c = col(fmt::format("equivalent_share_{}", csv_label(k)), "", "", 0, 1.0);
+        c.in_text = false;
+        c.csv_digits = 6;
+        t.columns.push_back(c);
+    }
+    for (const char* key :
+         {"dose", "dose_without_reactions", "dose_primaries_only", "absorbed_share",
+          "dose_equivalent_share", "absorbed_share_by_source", "dose_equivalent_share_by_source"}) {
+        t.columns.push_back(json_only(key));
+    }
+    for (const auto& r : rows) {
+        std::vector<report::Value> row{r.shield_g_cm2,
+                                       r.per_day.absorbed_Gy,
+                                       r.per_day.dose_equivalent_Sv,
+                                       r.per_day.rbe_weighted_GyEq,
+                                       mean_q(r.per_day),
+                                       r.per_day_without_reactions.dose_equivalent_Sv,
+                                       r.per_day_primaries.dose_equivalent_Sv};
+        row.insert(row.end(), r.equivalent_share.begin(), r.equivalent_share.end());
+        row.insert(row.end(), r.source_equivalent_share.begin(), r.source_equivalent_share.end());
+        row.emplace_back(dose_object(r.per_day));
+        row.emplace_back(dose_object(r.per_day_without_reactions));
+        row.emplace_back(dose_object(r.per_day_primaries));
+        row.emplace_back(shares(group_label, r.absorbed_share));
+        row.emplace_back(shares(group_label, r.equivalent_share));
+        row.emplace_back(shares(source_label, r.source_absorbed_share));
+        row.emplace_back(shares(source_label, r.source_equivalent_share));
+        t.rows.push_back(std::move(row));
+    }
+    doc.table(std::move(t));
+    doc.blank();
+
+    // The shares in %, text only (JSON and CSV carry them as fractions above).
+    report::Table s;
+    s.key = "shares";
+    s.title = "Share of the dose equivalent, %, by charge (primaries, fragments and secondaries "
+              "together)\nand by source:";
+    s.in_json = false;
+    auto pct = [](std::string header, int width) {
+        report::Column c;
+        c.key = header;
+        c.header = std::move(header);
+        c.min_width = width;
+        c.gap = 1;
+        c.scale = 100.0;
+        c.rounding = report::Rounding::fixed;
+        c.digits = 1;
+        return c;
+    };
+    auto depth_col = pct("g/cm2", 6);
+    depth_col.scale = 1.0;
+    depth_col.rounding = report::Rounding::general;
+    depth_col.digits = 4;
+    s.columns.push_back(depth_col);
+    for (const auto& g : kChargeGroups) {
+        s.columns.push_back(pct(std::string(g.label), 7));
+    }
+    s.columns.push_back(pct("rest", 7));
+    report::Column bar;
+    bar.key = "bar";
+    bar.header = "|";
+    bar.gap = 1;
+    s.columns.push_back(bar);
+    // Each source's column as wide as its heading's first word (at least "100.0"), so that
+    // the table, the rest column included, stays within 100 columns.
+    for (const auto& k : kDoseSources) {
+        s.columns.push_back(pct(std::string(k.substr(0, k.find(' '))), 5));
+    }
+    for (const auto& r : rows) {
+        std::vector<report::Value> row{r.shield_g_cm2};
+        double charged = 0.0;
+        for (const double v : r.equivalent_share) {
+            row.emplace_back(v);
+            charged += v;
+        }
+        // The rest is what no charged particle crossing the point carries: the energy that
+        // reactions deposit there (neutron reactions, target fragments); never below zero.
+        row.emplace_back(std::max(0.0, 1.0 - charged));
+        row.emplace_back(std::string("|"));
+        row.insert(row.end(), r.source_equivalent_share.begin(), r.source_equivalent_share.end());
+        s.rows.push_back(std::move(row));
+    }
+    doc.table(std::move(s));
+    doc.text("  (charge: the particles of each charge crossing the point; rest: the energy "
+             "reactions deposit at the point, no charged particle crossing it; sources: "
+             "primaries and their fragments; secondary protons; light ions d, t, He-3 and "
+             "secondary alphas; energy deposited by neutron reactions; target fragments and "
+             "slow light ions of proton reactions)",
+             {}, 100, "   ");
+    doc.blank();
+    doc.keyed_text("model", kModelText, 92);
+    doc.blank();
+    doc.keyed_text("cautions", caution_text());
+    return doc;
+}
+
 std::string format_gcr_depth_report(double phi_MV, const exposure::Material& shield,
                                     const TissueDepth& tissue, const std::vector<GcrDepthRow>& rows,
                                     OutputFormat format, bool per_year, const GcrSiteSpec& site,
                                     const exposure::Material& detector) {
-    const double scale = per_year ? kDaysPerYear : 1.0;
-    const std::string per = per_year ? "year" : "day";
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["phi_MV"] = phi_MV;
-        j["shield_material"] = shield.id();
-        j["tissue_depth_g_cm2"] = tissue.g_cm2;
-        j["tissue"] = "soft-tissue";
-        j["detector"] = detector.id();
-        j["per"] = per;
-        j["site"] = site.kind == GcrSite::deep_space ? "deep-space"
-                    : site.kind == GcrSite::moon     ? "moon"
-                                                     : "mars";
-        if (site.kind == GcrSite::mars) {
-            j["surface_pressure_Pa"] = site.surface_pressure_Pa;
-        }
-        j["geometry"] = "shell-equivalent: every open direction sees the shield, then the "
-                        "tissue; " +
-                        site_text(site);
-        j["model"] = kModelText;
-        j["rows"] = nlohmann::json::array();
-        for (const auto& r : rows) {
-            nlohmann::json row{
-                {"shield_g_cm2", r.shield_g_cm2},
-                {"dose", dose_json(r.per_day, scale)},
-                {"dose_without_reactions", dose_json(r.per_day_without_reactions, scale)},
-                {"dose_primaries_only", dose_json(r.per_day_primaries, scale)},
-                {"mean_quality_factor", mean_q(r.per_day)},
-                {"absorbed_share", nlohmann::json::object()},
-                {"dose_equivalent_share", nlohmann::json::object()},
-                {"absorbed_share_by_source", nlohmann::json::object()},
-                {"dose_equivalent_share_by_source", nlohmann::json::object()}};
-            for (std::size_t g = 0; g < kChargeGroups.size(); ++g) {
-                const std::string label(kChargeGroups[g].label);
-                row["absorbed_share"][label] = r.absorbed_share[g];
-                row["dose_equivalent_share"][label] = r.equivalent_share[g];
-            }
-            for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
-                const std::string label(kDoseSources[k]);
-                row["absorbed_share_by_source"][label] = r.source_absorbed_share[k];
-                row["dose_equivalent_share_by_source"][label] = r.source_equivalent_share[k];
-            }
-            j["rows"].push_back(row);
-        }
-        j["cautions"] = caution_text();
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        std::string out =
-            fmt::format("shield_g_cm2,absorbed_mGy_per_{0},dose_equivalent_mSv_per_{0},"
-                        "rbe_weighted_mGyEq_per_{0},mean_quality_factor,"
-                        "dose_equivalent_without_reactions_mSv_per_{0},"
-                        "dose_equivalent_primaries_only_mSv_per_{0}",
-                        per);
-        for (const auto& g : kChargeGroups) {
-            out += fmt::format(",equivalent_share_{}", g.label);
-        }
-        for (const auto& k : kDoseSources) {
-            std::string label(k);
-            std::replace(label.begin(), label.end(), ' ', '_');
-            out += fmt::format(",equivalent_share_{}", label);
-        }
-        out += "\n";
-        for (const auto& r : rows) {
-            out += fmt::format("{:.10g},{:.10g},{:.10g},{:.10g},{:.6g}", r.shield_g_cm2,
-                               1e3 * scale * r.per_day.absorbed_Gy,
-                               1e3 * scale * r.per_day.dose_equivalent_Sv,
-                               1e3 * scale * r.per_day.rbe_weighted_GyEq, mean_q(r.per_day));
-            out += fmt::format(",{:.10g},{:.10g}",
-                               1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv,
-                               1e3 * scale * r.per_day_primaries.dose_equivalent_Sv);
-            for (const double v : r.equivalent_share) {
-                out += fmt::format(",{:.6g}", v);
-            }
-            for (const double v : r.source_equivalent_share) {
-                out += fmt::format(",{:.6g}", v);
-            }
-            out += "\n";
-        }
-        return out;
-    }
-    std::string out =
-        wrap(fmt::format("GCR dose rate behind {} ({}) at {}, phi = {:g} MV{}", shield.id(),
-                         shield.name(), tissue.label, phi_MV,
-                         detector.id() == "soft-tissue" ? std::string()
-                                                        : ", scored in " + detector.id()),
-             100, "  ");
-    out += wrap("geometry: shell-equivalent (the isotropic field through the same thickness in "
-                "every open direction: the dose at the centre of a spherical shell), " +
-                    site_text(site),
-                92) +
-           "\n";
-    const char* unit = per == "day" ? "d" : "yr";
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>5}  {:>10}  {:>10}\n", "shield",
-                       "absorbed", "dose equiv.", "RBE-weighted", "mean", "dose eq.", "dose eq.");
-    out += fmt::format("  {:>8}  {:>10}  {:>11}  {:>12}  {:>5}  {:>10}  {:>10}\n", "g/cm2",
-                       fmt::format("mGy/{}", unit), fmt::format("mSv/{}", unit),
-                       fmt::format("mGy-Eq/{}", unit), "Q", "no react.", "prim.");
-    for (const auto& r : rows) {
-        out += fmt::format(
-            "  {:>8.4g}  {:>10}  {:>11}  {:>12}  {:>5.2f}  {:>10}  {:>10}\n", r.shield_g_cm2,
-            significant(1e3 * scale * r.per_day.absorbed_Gy, 3),
-            significant(1e3 * scale * r.per_day.dose_equivalent_Sv, 3),
-            significant(1e3 * scale * r.per_day.rbe_weighted_GyEq, 3), mean_q(r.per_day),
-            significant(1e3 * scale * r.per_day_without_reactions.dose_equivalent_Sv, 3),
-            significant(1e3 * scale * r.per_day_primaries.dose_equivalent_Sv, 3));
-    }
-    out += "\nShare of the dose equivalent, %, by charge (primaries, fragments and secondaries "
-           "together)\nand by source:\n";
-    std::string head = fmt::format("  {:>6}", "g/cm2");
-    for (const auto& g : kChargeGroups) {
-        head += fmt::format(" {:>7}", g.label);
-    }
-    head += fmt::format(" {:>7} |", "rest");
-    // Each source's column as wide as its heading's first word (at least "100.0"), so that
-    // the table, the rest column included, stays within 100 columns.
-    std::array<std::size_t, kDoseSources.size()> width{};
-    for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
-        const std::string_view word = kDoseSources[k].substr(0, kDoseSources[k].find(' '));
-        width[k] = std::max<std::size_t>(word.size(), 5);
-        head += fmt::format(" {:>{}}", word, width[k]);
-    }
-    out += head + "\n";
-    for (const auto& r : rows) {
-        std::string line = fmt::format("  {:>6.4g}", r.shield_g_cm2);
-        double charged = 0.0;
-        for (const double v : r.equivalent_share) {
-            line += fmt::format(" {:>7.1f}", 100.0 * v);
-            charged += v;
-        }
-        // The rest is what no charged particle crossing the point carries: the energy that
-        // reactions deposit there (neutron reactions, target fragments). It is never below
-        // zero; a rounding error of the sum is not shown as -0.0.
-        line += fmt::format(" {:>7.1f} |", 100.0 * std::max(0.0, 1.0 - charged));
-        for (std::size_t k = 0; k < kDoseSources.size(); ++k) {
-            line += fmt::format(" {:>{}.1f}", 100.0 * r.source_equivalent_share[k], width[k]);
-        }
-        out += line + "\n";
-    }
-    out += wrap("  (charge: the particles of each charge crossing the point; rest: the energy "
-                "reactions deposit at the point, no charged particle crossing it; sources: "
-                "primaries and their fragments; secondary protons; light ions d, t, He-3 and "
-                "secondary alphas; energy deposited by neutron reactions; target fragments and "
-                "slow light ions of proton reactions)",
-                100, "   ");
-    out += "\n" + wrap(kModelText, 92) + "\n";
-    out += caution_text();
-    return out;
+    return report::write(gcr_depth_document(phi_MV, shield, tissue, rows, per_year, site, detector),
+                         format);
 }
 
 } // namespace crewdose::planner
