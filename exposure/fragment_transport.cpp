@@ -1,5 +1,6 @@
 #include "fragment_transport.hpp"
 
+#include "byte_codec.hpp"
 #include "element.hpp"
 #include "fragmentation.hpp"
 #include "material_library.hpp"
@@ -183,8 +184,9 @@ struct FragmentTransport::MaterialData {
     std::map<std::string, std::array<std::vector<DoseQuantities>, kFieldSpecies>> doses;
 };
 
-FragmentTransport::FragmentTransport(TableLibrary& tables, MarchOptions options)
-    : tables_(tables), options_(options), scratch_(std::make_unique<StepMap>()) {
+FragmentTransport::FragmentTransport(TableLibrary& tables, MarchOptions options,
+                                     const DataCache* cache)
+    : tables_(tables), options_(options), cache_(cache), scratch_(std::make_unique<StepMap>()) {
     if (!(options_.max_step_g_cm2 > 0.0)) {
         throw std::invalid_argument("FragmentTransport: max_step_g_cm2 must be > 0");
     }
@@ -304,8 +306,21 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
         return *it->second;
     }
     static SharedMaterialData<MaterialData> shared;
-    auto md = shared.copy_of(material_data_key(material, options_, tables_.grid(), energies_),
-                             [&] { return compute_data(material); });
+    const std::string key = material_data_key(material, options_, tables_.grid(), energies_);
+    // The cache first, then the process's share: each march that has a cache reads it (a
+    // decoded entry is exactly the computed data, so which one a march holds does not matter).
+    std::unique_ptr<MaterialData> md;
+    if (cache_) {
+        if (const auto payload = cache_->load(kCacheKind, key)) {
+            md = decode_data(*payload);
+        }
+    }
+    if (!md) {
+        md = shared.copy_of(key, [&] { return compute_data(material); });
+        if (cache_) {
+            cache_->store(kCacheKind, key, encode_data(*md));
+        }
+    }
     md->material = &material;
     for (std::size_t j = 0; j < active_species(); ++j) {
         md->table[j] = j == kNeutronSpecies ? nullptr : &tables_.table(material, species(j));
@@ -325,6 +340,124 @@ const FragmentTransport::MaterialData& FragmentTransport::data(const Material& m
             ")");
     }
     return *materials_.emplace(material.id(), std::move(md)).first->second;
+}
+
+std::string FragmentTransport::encoded_data(const Material& material) {
+    return encode_data(data(material));
+}
+
+// The layout (kFormat): the species count, the node count, then per species removal, self,
+// neutrons, producers and the production of every species; per projectile nucleon the local
+// deposits and per light particle the spread matrix and its row bounds. Fields the march
+// fills later (range tables, step maps, dose tables) are not data of the material.
+std::string FragmentTransport::encode_data(const MaterialData& md) const {
+    ByteWriter w;
+    w.u64(kFieldSpecies);
+    w.u64(energies_.size());
+    for (std::size_t j = 0; j < kFieldSpecies; ++j) {
+        w.f64s(md.removal[j]);
+        w.f64s(md.self[j]);
+        w.f64s(md.neutrons[j]);
+        w.u64s(md.producers[j]);
+        for (std::size_t f = 0; f < kFieldSpecies; ++f) {
+            w.f64s(md.prod[j][f]);
+        }
+    }
+    for (std::size_t q = 0; q < 2; ++q) {
+        w.f64s(md.local_MeV[q]);
+        w.f64s(md.local_Q_MeV[q]);
+        w.f64s(md.local_heavy_MeV[q]);
+        for (std::size_t l = 0; l < kLightParticles; ++l) {
+            w.f64s(md.spread[q][l]);
+            w.u64s(md.spread_from[q][l]);
+            w.u64s(md.spread_to[q][l]);
+        }
+    }
+    return w.take();
+}
+
+std::unique_ptr<FragmentTransport::MaterialData>
+FragmentTransport::decode_data(std::string_view payload) const {
+    const std::size_t n = energies_.size();
+    auto md = std::make_unique<MaterialData>();
+    // Every size is checked against what the march indexes without checks: a vector is empty
+    // or has one value per node (n x n for a spread matrix), row bounds lie within the row.
+    auto sized = [](std::vector<double> v, std::size_t size) {
+        if (!v.empty() && v.size() != size) {
+            throw CodecError("array of the wrong size");
+        }
+        return v;
+    };
+    try {
+        ByteReader r(payload);
+        if (r.u64() != kFieldSpecies || r.u64() != n) {
+            return nullptr;
+        }
+        for (std::size_t j = 0; j < kFieldSpecies; ++j) {
+            md->removal[j] = sized(r.f64s(), n);
+            md->self[j] = sized(r.f64s(), n);
+            md->neutrons[j] = sized(r.f64s(), n);
+            md->producers[j] = r.u64s();
+            for (const std::size_t p : md->producers[j]) {
+                if (p >= kFieldSpecies) {
+                    throw CodecError("producer out of range");
+                }
+            }
+            for (std::size_t f = 0; f < kFieldSpecies; ++f) {
+                md->prod[j][f] = sized(r.f64s(), n);
+            }
+        }
+        for (std::size_t j = 0; j < active_species(); ++j) {
+            if (md->removal[j].size() != n || md->self[j].size() != n ||
+                md->neutrons[j].size() != n) {
+                throw CodecError("a species of the march without its data");
+            }
+            for (const std::size_t p : md->producers[j]) {
+                if (md->prod[p][j].size() != n) {
+                    throw CodecError("a producer without its production");
+                }
+            }
+        }
+        for (std::size_t q = 0; q < 2; ++q) {
+            md->local_MeV[q] = sized(r.f64s(), n);
+            md->local_Q_MeV[q] = sized(r.f64s(), n);
+            md->local_heavy_MeV[q] = sized(r.f64s(), n);
+            for (std::size_t l = 0; l < kLightParticles; ++l) {
+                md->spread[q][l] = sized(r.f64s(), n * n);
+                md->spread_from[q][l] = r.u64s();
+                md->spread_to[q][l] = r.u64s();
+                const auto& from = md->spread_from[q][l];
+                const auto& to = md->spread_to[q][l];
+                if (!from.empty() || !to.empty()) {
+                    if (from.size() != n || to.size() != n || md->spread[q][l].size() != n * n) {
+                        throw CodecError("spread bounds of the wrong size");
+                    }
+                    for (std::size_t row = 0; row < n; ++row) {
+                        if (from[row] > to[row] || to[row] > n) {
+                            throw CodecError("spread bounds out of the row");
+                        }
+                    }
+                }
+            }
+            if (secondaries() && (md->local_MeV[q].size() != n || md->local_Q_MeV[q].size() != n ||
+                                  md->local_heavy_MeV[q].size() != n)) {
+                throw CodecError("secondaries without their local deposits");
+            }
+        }
+        if (secondaries()) {
+            for (std::size_t q = 0; q < 2; ++q) {
+                for (std::size_t l = 0; l < kLightParticles; ++l) {
+                    if (md->spread[q][l].size() != n * n || md->spread_from[q][l].size() != n) {
+                        throw CodecError("secondaries without their spread matrices");
+                    }
+                }
+            }
+        }
+        r.finish();
+    } catch (const CodecError&) {
+        return nullptr;
+    }
+    return md;
 }
 
 std::unique_ptr<FragmentTransport::MaterialData>

@@ -5,6 +5,7 @@
 // fragments keep the velocity (energy per nucleon) of the nucleus that made them; the light
 // particles of nucleon reactions (nucleon_production.hpp) are spread over energy; each then
 // slows down by its own range table (neutrons only attenuate).
+#include "data_cache.hpp"
 #include "dosimetry.hpp"
 #include "material.hpp"
 #include "table_library.hpp"
@@ -90,7 +91,10 @@ struct MarchOptions {
 
 /// The march. It prepares what it needs per material on first use (range tables from the
 /// library, the partial production cross sections of fragmentation.hpp on every node), so one
-/// instance serves many paths; not thread-safe (one per thread, with its own library).
+/// instance serves many paths; not thread-safe (one per thread, with its own library). With a
+/// DataCache, a material's cross sections and production matrices (everything but the range
+/// tables) are read from it when it holds them for the same material, options and energy grid,
+/// and stored in it when computed; the march is then bit for bit the one without.
 class FragmentTransport {
   public:
     static constexpr int kMaxZ = 28;
@@ -101,7 +105,9 @@ class FragmentTransport {
     /// Thickest layer cross() takes, g/cm2 (the scenario's bounds give at most 2.5e7).
     static constexpr double kMaxCrossing_g_cm2 = 1e9;
 
-    FragmentTransport(TableLibrary& tables, MarchOptions options = {});
+    /// `cache` (may be null: none) must outlive the march.
+    FragmentTransport(TableLibrary& tables, MarchOptions options = {},
+                      const DataCache* cache = nullptr);
     ~FragmentTransport();
     FragmentTransport(FragmentTransport&&) noexcept;
     FragmentTransport(const FragmentTransport&) = delete;
@@ -138,6 +144,13 @@ class FragmentTransport {
     /// Total charge per unit ln E at node m: sum over species of Z psi (a conservation check).
     [[nodiscard]] static double charge_at(const IonField& field, std::size_t m);
 
+    /// The DataCache kind of a material's march data.
+    static constexpr std::string_view kCacheKind = "march-data";
+    /// The march data this march holds for `material` (computed, or read from the cache, on
+    /// first use) as the cache stores them: every double as its bit pattern, so two encodings
+    /// are equal exactly when the data are equal bit for bit.
+    [[nodiscard]] std::string encoded_data(const Material& material);
+
   private:
     struct MaterialData;
     struct StepMap;
@@ -147,6 +160,10 @@ class FragmentTransport {
     /// The material's data (no range tables), computed: data() takes a copy of the process's.
     [[nodiscard]] std::unique_ptr<MaterialData> compute_data(const Material& material) const;
     void build_nucleon_production(MaterialData& md) const;
+    /// The cache's payload of `md`, and back: nullptr when `payload` does not decode into data
+    /// of this march's shape (which are then computed instead).
+    [[nodiscard]] std::string encode_data(const MaterialData& md) const;
+    [[nodiscard]] std::unique_ptr<MaterialData> decode_data(std::string_view payload) const;
     void index_spread(MaterialData& md) const;
     void source_integral(const MaterialData& md, double h, std::size_t j, StepMap& map) const;
     /// The dose-weighted mean ICRP 60 Q of a particle of species j stopping in water from
@@ -159,6 +176,7 @@ class FragmentTransport {
 
     TableLibrary& tables_;
     MarchOptions options_;
+    const DataCache* cache_ = nullptr;
     std::size_t first_node_ = 0; ///< table node of march node 0
     std::vector<double> energies_;
     std::map<std::string, std::unique_ptr<MaterialData>> materials_;

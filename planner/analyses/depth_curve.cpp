@@ -61,7 +61,8 @@ std::vector<double> parse_depth_list(std::string_view text, std::string_view fie
 std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
                                  const exposure::Material& shield, const TissueDepth& tissue,
                                  const std::vector<double>& depths_g_cm2,
-                                 const exposure::Material& detector) {
+                                 const exposure::Material& detector,
+                                 const exposure::DataCache* cache) {
     exposure::TableLibrary tables;
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
@@ -73,8 +74,8 @@ std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
     exposure::TableLibrary march_tables(gcr_grid());
     exposure::MarchOptions whole_options;
     whole_options.secondaries = true;
-    exposure::FragmentTransport whole(march_tables, whole_options);
-    exposure::FragmentTransport primaries(march_tables, exposure::MarchOptions{});
+    exposure::FragmentTransport whole(march_tables, whole_options, cache);
+    exposure::FragmentTransport primaries(march_tables, exposure::MarchOptions{}, cache);
     exposure::IonField incident = whole.empty_field();
     for (std::size_t m = 0; m < whole.energies().size(); ++m) {
         const double E = whole.energies()[m];

@@ -1,6 +1,7 @@
 #pragma once
 // The `depth` analysis: SPE dose at a tissue depth behind a uniform (shell-equivalent) shield,
 // per shield areal density (the report is report/depth_report.hpp).
+#include "exposure/data_cache.hpp"
 #include "exposure/dosimetry.hpp"
 #include "exposure/material.hpp"
 #include "exposure/spectrum.hpp"
@@ -35,11 +36,11 @@ struct DepthRow {
 
 /// Computes the rows: the primaries exact (one response per thickness), their secondaries as
 /// the march's whole-field over primaries ratio; scored in `detector` (soft tissue for doses
-/// in the body, silicon or water for comparisons with detectors).
-[[nodiscard]] std::vector<DepthRow> depth_rows(const exposure::ProtonSpectrum& spectrum,
-                                               const exposure::Material& shield,
-                                               const TissueDepth& tissue,
-                                               const std::vector<double>& depths_g_cm2,
-                                               const exposure::Material& detector);
+/// in the body, silicon or water for comparisons with detectors). `cache` (may be null) keeps
+/// the march data across runs (the rows are bit for bit the same without it).
+[[nodiscard]] std::vector<DepthRow>
+depth_rows(const exposure::ProtonSpectrum& spectrum, const exposure::Material& shield,
+           const TissueDepth& tissue, const std::vector<double>& depths_g_cm2,
+           const exposure::Material& detector, const exposure::DataCache* cache = nullptr);
 
 } // namespace crewdose::planner

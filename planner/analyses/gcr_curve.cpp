@@ -67,16 +67,16 @@ GcrSite parse_site(std::string_view text, std::string_view field) {
 std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material& shield,
                                         const TissueDepth& tissue,
                                         const std::vector<double>& depths_g_cm2,
-                                        const GcrSiteSpec& site,
-                                        const exposure::Material& detector) {
+                                        const GcrSiteSpec& site, const exposure::Material& detector,
+                                        const exposure::DataCache* cache) {
     exposure::TableLibrary tables(gcr_grid());
     exposure::MarchOptions whole_options;
     whole_options.secondaries = true;
-    exposure::FragmentTransport march(tables, whole_options);
-    exposure::FragmentTransport primaries(tables, exposure::MarchOptions{});
+    exposure::FragmentTransport march(tables, whole_options, cache);
+    exposure::FragmentTransport primaries(tables, exposure::MarchOptions{}, cache);
     exposure::MarchOptions none;
     none.removal = false;
-    exposure::FragmentTransport unreacted(tables, none);
+    exposure::FragmentTransport unreacted(tables, none, cache);
     const exposure::Material& soft = *exposure::find_builtin_material("soft-tissue");
     const exposure::Material& water = *exposure::find_builtin_material("water");
     // Free space: the shell is the same in every direction, one path is the whole answer. On a

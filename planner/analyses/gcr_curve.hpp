@@ -4,6 +4,7 @@
 // report is report/gcr_report.hpp).
 #include "planner/analyses/depth_curve.hpp"
 
+#include "exposure/data_cache.hpp"
 #include "exposure/dosimetry.hpp"
 #include "exposure/material.hpp"
 
@@ -72,10 +73,11 @@ struct GcrSiteSpec {
 /// scored in `detector` (soft tissue, or silicon or water to compare with detectors), in the
 /// order given, at `site`: deep space (one path: the shell is the same everywhere) or a
 /// planetary surface (the mean over a direction set, the ground below the horizon as zero,
-/// on Mars the slant column of atmosphere before the shield).
+/// on Mars the slant column of atmosphere before the shield). `cache` (may be null) keeps the
+/// march data across runs (the rows are bit for bit the same without it).
 [[nodiscard]] std::vector<GcrDepthRow>
 gcr_depth_rows(double phi_MV, const exposure::Material& shield, const TissueDepth& tissue,
                const std::vector<double>& depths_g_cm2, const GcrSiteSpec& site,
-               const exposure::Material& detector);
+               const exposure::Material& detector, const exposure::DataCache* cache = nullptr);
 
 } // namespace crewdose::planner

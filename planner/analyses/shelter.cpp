@@ -131,16 +131,22 @@ constexpr double kShortfall = 0.995; // the answer's dose is within 0.5 % below 
 
 namespace {
 
+exposure::MarchOptions primaries_options() {
+    exposure::MarchOptions o = gcr_march_options();
+    o.secondaries = false;
+    return o;
+}
+
 // The marches that add an event's secondaries to the sheltered doses (as Study does for the
-// scenario's locations): on the GCR grid, the whole field and the primaries alone.
+// scenario's locations): on the GCR grid, the whole field and the primaries alone, with the
+// study's cache across runs.
 struct SecondaryMarches {
+    explicit SecondaryMarches(const Study& study)
+        : whole{tables, gcr_march_options(), study.cache()}, primaries{tables, primaries_options(),
+                                                                       study.cache()} {}
     exposure::TableLibrary tables{gcr_grid()};
-    exposure::FragmentTransport whole{tables, gcr_march_options()};
-    exposure::FragmentTransport primaries{tables, [] {
-                                              exposure::MarchOptions o = gcr_march_options();
-                                              o.secondaries = false;
-                                              return o;
-                                          }()};
+    exposure::FragmentTransport whole;
+    exposure::FragmentTransport primaries;
 };
 
 } // namespace
@@ -219,7 +225,7 @@ std::map<std::string, double> sheltered_event_dose(const Study& study, const She
                                                    const std::string& material_id,
                                                    double areal_density_g_cm2) {
     exposure::TableLibrary tables(body_model(location_of(study, r.location_id).body).spe_grid());
-    SecondaryMarches secondary;
+    SecondaryMarches secondary(study);
     return sheltered_dose(study, r, material_id, areal_density_g_cm2, tables, secondary);
 }
 
@@ -392,7 +398,7 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
                                 rep.other_30d_mGyEq.at(y) / rep.target_mGyEq.at(y);
                      });
     exposure::TableLibrary tables(body_model(loc.body).spe_grid()); // shared by every evaluation
-    SecondaryMarches secondary;
+    SecondaryMarches secondary(study);
     const auto n_materials = static_cast<double>(request.materials.size());
     for (std::size_t m = 0; m < request.materials.size(); ++m) {
         const std::string& material_id = request.materials[m];

@@ -2,6 +2,7 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/cli/run_steps.hpp"
 #include "planner/report/check_chart.hpp"
 #include "planner/report/check_html.hpp"
@@ -30,6 +31,7 @@ Command add_check_command(CLI::App& app) {
         std::string html_path;
         bool allow_gaps = false;
         bool quiet = false;
+        bool no_cache = false;
         double near_percent = 100.0 * planner::kDefaultNearShare;
     };
     auto o = std::make_shared<Options>();
@@ -93,6 +95,7 @@ Command add_check_command(CLI::App& app) {
                         "accept gaps in a crew member's timeline; each gap is charged at the "
                         "location of the activity before it and listed in the report");
         add_quiet_flag(check, o->quiet);
+        add_no_cache_flag(check, o->no_cache);
         return check;
     }();
     return {
@@ -112,7 +115,8 @@ Command add_check_command(CLI::App& app) {
                                         {"--html", o->html_path}},
                                        !allow_gaps);
             ProgressLine progress(o->quiet);
-            const planner::Study study = compute_study(std::move(sc), progress);
+            const auto cache = open_run_cache(o->no_cache);
+            const planner::Study study = compute_study(std::move(sc), progress, cache.get());
             progress.finish();
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;

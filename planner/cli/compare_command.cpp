@@ -2,6 +2,7 @@
 #include "planner/analyses/compare.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/cli/run_steps.hpp"
 #include "planner/report/compare_html.hpp"
 #include "planner/report/compare_report.hpp"
@@ -24,6 +25,7 @@ Command add_compare_command(CLI::App& app) {
         std::string html_path;
         double near_percent = 100.0 * planner::kDefaultNearShare;
         bool quiet = false;
+        bool no_cache = false;
     };
     auto o = std::make_shared<Options>();
     auto* sub = app.add_subcommand(
@@ -46,34 +48,37 @@ Command add_compare_command(CLI::App& app) {
                     "limit as a table, the cautions and the whole text report, self-contained "
                     "(opens without a network, prints as shown; written when the run completes)");
     add_quiet_flag(sub, o->quiet);
-    return {
-        sub, [o] {
-            const auto fmt_choice = planner::parse_output_format(o->format);
-            const double near_share = near_share_of(o->near_percent);
-            const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
-                                                          {"--html", o->html_path}};
-            // Both plans read (and checked against the outputs) before either is computed.
-            auto sa = load_for_outputs(o->plan_a, outputs, true);
-            auto sb = load_for_outputs(o->plan_b, outputs, true);
-            ProgressLine progress(o->quiet);
-            const planner::Study a = compute_study(std::move(sa), progress, {}, "computing plan A");
-            const auto ledger_a = planner::build_ledger(a);
-            const planner::Study b = compute_study(std::move(sb), progress, {}, "computing plan B");
-            const auto ledger_b = planner::build_ledger(b);
-            progress.finish();
-            const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
-            const RunStamp stamp = run_stamp(&a.scenario(), &b.scenario());
-            // Every file is prepared before any is written.
-            const std::string text =
-                stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
-                        fmt_choice, stamp);
-            const std::string html = o->html_path.empty()
-                                         ? ""
+    add_no_cache_flag(sub, o->no_cache);
+    return {sub, [o] {
+                const auto fmt_choice = planner::parse_output_format(o->format);
+                const double near_share = near_share_of(o->near_percent);
+                const std::vector<planner::NamedFile> outputs{{"--out", o->out_path},
+                                                              {"--html", o->html_path}};
+                // Both plans read (and checked against the outputs) before either is computed.
+                auto sa = load_for_outputs(o->plan_a, outputs, true);
+                auto sb = load_for_outputs(o->plan_b, outputs, true);
+                ProgressLine progress(o->quiet);
+                const auto cache = open_run_cache(o->no_cache);
+                const planner::Study a =
+                    compute_study(std::move(sa), progress, cache.get(), {}, "computing plan A");
+                const auto ledger_a = planner::build_ledger(a);
+                const planner::Study b =
+                    compute_study(std::move(sb), progress, cache.get(), {}, "computing plan B");
+                const auto ledger_b = planner::build_ledger(b);
+                progress.finish();
+                const auto cmp = planner::compare_plans(ledger_a, ledger_b, near_share);
+                const RunStamp stamp = run_stamp(&a.scenario(), &b.scenario());
+                // Every file is prepared before any is written.
+                const std::string text =
+                    stamped(planner::format_comparison(cmp, a.scenario(), b.scenario(), fmt_choice),
+                            fmt_choice, stamp);
+                const std::string html =
+                    o->html_path.empty() ? ""
                                          : planner::format_comparison_html(
                                                cmp, a.scenario(), b.scenario(), html_about(stamp));
-            write_outputs({{"--html", o->html_path, html}}, text, o->out_path);
-            return cmp.a_exceeded || cmp.b_exceeded ? 1 : 0;
-        }};
+                write_outputs({{"--html", o->html_path, html}}, text, o->out_path);
+                return cmp.a_exceeded || cmp.b_exceeded ? 1 : 0;
+            }};
 }
 
 } // namespace crewdose::cli

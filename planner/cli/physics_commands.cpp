@@ -1,5 +1,6 @@
 // The look-up commands that need no scenario: range, materials, events, depth and gcr.
 #include "planner/cli/command.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/report/depth_chart.hpp"
 #include "planner/report/depth_report.hpp"
 #include "planner/report/events_report.hpp"
@@ -172,6 +173,7 @@ Command add_depth_command(CLI::App& app) {
         std::string out_path;
         std::string chart_path;
         ShieldOptions s;
+        bool no_cache = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -201,7 +203,7 @@ Command add_depth_command(CLI::App& app) {
             "RBE-weighted dose (mGy-Eq) for limits; the spectrum, shield and depth on top with "
             "the cautions, a dose that was not computed drawn as a gap labelled so, never as a "
             "value (written only when the run completes)");
-
+        add_no_cache_flag(depth, o->no_cache);
         return depth;
     }();
     return {sub, [o] {
@@ -219,7 +221,8 @@ Command add_depth_command(CLI::App& app) {
                 const auto list = planner::parse_depth_list(depths, "--depths");
                 const auto& medium = planner::material_by_id(detector, "--detector");
                 // One set of rows for the report and the chart: the same numbers in both.
-                const auto rows = planner::depth_rows(spec, mat, tissue, list, medium);
+                const auto cache = open_run_cache(o->no_cache);
+                const auto rows = planner::depth_rows(spec, mat, tissue, list, medium, cache.get());
                 const std::string report = stamped(
                     planner::format_depth_report(spec, mat, tissue, rows, fmt_choice, medium),
                     fmt_choice, run_stamp(nullptr));
@@ -244,6 +247,7 @@ Command add_gcr_command(CLI::App& app) {
         std::string out_path;
         std::string chart_path;
         ShieldOptions s;
+        bool no_cache = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -301,7 +305,7 @@ Command add_gcr_command(CLI::App& app) {
             "RBE-weighted (mGy-Eq) dose rates; phi, shield, depth and site on top with the "
             "cautions, a dose that was not computed drawn as a gap labelled so, never as a value "
             "(written only when the run completes)");
-
+        add_no_cache_flag(gcr, o->no_cache);
         return gcr;
     }();
     return {sub, [o] {
@@ -334,7 +338,9 @@ Command add_gcr_command(CLI::App& app) {
                     planner::parse_surface_pressure(gcr_pressure, "--surface-pressure-Pa");
                 const auto& medium = planner::material_by_id(detector, "--detector");
                 // One set of rows for the report and the chart: the same numbers in both.
-                const auto rows = planner::gcr_depth_rows(phi, mat, tissue, list, site, medium);
+                const auto cache = open_run_cache(o->no_cache);
+                const auto rows =
+                    planner::gcr_depth_rows(phi, mat, tissue, list, site, medium, cache.get());
                 const std::string report =
                     stamped(planner::format_gcr_depth_report(phi, mat, tissue, rows, fmt_choice,
                                                              per_year, site, medium),

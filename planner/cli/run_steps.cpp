@@ -22,11 +22,12 @@ planner::Scenario load_for_outputs(const std::string& scenario_path,
 }
 
 planner::Study compute_study(planner::Scenario scenario, ProgressLine& progress,
+                             const exposure::DataCache* cache,
                              const std::optional<std::string>& only_location,
                              const std::string& stage) {
     progress.stage(stage);
-    return planner::Study(std::move(scenario), only_location,
-                          [&progress](double f) { progress.update(f); });
+    return planner::Study(
+        std::move(scenario), only_location, [&progress](double f) { progress.update(f); }, cache);
 }
 
 void write_outputs(const std::vector<PreparedFile>& files, const std::string& report,

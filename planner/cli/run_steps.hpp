@@ -23,9 +23,10 @@ namespace crewdose::cli {
                                                  bool refuse_gaps = false);
 
 /// The study of `scenario` (of `only_location` alone when given), its progress shown as the
-/// stage `stage` of `progress`.
+/// stage `stage` of `progress`, with the cache across runs `cache` (null: none; it must outlive
+/// the study).
 [[nodiscard]] planner::Study
-compute_study(planner::Scenario scenario, ProgressLine& progress,
+compute_study(planner::Scenario scenario, ProgressLine& progress, const exposure::DataCache* cache,
               const std::optional<std::string>& only_location = {},
               const std::string& stage = "computing each location's doses");
 

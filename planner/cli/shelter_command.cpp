@@ -2,6 +2,7 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/cli/run_steps.hpp"
 #include "planner/report/shelter_chart.hpp"
 #include "planner/report/shelter_html.hpp"
@@ -29,6 +30,7 @@ Command add_shelter_command(CLI::App& app) {
         std::string chart_path;
         std::string html_path;
         bool quiet = false;
+        bool no_cache = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -94,6 +96,7 @@ Command add_shelter_command(CLI::App& app) {
                             "self-contained (opens without a network, prints as shown; written "
                             "when the sizing completes, a target not met included)");
         add_quiet_flag(shelter, o->quiet);
+        add_no_cache_flag(shelter, o->no_cache);
         return shelter;
     }();
     return {sub, [o] {
@@ -110,7 +113,8 @@ Command add_shelter_command(CLI::App& app) {
                     scenario_path,
                     {{"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}});
                 ProgressLine progress(o->quiet);
-                const planner::Study study = compute_study(std::move(sc), progress);
+                const auto cache = open_run_cache(o->no_cache);
+                const planner::Study study = compute_study(std::move(sc), progress, cache.get());
                 planner::ShelterRequest request;
                 request.event_id = event_id;
                 request.location_id = location_id;

@@ -1,6 +1,7 @@
 // The shielding command: what one location's shielding looks like.
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/cli/run_steps.hpp"
 #include "planner/report/shielding_report.hpp"
 #include "planner/study/study.hpp"
@@ -21,6 +22,7 @@ Command add_shielding_command(CLI::App& app) {
         std::string event_id;
         std::string out_path;
         bool quiet = false;
+        bool no_cache = false;
     };
     auto o = std::make_shared<Options>();
     CLI::App* const sub = [&] {
@@ -46,6 +48,7 @@ Command add_shielding_command(CLI::App& app) {
             ->capture_default_str();
         shielding->add_option("--out,-o", o->out_path, kOutHelp);
         add_quiet_flag(shielding, o->quiet);
+        add_no_cache_flag(shielding, o->no_cache);
         return shielding;
     }();
     return {sub, [o] {
@@ -58,8 +61,10 @@ Command add_shielding_command(CLI::App& app) {
                 auto sc = load_for_outputs(scenario_path, {{"--out", o->out_path}});
                 ProgressLine progress(o->quiet);
                 // One location's view computes that location alone.
-                const planner::Study study = compute_study(std::move(sc), progress, location_id,
-                                                           "computing the location's doses");
+                const auto cache = open_run_cache(o->no_cache);
+                const planner::Study study =
+                    compute_study(std::move(sc), progress, cache.get(), location_id,
+                                  "computing the location's doses");
                 progress.finish();
                 write_report(stamped(planner::format_shielding_report(
                                          study, location_id,

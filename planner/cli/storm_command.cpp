@@ -1,6 +1,7 @@
 // The storm command: one what-if of an event's onset, or a sweep of onsets.
 #include "planner/cli/command.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/cli/run_cache.hpp"
 #include "planner/cli/run_steps.hpp"
 #include "planner/report/storm_chart.hpp"
 #include "planner/report/storm_html.hpp"
@@ -29,6 +30,7 @@ Command add_storm_command(CLI::App& app) {
         std::string chart_path;
         std::string html_path;
         bool quiet = false;
+        bool no_cache = false;
         double near_percent = 100.0 * planner::kDefaultNearShare;
     };
     auto o = std::make_shared<Options>();
@@ -100,6 +102,7 @@ Command add_storm_command(CLI::App& app) {
                          "'near' in the verdict (1 to 100)")
             ->capture_default_str();
         add_quiet_flag(storm, o->quiet);
+        add_no_cache_flag(storm, o->no_cache);
         return storm;
     }();
     return {sub, [o] {
@@ -123,7 +126,8 @@ Command add_storm_command(CLI::App& app) {
                     scenario_path,
                     {{"--out", o->out_path}, {"--chart", o->chart_path}, {"--html", o->html_path}});
                 ProgressLine progress(o->quiet);
-                const planner::Study study = compute_study(std::move(sc), progress);
+                const auto cache = open_run_cache(o->no_cache);
+                const planner::Study study = compute_study(std::move(sc), progress, cache.get());
                 progress.finish();
                 const planner::StormContext context(study, event_id, !no_response);
                 const auto& mission = study.scenario().mission;

@@ -7,6 +7,7 @@
 #include "planner/scenario/scenario.hpp"
 #include "planner/study/location_response.hpp"
 
+#include "exposure/data_cache.hpp"
 #include "exposure/range_table.hpp"
 #include "exposure/table_library.hpp"
 #include "habitats/phantom.hpp"
@@ -72,6 +73,12 @@ class BodyModel {
     [[nodiscard]] virtual SourceBodyDepths
     depths(const BodyPlacement& placement, const std::vector<habitats::Vector3>& spe_directions,
            const std::vector<habitats::Vector3>& gcr_directions, std::size_t threads) const;
+    /// Everything depths() depends on besides the code, spelled exactly (the cache across runs
+    /// keeps its result under it); nullopt, the default, when the depths cost too little to be
+    /// worth keeping.
+    [[nodiscard]] virtual std::optional<std::string>
+    depths_key(const BodyPlacement& placement, const std::vector<habitats::Vector3>& spe_directions,
+               const std::vector<habitats::Vector3>& gcr_directions) const;
     /// Per organ of `body` (spe_depths' or gcr_depths'), every sample point's own tissue along
     /// each direction before it is split onto the grid, for reports; nullopt when the grid holds
     /// each organ's depths exactly (one depth per organ, as in BodyDepths).
@@ -95,6 +102,23 @@ class BodyModel {
   private:
     const BodyModelName& name_;
 };
+
+/// The DataCache kind of a body model's depths.
+inline constexpr std::string_view kBodyDepthsCacheKind = "body-depths";
+
+/// `body.depths(...)` read from `cache` when it holds them under the model's depths_key()
+/// (bit for bit what depths() computes), else computed and stored there; `cache` may be null.
+[[nodiscard]] SourceBodyDepths cached_depths(const BodyModel& body, const BodyPlacement& placement,
+                                             const std::vector<habitats::Vector3>& spe_directions,
+                                             const std::vector<habitats::Vector3>& gcr_directions,
+                                             std::size_t threads, const exposure::DataCache* cache);
+
+/// The cache's payload of both sources' depths, and back (nullopt when `payload` does not
+/// decode into depths of `spe_directions` and `gcr_directions` directions).
+[[nodiscard]] std::string encode_body_depths(const SourceBodyDepths& depths);
+[[nodiscard]] std::optional<SourceBodyDepths> decode_body_depths(std::string_view payload,
+                                                                 std::size_t spe_directions,
+                                                                 std::size_t gcr_directions);
 
 /// Where a location places the body.
 [[nodiscard]] BodyPlacement placement_of(const LocationGeometry& where);

@@ -5,6 +5,8 @@
 
 #include <fmt/format.h>
 
+#include <cstdio>
+
 namespace crewdose::planner {
 namespace {
 
@@ -49,6 +51,41 @@ class PhantomBodyModel final : public BodyModel {
         auto both = on_grids(placement, spe_directions,
                              {phantom_depth_grid(), phantom_gcr_depth_grid()}, threads);
         return {std::move(both[0]), std::move(both[1])};
+    }
+    [[nodiscard]] std::optional<std::string>
+    depths_key(const BodyPlacement& placement, const std::vector<habitats::Vector3>& spe_directions,
+               const std::vector<habitats::Vector3>& gcr_directions) const override {
+        // Every number in hexadecimal floating point: the key is the inputs, exactly. The
+        // phantom itself (its solids and its 512 points per region) is compiled in: the build
+        // id covers it.
+        std::string key = fmt::format("phantom points {} skin-factor {} posture {} heading ",
+                                      kPhantomPointsPerDirection, kSkinPointsFactor,
+                                      static_cast<int>(placement.posture));
+        char buf[32];
+        auto add = [&](double x) {
+            std::snprintf(buf, sizeof buf, "%a ", x);
+            key += buf;
+        };
+        add(placement.heading_deg);
+        auto add_all = [&](const char* name, const std::vector<double>& v) {
+            key += name;
+            for (const double x : v) {
+                add(x);
+            }
+        };
+        add_all("\nspe-grid ", phantom_depth_grid());
+        add_all("\ngcr-grid ", phantom_gcr_depth_grid());
+        auto add_directions = [&](const char* name, const std::vector<habitats::Vector3>& dirs) {
+            key += fmt::format("\n{} {}: ", name, dirs.size());
+            for (const auto& u : dirs) {
+                add(u.x);
+                add(u.y);
+                add(u.z);
+            }
+        };
+        add_directions("spe-directions", spe_directions);
+        add_directions("gcr-directions", gcr_directions);
+        return key;
     }
     [[nodiscard]] std::optional<std::vector<std::vector<DepthSample>>>
     depth_samples(const BodyPlacement& placement, const std::vector<habitats::Vector3>& directions,

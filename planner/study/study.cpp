@@ -35,8 +35,8 @@ exposure::MarchOptions gcr_march_options() {
 }
 
 Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
-             const std::function<void(double)>& progress)
-    : sc_(std::move(scenario)), directions_(sc_.mission.directions) {
+             const std::function<void(double)>& progress, const exposure::DataCache* cache)
+    : sc_(std::move(scenario)), directions_(sc_.mission.directions), cache_(cache) {
     if (only_location) {
         const LocationSpec one = sc_.location_named(*only_location, "--location");
         sc_.locations = {one};
@@ -106,7 +106,8 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
         const BodyModel& body = body_model(loc.body);
         if (where.imported) {
             // The table's own directions, for both sources.
-            const SourceBodyDepths d = body.depths(placement_of(where), loc_dirs, loc_dirs, wanted);
+            const SourceBodyDepths d =
+                cached_depths(body, placement_of(where), loc_dirs, loc_dirs, wanted, cache_);
             bodies_[loc.id] = d.spe;
             gcr_bodies_[loc.id] = d.gcr;
         } else {
@@ -116,7 +117,8 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
             auto it = depths_cache.find(key);
             if (it == depths_cache.end()) {
                 it = depths_cache
-                         .emplace(key, body.depths(placement_of(where), loc_dirs, gcr_dirs, wanted))
+                         .emplace(key, cached_depths(body, placement_of(where), loc_dirs, gcr_dirs,
+                                                     wanted, cache_))
                          .first;
             }
             bodies_[loc.id] = it->second.spe;
@@ -193,14 +195,14 @@ Study::Study(Scenario scenario, const std::optional<std::string>& only_location,
     auto worker = [&](std::size_t t) {
         try {
             exposure::TableLibrary gcr_tables(gcr_grid());
-            exposure::FragmentTransport with_reactions(gcr_tables, gcr_march_options());
+            exposure::FragmentTransport with_reactions(gcr_tables, gcr_march_options(), cache_);
             exposure::MarchOptions none;
             none.removal = false;
-            exposure::FragmentTransport without_reactions(gcr_tables, none);
+            exposure::FragmentTransport without_reactions(gcr_tables, none, cache_);
             const GcrMarches marches{with_reactions, without_reactions};
             exposure::MarchOptions primaries_only = gcr_march_options();
             primaries_only.secondaries = false;
-            exposure::FragmentTransport primaries(gcr_tables, primaries_only);
+            exposure::FragmentTransport primaries(gcr_tables, primaries_only, cache_);
             const GcrMarches spe_marches{with_reactions, primaries};
             std::map<std::string, exposure::TableLibrary> spe_tables; // by body model
             for (std::size_t taken = next_job++; taken < 2 * n_loc; taken = next_job++) {

@@ -4,6 +4,7 @@
 #include "planner/study/body_model.hpp"
 #include "planner/study/location_response.hpp"
 
+#include "exposure/data_cache.hpp"
 #include "exposure/table_library.hpp"
 #include "habitats/directional_shielding.hpp"
 
@@ -113,9 +114,13 @@ class Study {
     /// `--location`, InputError naming it if unknown) the study holds that one location alone:
     /// a view of one place (`shielding`) computes one place; a partial study has no ledger.
     /// `progress`, when given, is told the share of the locations' work done (0 to 1) as each
-    /// piece finishes; it is called from the worker threads, one call at a time.
+    /// piece finishes; it is called from the worker threads, one call at a time. `cache` (may
+    /// be null: none; it must outlive the study) keeps what depends on no scenario across runs:
+    /// the march data of each material and the phantom's tissue depths (the results are bit
+    /// for bit the same without it).
     explicit Study(Scenario scenario, const std::optional<std::string>& only_location = {},
-                   const std::function<void(double)>& progress = {});
+                   const std::function<void(double)>& progress = {},
+                   const exposure::DataCache* cache = nullptr);
     // Locations point into the scenario held here: a Study stays where it was built.
     Study(const Study&) = delete;
     Study& operator=(const Study&) = delete;
@@ -153,6 +158,8 @@ class Study {
     /// The threads a run may use: the hardware's, or CREWDOSE_THREADS (at least 1). Results never
     /// depend on it.
     [[nodiscard]] std::size_t threads() const noexcept { return threads_; }
+    /// The cache across runs it was given (null: none), for analyses that march again.
+    [[nodiscard]] const exposure::DataCache* cache() const noexcept { return cache_; }
     /// The body model of a location, on its SPE directions.
     [[nodiscard]] const BodyDepths& body(const std::string& location) const;
     /// True when the location's body model gives `organ` (ledger_organs(): the quick model
@@ -191,6 +198,7 @@ class Study {
     std::size_t directions_ = 0;
     bool partial_ = false;
     std::size_t threads_ = 1;
+    const exposure::DataCache* cache_ = nullptr;
     std::map<std::tuple<std::string, std::string, double>, exposure::BracketedDose> gcr_rates_;
     std::map<std::tuple<std::string, std::string, std::string>, exposure::DoseQuantities>
         spe_factors_;

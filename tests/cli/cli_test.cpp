@@ -1110,6 +1110,73 @@ TEST_CASE("check: the same numbers, bit for bit, whatever the thread count", "[c
     CHECK(one.out == three.out);
 }
 
+TEST_CASE("check: the same bytes with a cold, warm or damaged cache and with --no-cache",
+          "[cli][check][cache]") {
+    // By construction: the cache holds data computed exactly as without it, stored as their bit
+    // patterns. A folder of its own under the tests' cache home (never the user's cache).
+    namespace fs = std::filesystem;
+    const fs::path home = fs::path(CREWDOSE_TEST_CACHE_HOME) / ("cli-" + std::to_string(getpid()));
+    fs::remove_all(home);
+    const fs::path folder = home / "crewdose";
+    const std::string env = "SOURCE_DATE_EPOCH=0 XDG_CACHE_HOME=" + home.string() + " ";
+    const std::string args = "check " + demo() + " --format json -q";
+    const Run none = run(args + " --no-cache", env);
+    REQUIRE(none.exit_code == 0);
+    CHECK_FALSE(fs::exists(folder)); // --no-cache neither reads nor writes
+    const Run cold = run(args, env);
+    REQUIRE(fs::is_directory(folder));
+    std::vector<fs::path> entries;
+    for (const auto& e : fs::directory_iterator(folder)) {
+        entries.push_back(e.path());
+    }
+    CHECK(entries.size() > 2); // march data and the phantom's depths
+    const Run warm = run(args, env);
+    CHECK(cold.out == none.out);
+    CHECK(warm.out == none.out);
+    // A flipped byte in every entry: each is refused, rebuilt and written again whole.
+    std::vector<std::string> damaged;
+    for (const auto& e : entries) {
+        std::string bytes = read_file(e.string());
+        bytes[bytes.size() / 2] = static_cast<char>(bytes[bytes.size() / 2] ^ 0x40);
+        std::FILE* f = std::fopen(e.c_str(), "wb");
+        REQUIRE(f);
+        std::fwrite(bytes.data(), 1, bytes.size(), f);
+        std::fclose(f);
+        damaged.push_back(bytes);
+    }
+    const Run after_damage = run(args, env);
+    CHECK(after_damage.out == none.out);
+    for (std::size_t i = 0; i < entries.size(); ++i) {
+        CHECK(read_file(entries[i].string()) != damaged[i]);
+    }
+    // A cache folder that cannot be made: one note on standard error, the same report.
+    const fs::path file = home / "a-file";
+    {
+        std::FILE* f = std::fopen(file.c_str(), "wb");
+        REQUIRE(f);
+        std::fclose(f);
+    }
+    const ShellResult blocked =
+        run_shell("SOURCE_DATE_EPOCH=0 XDG_CACHE_HOME=" + file.string() + " " +
+                  std::string(CREWDOSE_BINARY) + " " + args + " 2>" + (home / "err").string());
+    CHECK(blocked.exit_code == 0);
+    CHECK(blocked.out == none.out);
+    const std::string err = read_file((home / "err").string());
+    CHECK(err.rfind("note: no cache across runs (", 0) == 0);
+    CHECK(std::count(err.begin(), err.end(), '\n') == 1);
+    fs::remove_all(home);
+}
+
+TEST_CASE("every command that computes doses offers --no-cache", "[cli][cache]") {
+    for (const char* command :
+         {"check", "shielding", "shelter", "storm", "compare", "depth", "gcr"}) {
+        INFO(command);
+        const Run h = run(std::string(command) + " --help");
+        CHECK(h.exit_code == 0);
+        CHECK(h.out.find("--no-cache") != std::string::npos);
+    }
+}
+
 TEST_CASE("shielding: csv is a table of the same numbers as the json", "[cli][check]") {
     // Regression: --format csv used to print the text report and exit 0.
     const std::string base = "shielding " + demo() + " --location eva-site --event design-spe";

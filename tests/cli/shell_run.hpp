@@ -2,6 +2,7 @@
 // Running the crewdose binary (or any shell command) from a test: what every CLI test file needs.
 #include <array>
 #include <cstdio>
+#include <cstdlib>
 #include <stdexcept>
 #include <string>
 #include <sys/wait.h>
@@ -13,8 +14,11 @@ struct ShellResult {
     std::string out;
 };
 
-/// Runs `command` with /bin/sh; std::runtime_error if no shell can be started.
+/// Runs `command` with /bin/sh; std::runtime_error if no shell can be started. The command's
+/// cache across runs is the tests' own folder under the build tree (tests/CMakeLists.txt),
+/// however the test program was started, unless the command sets XDG_CACHE_HOME itself.
 inline ShellResult run_shell(const std::string& command) {
+    ::setenv("XDG_CACHE_HOME", CREWDOSE_TEST_CACHE_HOME, 1);
     ShellResult r;
     FILE* pipe = popen(command.c_str(), "r");
     if (pipe == nullptr) {
