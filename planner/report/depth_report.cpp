@@ -76,23 +76,14 @@ report::Document depth_document(const exposure::ProtonSpectrum& spectrum,
     report::Table t;
     t.key = "rows";
     t.is_csv = true;
+    // Text and CSV show these (JSON: the dose objects below, in SI units).
     auto col = [](std::string key, std::string header, std::string unit, int width, double scale) {
-        report::Column c;
-        c.key = std::move(key);
-        c.header = std::move(header);
-        c.unit = std::move(unit);
-        c.min_width = width;
-        c.scale = scale;
-        c.digits = 3;
-        c.in_json = false;
-        return c;
+        return report::number_column(std::move(key), std::move(header), std::move(unit), width,
+                                     scale, 3)
+            .shown_in(true, false, true);
     };
     auto json_only = [](std::string key) {
-        report::Column c;
-        c.key = std::move(key);
-        c.in_text = false;
-        c.in_csv = false;
-        return c;
+        return report::text_column(std::move(key)).shown_in(false, true, false);
     };
     auto shield_col = col("shield_g_cm2", "shield", "g/cm2", 8, 1.0);
     shield_col.rounding = report::Rounding::general;

@@ -55,7 +55,22 @@ struct Column {
     bool in_json = true;
     bool in_csv = true;
     bool omit_absent_in_json = false; ///< leave the key out instead of writing null
+
+    /// Which formats show the column.
+    Column& shown_in(bool text, bool json, bool csv) {
+        in_text = text;
+        in_json = json;
+        in_csv = csv;
+        return *this;
+    }
 };
+
+/// A right-aligned number column: its key, text heading and unit line, at least `min_width`
+/// wide in text, `digits` significant figures there, shown as value * `scale`.
+[[nodiscard]] Column number_column(std::string key, std::string header, std::string unit = {},
+                                   int min_width = 0, double scale = 1.0, int digits = 4);
+/// A left-aligned column (text cells).
+[[nodiscard]] Column text_column(std::string key, std::string header = {});
 
 /// A table. In text, `aligned` writes a heading line, a unit line (when any column has a
 /// unit) and one line per row; `list` writes one wrapped line per row from `item_pattern`

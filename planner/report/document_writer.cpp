@@ -12,6 +12,26 @@
 
 namespace crewdose::planner::report {
 
+Column number_column(std::string key, std::string header, std::string unit, int min_width,
+                     double scale, int digits) {
+    Column c;
+    c.key = std::move(key);
+    c.header = std::move(header);
+    c.unit = std::move(unit);
+    c.min_width = min_width;
+    c.scale = scale;
+    c.digits = digits;
+    return c;
+}
+
+Column text_column(std::string key, std::string header) {
+    Column c;
+    c.key = std::move(key);
+    c.header = std::move(header);
+    c.left = true;
+    return c;
+}
+
 Document& Document::text(std::string pattern, std::vector<Field> args, std::size_t wrap_width,
                          std::string wrap_indent) {
     blocks.emplace_back(

@@ -128,24 +128,15 @@ report::Document gcr_depth_document(double phi_MV, const exposure::Material& shi
         return label;
     };
 
+    // Text and CSV show these (JSON: the dose and share objects below).
     auto col = [](std::string key, std::string header, std::string unit_line, int width,
                   double scale) {
-        report::Column c;
-        c.key = std::move(key);
-        c.header = std::move(header);
-        c.unit = std::move(unit_line);
-        c.min_width = width;
-        c.scale = scale;
-        c.digits = 3;
-        c.in_json = false;
-        return c;
+        return report::number_column(std::move(key), std::move(header), std::move(unit_line), width,
+                                     scale, 3)
+            .shown_in(true, false, true);
     };
     auto json_only = [](std::string key) {
-        report::Column c;
-        c.key = std::move(key);
-        c.in_text = false;
-        c.in_csv = false;
-        return c;
+        return report::text_column(std::move(key)).shown_in(false, true, false);
     };
     report::Table t;
     t.key = "rows";

@@ -25,15 +25,6 @@ std::string composition_text(const exposure::Material& m) {
     return out;
 }
 
-report::Column number_column(std::string key, std::string header, std::string unit, int min_width) {
-    report::Column c;
-    c.key = std::move(key);
-    c.header = std::move(header);
-    c.unit = std::move(unit);
-    c.min_width = min_width;
-    return c;
-}
-
 } // namespace
 
 report::Document range_document(const exposure::Material& material,
@@ -58,6 +49,7 @@ report::Document range_document(const exposure::Material& material,
     report::Table t;
     t.key = "rows";
     t.is_csv = true;
+    using report::number_column;
     auto energy = number_column("energy_MeV_per_n", "energy", "MeV/n", 11);
     energy.rounding = report::Rounding::general;
     t.columns = {energy, number_column("stopping_MeV_cm2_g", "stopping power", "MeV cm2/g", 14),
@@ -90,53 +82,38 @@ report::Document materials_document() {
     report::Table t;
     t.key = "materials";
     t.is_csv = true;
-    auto text_column = [](std::string key, std::string header) {
-        report::Column c;
-        c.key = std::move(key);
-        c.header = std::move(header);
-        c.left = true;
-        return c;
+    using report::number_column;
+    using report::text_column;
+    // What only JSON or only CSV carries (the text shows the I marker and the composition).
+    auto json_only = [](std::string key) {
+        return text_column(std::move(key)).shown_in(false, true, false);
     };
     auto id = text_column("id", "id");
     id.min_width = 21;
-    auto name = text_column("name", "name");
-    name.in_text = false;
-    name.in_csv = false;
     auto density = number_column("density_g_cm3", "g/cm3", "", 10);
     density.rounding = report::Rounding::general;
     density.gap = 1;
     auto excitation = number_column("mean_excitation_eV", "I (eV)", "", 8);
     excitation.rounding = report::Rounding::general;
     excitation.gap = 1;
-    auto bragg = text_column("mean_excitation_is_bragg", "");
+    auto bragg = text_column("mean_excitation_is_bragg").shown_in(true, false, false);
     bragg.suffix_when_true = "*";
     bragg.gap = 0;
     bragg.min_width = 1;
-    bragg.in_json = false;
-    bragg.in_csv = false;
-    auto own = text_column("mean_excitation_is_own", "");
-    own.in_text = false;
-    own.in_csv = false;
-    auto origin = text_column("i_value_origin", "");
-    origin.in_text = false;
-    origin.in_json = false;
-    auto tabulated = text_column("density_effect_tabulated", "");
-    tabulated.in_text = false;
-    tabulated.in_csv = false;
-    auto gas = text_column("gas", "");
-    gas.in_text = false;
-    gas.in_csv = false;
-    auto composition = text_column("composition", "composition");
+    auto composition = text_column("composition", "composition").shown_in(true, false, true);
     composition.gap = 1;
-    auto composition_records = text_column("composition", "");
-    composition_records.in_text = false;
-    composition_records.in_csv = false;
-    auto source = text_column("source", "");
-    source.in_text = false;
-    source.in_csv = false;
-    composition.in_json = false;
-    t.columns = {id,        name, density,     excitation,          bragg, own, origin,
-                 tabulated, gas,  composition, composition_records, source};
+    t.columns = {id,
+                 json_only("name"),
+                 density,
+                 excitation,
+                 bragg,
+                 json_only("mean_excitation_is_own"),
+                 text_column("i_value_origin").shown_in(false, false, true),
+                 json_only("density_effect_tabulated"),
+                 json_only("gas"),
+                 composition,
+                 json_only("composition"),
+                 json_only("source")};
     for (const auto& m : materials) {
         report::Records comp;
         for (const auto& share : m.composition()) {
