@@ -69,7 +69,7 @@ JoinWindow join_window(const Material& material, const Particle& particle) {
     // Chosen against the ICRU 49 tables (PSTAR, ASTAR) for water, aluminium and polyethylene:
     // the proton fits hold to about 0.3 MeV and drift by up to 9 % at 1 MeV (polyethylene),
     // while Bethe with its corrections is within 1.7 % from 1 MeV up; the helium fits hold to
-    // about 1 MeV/n. Figures: DEVELOPERS.md, "Stopping-power accuracy".
+    // about 1 MeV/n. Figures: docs/model-notes.md, "Stopping-power accuracy".
     // The Bethe formula needs 2 m v^2 well above I, so for targets with a larger mean excitation
     // energy than aluminium (166 eV) the window moves up in proportion to I (lead: x 5).
     const double scale = std::max(1.0, material.mean_excitation_eV() / 166.0);

@@ -194,7 +194,7 @@ std::vector<BodyDepths> phantom_body_depths(const habitats::Phantom& phantom,
                     const std::size_t count = o.region_begin[r + 1] - first;
                     // The skin takes four times as many: whether a surface point faces the
                     // direction decides its dose, and 32 points left the skin 2.9 % low at 256
-                    // directions (128 points: see DEVELOPERS.md).
+                    // directions (128 points: see docs/model-notes.md, the phantom).
                     const std::size_t wanted = below > 0.0
                                                    ? kSkinPointsFactor * points_per_direction
                                                    : points_per_direction;
