@@ -12,9 +12,63 @@
 
 #include <algorithm>
 #include <limits>
-#include <regex>
 #include <string>
 #include <utility>
+
+namespace {
+
+// GCC 12's std::regex trips -Wmaybe-uninitialized in the sanitizer build (-O1), so these two
+// patterns are scanned by hand.
+
+bool number_char(char c) {
+    return (c >= '0' && c <= '9') || c == '.';
+}
+
+// A minus sign before a zero that no other digit follows ("-0", "-0.0", "-0 %"), not inside a
+// number or an exponent.
+bool has_negative_zero(const std::string& s) {
+    for (std::size_t i = s.find("-0"); i != std::string::npos; i = s.find("-0", i + 1)) {
+        if (i > 0 && (number_char(s[i - 1]) || s[i - 1] == 'e' || s[i - 1] == 'E')) {
+            continue;
+        }
+        std::size_t j = i + 2;
+        if (j < s.size() && s[j] == '.') {
+            ++j;
+            while (j < s.size() && s[j] == '0') {
+                ++j;
+            }
+        }
+        if (j >= s.size() || !number_char(s[j])) {
+            return true;
+        }
+    }
+    return false;
+}
+
+// " -X +0 ": a negative number with a non-zero digit, spaces, then a zero column.
+bool has_negative_change_then_zero(const std::string& s) {
+    for (std::size_t i = s.find(" -"); i != std::string::npos; i = s.find(" -", i + 1)) {
+        std::size_t j = i + 2;
+        bool nonzero = false;
+        while (j < s.size() && number_char(s[j])) {
+            nonzero = nonzero || (s[j] >= '1' && s[j] <= '9');
+            ++j;
+        }
+        if (!nonzero || j == i + 2) {
+            continue;
+        }
+        std::size_t k = j;
+        while (k < s.size() && s[k] == ' ') {
+            ++k;
+        }
+        if (k > j && s.compare(k, 2, "0 ") == 0) {
+            return true;
+        }
+    }
+    return false;
+}
+
+} // namespace
 
 using namespace crewdose;
 using namespace crewdose::planner;
@@ -108,8 +162,6 @@ TEST_CASE("compare: a change that rounds to nothing is never printed as a negati
     }
     REQUIRE(lowered); // some row changes, so the test can see a sign
     const PlanComparison cmp = compare_plans(a, b);
-    // A minus sign before a zero that no other digit follows: "-0", "-0.0", "-0 %".
-    const std::regex negative_zero(R"((^|[^0-9.eE])-0(\.0*)?(?![0-9.]))");
     const HtmlAbout about{{"tool", "crewdose test"}};
     for (const auto& [what, out] :
          {std::pair{"text",
@@ -121,11 +173,10 @@ TEST_CASE("compare: a change that rounds to nothing is never printed as a negati
           std::pair{"html",
                     format_comparison_html(cmp, study.scenario(), study.scenario(), about)}}) {
         INFO(what << ":\n" << out);
-        std::smatch m;
-        CHECK_FALSE(std::regex_search(out, m, negative_zero));
+        CHECK_FALSE(has_negative_zero(out));
     }
     // The change itself keeps its sign (B - A is negative, not rounded away).
     const std::string text =
         format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
-    CHECK(std::regex_search(text, std::regex(R"( -[0-9.]*[1-9][0-9.]* +0 )")));
+    CHECK(has_negative_change_then_zero(text));
 }
