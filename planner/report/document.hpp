@@ -33,6 +33,10 @@ struct Object {
 using Value =
     std::variant<std::monostate, double, std::int64_t, bool, std::string, Records, Object>;
 
+/// How text shows a value on a terminal with colour: the words carry the meaning, the colour
+/// only repeats it (no colour anywhere else, and none unless the caller asks for it).
+enum class Tone { plain, good, caution, alarm };
+
 /// How a number is rounded in text: `significant` keeps trailing zeros to the given figures
 /// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732), `fixed` keeps `digits` decimals.
 enum class Rounding { significant, general, fixed };
@@ -81,6 +85,8 @@ struct Table {
     std::string title; ///< text line before the table; empty for none
     std::vector<Column> columns;
     std::vector<std::vector<Value>> rows;
+    /// Optional, the shape of `rows`: the tone of each cell in coloured text (aligned view).
+    std::vector<std::vector<Tone>> tones;
     View view = View::aligned;
     std::string item_pattern;
     std::string indent = "  ";
@@ -96,7 +102,8 @@ struct Field {
     Value value;
     int digits = 4; ///< significant figures where text shows it
     Rounding rounding = Rounding::general;
-    double scale = 1.0; ///< every format shows value * scale (the key names the shown unit)
+    double scale = 1.0;      ///< every format shows value * scale (the key names the shown unit)
+    Tone tone = Tone::plain; ///< in coloured text, as a pattern argument
 };
 
 /// Named fields written as one JSON object under `key`, or at the top level when `key` is

@@ -120,6 +120,17 @@ std::string field_text(const Field& f) {
     return text_of(f.value, f.digits, f.rounding, f.scale, "not computed", {}, {}, f.key);
 }
 
+// Text in its tone's ANSI colour (red, yellow, green), or as it is.
+std::string toned(const std::string& text, Tone tone, bool colour) {
+    if (!colour || tone == Tone::plain) {
+        return text;
+    }
+    const char* on = tone == Tone::alarm     ? "\033[31m"
+                     : tone == Tone::caution ? "\033[33m"
+                                             : "\033[32m";
+    return on + text + "\033[0m";
+}
+
 // Display width of UTF-8 text: its code points (the reports' symbols, such as µ, are one
 // column wide).
 std::size_t width_of(const std::string& s) {
@@ -153,7 +164,7 @@ std::string filled(const std::string& pattern, const std::vector<std::string>& a
     return fmt::vformat(pattern, store);
 }
 
-std::string text_table(const Table& t) {
+std::string text_table(const Table& t, bool colour) {
     std::vector<const Column*> cols;
     std::vector<std::size_t> index;
     for (std::size_t c = 0; c < t.columns.size(); ++c) {
@@ -172,6 +183,9 @@ std::string text_table(const Table& t) {
             line.push_back(cell_text(*cols[k], row[index[k]]));
         }
         cells.push_back(std::move(line));
+    }
+    if (!t.tones.empty() && t.tones.size() != t.rows.size()) {
+        throw std::logic_error("report: table " + t.key + " has tones for other rows");
     }
     std::string out = t.title.empty() ? "" : t.title + "\n";
     if (t.view == Table::View::list) {
@@ -205,8 +219,29 @@ std::string text_table(const Table& t) {
     if (any_unit) {
         out += line_of([&](std::size_t k) { return cols[k]->unit; });
     }
-    for (const auto& line : cells) {
-        out += line_of([&](std::size_t k) { return line[k]; });
+    for (std::size_t r = 0; r < cells.size(); ++r) {
+        const auto* tones = t.tones.empty() ? nullptr : &t.tones[r];
+        if (tones && tones->size() != t.columns.size()) {
+            throw std::logic_error("report: table " + t.key +
+                                   " has a tone row of the wrong length");
+        }
+        // The colour goes around the padded cell, so that it never shifts the alignment; a
+        // trailing cell is trimmed first.
+        std::string line = t.indent;
+        std::string pending;
+        for (std::size_t k = 0; k < cols.size(); ++k) {
+            if (k > 0) {
+                line += std::string(static_cast<std::size_t>(std::max(0, cols[k]->gap)), ' ');
+            }
+            std::string cell = padded(cells[r][k], widths[k], cols[k]->left);
+            if (k + 1 == cols.size()) {
+                while (!cell.empty() && cell.back() == ' ') {
+                    cell.pop_back();
+                }
+            }
+            line += toned(cell, tones ? (*tones)[index[k]] : Tone::plain, colour);
+        }
+        out += trimmed_line(line);
     }
     return out;
 }
@@ -279,7 +314,7 @@ std::string csv_cell(const Column& c, const Value& value) {
 
 } // namespace
 
-std::string write_text(const Document& doc) {
+std::string write_text(const Document& doc, bool colour) {
     std::string out;
     for (const auto& block : doc.blocks) {
         if (const auto* t = std::get_if<Text>(&block)) {
@@ -288,15 +323,32 @@ std::string write_text(const Document& doc) {
                 args.push_back(field_text(f));
             }
             const std::string line = filled(t->pattern, args);
+            std::string para = line;
             if (t->wrap_width > 0) {
-                out += wrap(line, t->wrap_width, t->wrap_indent);
-            } else {
-                out += !line.empty() && line.back() == '\n' ? line : line + "\n";
+                para = wrap(line, t->wrap_width, t->wrap_indent);
+            } else if (line.empty() || line.back() != '\n') {
+                para += "\n";
             }
+            // Colour goes in after wrapping, so that it never moves a line break: each toned
+            // argument's first whole occurrence, in order (one split by a break stays plain).
+            std::size_t from = 0;
+            for (std::size_t k = 0; colour && k < t->args.size(); ++k) {
+                if (t->args[k].tone == Tone::plain || args[k].empty()) {
+                    continue;
+                }
+                const std::size_t at = para.find(args[k], from);
+                if (at == std::string::npos) {
+                    continue;
+                }
+                const std::string coloured = toned(args[k], t->args[k].tone, true);
+                para.replace(at, args[k].size(), coloured);
+                from = at + coloured.size();
+            }
+            out += para;
         } else if (std::holds_alternative<Blank>(block)) {
             out += "\n";
         } else if (const auto* tab = std::get_if<Table>(&block); tab && tab->in_text) {
-            out += text_table(*tab);
+            out += text_table(*tab, colour);
         }
     }
     return out;
@@ -381,14 +433,14 @@ std::string write_csv(const Document& doc) {
     return out;
 }
 
-std::string write(const Document& doc, OutputFormat format) {
+std::string write(const Document& doc, OutputFormat format, bool colour) {
     switch (format) {
     case OutputFormat::json:
         return write_json(doc);
     case OutputFormat::csv:
         return write_csv(doc);
     case OutputFormat::text:
-        return write_text(doc);
+        return write_text(doc, colour);
     }
     throw std::logic_error("report: unknown output format");
 }

@@ -9,7 +9,8 @@
 namespace crewdose::planner::report {
 
 /// Text: each block in turn; tables aligned on their widest cell, heading and unit lines.
-[[nodiscard]] std::string write_text(const Document& doc);
+/// `colour` adds ANSI colour to the fields and cells that carry a tone (terminals only).
+[[nodiscard]] std::string write_text(const Document& doc, bool colour = false);
 
 /// JSON: one object; each Group an object and each Table an array of row objects under its
 /// key; numbers at full precision, scaled to the column's unit as in text (the key names it).
@@ -19,7 +20,7 @@ namespace crewdose::planner::report {
 /// quoted when they hold a comma, quote, space or line break.
 [[nodiscard]] std::string write_csv(const Document& doc);
 
-/// The writer of `format`.
-[[nodiscard]] std::string write(const Document& doc, OutputFormat format);
+/// The writer of `format`; `colour` only for text.
+[[nodiscard]] std::string write(const Document& doc, OutputFormat format, bool colour = false);
 
 } // namespace crewdose::planner::report

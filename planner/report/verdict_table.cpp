@@ -1,5 +1,6 @@
 #include "planner/report/verdict_table.hpp"
 
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
 
 #include <fmt/format.h>
@@ -10,43 +11,50 @@
 namespace crewdose::planner {
 
 std::string format_verdict_text(const VerdictTable& table) {
-    std::string out = wrap(table.headline, 100, "  ");
-    const std::size_t n = table.columns.size();
-    std::vector<std::size_t> width(n, 0);
-    std::vector<bool> numeric(n, false);
-    for (std::size_t k = 0; k < n; ++k) {
-        width[k] = table.columns[k].size();
+    report::Document doc;
+    append_verdict(doc, table);
+    return report::write_text(doc);
+}
+
+void append_verdict(report::Document& doc, const VerdictTable& table) {
+    doc.text(table.headline, {}, 100, "  ");
+    report::Table t;
+    t.key = "verdict";
+    t.in_json = false;
+    for (std::size_t k = 0; k < table.columns.size(); ++k) {
+        const bool numeric =
+            std::any_of(table.rows.begin(), table.rows.end(),
+                        [&](const auto& row) { return k < row.size() && row[k].number; });
+        report::Column c =
+            numeric ? report::number_column("column_" + std::to_string(k), table.columns[k])
+                    : report::text_column("column_" + std::to_string(k), table.columns[k]);
+        c.in_json = false;
+        c.in_csv = false;
+        t.columns.push_back(std::move(c));
     }
     for (const auto& row : table.rows) {
-        for (std::size_t k = 0; k < std::min(n, row.size()); ++k) {
-            width[k] = std::max(width[k], row[k].text.size());
-            numeric[k] = numeric[k] || row[k].number;
+        std::vector<report::Value> cells;
+        std::vector<report::Tone> tones;
+        for (std::size_t k = 0; k < table.columns.size(); ++k) {
+            const VerdictCell* cell = k < row.size() ? &row[k] : nullptr;
+            cells.emplace_back(cell ? cell->text : std::string());
+            const std::string status = cell ? cell->status : std::string();
+            tones.push_back(status == "exceeded" ? report::Tone::alarm
+                            : status == "near"   ? report::Tone::caution
+                            : status == "within" ? report::Tone::good
+                                                 : report::Tone::plain);
         }
+        t.rows.push_back(std::move(cells));
+        t.tones.push_back(std::move(tones));
     }
-    auto line = [&](auto&& text_of) {
-        std::string l = " ";
-        for (std::size_t k = 0; k < n; ++k) {
-            const std::string t = text_of(k);
-            l += numeric[k] ? fmt::format(" {:>{}}", t, width[k])
-                            : fmt::format(" {:<{}}", t, width[k]);
-            l += k + 1 < n ? " " : "";
-        }
-        while (!l.empty() && l.back() == ' ') {
-            l.pop_back();
-        }
-        return l + "\n";
-    };
-    out += line([&](std::size_t k) { return table.columns[k]; });
-    for (const auto& row : table.rows) {
-        out += line([&](std::size_t k) { return k < row.size() ? row[k].text : std::string(); });
-    }
+    doc.table(std::move(t));
     for (const auto& remark : table.notes) {
-        out += wrap("  " + remark, 100, "    ");
+        doc.text("  " + remark, {}, 100, "    ");
     }
     if (!table.note.empty()) {
-        out += wrap("  " + table.note, 100, "    ");
+        doc.text("  " + table.note, {}, 100, "    ");
     }
-    return out + "\n";
+    doc.blank();
 }
 
 std::string verdict_dose_text(double dose) {

@@ -3,6 +3,8 @@
 // table (storm, shelter, compare). A headline sentence, one row per crew member or material,
 // and a line saying what the columns mean. The builders fill it from their results; the text
 // and the HTML (html_page.hpp) draw the same rows, so the two never disagree.
+#include "planner/report/document.hpp"
+
 #include <string>
 #include <utility>
 #include <vector>
@@ -32,6 +34,11 @@ struct VerdictTable {
 /// The table as text: the headline wrapped at 100 columns, the columns aligned (two spaces
 /// indent), the notes and the note wrapped; ends with a blank line.
 [[nodiscard]] std::string format_verdict_text(const VerdictTable& table);
+
+/// The table as blocks of a report Document, text only (JSON and CSV carry the same answer as
+/// numbers elsewhere): write_text shows exactly what format_verdict_text returns; with colour,
+/// each cell's status is its tone.
+void append_verdict(report::Document& doc, const VerdictTable& table);
 
 /// A dose for a verdict cell: "not computed" unless `dose` is a finite number >= 0, else the
 /// dose to 3 significant figures.

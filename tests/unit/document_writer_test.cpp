@@ -150,3 +150,46 @@ TEST_CASE("events report: every library entry in every format", "[report]") {
     }
     CHECK(!j["not_in_library"].empty());
 }
+
+TEST_CASE("report model: colour repeats a tone and never moves the text", "[report]") {
+    // By construction: the same document with and without colour differs only by the ANSI
+    // codes around the toned cells and arguments (red 31, yellow 33, green 32, reset 0:
+    // ECMA-48, common practice on terminals).
+    report::Document doc = dose_document(0.5);
+    auto& table = std::get<report::Table>(doc.blocks.back());
+    table.tones = {{report::Tone::plain, report::Tone::good},
+                   {report::Tone::plain, report::Tone::alarm}};
+    doc.text("Verdict: {0} for {1} of 2, a long sentence that wraps here at forty columns",
+             {report::Field{"word", std::string("EXCEEDED"), 4, report::Rounding::general, 1.0,
+                            report::Tone::alarm},
+              report::Field{"n", std::int64_t{1}}},
+             40, "  ");
+    const std::string plain = report::write_text(doc);
+    const std::string coloured = report::write_text(doc, true);
+    CHECK(plain.find('\033') == std::string::npos);
+    CHECK(report::write(doc, crewdose::planner::OutputFormat::text) == plain);
+    CHECK(coloured.find("\033[31mEXCEEDED\033[0m for 1 of 2") != std::string::npos);
+    CHECK(coloured.find("\033[32m") != std::string::npos);
+    CHECK(coloured.find("\033[31m 500\033[0m") != std::string::npos);
+    // Removing the codes gives the plain text back, line breaks included.
+    std::string stripped;
+    for (std::size_t i = 0; i < coloured.size(); ++i) {
+        if (coloured[i] == '\033') {
+            i = coloured.find('m', i);
+            continue;
+        }
+        stripped += coloured[i];
+    }
+    CHECK(stripped == plain);
+    // JSON and CSV carry no colour.
+    CHECK(report::write(doc, crewdose::planner::OutputFormat::json, true).find('\033') ==
+          std::string::npos);
+    CHECK(report::write(doc, crewdose::planner::OutputFormat::csv, true).find('\033') ==
+          std::string::npos);
+}
+
+TEST_CASE("report model: a tone row must match its table", "[report]") {
+    report::Document doc = dose_document(0.5);
+    std::get<report::Table>(doc.blocks.back()).tones = {{report::Tone::plain}};
+    CHECK_THROWS_AS(report::write_text(doc, true), std::logic_error);
+}
