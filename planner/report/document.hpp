@@ -5,7 +5,8 @@
 // turns it into text, JSON or CSV; the writers are the only place where a number is scaled to
 // its display unit and rounded, so every format of a command shows the same values.
 //
-// A value is a number, a whole number, a flag, text, a list of records (JSON only) or nothing.
+// A value is a number, a whole number, a flag, text, a list of words, a list of records or an
+// object (JSON only) or nothing.
 // "Nothing" is how a builder says "not computed" or "does not apply": it prints as the
 // column's `absent` text, JSON null (or no key), an empty CSV cell. A number that is not finite
 // never reaches a writer as a number: the writers refuse it (a logic error), so a dose that was
@@ -30,8 +31,15 @@ struct Object {
     std::vector<Field> fields;
 };
 
+/// Words, written as a JSON array of strings, and joined by `separator` in text and CSV (e.g.
+/// the locations where an organ was not evaluated).
+struct List {
+    std::vector<std::string> items;
+    std::string separator = ", ";
+};
+
 using Value =
-    std::variant<std::monostate, double, std::int64_t, bool, std::string, Records, Object>;
+    std::variant<std::monostate, double, std::int64_t, bool, std::string, Records, Object, List>;
 
 /// How text shows a value on a terminal with colour: the words carry the meaning, the colour
 /// only repeats it (no colour anywhere else, and none unless the caller asks for it).

@@ -5,6 +5,7 @@
 
 #include <fmt/args.h>
 #include <fmt/format.h>
+#include <fmt/ranges.h>
 #include <nlohmann/json.hpp>
 
 #include <algorithm>
@@ -103,6 +104,8 @@ std::string text_of(const Value& value, int digits, Rounding rounding, double sc
                 return v ? "yes" : "no";
             } else if constexpr (std::is_same_v<T, std::string>) {
                 return v;
+            } else if constexpr (std::is_same_v<T, List>) {
+                return fmt::format("{}", fmt::join(v.items, v.separator));
             } else {
                 throw std::logic_error(
                     fmt::format("report: records and objects ({}) have no text form", what));
@@ -272,6 +275,8 @@ nlohmann::json json_of(const Value& value, double scale, std::string_view what) 
                 return a;
             } else if constexpr (std::is_same_v<T, Object>) {
                 return json_of_fields(v.fields);
+            } else if constexpr (std::is_same_v<T, List>) {
+                return v.items;
             } else {
                 return v;
             }
@@ -304,6 +309,8 @@ std::string csv_cell(const Column& c, const Value& value) {
                 return v ? "true" : "false";
             } else if constexpr (std::is_same_v<T, std::string>) {
                 return csv_quoted(v);
+            } else if constexpr (std::is_same_v<T, List>) {
+                return csv_quoted(fmt::format("{}", fmt::join(v.items, v.separator)));
             } else {
                 throw std::logic_error("report: records and objects have no CSV form (" + c.key +
                                        ")");

@@ -193,3 +193,19 @@ TEST_CASE("report model: a tone row must match its table", "[report]") {
     std::get<report::Table>(doc.blocks.back()).tones = {{report::Tone::plain}};
     CHECK_THROWS_AS(report::write_text(doc, true), std::logic_error);
 }
+
+TEST_CASE("report model: a list of words in every format", "[report]") {
+    // By construction: JSON an array of strings; text and CSV the words joined.
+    report::Table t;
+    t.key = "gaps";
+    t.is_csv = true;
+    t.columns = {report::text_column("where", "where")};
+    t.rows = {{report::List{{"habitat", "rover"}, " "}}, {report::List{}}};
+    report::Document doc;
+    doc.table(t);
+    CHECK(lines_of(report::write_text(doc))[1] == "  habitat rover");
+    CHECK(lines_of(report::write_csv(doc))[1] == "\"habitat rover\"");
+    const auto j = nlohmann::json::parse(report::write_json(doc));
+    CHECK(j["gaps"][0]["where"] == nlohmann::json::array({"habitat", "rover"}));
+    CHECK(j["gaps"][1]["where"] == nlohmann::json::array());
+}
