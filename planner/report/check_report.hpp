@@ -1,6 +1,7 @@
 #pragma once
 // The reports of `check` and `validate`, and the --series output.
 #include "planner/report/output_format.hpp"
+#include "planner/report/verdict_table.hpp"
 #include "planner/study/ledger.hpp"
 
 #include <string>
@@ -15,6 +16,11 @@ namespace crewdose::planner {
 [[nodiscard]] std::string format_check_report(const Study& study, const LedgerResult& ledger,
                                               OutputFormat format, bool colour,
                                               double near_share = kDefaultNearShare);
+
+/// The verdict as a table, the same in text and HTML: a row per crew member (by name, or by id
+/// when a name is longer than 24 characters) with the binding limit, the dose, the planning
+/// limit, the share used, the status and the budget left; the notes of check_verdict_notes.
+[[nodiscard]] VerdictTable check_verdict(const LedgerResult& ledger, double near_share);
 
 /// The verdict's "budget left" of a crew member whose binding limit stands at `status`: days
 /// more of the timeline's activity mix at its GCR rate until a limit binds, "none" (exceeded, or

@@ -58,7 +58,7 @@ struct Column {
     int csv_digits = 10; ///< significant figures in CSV ({:.Ng})
     double scale = 1.0;  ///< every format shows value * scale (e.g. 1e3: a value in Gy, in mGy)
     bool left = false;   ///< left-aligned (text columns) instead of right-aligned
-    int min_width = 0;   ///< text width at least this
+    int min_width = 0;   ///< text width at least this (aligned and list views)
     int gap = 2;         ///< spaces before the column in text
     std::string absent = "not computed"; ///< text for a value that is nothing
     std::string suffix_when_true;        ///< text: for a flag column, shown when true

@@ -192,7 +192,12 @@ std::string text_table(const Table& t, bool colour) {
     }
     std::string out = t.title.empty() ? "" : t.title + "\n";
     if (t.view == Table::View::list) {
-        for (const auto& line : cells) {
+        for (auto& line : cells) {
+            // A column's min_width holds here too, so that short numbers line up.
+            for (std::size_t k = 0; k < cols.size(); ++k) {
+                line[k] = padded(line[k], static_cast<std::size_t>(std::max(0, cols[k]->min_width)),
+                                 cols[k]->left);
+            }
             out += wrap(t.indent + filled(t.item_pattern, line), t.wrap_width, t.wrap_indent);
         }
         return out;

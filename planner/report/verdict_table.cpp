@@ -7,8 +7,19 @@
 
 #include <algorithm>
 #include <cmath>
+#include <string_view>
 
 namespace crewdose::planner {
+namespace {
+
+report::Tone tone_of(const std::string& status) {
+    return status == "exceeded" ? report::Tone::alarm
+           : status == "near"   ? report::Tone::caution
+           : status == "within" ? report::Tone::good
+                                : report::Tone::plain;
+}
+
+} // namespace
 
 std::string format_verdict_text(const VerdictTable& table) {
     report::Document doc;
@@ -17,7 +28,26 @@ std::string format_verdict_text(const VerdictTable& table) {
 }
 
 void append_verdict(report::Document& doc, const VerdictTable& table) {
-    doc.text(table.headline, {}, 100, "  ");
+    const std::size_t at = table.headline_words.empty() ? std::string::npos
+                                                        : table.headline.find(table.headline_words);
+    if (at == std::string::npos) {
+        doc.text(table.headline, {}, 100, "  ");
+    } else {
+        // The headline as a pattern around its answer words, which carry the status's tone.
+        const auto escaped = [](std::string_view s) {
+            std::string out;
+            for (const char c : s) {
+                out += c == '{' ? "{{" : c == '}' ? "}}" : std::string(1, c);
+            }
+            return out;
+        };
+        const std::string_view h = table.headline;
+        report::Field words{"verdict", table.headline_words};
+        words.tone = tone_of(table.headline_status);
+        doc.text(escaped(h.substr(0, at)) + "{0}" +
+                     escaped(h.substr(at + table.headline_words.size())),
+                 {words}, 100, "  ");
+    }
     report::Table t;
     t.key = "verdict";
     t.in_json = false;
@@ -38,11 +68,7 @@ void append_verdict(report::Document& doc, const VerdictTable& table) {
         for (std::size_t k = 0; k < table.columns.size(); ++k) {
             const VerdictCell* cell = k < row.size() ? &row[k] : nullptr;
             cells.emplace_back(cell ? cell->text : std::string());
-            const std::string status = cell ? cell->status : std::string();
-            tones.push_back(status == "exceeded" ? report::Tone::alarm
-                            : status == "near"   ? report::Tone::caution
-                            : status == "within" ? report::Tone::good
-                                                 : report::Tone::plain);
+            tones.push_back(tone_of(cell ? cell->status : std::string()));
         }
         t.rows.push_back(std::move(cells));
         t.tones.push_back(std::move(tones));

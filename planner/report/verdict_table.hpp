@@ -29,6 +29,10 @@ struct VerdictTable {
     /// Remarks on single rows, each a sentence under the table ("not evaluated for b: ...").
     std::vector<std::string> notes;
     std::string note; ///< what the columns mean (may be empty)
+    /// The words of the headline that state the answer ("A PLANNING LIMIT IS EXCEEDED") and
+    /// their status, for colour on a terminal ("within", "near", "exceeded"; empty: none).
+    std::string headline_words;
+    std::string headline_status;
 };
 
 /// The table as text: the headline wrapped at 100 columns, the columns aligned (two spaces
