@@ -1,15 +1,15 @@
 #include "planner/report/storm_report.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/scenario/time_format.hpp"
-#include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
+#include <cstdint>
 #include <limits>
 #include <optional>
 
@@ -17,86 +17,26 @@ namespace crewdose::planner {
 
 namespace {
 
-nlohmann::json crew_json(const StormCrew& c) {
-    nlohmann::json j{{"id", c.crew},
-                     {"name", c.name},
-                     {"worst_ratio", c.worst_ratio()},
-                     {"sun_distance_AU", c.sun_distance_AU},
-                     {"distance_basis", c.distance_basis},
-                     {"fluence_scale", c.fluence_scale}};
-    for (const auto& o : c.organs) {
-        j["organs"][o.organ] = {{"without_response_mGyEq", o.without_response_mGyEq},
-                                {"with_response_mGyEq", o.with_response_mGyEq},
-                                {"saved_mGyEq", o.without_response_mGyEq - o.with_response_mGyEq},
-                                {"other_30d_mGyEq", o.other_30d_mGyEq},
-                                {"limit_30d_mGyEq", o.limit_30d_mGyEq},
-                                {"margin_30d_mGyEq", o.margin()},
-                                {"exceeded", o.exceeded()}};
-    }
-    for (const auto& s : c.responded) {
-        j["timeline"].push_back({{"start", format_time(s.start)},
-                                 {"end", format_time(s.end)},
-                                 {"location", s.location},
-                                 {"what", s.label}});
-    }
-    return j;
+using report::Field;
+using report::Rounding;
+
+// A number in a sentence: `digits` significant figures of value * scale.
+Field number(std::string key, double value, int digits = 3, double scale = 1.0) {
+    return Field{std::move(key), value, digits, Rounding::significant, scale};
 }
 
-std::string model_note(const StormContext& ctx) {
-    const Scenario& sc = ctx.study().scenario();
-    const EventSpec& ev = ctx.event();
-    std::string arrival =
-        ev.fixed_arrival
-            ? fmt::format("every energy arrives {} h after t0 (fixed arrival_delay_h)",
-                          significant(ev.arrival_delay_h, 3))
-            : fmt::format("scatter-free arrival, the earliest possible: 10, 100 and 1000 MeV "
-                          "protons {}, {} and {} min after t0 (field line {} AU, site {} AU from "
-                          "the Sun)",
-                          significant(60 * ev.delay_h(10), 3), significant(60 * ev.delay_h(100), 3),
-                          significant(60 * ev.delay_h(1000), 3), significant(ev.path_length_AU, 3),
-                          significant(ev.sun_distance_AU, 3));
-    std::string organs;
-    for (std::size_t k = 0; k < ctx.organs().size(); ++k) {
-        organs += fmt::format("{}{}", k == 0 ? "" : (k + 1 == ctx.organs().size() ? " and " : ", "),
-                              organ_label(ctx.organs()[k]));
-    }
-    bool elsewhere = false;
-    for (const auto& track : sc.sun_tracks) {
-        elsewhere = elsewhere || track.lowest_AU() != ev.sun_distance_AU ||
-                    track.highest_AU() != ev.sun_distance_AU;
-    }
-    if (elsewhere) {
-        arrival += fmt::format("; crew away from the site (transits) meet the event at their own "
-                               "distance from the Sun, its fluence scaled as distance^-{} from "
-                               "where its spectrum is given and arriving along the field line "
-                               "there (arrival on a 0.01 AU grid)",
-                               significant(sc.mission.sep_fluence_exponent, 3));
-    }
-    std::string unchecked;
-    if (!ctx.unchecked_note().empty()) {
-        unchecked = fmt::format(" Not checked: {}.", ctx.unchecked_note());
-    }
-    return fmt::format(
-        "t0 is when the flare is seen at the site; {}. 30-day dose = the event (uncertainty "
-        "factor {:.2f}, the higher of with and without nuclear reactions, each location's body "
-        "model; {}) plus the crew member's highest 30-day dose from everything else, wherever "
-        "it lies (conservative: as if both fell in one window).{}",
-        arrival, sc.limits.uncertainty_factor, organs, unchecked);
+// A share (1 = the whole limit) in a sentence, as a whole percentage.
+Field percent(std::string key, double share) {
+    return Field{std::move(key), share, 0, Rounding::fixed, 100.0};
 }
 
-std::string policy_text(const StormPolicy& p) {
-    return fmt::format(
-        "Response: warning {} min after t0; crew inside reach {} within {} min; crew on EVA or "
-        "driving return in their activity's return_min (default {} min) to its refuge (default "
-        "the shelter); no EVA starts before the all-clear, {}; the rest of the timeline is "
-        "unchanged.",
-        significant(p.warning_delay_min, 3), p.shelter, significant(p.move_to_shelter_min, 3),
-        significant(p.eva_return_min, 3),
-        p.all_clear_above_MeV
-            ? fmt::format("which comes when the flux above {} MeV falls below {} /(cm2 s sr)",
-                          significant(*p.all_clear_above_MeV, 3),
-                          significant(p.all_clear_flux_per_cm2_s_sr, 3))
-            : fmt::format("which comes {} h after t0", significant(p.all_clear_h, 3)));
+// Words in a sentence (never a pattern: braces in them stay as they are).
+Field words(std::string key, std::string text) {
+    return Field{std::move(key), std::move(text)};
+}
+
+Field whole(std::string key, std::int64_t n) {
+    return Field{std::move(key), n};
 }
 
 // Every part of the 30-day dose was computed (finite, >= 0) and the limit is a positive number.
@@ -240,35 +180,6 @@ VerdictTable storm_verdict(const StormContext& ctx, const std::vector<StormVerdi
     return t;
 }
 
-// The verdict for JSON: the sentence, the near share and a row per crew member, the same
-// numbers the text table rounds. A dose that was not computed is null with status "exceeded".
-void add_verdict_json(nlohmann::json& j, const VerdictTable& table,
-                      const std::vector<StormVerdictRow>& rows, double near_share) {
-    j["verdict"] = table.headline;
-    j["near_share"] = near_share;
-    j["headline"] = nlohmann::json::array();
-    for (const StormVerdictRow& v : rows) {
-        nlohmann::json row{{"crew", v.crew->crew}};
-        if (!v.organ) {
-            row["organ"] = nullptr;
-            row["status"] = "no organ checked";
-        } else {
-            row["organ"] = v.organ->organ;
-            row["window"] = "30-day";
-            row["dose"] = v.known ? nlohmann::json(v.dose) : nlohmann::json(nullptr);
-            row["limit"] = v.organ->limit_30d_mGyEq;
-            row["unit"] = "mGy-Eq";
-            row["share_of_limit"] =
-                v.known ? nlohmann::json(v.dose / v.organ->limit_30d_mGyEq) : nullptr;
-            row["status"] = v.over ? "exceeded" : (v.near ? "near" : "within");
-        }
-        if (v.onset) {
-            row["worst_onset"] = format_time_exact(*v.onset);
-        }
-        j["headline"].push_back(std::move(row));
-    }
-}
-
 std::string crew_count(std::size_t n, std::size_t of) {
     return fmt::format("{} of {} crew member{}", n, of, of == 1 ? "" : "s");
 }
@@ -335,6 +246,259 @@ VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
     return t;
 }
 
+// The organs in words: "BFO, lens and skin".
+std::string organ_list(const std::vector<std::string>& organs) {
+    std::string out;
+    for (std::size_t k = 0; k < organs.size(); ++k) {
+        out += (k == 0 ? "" : (k + 1 == organs.size() ? " and " : ", ")) + organ_label(organs[k]);
+    }
+    return out;
+}
+
+// What the numbers mean: the arrival, the 30-day dose; JSON carries it as "model".
+report::Text model_text(const StormContext& ctx) {
+    const Scenario& sc = ctx.study().scenario();
+    const EventSpec& ev = ctx.event();
+    report::Text t;
+    t.wrap_width = 96;
+    t.json_key = "model";
+    t.pattern = "t0 is when the flare is seen at the site; ";
+    if (ev.fixed_arrival) {
+        t.pattern += "every energy arrives {} h after t0 (fixed arrival_delay_h)";
+        t.args.push_back(number("arrival_delay_h", ev.arrival_delay_h));
+    } else {
+        t.pattern += "scatter-free arrival, the earliest possible: 10, 100 and 1000 MeV protons "
+                     "{}, {} and {} min after t0 (field line {} AU, site {} AU from the Sun)";
+        t.args.push_back(number("arrival_10MeV_min", ev.delay_h(10), 3, 60.0));
+        t.args.push_back(number("arrival_100MeV_min", ev.delay_h(100), 3, 60.0));
+        t.args.push_back(number("arrival_1000MeV_min", ev.delay_h(1000), 3, 60.0));
+        t.args.push_back(number("path_length_AU", ev.path_length_AU));
+        t.args.push_back(number("sun_distance_AU", ev.sun_distance_AU));
+    }
+    bool elsewhere = false;
+    for (const auto& track : sc.sun_tracks) {
+        elsewhere = elsewhere || track.lowest_AU() != ev.sun_distance_AU ||
+                    track.highest_AU() != ev.sun_distance_AU;
+    }
+    if (elsewhere) {
+        t.pattern += "; crew away from the site (transits) meet the event at their own distance "
+                     "from the Sun, its fluence scaled as distance^-{} from where its spectrum is "
+                     "given and arriving along the field line there (arrival on a 0.01 AU grid)";
+        t.args.push_back(number("sep_fluence_exponent", sc.mission.sep_fluence_exponent));
+    }
+    t.pattern += ". 30-day dose = the event (uncertainty factor {}, the higher of with and without "
+                 "nuclear reactions, each location's body model; {}) plus the crew member's "
+                 "highest 30-day dose from everything else, wherever it lies (conservative: as "
+                 "if both fell in one window).{}";
+    t.args.push_back({"uncertainty_factor", sc.limits.uncertainty_factor, 2, Rounding::fixed});
+    t.args.push_back(words("organs", organ_list(ctx.organs())));
+    t.args.push_back(words("unchecked", ctx.unchecked_note().empty()
+                                            ? std::string()
+                                            : " Not checked: " + ctx.unchecked_note() + "."));
+    return t;
+}
+
+// The response policy, in a sentence.
+report::Text policy_text(const StormPolicy& p) {
+    report::Text t;
+    t.wrap_width = 96;
+    t.pattern = "Response: warning {} min after t0; crew inside reach {} within {} min; crew on "
+                "EVA or driving return in their activity's return_min (default {} min) to its "
+                "refuge (default the shelter); no EVA starts before the all-clear, ";
+    t.args = {number("warning_delay_min", p.warning_delay_min), words("shelter", p.shelter),
+              number("move_to_shelter_min", p.move_to_shelter_min),
+              number("eva_return_min", p.eva_return_min)};
+    if (p.all_clear_above_MeV) {
+        t.pattern += "which comes when the flux above {} MeV falls below {} /(cm2 s sr)";
+        t.args.push_back(number("all_clear_above_MeV", *p.all_clear_above_MeV));
+        t.args.push_back(number("all_clear_flux", p.all_clear_flux_per_cm2_s_sr));
+    } else {
+        t.pattern += "which comes {} h after t0";
+        t.args.push_back(number("all_clear_h", p.all_clear_h));
+    }
+    t.pattern += "; the rest of the timeline is unchanged.";
+    return t;
+}
+
+// One crew member for JSON: who, where from the Sun, per organ the event with and without the
+// response against the 30-day limit, and the spans that meet the event.
+std::vector<Field> crew_fields(const StormCrew& c) {
+    std::vector<Field> f{words("id", c.crew),
+                         words("name", c.name),
+                         {"worst_ratio", c.worst_ratio()},
+                         {"sun_distance_AU", c.sun_distance_AU},
+                         words("distance_basis", c.distance_basis),
+                         {"fluence_scale", c.fluence_scale}};
+    report::Object organs;
+    for (const auto& o : c.organs) {
+        organs.fields.push_back(
+            {o.organ,
+             report::Object{{{"without_response_mGyEq", o.without_response_mGyEq},
+                             {"with_response_mGyEq", o.with_response_mGyEq},
+                             {"saved_mGyEq", o.without_response_mGyEq - o.with_response_mGyEq},
+                             {"other_30d_mGyEq", o.other_30d_mGyEq},
+                             {"limit_30d_mGyEq", o.limit_30d_mGyEq},
+                             {"margin_30d_mGyEq", o.margin()},
+                             {"exceeded", o.exceeded()}}}});
+    }
+    if (!organs.fields.empty()) {
+        f.push_back({"organs", std::move(organs)});
+    }
+    report::Records timeline;
+    for (const auto& s : c.responded) {
+        timeline.items.push_back({words("start", format_time(s.start)),
+                                  words("end", format_time(s.end)), words("location", s.location),
+                                  words("what", s.label)});
+    }
+    if (!timeline.items.empty()) {
+        f.push_back({"timeline", std::move(timeline)});
+    }
+    return f;
+}
+
+// The verdict for JSON: a row per crew member, the same numbers the text table rounds. A dose
+// that was not computed is null with status "exceeded".
+report::Records verdict_records(const std::vector<StormVerdictRow>& rows) {
+    report::Records out;
+    for (const StormVerdictRow& v : rows) {
+        std::vector<Field> row{words("crew", v.crew->crew)};
+        if (!v.organ) {
+            row.push_back({"organ", std::monostate{}});
+            row.push_back(words("status", "no organ checked"));
+        } else {
+            const double limit = v.organ->limit_30d_mGyEq;
+            row.push_back(words("organ", v.organ->organ));
+            row.push_back(words("window", "30-day"));
+            row.push_back({"dose", v.known ? report::Value(v.dose) : report::Value()});
+            row.push_back({"limit", limit});
+            row.push_back(words("unit", "mGy-Eq"));
+            row.push_back(
+                {"share_of_limit", v.known ? report::Value(v.dose / limit) : report::Value()});
+            row.push_back(words("status", v.over ? "exceeded" : (v.near ? "near" : "within")));
+        }
+        if (v.onset) {
+            row.push_back(words("worst_onset", format_time_exact(*v.onset)));
+        }
+        out.items.push_back(std::move(row));
+    }
+    return out;
+}
+
+// The verdict's sentence and rows in JSON, the near share they were judged with.
+report::Group verdict_group(const VerdictTable& table, const std::vector<StormVerdictRow>& rows,
+                            double near_share) {
+    return {"",
+            {words("verdict", table.headline),
+             {"near_share", near_share},
+             {"headline", verdict_records(rows)}}};
+}
+
+// The cautions (also in JSON), then a blank line.
+void add_cautions(report::Document& doc) {
+    doc.keyed_text("cautions", caution_text());
+    doc.blank();
+}
+
+// A crew member's organs in text: the event without and with the response, what it saves, the
+// other 30-day dose, the limit and the margin left.
+report::Table organ_table(const StormCrew& c) {
+    report::Table t;
+    t.key = "organs";
+    t.in_json = false; // JSON: the crew member's "organs" object
+    auto col = [](std::string key, std::string header, int width) {
+        report::Column k =
+            report::number_column(std::move(key), std::move(header), {}, width, 1.0, 3);
+        k.gap = 1;
+        return k;
+    };
+    report::Column organ = report::text_column("organ", "organ");
+    organ.min_width = 6;
+    report::Column exceeded = report::text_column("exceeded");
+    exceeded.suffix_when_true = "EXCEEDED";
+    t.columns = {organ,
+                 col("without_response_mGyEq", "no response", 12),
+                 col("with_response_mGyEq", "response", 12),
+                 col("saved_mGyEq", "saved", 10),
+                 col("other_30d_mGyEq", "other 30d", 12),
+                 col("limit_30d_mGyEq", "limit", 8),
+                 col("margin_30d_mGyEq", "margin", 10),
+                 exceeded};
+    for (const auto& o : c.organs) {
+        t.rows.push_back({organ_label(o.organ), o.without_response_mGyEq, o.with_response_mGyEq,
+                          o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
+                          o.limit_30d_mGyEq, o.margin(), o.exceeded()});
+    }
+    return t;
+}
+
+// Where a crew member is from t0 on (text; JSON has the spans in "timeline").
+report::Table where_table(const StormCrew& c, Time onset) {
+    report::Table t;
+    t.key = "timeline";
+    t.title = "  where (from t0):";
+    t.in_json = false;
+    t.view = report::Table::View::list;
+    t.item_pattern = "{0} to {1} {2}";
+    t.indent = "    ";
+    t.wrap_width = 100;
+    t.wrap_indent = "      ";
+    t.columns = {report::text_column("start"), report::text_column("end"),
+                 report::text_column("what")};
+    for (const auto& s : c.responded) {
+        t.rows.push_back({format_time(std::max(s.start, onset)), format_time(s.end), s.label});
+    }
+    return t;
+}
+
+// The what-if's CSV: a line per crew member and organ.
+report::Table whatif_csv_table(const StormWhatIf& w) {
+    report::Table t;
+    t.key = "organs";
+    t.in_text = false;
+    t.in_json = false;
+    t.is_csv = true;
+    auto col = [](std::string key) {
+        return report::number_column(std::move(key), {});
+    };
+    t.columns = {
+        report::text_column("crew"), report::text_column("organ"), col("without_response_mGyEq"),
+        col("with_response_mGyEq"),  col("saved_mGyEq"),           col("other_30d_mGyEq"),
+        col("limit_30d_mGyEq"),      col("margin_30d_mGyEq"),      report::text_column("exceeded")};
+    for (const auto& c : w.crew) {
+        for (const auto& o : c.organs) {
+            t.rows.push_back({c.crew, o.organ, o.without_response_mGyEq, o.with_response_mGyEq,
+                              o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
+                              o.limit_30d_mGyEq, o.margin(),
+                              std::string(o.exceeded() ? "yes" : "no")});
+        }
+    }
+    return t;
+}
+
+// The sweep's CSV: a line per EVA and rover drive.
+report::Table sweep_csv_table(const StormSweep& s) {
+    report::Table t;
+    t.key = "evas";
+    t.in_text = false;
+    t.in_json = false;
+    t.is_csv = true;
+    t.columns = {report::text_column("activity"),
+                 report::text_column("start"),
+                 report::text_column("end"),
+                 report::text_column("worst_onset"),
+                 report::text_column("crew"),
+                 report::text_column("organ"),
+                 report::number_column("ratio_to_30d_limit", {}),
+                 report::text_column("go")};
+    for (const auto& e : s.evas) {
+        t.rows.push_back({e.label, format_time(e.start), format_time(e.end),
+                          e.swept() ? format_time_exact(e.worst_onset) : std::string(), e.crew,
+                          e.organ, e.ratio,
+                          std::string(!e.swept() ? "not swept" : (e.go() ? "go" : "no-go"))});
+    }
+    return t;
+}
+
 } // namespace
 
 VerdictTable storm_whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
@@ -346,72 +510,56 @@ VerdictTable storm_sweep_verdict(const StormContext& ctx, const StormSweep& s, d
     return sweep_verdict(ctx, s, storm_verdict_rows(verdict_crew(s), near_share), near_share);
 }
 
-std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
-                                double near_share) {
+report::Document storm_whatif_document(const StormContext& ctx, const StormWhatIf& w,
+                                       double near_share) {
     const Scenario& sc = ctx.study().scenario();
-    if (format == OutputFormat::json) {
-        nlohmann::json j{{"cautions", caution_text()},
-                         {"event", w.event_id},
-                         {"onset", format_time(w.times.onset)},
-                         {"warning", format_time(w.times.warning)},
-                         {"all_clear", format_time(w.times.all_clear)},
-                         {"respond", w.respond},
-                         {"model", model_note(ctx)},
-                         {"any_limit_exceeded", w.any_exceeded()}};
-        for (const auto& c : w.crew) {
-            j["crew"].push_back(crew_json(c));
-        }
-        // One set of rows for the sentence and the headline: they cannot disagree.
-        const auto rows = storm_verdict_rows(verdict_crew(w), near_share);
-        add_verdict_json(j, whatif_verdict(ctx, w, rows, near_share), rows, near_share);
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        std::string out = "crew,organ,without_response_mGyEq,with_response_mGyEq,saved_mGyEq,"
-                          "other_30d_mGyEq,limit_30d_mGyEq,margin_30d_mGyEq,exceeded\n";
-        for (const auto& c : w.crew) {
-            for (const auto& o : c.organs) {
-                out +=
-                    fmt::format("{},{},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{:.10g},{}\n",
-                                c.crew, o.organ, o.without_response_mGyEq, o.with_response_mGyEq,
-                                o.without_response_mGyEq - o.with_response_mGyEq, o.other_30d_mGyEq,
-                                o.limit_30d_mGyEq, o.margin(), o.exceeded() ? "yes" : "no");
-            }
-        }
-        return out;
-    }
-    std::string out = fmt::format("crewdose storm: event {} with t0 at {}\nscenario: {}\n\n",
-                                  w.event_id, format_time(w.times.onset), sc.file);
-    out += format_verdict_text(storm_whatif_verdict(ctx, w, near_share));
-    out += caution_text() + "\n";
-    out += wrap(model_note(ctx), 96);
-    if (w.respond) {
-        out += wrap(policy_text(sc.storm), 96);
-        out += fmt::format("Warning {}, all-clear {}.\n", format_time(w.times.warning),
-                           format_time(w.times.all_clear));
-    } else {
-        out += "No response: the crew keep to the planned timeline.\n";
-    }
-    out += "\n";
+    // One set of rows for the text's verdict and JSON's: they cannot disagree.
+    const auto rows = storm_verdict_rows(verdict_crew(w), near_share);
+    const VerdictTable verdict = whatif_verdict(ctx, w, rows, near_share);
+    report::Document doc;
+    report::Records crew;
     for (const auto& c : w.crew) {
-        out += fmt::format("{} ({})\n", c.name, c.crew);
+        crew.items.push_back(crew_fields(c));
+    }
+    report::Group top{"",
+                      {words("event", w.event_id),
+                       words("onset", format_time(w.times.onset)),
+                       words("warning", format_time(w.times.warning)),
+                       words("all_clear", format_time(w.times.all_clear)),
+                       {"respond", w.respond},
+                       {"any_limit_exceeded", w.any_exceeded()}}};
+    if (!crew.items.empty()) {
+        top.fields.push_back({"crew", std::move(crew)});
+    }
+    doc.group(std::move(top));
+    doc.group(verdict_group(verdict, rows, near_share));
+
+    doc.text("crewdose storm: event {} with t0 at {}",
+             {words("event", w.event_id), words("onset", format_time(w.times.onset))});
+    doc.text("scenario: {}", {words("scenario", sc.file)});
+    doc.blank();
+    append_verdict(doc, verdict);
+    add_cautions(doc);
+    doc.blocks.emplace_back(model_text(ctx));
+    if (w.respond) {
+        doc.blocks.emplace_back(policy_text(sc.storm));
+        doc.text("Warning {}, all-clear {}.", {words("warning", format_time(w.times.warning)),
+                                               words("all_clear", format_time(w.times.all_clear))});
+    } else {
+        doc.text("No response: the crew keep to the planned timeline.");
+    }
+    doc.blank();
+    for (const auto& c : w.crew) {
+        doc.text("{} ({})", {words("name", c.name), words("id", c.crew)});
         if (c.sun_distance_AU != ctx.event().sun_distance_AU || c.fluence_scale != 1.0) {
-            out += wrap(fmt::format("  at {} AU from the Sun ({}): the event's fluence is {} times "
-                                    "its spectrum as written",
-                                    significant(c.sun_distance_AU, 3), c.distance_basis,
-                                    significant(c.fluence_scale, 3)),
-                        100, "    ");
+            doc.text("  at {} AU from the Sun ({}): the event's fluence is {} times its spectrum "
+                     "as written",
+                     {number("sun_distance_AU", c.sun_distance_AU),
+                      words("distance_basis", c.distance_basis),
+                      number("fluence_scale", c.fluence_scale)},
+                     100, "    ");
         }
-        out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}\n", "organ",
-                           "no response", "response", "saved", "other 30d", "limit", "margin");
-        for (const auto& o : c.organs) {
-            out += fmt::format("  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}{}\n",
-                               organ_label(o.organ), significant(o.without_response_mGyEq, 3),
-                               significant(o.with_response_mGyEq, 3),
-                               significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
-                               significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
-                               significant(o.margin(), 3), o.exceeded() ? "  EXCEEDED" : "");
-        }
+        doc.table(organ_table(c));
         // A response that adds dose (the crew wait out the event somewhere less shielded than
         // where the plan had them) is said so: "saved" below zero is easy to miss.
         std::vector<std::string> worse;
@@ -421,110 +569,110 @@ std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, O
             }
         }
         if (!worse.empty()) {
-            out += wrap(fmt::format("  NOTE: the response adds dose here ({}): the crew wait the "
-                                    "event out somewhere less shielded than the plan had them "
-                                    "(an EVA's refuge, or the place they are held until the "
-                                    "all-clear); check [storm_response] and the refuges",
-                                    fmt::format("{}", fmt::join(worse, ", "))),
-                        100, "    ");
+            doc.text("  NOTE: the response adds dose here ({}): the crew wait the event out "
+                     "somewhere less shielded than the plan had them (an EVA's refuge, or the "
+                     "place they are held until the all-clear); check [storm_response] and the "
+                     "refuges",
+                     {{"organs", report::List{worse}}}, 100, "    ");
         }
-        out += "  where (from t0):\n";
-        for (const auto& s : c.responded) {
-            out +=
-                wrap(fmt::format("    {} to {}  {}", format_time(std::max(s.start, w.times.onset)),
-                                 format_time(s.end), s.label),
-                     100, "      ");
-        }
-        out += "\n";
+        doc.table(where_table(c, w.times.onset));
+        doc.blank();
     }
-    out += w.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if.\n"
-                            : "Every 30-day planning limit is met in this what-if.\n";
-    return out;
+    doc.text(w.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED in this what-if."
+                              : "Every 30-day planning limit is met in this what-if.");
+    doc.table(whatif_csv_table(w));
+    return doc;
 }
 
-std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format,
-                               double near_share) {
+report::Document storm_sweep_document(const StormContext& ctx, const StormSweep& s,
+                                      double near_share) {
     const Scenario& sc = ctx.study().scenario();
-    if (format == OutputFormat::json) {
-        nlohmann::json j{
-            {"cautions", caution_text()},       {"event", s.event_id},
-            {"from", format_time(s.from)},      {"to", format_time(s.to)},
-            {"step_s", s.step.total_seconds()}, {"onsets", s.onsets},
-            {"model", model_note(ctx)},         {"any_limit_exceeded", s.any_exceeded()},
-            {"response", ctx.responds()}};
-        for (const auto& [onset, c] : s.worst) {
-            auto cj = crew_json(c);
-            cj["worst_onset"] = format_time_exact(onset);
-            j["worst"].push_back(cj);
-        }
-        // One set of rows for the sentence and the headline: they cannot disagree.
-        const auto rows = storm_verdict_rows(verdict_crew(s), near_share);
-        add_verdict_json(j, sweep_verdict(ctx, s, rows, near_share), rows, near_share);
-        for (const auto& e : s.evas) {
-            j["evas"].push_back(
-                {{"activity", e.label},
-                 {"start", format_time(e.start)},
-                 {"end", format_time(e.end)},
-                 {"worst_onset", e.ratio >= 0 ? format_time_exact(e.worst_onset) : ""},
-                 {"crew", e.crew},
-                 {"organ", e.organ},
-                 {"ratio_to_30d_limit", e.ratio},
-                 {"swept", e.swept()},
-                 {"go", e.go()}});
-        }
-        for (const auto& [t, r] : s.profile) {
-            j["profile"].push_back({{"bin_start", format_time(t)}, {"worst_ratio", r}});
-        }
-        j["profile_bin_h"] = s.profile_bin_h;
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        std::string out = "activity,start,end,worst_onset,crew,organ,ratio_to_30d_limit,go\n";
-        for (const auto& e : s.evas) {
-            out += fmt::format(
-                "\"{}\",{},{},{},{},{},{:.10g},{}\n", e.label, format_time(e.start),
-                format_time(e.end), e.ratio >= 0 ? format_time_exact(e.worst_onset) : "", e.crew,
-                e.organ, e.ratio, !e.swept() ? "not swept" : (e.go() ? "go" : "no-go"));
-        }
-        return out;
-    }
     const bool responds = ctx.responds();
-    std::string out =
-        wrap(fmt::format("crewdose storm sweep: event {} with t0 from {} to {}, every {} plus {} {}"
-                         "breakpoints",
-                         s.event_id, format_time(s.from), format_time(s.to),
-                         format_duration(s.step),
-                         s.onsets -
-                             static_cast<std::size_t>((s.to - s.from).total_seconds() /
-                                                      s.step.total_seconds()) -
-                             1,
-                         responds ? "policy " : "timeline "),
-             100, "  ") +
-        fmt::format("scenario: {}\n\n", sc.file);
-    out += format_verdict_text(storm_sweep_verdict(ctx, s, near_share));
-    out += caution_text() + "\n";
-    out += wrap(model_note(ctx), 96);
-    out += responds ? wrap(policy_text(sc.storm), 96) + "\n"
-                    : "No response (--no-response): the crew keep to the planned timeline.\n\n";
+    // One set of rows for the text's verdict and JSON's: they cannot disagree.
+    const auto rows = storm_verdict_rows(verdict_crew(s), near_share);
+    const VerdictTable verdict = sweep_verdict(ctx, s, rows, near_share);
+    report::Document doc;
+    report::Group top{"",
+                      {words("event", s.event_id),
+                       words("from", format_time(s.from)),
+                       words("to", format_time(s.to)),
+                       whole("step_s", s.step.total_seconds()),
+                       whole("onsets", static_cast<std::int64_t>(s.onsets)),
+                       {"any_limit_exceeded", s.any_exceeded()},
+                       {"response", responds},
+                       whole("profile_bin_h", s.profile_bin_h)}};
+    report::Records worst;
+    for (const auto& [onset, c] : s.worst) {
+        auto fields = crew_fields(c);
+        fields.push_back(words("worst_onset", format_time_exact(onset)));
+        worst.items.push_back(std::move(fields));
+    }
+    if (!worst.items.empty()) {
+        top.fields.push_back({"worst", std::move(worst)});
+    }
+    report::Records evas;
+    for (const auto& e : s.evas) {
+        evas.items.push_back(
+            {words("activity", e.label), words("start", format_time(e.start)),
+             words("end", format_time(e.end)),
+             words("worst_onset", e.swept() ? format_time_exact(e.worst_onset) : std::string()),
+             words("crew", e.crew), words("organ", e.organ), Field{"ratio_to_30d_limit", e.ratio},
+             Field{"swept", e.swept()}, Field{"go", e.go()}});
+    }
+    if (!evas.items.empty()) {
+        top.fields.push_back({"evas", std::move(evas)});
+    }
+    report::Records profile;
+    for (const auto& [t, r] : s.profile) {
+        profile.items.push_back({words("bin_start", format_time(t)), Field{"worst_ratio", r}});
+    }
+    if (!profile.items.empty()) {
+        top.fields.push_back({"profile", std::move(profile)});
+    }
+    doc.group(std::move(top));
+    doc.group(verdict_group(verdict, rows, near_share));
+
+    // The onsets beyond the regular steps are the policy's (or timeline's) breakpoints.
+    const std::int64_t regular = (s.to - s.from).total_seconds() / s.step.total_seconds() + 1;
+    doc.text("crewdose storm sweep: event {} with t0 from {} to {}, every {} plus {} {}breakpoints",
+             {words("event", s.event_id), words("from", format_time(s.from)),
+              words("to", format_time(s.to)), words("step", format_duration(s.step)),
+              whole("breakpoints", static_cast<std::int64_t>(s.onsets) - regular),
+              words("kind", responds ? "policy " : "timeline ")},
+             100, "  ");
+    doc.text("scenario: {}", {words("scenario", sc.file)});
+    doc.blank();
+    append_verdict(doc, verdict);
+    add_cautions(doc);
+    doc.blocks.emplace_back(model_text(ctx));
+    if (responds) {
+        doc.blocks.emplace_back(policy_text(sc.storm));
+    } else {
+        doc.text("No response (--no-response): the crew keep to the planned timeline.");
+    }
+    doc.blank();
     // The worst onset itself is the verdict's "worst t0": said once.
-    out += fmt::format("At each crew member's worst onset (the verdict's worst t0; 30-day dose {}, "
-                       "mGy-Eq):\n",
-                       responds ? "with the response" : "without a response");
+    doc.text("At each crew member's worst onset (the verdict's worst t0; 30-day dose {}, "
+             "mGy-Eq):",
+             {words("how", responds ? "with the response" : "without a response")});
     // Where the response gives an organ more of the event than the planned timeline would.
-    std::vector<std::string> adds;
+    std::string adds;
+    std::vector<Field> adds_args;
     const StormOrgan* most_saved = nullptr;
     const StormCrew* most_saved_by = nullptr;
     for (const auto& [onset, c] : s.worst) {
-        const StormOrgan* worst = nullptr;
-        std::vector<std::string> more;
+        const StormOrgan* worst_organ = nullptr;
+        std::string more;
+        std::vector<Field> more_args;
         for (const auto& o : c.organs) {
-            if (!worst || o.ratio() > worst->ratio()) {
-                worst = &o;
+            if (!worst_organ || o.ratio() > worst_organ->ratio()) {
+                worst_organ = &o;
             }
             const double saved = o.without_response_mGyEq - o.with_response_mGyEq;
             if (saved < 0.0) {
-                more.push_back(
-                    fmt::format("{} +{} mGy-Eq", organ_label(o.organ), significant(-saved, 3)));
+                more += std::string(more.empty() ? "" : ", ") + "{} +{} mGy-Eq";
+                more_args.push_back(words("organ", organ_label(o.organ)));
+                more_args.push_back(number("added_mGyEq", -saved));
             } else if (!most_saved || saved > most_saved->without_response_mGyEq -
                                                   most_saved->with_response_mGyEq) {
                 most_saved = &o;
@@ -532,87 +680,107 @@ std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, Out
             }
         }
         if (!more.empty()) {
-            adds.push_back(fmt::format("{} ({})", c.name, fmt::join(more, ", ")));
+            adds += std::string(adds.empty() ? "" : "; ") + "{} (" + more + ")";
+            adds_args.push_back(words("name", c.name));
+            adds_args.insert(adds_args.end(), more_args.begin(), more_args.end());
         }
-        if (!worst) {
+        if (!worst_organ) {
             continue;
         }
-        out += wrap(fmt::format("  {} ({}): {} {} = {} event + {} other of {} ({:.0f} %){}", c.name,
-                                c.crew, organ_label(worst->organ),
-                                significant(worst->with_response_mGyEq + worst->other_30d_mGyEq, 3),
-                                significant(worst->with_response_mGyEq, 3),
-                                significant(worst->other_30d_mGyEq, 3),
-                                significant(worst->limit_30d_mGyEq, 3), 100.0 * worst->ratio(),
-                                worst->exceeded() ? "  EXCEEDED" : ""),
-                    100, "      ");
+        const StormOrgan& o = *worst_organ;
+        doc.text("  {} ({}): {} {} = {} event + {} other of {} ({} %){}",
+                 {words("name", c.name), words("id", c.crew), words("organ", organ_label(o.organ)),
+                  number("dose_30d_mGyEq", o.with_response_mGyEq + o.other_30d_mGyEq),
+                  number("event_mGyEq", o.with_response_mGyEq),
+                  number("other_30d_mGyEq", o.other_30d_mGyEq),
+                  number("limit_30d_mGyEq", o.limit_30d_mGyEq), percent("used", o.ratio()),
+                  words("status", o.exceeded() ? "  EXCEEDED" : "")},
+                 100, "      ");
     }
     // Whether the response helps there, from these numbers (the sweep computes the planned
     // timeline's dose beside the response's only at the worst onsets).
     if (responds && !adds.empty()) {
-        out += wrap(fmt::format("  NOTE: the response adds dose at the worst onset for {} "
-                                "(with the response, more than on the planned timeline): the "
-                                "crew wait the event out somewhere less shielded than the plan "
-                                "had them (an EVA's refuge, or the place they are held until the "
-                                "all-clear); check [storm_response] and the refuges",
-                                fmt::format("{}", fmt::join(adds, "; "))),
-                    100, "    ");
+        doc.text("  NOTE: the response adds dose at the worst onset for " + adds +
+                     " (with the response, more than on the planned timeline): the crew wait "
+                     "the event out somewhere less shielded than the plan had them (an EVA's "
+                     "refuge, or the place they are held until the all-clear); check "
+                     "[storm_response] and the refuges",
+                 adds_args, 100, "    ");
     } else if (responds && most_saved &&
                most_saved->without_response_mGyEq == most_saved->with_response_mGyEq) {
-        out += "  At every crew member's worst onset the response leaves the event's dose as "
-               "planned.\n";
+        doc.text("  At every crew member's worst onset the response leaves the event's dose as "
+                 "planned.");
     } else if (responds && most_saved) {
-        out += wrap(fmt::format("  At every crew member's worst onset the response lowers the "
-                                "event's dose or leaves it as planned, organ by organ; it saves "
-                                "most for {}: {} {} mGy-Eq of {} on the planned timeline.",
-                                most_saved_by->name, organ_label(most_saved->organ),
-                                significant(most_saved->without_response_mGyEq -
-                                                most_saved->with_response_mGyEq,
-                                            3),
-                                significant(most_saved->without_response_mGyEq, 3)),
-                    100, "    ");
+        doc.text("  At every crew member's worst onset the response lowers the event's dose or "
+                 "leaves it as planned, organ by organ; it saves most for {}: {} {} mGy-Eq of {} "
+                 "on the planned timeline.",
+                 {words("name", most_saved_by->name),
+                  words("organ", organ_label(most_saved->organ)),
+                  number("saved_mGyEq",
+                         most_saved->without_response_mGyEq - most_saved->with_response_mGyEq),
+                  number("without_response_mGyEq", most_saved->without_response_mGyEq)},
+                 100, "    ");
     }
-    out += "\n" + wrap(fmt::format("Go/no-go per EVA and rover drive (the design event starting at "
-                                   "the worst moment of it, {}):",
-                                   responds ? "with the planned response"
-                                            : "the crew keeping to the planned timeline"),
-                       100);
+    doc.blank();
+    doc.text("Go/no-go per EVA and rover drive (the design event starting at the worst moment of "
+             "it, {}):",
+             {words("how", responds ? "with the planned response"
+                                    : "the crew keeping to the planned timeline")},
+             100);
     for (const auto& e : s.evas) {
         if (!e.swept()) {
-            out += wrap(fmt::format("  NOT SWEPT {} to {}, {}: no onset of the sweep falls inside "
-                                    "it (widen --from/--to)",
-                                    format_time(e.start), format_time(e.end), e.label),
-                        100, "        ");
+            doc.text("  NOT SWEPT {} to {}, {}: no onset of the sweep falls inside it (widen "
+                     "--from/--to)",
+                     {words("start", format_time(e.start)), words("end", format_time(e.end)),
+                      words("activity", e.label)},
+                     100, "        ");
             continue;
         }
         // The onset exact to the fraction of a second of a policy breakpoint, as in the
         // verdict: --onset reads it back to the very onset.
-        out += wrap(fmt::format("  {:<5} {} to {}, {}: worst t0 {}, {} {} at {:.0f} % of its "
-                                "30-day limit",
-                                e.go() ? "GO" : "NO-GO", format_time(e.start), format_time(e.end),
-                                e.label, format_time_exact(e.worst_onset), e.crew,
-                                organ_label(e.organ), 100.0 * e.ratio),
-                    100, "        ");
+        doc.text("  {} {} to {}, {}: worst t0 {}, {} {} at {} % of its 30-day limit",
+                 {words("go", e.go() ? "GO" : "NO-GO"), words("start", format_time(e.start)),
+                  words("end", format_time(e.end)), words("activity", e.label),
+                  words("worst_onset", format_time_exact(e.worst_onset)), words("crew", e.crew),
+                  words("organ", organ_label(e.organ)), percent("ratio", e.ratio)},
+                 100, "        ");
     }
-    out += fmt::format("\nProfile: the highest share of a 30-day limit over the crew, per {} of "
-                       "onset\n  (each # is 5 %; a bar that ends in > goes beyond 200 %):\n",
-                       profile_bin_text(s.profile_bin_h));
+    doc.blank();
+    doc.text("Profile: the highest share of a 30-day limit over the crew, per {} of onset\n"
+             "  (each # is 5 %; a bar that ends in > goes beyond 200 %):",
+             {words("bin", profile_bin_text(s.profile_bin_h))});
     const boost::posix_time::time_duration bin = boost::posix_time::hours(s.profile_bin_h);
     std::optional<Time> last;
     for (const auto& [t, r] : s.profile) {
         // A bin no onset fell in (a step longer than the bin) is said so, never left out.
         for (Time gap = last ? *last + bin : t; gap < t; gap += bin) {
-            out += fmt::format("  {}    - no onset in this bin (--step {} is longer)\n",
-                               format_time(gap), format_duration(s.step));
+            doc.text(
+                "  {}    - no onset in this bin (--step {} is longer)",
+                {words("bin_start", format_time(gap)), words("step", format_duration(s.step))});
         }
         last = t;
+        // The bar: a # per 5 %, up to 200 %.
         const int n = static_cast<int>(std::lround(std::min(r, 2.0) * 20.0));
-        out += fmt::format("  {} {:>4.0f} % {}{}\n", format_time(t), 100.0 * r,
-                           std::string(static_cast<std::size_t>(n), '#'), r > 2.0 ? ">" : "");
+        doc.text("  {} {:>4} % {}{}",
+                 {words("bin_start", format_time(t)), percent("worst_ratio", r),
+                  words("bar", std::string(static_cast<std::size_t>(n), '#')),
+                  words("beyond", r > 2.0 ? ">" : "")});
     }
-    out += "\n";
-    out += s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset.\n"
-                            : "Every 30-day planning limit is met at every onset tried.\n";
-    return out;
+    doc.blank();
+    doc.text(s.any_exceeded() ? "A 30-DAY PLANNING LIMIT IS EXCEEDED at some onset."
+                              : "Every 30-day planning limit is met at every onset tried.");
+    doc.table(sweep_csv_table(s));
+    return doc;
+}
+
+std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
+                                double near_share) {
+    return report::write(storm_whatif_document(ctx, w, near_share), format);
+}
+
+std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format,
+                               double near_share) {
+    return report::write(storm_sweep_document(ctx, s, near_share), format);
 }
 
 } // namespace crewdose::planner

@@ -3,6 +3,7 @@
 // verdict (storm_whatif_verdict, storm_sweep_verdict), then the cautions, the model and the
 // detail.
 #include "planner/analyses/storm.hpp"
+#include "planner/report/document.hpp"
 #include "planner/report/output_format.hpp"
 #include "planner/report/verdict_table.hpp"
 
@@ -22,6 +23,20 @@ namespace crewdose::planner {
 [[nodiscard]] VerdictTable storm_sweep_verdict(const StormContext& context, const StormSweep& s,
                                                double near_share = kDefaultNearShare);
 
+/// One what-if as a report Document: the verdict, the cautions, the model and the response,
+/// then per crew member the organs and where they are from t0. JSON carries the crew's numbers
+/// and the verdict's rows; CSV a line per crew member and organ.
+[[nodiscard]] report::Document storm_whatif_document(const StormContext& context,
+                                                     const StormWhatIf& w,
+                                                     double near_share = kDefaultNearShare);
+/// A sweep as a report Document: the verdict, the cautions and the model, each crew member's
+/// worst onset, go/no-go per EVA and rover drive, and the profile of onsets. CSV: a line per
+/// EVA and rover drive.
+[[nodiscard]] report::Document storm_sweep_document(const StormContext& context,
+                                                    const StormSweep& s,
+                                                    double near_share = kDefaultNearShare);
+
+/// The what-if and the sweep in `format`: report::write of their Documents.
 [[nodiscard]] std::string format_storm_whatif(const StormContext& context, const StormWhatIf& w,
                                               OutputFormat format,
                                               double near_share = kDefaultNearShare);

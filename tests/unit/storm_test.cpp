@@ -2,11 +2,13 @@
 // rate-based all-clear, and the sweep on the lunar demo.
 #include "fixture.hpp"
 #include "planner/analyses/storm.hpp"
+#include "planner/report/cautions.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/report/storm_report.hpp"
 
 #include "exposure/arrival.hpp"
 #include "planner/scenario/time_format.hpp"
+#include "planner/study/result_guard.hpp"
 
 #include <boost/date_time/gregorian/gregorian_types.hpp>
 #include <catch2/catch.hpp>
@@ -832,4 +834,73 @@ TEST_CASE("storm: the sweep profile's bins widen so that a long sweep stays a pa
     CHECK(profile_bin_text(6) == "6 hours");
     CHECK(profile_bin_text(24) == "1 day");
     CHECK(profile_bin_text(96) == "4 days");
+}
+
+TEST_CASE("storm: every format of a what-if and a sweep shows the same numbers, and none that "
+          "was not computed",
+          "[storm]") {
+    // By construction: each report is one Document, so text, JSON and CSV show the what-if's
+    // own numbers (JSON at full precision, CSV to 10 figures, text to 3). A dose that is not a
+    // number is refused in every format (the CSV once printed it as "nan").
+    const Study study(parse_scenario(plan(kTimeline, kPolicy), "storm.toml"));
+    const StormContext ctx(study, "spe", true);
+    const auto w = ctx.at(parse_command_time("2032-01-03T09:30:00Z", "--onset"));
+    const auto j = nlohmann::json::parse(format_storm_whatif(ctx, w, OutputFormat::json));
+    const std::string csv = format_storm_whatif(ctx, w, OutputFormat::csv);
+    const std::string text = format_storm_whatif(ctx, w, OutputFormat::text);
+    REQUIRE(!w.crew.empty());
+    REQUIRE(j.at("crew").size() == w.crew.size());
+    for (std::size_t i = 0; i < w.crew.size(); ++i) {
+        const StormCrew& c = w.crew[i];
+        REQUIRE(!c.organs.empty());
+        for (const StormOrgan& o : c.organs) {
+            INFO(c.crew << " " << o.organ);
+            const auto& oj = j["crew"][i]["organs"].at(o.organ);
+            CHECK(oj.at("without_response_mGyEq").get<double>() == o.without_response_mGyEq);
+            CHECK(oj.at("with_response_mGyEq").get<double>() == o.with_response_mGyEq);
+            CHECK(oj.at("other_30d_mGyEq").get<double>() == o.other_30d_mGyEq);
+            CHECK(oj.at("limit_30d_mGyEq").get<double>() == o.limit_30d_mGyEq);
+            CHECK(oj.at("margin_30d_mGyEq").get<double>() == o.margin());
+            CHECK(oj.at("exceeded").get<bool>() == o.exceeded());
+            CHECK(csv.find(fmt::format("\n{},{},{:.10g},{:.10g},", c.crew, o.organ,
+                                       o.without_response_mGyEq, o.with_response_mGyEq)) !=
+                  std::string::npos);
+            // The text row: the organ, then the same numbers to 3 figures.
+            const std::string row = fmt::format(
+                "  {:<6} {:>12} {:>12} {:>10} {:>12} {:>8} {:>10}", organ_label(o.organ),
+                significant(o.without_response_mGyEq, 3), significant(o.with_response_mGyEq, 3),
+                significant(o.without_response_mGyEq - o.with_response_mGyEq, 3),
+                significant(o.other_30d_mGyEq, 3), significant(o.limit_30d_mGyEq, 3),
+                significant(o.margin(), 3));
+            CHECK(text.find(row) != std::string::npos);
+        }
+    }
+    CHECK(j.at("headline").size() == w.crew.size());
+    CHECK(j.at("cautions").get<std::string>() == caution_text());
+
+    StormWhatIf broken = w;
+    broken.crew.at(0).organs.at(0).with_response_mGyEq = std::nan("");
+    for (const auto format : {OutputFormat::text, OutputFormat::json, OutputFormat::csv}) {
+        CHECK_THROWS_AS(format_storm_whatif(ctx, broken, format), ResultFault);
+    }
+
+    const Time from = parse_command_time("2032-01-03T06:00:00Z", "--from");
+    StormSweep s =
+        sweep_storm(ctx, from, from + boost::posix_time::hours(12), boost::posix_time::hours(1));
+    REQUIRE(!s.evas.empty());
+    const auto sj = nlohmann::json::parse(format_storm_sweep(ctx, s, OutputFormat::json));
+    const std::string scsv = format_storm_sweep(ctx, s, OutputFormat::csv);
+    REQUIRE(sj.at("evas").size() == s.evas.size());
+    for (std::size_t k = 0; k < s.evas.size(); ++k) {
+        CHECK(sj["evas"][k].at("ratio_to_30d_limit").get<double>() == s.evas[k].ratio);
+        CHECK(scsv.find(fmt::format(",{:.10g},", s.evas[k].ratio)) != std::string::npos);
+    }
+    // An EVA's share that is not a number: refused in JSON and CSV; the text shows no number
+    // for it and never calls it GO (a share that is not >= 0 reads as not swept).
+    s.evas.front().ratio = std::nan("");
+    CHECK_THROWS_AS(format_storm_sweep(ctx, s, OutputFormat::json), ResultFault);
+    CHECK_THROWS_AS(format_storm_sweep(ctx, s, OutputFormat::csv), ResultFault);
+    CHECK(joined_lines(format_storm_sweep(ctx, s, OutputFormat::text))
+              .find("NOT SWEPT " + format_time(s.evas.front().start) + " to ") !=
+          std::string::npos);
 }
