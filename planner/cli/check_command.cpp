@@ -121,8 +121,7 @@ Command add_check_command(CLI::App& app) {
             planner::LedgerOptions options;
             options.allow_gaps = allow_gaps;
             const auto ledger = planner::build_ledger(study, options);
-            const bool colour = out_path.empty() && fmt_choice == planner::OutputFormat::text &&
-                                isatty(fileno(stdout)) != 0 && std::getenv("NO_COLOR") == nullptr;
+            const bool colour = colour_wanted(out_path, fmt_choice);
             const RunStamp stamp = run_stamp(&study.scenario());
             const std::string report =
                 stamped(planner::format_check_report(study, ledger, fmt_choice, colour, near_share),

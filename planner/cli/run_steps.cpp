@@ -3,6 +3,10 @@
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/command.hpp"
 
+#include <unistd.h>
+
+#include <cstdio>
+#include <cstdlib>
 #include <utility>
 
 namespace crewdose::cli {
@@ -28,6 +32,11 @@ planner::Study compute_study(planner::Scenario scenario, ProgressLine& progress,
     progress.stage(stage);
     return planner::Study(
         std::move(scenario), only_location, [&progress](double f) { progress.update(f); }, cache);
+}
+
+bool colour_wanted(const std::string& out_path, planner::OutputFormat format) {
+    return out_path.empty() && format == planner::OutputFormat::text &&
+           isatty(fileno(stdout)) != 0 && std::getenv("NO_COLOR") == nullptr;
 }
 
 void write_outputs(const std::vector<PreparedFile>& files, const std::string& report,

@@ -5,6 +5,7 @@
 // then prepare every file in full before writing any.
 #include "planner/cli/atomic_file.hpp"
 #include "planner/cli/progress.hpp"
+#include "planner/report/output_format.hpp"
 #include "planner/scenario/scenario.hpp"
 #include "planner/study/study.hpp"
 
@@ -36,6 +37,10 @@ struct PreparedFile {
     std::string path;
     std::string text;
 };
+
+/// Whether a text report goes to a terminal that wants colour: text format, no --out, standard
+/// output a terminal, and NO_COLOR unset (no-color.org, common practice).
+[[nodiscard]] bool colour_wanted(const std::string& out_path, planner::OutputFormat format);
 
 /// Writes every prepared file whose path was given (each atomically, in order), then the report
 /// to standard output or to `out_path` (--out).

@@ -150,9 +150,10 @@ Command add_storm_command(CLI::App& app) {
                     const auto w = context.at(mission_time(storm_onset, "--onset", mission.start));
                     const RunStamp stamp = run_stamp(&study.scenario());
                     // Every file is prepared before any is written.
-                    const std::string text =
-                        stamped(planner::format_storm_whatif(context, w, fmt_choice, near_share),
-                                fmt_choice, stamp);
+                    const std::string text = stamped(
+                        planner::format_storm_whatif(context, w, fmt_choice, near_share,
+                                                     colour_wanted(o->out_path, fmt_choice)),
+                        fmt_choice, stamp);
                     const std::string html = o->html_path.empty()
                                                  ? ""
                                                  : planner::format_storm_whatif_html(
@@ -173,7 +174,8 @@ Command add_storm_command(CLI::App& app) {
                 const RunStamp stamp = run_stamp(&study.scenario());
                 // Every file is prepared before any is written.
                 const std::string text =
-                    stamped(planner::format_storm_sweep(context, sweep, fmt_choice, near_share),
+                    stamped(planner::format_storm_sweep(context, sweep, fmt_choice, near_share,
+                                                        colour_wanted(o->out_path, fmt_choice)),
                             fmt_choice, stamp);
                 const std::string chart =
                     o->chart_path.empty() ? "" : planner::format_storm_chart(context, sweep);

@@ -493,7 +493,7 @@ report::Table sweep_csv_table(const StormSweep& s) {
     for (const auto& e : s.evas) {
         t.rows.push_back({e.label, format_time(e.start), format_time(e.end),
                           e.swept() ? format_time_exact(e.worst_onset) : std::string(), e.crew,
-                          e.organ, e.ratio,
+                          e.organ, e.swept() ? report::Value(e.ratio) : report::Value(),
                           std::string(!e.swept() ? "not swept" : (e.go() ? "go" : "no-go"))});
     }
     return t;
@@ -616,7 +616,8 @@ report::Document storm_sweep_document(const StormContext& ctx, const StormSweep&
             {words("activity", e.label), words("start", format_time(e.start)),
              words("end", format_time(e.end)),
              words("worst_onset", e.swept() ? format_time_exact(e.worst_onset) : std::string()),
-             words("crew", e.crew), words("organ", e.organ), Field{"ratio_to_30d_limit", e.ratio},
+             words("crew", e.crew), words("organ", e.organ),
+             Field{"ratio_to_30d_limit", e.swept() ? report::Value(e.ratio) : report::Value()},
              Field{"swept", e.swept()}, Field{"go", e.go()}});
     }
     if (!evas.items.empty()) {
@@ -774,13 +775,13 @@ report::Document storm_sweep_document(const StormContext& ctx, const StormSweep&
 }
 
 std::string format_storm_whatif(const StormContext& ctx, const StormWhatIf& w, OutputFormat format,
-                                double near_share) {
-    return report::write(storm_whatif_document(ctx, w, near_share), format);
+                                double near_share, bool colour) {
+    return report::write(storm_whatif_document(ctx, w, near_share), format, colour);
 }
 
 std::string format_storm_sweep(const StormContext& ctx, const StormSweep& s, OutputFormat format,
-                               double near_share) {
-    return report::write(storm_sweep_document(ctx, s, near_share), format);
+                               double near_share, bool colour) {
+    return report::write(storm_sweep_document(ctx, s, near_share), format, colour);
 }
 
 } // namespace crewdose::planner

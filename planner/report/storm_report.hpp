@@ -36,12 +36,15 @@ namespace crewdose::planner {
                                                     const StormSweep& s,
                                                     double near_share = kDefaultNearShare);
 
-/// The what-if and the sweep in `format`: report::write of their Documents.
+/// The what-if and the sweep in `format`: report::write of their Documents; `colour` adds
+/// terminal colour to the verdict's status words (text only).
 [[nodiscard]] std::string format_storm_whatif(const StormContext& context, const StormWhatIf& w,
                                               OutputFormat format,
-                                              double near_share = kDefaultNearShare);
+                                              double near_share = kDefaultNearShare,
+                                              bool colour = false);
 [[nodiscard]] std::string format_storm_sweep(const StormContext& context, const StormSweep& s,
                                              OutputFormat format,
-                                             double near_share = kDefaultNearShare);
+                                             double near_share = kDefaultNearShare,
+                                             bool colour = false);
 
 } // namespace crewdose::planner

@@ -895,11 +895,16 @@ TEST_CASE("storm: every format of a what-if and a sweep shows the same numbers, 
         CHECK(sj["evas"][k].at("ratio_to_30d_limit").get<double>() == s.evas[k].ratio);
         CHECK(scsv.find(fmt::format(",{:.10g},", s.evas[k].ratio)) != std::string::npos);
     }
-    // An EVA's share that is not a number: refused in JSON and CSV; the text shows no number
-    // for it and never calls it GO (a share that is not >= 0 reads as not swept).
+    // An EVA's share that is not a number reads as not swept in every format: JSON null, an
+    // empty CSV cell beside "not swept", and the text shows no number for it and never calls
+    // it GO (a share that is not >= 0 is not swept: StormSweep::Eva::swept).
     s.evas.front().ratio = std::nan("");
-    CHECK_THROWS_AS(format_storm_sweep(ctx, s, OutputFormat::json), ResultFault);
-    CHECK_THROWS_AS(format_storm_sweep(ctx, s, OutputFormat::csv), ResultFault);
+    const auto nj = nlohmann::json::parse(format_storm_sweep(ctx, s, OutputFormat::json));
+    CHECK(nj["evas"][0].at("ratio_to_30d_limit").is_null());
+    CHECK(nj["evas"][0].at("swept") == false);
+    const std::string ncsv = format_storm_sweep(ctx, s, OutputFormat::csv);
+    CHECK(ncsv.find(",,\"not swept\"\n") != std::string::npos);
+    CHECK(ncsv.find("nan") == std::string::npos);
     CHECK(joined_lines(format_storm_sweep(ctx, s, OutputFormat::text))
               .find("NOT SWEPT " + format_time(s.evas.front().start) + " to ") !=
           std::string::npos);
