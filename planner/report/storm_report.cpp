@@ -184,6 +184,20 @@ std::string crew_count(std::size_t n, std::size_t of) {
     return fmt::format("{} of {} crew member{}", n, of, of == 1 ? "" : "s");
 }
 
+// The words of a storm headline that carry its status, for colour on a terminal.
+void set_headline_words(VerdictTable& t, std::size_t exceeded, std::size_t near, std::size_t of) {
+    if (exceeded > 0) {
+        t.headline_words = "A 30-DAY PLANNING LIMIT IS EXCEEDED";
+        t.headline_status = "exceeded";
+    } else if (near > 0) {
+        t.headline_words = crew_count(near, of) + " near a limit";
+        t.headline_status = "near";
+    } else {
+        t.headline_words = "every 30-day planning limit is met";
+        t.headline_status = "within";
+    }
+}
+
 // The what-if's verdict from its rows (storm_verdict_rows of verdict_crew(w)).
 VerdictTable whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
                             const std::vector<StormVerdictRow>& rows, double near_share) {
@@ -204,6 +218,7 @@ VerdictTable whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
         t.headline =
             fmt::format("Verdict: every 30-day planning limit is met in this what-if ({}).", how);
     }
+    set_headline_words(t, exceeded, near, rows.size());
     return t;
 }
 
@@ -243,6 +258,7 @@ VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
                                  "tried ({}){}.",
                                  how, evas);
     }
+    set_headline_words(t, exceeded, near, rows.size());
     return t;
 }
 
