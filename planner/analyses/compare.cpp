@@ -1,6 +1,8 @@
 #include "planner/analyses/compare.hpp"
 
 #include <algorithm>
+#include <cmath>
+#include <limits>
 
 namespace crewdose::planner {
 namespace {
@@ -23,6 +25,12 @@ std::string limit_name(const CrewResult& crew, const Limit& limit) {
 }
 
 } // namespace
+
+double LimitChange::relative_change() const {
+    const bool both =
+        std::isfinite(dose_a) && dose_a > 0.0 && std::isfinite(dose_b) && dose_b >= 0.0;
+    return both ? change() / dose_a : std::numeric_limits<double>::quiet_NaN();
+}
 
 PlanComparison compare_plans(const LedgerResult& a, const LedgerResult& b, double near_share) {
     PlanComparison out;

@@ -24,6 +24,9 @@ struct LimitChange {
     LimitStatus status_b = LimitStatus::within;
     /// dose_b - dose_a (NaN when either dose was not computed).
     [[nodiscard]] double change() const { return dose_b - dose_a; }
+    /// The change as a share of dose_a (-0.2: 20 % lower); NaN when either dose was not
+    /// computed or dose_a is not above 0.
+    [[nodiscard]] double relative_change() const;
 };
 
 struct PlanComparison {

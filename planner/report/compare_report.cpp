@@ -1,15 +1,14 @@
 #include "planner/report/compare_report.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
-#include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
-#include <fmt/ranges.h>
-#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
+#include <limits>
 
 namespace crewdose::planner {
 namespace {
@@ -33,10 +32,6 @@ std::string verdict_of(bool exceeded, std::size_t near) {
     return near > 0 ? fmt::format("every evaluated planning limit is met; {} limit{} near", near,
                                   near == 1 ? "" : "s")
                     : "every evaluated planning limit is met";
-}
-
-nlohmann::json plan_json(const Scenario& sc, bool exceeded) {
-    return {{"scenario", sc.file}, {"mission", sc.mission.name}, {"exceeded", exceeded}};
 }
 
 std::string status_word(LimitStatus s) {
@@ -82,86 +77,156 @@ VerdictTable comparison_verdict(const PlanComparison& cmp) {
     return t;
 }
 
-std::string format_comparison(const PlanComparison& cmp, const Scenario& a, const Scenario& b,
-                              OutputFormat format) {
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["plan_a"] = plan_json(a, cmp.a_exceeded);
-        j["plan_b"] = plan_json(b, cmp.b_exceeded);
-        j["rows"] = nlohmann::json::array();
-        for (const auto& r : cmp.rows) {
-            j["rows"].push_back({{"crew", r.crew},
-                                 {"name", r.name},
-                                 {"organ", r.organ},
-                                 {"window", r.window},
-                                 {"unit", unit_of(r.organ)},
-                                 {"limit_a", r.limit_a},
-                                 {"limit_b", r.limit_b},
-                                 {"dose_a", r.dose_a},
-                                 {"dose_b", r.dose_b},
-                                 {"change", r.change()},
-                                 {"status_a", to_string(r.status_a)},
-                                 {"status_b", to_string(r.status_b)}});
+report::Document comparison_document(const PlanComparison& cmp, const Scenario& a,
+                                     const Scenario& b) {
+    using report::Field;
+    using report::Value;
+    report::Document doc;
+    doc.group({"plan_a",
+               {{"scenario", a.file}, {"mission", a.mission.name}, {"exceeded", cmp.a_exceeded}}});
+    doc.group({"plan_b",
+               {{"scenario", b.file}, {"mission", b.mission.name}, {"exceeded", cmp.b_exceeded}}});
+    doc.group(
+        {"",
+         {{"only_in_a", report::List{cmp.only_in_a}}, {"only_in_b", report::List{cmp.only_in_b}}}});
+
+    doc.text("crewdose compare: plan A against plan B");
+    doc.text("  A: {} ({})", {Field{"mission", a.mission.name}, Field{"scenario", a.file}});
+    doc.text("  B: {} ({})", {Field{"mission", b.mission.name}, Field{"scenario", b.file}});
+    doc.blank();
+    const auto verdict = [&](const char* plan, bool exceeded, std::size_t near) {
+        if (exceeded) {
+            doc.text(fmt::format("Verdict {}: A PLANNING LIMIT IS EXCEEDED.", plan));
+        } else if (near == 0) {
+            doc.text(fmt::format("Verdict {}: every evaluated planning limit is met.", plan));
+        } else {
+            doc.text(
+                fmt::format("Verdict {}: every evaluated planning limit is met; {{}} limit{{}} "
+                            "near.",
+                            plan),
+                {Field{"near", static_cast<std::int64_t>(near)},
+                 Field{"plural", std::string(near == 1 ? "" : "s")}});
         }
-        j["only_in_a"] = cmp.only_in_a;
-        j["only_in_b"] = cmp.only_in_b;
-        j["cautions"] = caution_text();
-        return dump_checked(j);
-    }
-    if (format == OutputFormat::csv) {
-        std::string out =
-            "crew,organ,window,unit,limit_a,dose_a,status_a,limit_b,dose_b,status_b,change\n";
-        for (const auto& r : cmp.rows) {
-            // Full precision as the other CSV outputs; a dose not computed stops the report.
-            out += fmt::format("{},{},{},{},{:.10g},{:.10g},{},{:.10g},{:.10g},{},{:.10g}\n",
-                               r.crew, r.organ, r.window, unit_of(r.organ), r.limit_a,
-                               require_dose(r.dose_a, "a compared dose"), to_string(r.status_a),
-                               r.limit_b, require_dose(r.dose_b, "a compared dose"),
-                               to_string(r.status_b), r.change());
-        }
-        return out;
-    }
-    const std::size_t near_a = near_count(cmp, false);
-    const std::size_t near_b = near_count(cmp, true);
-    std::string out = fmt::format("crewdose compare: plan A against plan B\n"
-                                  "  A: {} ({})\n  B: {} ({})\n\n",
-                                  a.mission.name, a.file, b.mission.name, b.file);
-    out += fmt::format("Verdict A: {}.\nVerdict B: {}.\n\n", verdict_of(cmp.a_exceeded, near_a),
-                       verdict_of(cmp.b_exceeded, near_b));
-    out += caution_text() + "\n";
-    out += fmt::format("  {:<12} {:<17} {:<6} {:>8} {:>8} {:>9} {:>6} {:>6}  {}\n", "crew", "limit",
-                       "unit", "A", "B", "B - A", "%", "limit", "status A -> B");
+    };
+    verdict("A", cmp.a_exceeded, near_count(cmp, false));
+    verdict("B", cmp.b_exceeded, near_count(cmp, true));
+    doc.blank();
+    doc.keyed_text("cautions", caution_text());
+    doc.blank();
+
+    // One table for every format: text a row per crew member and limit (a row whose status
+    // changes marked "*"), JSON and CSV the same rows at full precision.
+    report::Table t;
+    t.key = "rows";
+    t.is_csv = true;
+    t.indent = "";
+    const auto word = [](std::string key, std::string header, int width, bool text, bool json,
+                         bool csv) {
+        auto c = report::text_column(std::move(key), std::move(header));
+        c.min_width = width;
+        c.gap = 1;
+        return c.shown_in(text, json, csv);
+    };
+    const auto number = [](std::string key, std::string header, int width, bool text, bool json,
+                           bool csv) {
+        auto c = report::number_column(std::move(key), std::move(header), {}, width, 1.0, 3);
+        c.gap = 1;
+        return c.shown_in(text, json, csv);
+    };
+    auto marker = word("changed", "", 1, true, false, false);
+    marker.gap = 0;
+    auto text_dose_b = number("text_dose_b", "B", 8, true, false, false);
+    auto text_change = number("text_change", "B - A", 9, true, false, false);
+    text_change.absent = "-";
+    auto share = number("change_share", "%", 6, true, false, false);
+    share.rounding = report::Rounding::signed_whole;
+    share.scale = 100.0;
+    share.absent = "-";
+    // The limit; plan A's and plan B's in two columns when a limit differs between the plans.
+    const bool limits_differ =
+        std::any_of(cmp.rows.begin(), cmp.rows.end(),
+                    [](const LimitChange& r) { return r.limit_a != r.limit_b; });
+    auto limit_a = number("text_limit_a", "limit A", 6, limits_differ, false, false);
+    auto limit_b =
+        number("text_limit_b", limits_differ ? "limit B" : "limit", 6, true, false, false);
+    auto statuses = word("statuses", "status A -> B", 0, true, false, false);
+    statuses.gap = 2;
+    t.columns = {marker,
+                 word("crew", "crew", 12, true, true, true),
+                 word("limit", "limit", 17, true, false, false),
+                 word("organ", "", 0, false, true, true),
+                 word("window", "", 0, false, true, true),
+                 word("unit", "unit", 6, true, true, true),
+                 number("text_dose_a", "A", 8, true, false, false),
+                 text_dose_b,
+                 text_change,
+                 share,
+                 limit_a,
+                 limit_b,
+                 statuses,
+                 word("name", "", 0, false, true, false),
+                 number("limit_a", "", 0, false, true, true),
+                 number("dose_a", "", 0, false, true, true),
+                 word("status_a", "", 0, false, true, true),
+                 number("limit_b", "", 0, false, true, true),
+                 number("dose_b", "", 0, false, true, true),
+                 word("status_b", "", 0, false, true, true),
+                 number("change", "", 0, false, true, true)};
     std::size_t changed = 0;
     for (const auto& r : cmp.rows) {
         const bool both = computed(r.dose_a) && computed(r.dose_b);
-        const std::string delta = both ? significant(r.change(), 3) : "-";
-        const std::string share =
-            both && r.dose_a > 0.0 ? signed_whole(100.0 * r.change() / r.dose_a) : "-";
         const bool status_changed = r.status_a != r.status_b;
         changed += status_changed ? 1U : 0U;
-        const std::string limit = r.limit_a == r.limit_b
-                                      ? significant(r.limit_b, 3)
-                                      : significant(r.limit_a, 3) + "/" + significant(r.limit_b, 3);
-        out +=
-            fmt::format("{} {:<12} {:<17} {:<6} {:>8} {:>8} {:>9} {:>6} {:>6}  {} -> {}\n",
-                        status_changed ? "*" : " ", r.crew, organ_label(r.organ) + " " + r.window,
-                        unit_of(r.organ), dose_text(r.dose_a), dose_text(r.dose_b), delta, share,
-                        limit, to_string(r.status_a), to_string(r.status_b));
+        // Text: a dose that was not computed reads so. JSON and CSV: such a dose reaches the
+        // writer as NaN, which it refuses (the report stops, exit 3), never a number.
+        const auto shown_dose = [](double d) {
+            return computed(d) ? Value(d) : Value();
+        };
+        const auto full_dose = [](double d) {
+            return computed(d) ? d : std::numeric_limits<double>::quiet_NaN();
+        };
+        const double relative = r.relative_change();
+        t.rows.push_back({std::string(status_changed ? "*" : ""),
+                          r.crew,
+                          organ_label(r.organ) + " " + r.window,
+                          r.organ,
+                          r.window,
+                          std::string(unit_of(r.organ)),
+                          shown_dose(r.dose_a),
+                          shown_dose(r.dose_b),
+                          both ? Value(r.change()) : Value(),
+                          std::isfinite(relative) ? Value(relative) : Value(),
+                          r.limit_a,
+                          r.limit_b,
+                          to_string(r.status_a) + " -> " + to_string(r.status_b),
+                          r.name,
+                          r.limit_a,
+                          full_dose(r.dose_a),
+                          to_string(r.status_a),
+                          r.limit_b,
+                          full_dose(r.dose_b),
+                          to_string(r.status_b),
+                          r.change()});
     }
-    out += wrap(fmt::format("  A, B: the dose the check compares with the limit in each plan (the "
-                            "highest window for 30-day and annual limits); %: the change relative "
-                            "to A; *: the status changes ({} row{}).",
-                            changed, changed == 1 ? "" : "s"),
-                100, "    ");
+    doc.table(std::move(t));
+    doc.text("  A, B: the dose the check compares with the limit in each plan (the highest window "
+             "for 30-day and annual limits); %: the change relative to A; *: the status changes "
+             "({} row{}).",
+             {Field{"changed", static_cast<std::int64_t>(changed)},
+              Field{"plural", std::string(changed == 1 ? "" : "s")}},
+             100, "    ");
     if (!cmp.only_in_a.empty()) {
-        out +=
-            wrap("  Only in A: " + fmt::format("{}", fmt::join(cmp.only_in_a, ", ")), 100, "    ");
+        doc.text("  Only in A: {}", {Field{"only_in_a", report::List{cmp.only_in_a}}}, 100, "    ");
     }
     if (!cmp.only_in_b.empty()) {
-        out +=
-            wrap("  Only in B: " + fmt::format("{}", fmt::join(cmp.only_in_b, ", ")), 100, "    ");
+        doc.text("  Only in B: {}", {Field{"only_in_b", report::List{cmp.only_in_b}}}, 100, "    ");
     }
-    return out;
+    return doc;
+}
+
+std::string format_comparison(const PlanComparison& cmp, const Scenario& a, const Scenario& b,
+                              OutputFormat format) {
+    return report::write(comparison_document(cmp, a, b), format);
 }
 
 } // namespace crewdose::planner

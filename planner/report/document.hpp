@@ -46,8 +46,10 @@ using Value =
 enum class Tone { plain, good, caution, alarm };
 
 /// How a number is rounded in text: `significant` keeps trailing zeros to the given figures
-/// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732), `fixed` keeps `digits` decimals.
-enum class Rounding { significant, general, fixed };
+/// (33.70), `general` drops them ({:.Ng}: 1, 10, 0.4732), `fixed` keeps `digits` decimals,
+/// `signed_whole` is a whole number with its sign for a change (+3, -12; 0, never -0 or +0;
+/// `digits` unused). CSV and JSON are not rounded.
+enum class Rounding { significant, general, fixed, signed_whole };
 
 struct Column {
     std::string key;    ///< JSON and CSV name, with the unit in it (e.g. "csda_range_g_cm2")

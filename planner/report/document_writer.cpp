@@ -75,6 +75,9 @@ std::string text_number(double v, int digits, Rounding rounding) {
     if (rounding == Rounding::general) {
         return fmt::format("{:.{}g}", v, digits);
     }
+    if (rounding == Rounding::signed_whole) {
+        return signed_whole(v);
+    }
     if (rounding == Rounding::fixed) {
         const std::string s = fmt::format("{:.{}f}", v, digits);
         // No negative zero after rounding either (-0.04 at one decimal).

@@ -1,11 +1,11 @@
 #include "planner/report/shelter_report.hpp"
 
 #include "planner/report/cautions.hpp"
+#include "planner/report/document_writer.hpp"
 #include "planner/report/number_format.hpp"
 #include "planner/study/result_guard.hpp"
 
 #include <fmt/format.h>
-#include <nlohmann/json.hpp>
 
 #include <algorithm>
 #include <cmath>
@@ -72,20 +72,11 @@ double answer_dose(const ShelterReport& rep, const ShelterAnswer& a) {
                                     : event_at(a, answer_depth(k, a), a.binding_organ) + other;
 }
 
-// Where the layer's room stopped the search short of --max-g-cm2: "; the room allows no more
-// than 61.1 g/cm2 of polyethylene", or nothing.
-std::string room_note(const ShelterReport& rep) {
-    std::vector<std::string> parts;
-    for (const auto& a : rep.answers) {
-        if (a.limited_by_room) {
-            parts.push_back(
-                fmt::format("{} g/cm2 of {}", significant(a.searched_to_g_cm2, 3), a.material));
-        }
-    }
-    if (parts.empty()) {
-        return "";
-    }
-    return fmt::format(" (the room in the layer allows no more than {})", fmt::join(parts, ", "));
+// Where the material goes, in words.
+std::string where_text(const ShelterRequest& r) {
+    return r.solid_id ? fmt::format("a layer added inside layer {} of solid '{}'",
+                                    r.layer_index + 1, *r.solid_id)
+                      : std::string("a uniform shell around the dose point, every direction");
 }
 
 } // namespace
@@ -207,203 +198,307 @@ VerdictTable shelter_answer(const ShelterReport& rep) {
     return t;
 }
 
-std::string format_shelter_report(const Study& study, const ShelterReport& rep,
-                                  OutputFormat format) {
+report::Document shelter_document(const Study& study, const ShelterReport& rep) {
+    using report::Field;
+    using report::Value;
     const Scenario& sc = study.scenario();
     const auto& r = rep.request;
-    const std::string where =
-        r.solid_id ? fmt::format("a layer added inside layer {} of solid '{}'", r.layer_index + 1,
-                                 *r.solid_id)
-                   : std::string("a uniform shell around the dose point, every direction");
-    if (format == OutputFormat::json) {
-        nlohmann::json j;
-        j["cautions"] = caution_text();
-        j["event"] = r.event_id;
-        j["location"] = r.location_id;
-        j["added_as"] = where;
-        j["body_model"] = study.location(r.location_id).body;
-        j["uncertainty_factor"] = sc.limits.uncertainty_factor;
-        j["max_g_cm2"] = r.max_g_cm2;
-        j["targets_mGyEq"] = rep.target_mGyEq;
-        j["other_30d_mGyEq"] = rep.other_30d_mGyEq;
-        j["sun_distance_AU"] = rep.sun_distance_AU;
-        j["fluence_scale"] = rep.fluence_scale;
-        j["other_alone_exceeds_target"] = rep.other_alone_exceeds;
-        j["not_targets"] = rep.not_targets;
-        // The answer the text and HTML open with: its sentence, and per material the status
-        // word and class of the same table (so JSON, text and HTML cannot disagree).
-        const VerdictTable answer = shelter_answer(rep);
-        j["answer"] = answer.headline;
-        j["answers"] = nlohmann::json::array();
-        for (std::size_t i = 0; i < rep.answers.size(); ++i) {
-            const ShelterAnswer& a = rep.answers[i];
-            // A dose that was not computed is null, never a number.
-            const auto dose_json = [](double v) {
-                return std::isfinite(v) && v >= 0.0 ? nlohmann::json(v) : nlohmann::json(nullptr);
-            };
-            nlohmann::json aj{
-                {"material", a.material},
-                {"status", answer.rows[i].back().status},
-                {"status_text", answer.rows[i].back().text},
-                {"dose_mGyEq", dose_json(answer_dose(rep, a))},
-                {"target_mGyEq", dose_json(value_or_nan(rep.target_mGyEq, a.binding_organ))},
-                {"density_g_cm3", a.density_g_cm3},
-                {"achievable", a.achievable},
-                {"none_needed", a.none_needed},
-                {"binding_organ", a.binding_organ},
-                {"searched_to_g_cm2", a.searched_to_g_cm2},
-                {"limited_by_room", a.limited_by_room},
-                {"evaluations", a.evaluations}};
-            if (a.achievable) {
-                aj["areal_density_g_cm2"] = a.areal_density_g_cm2;
-                aj["thickness_cm"] = a.thickness_cm;
-                aj["mass_per_area_kg_m2"] = a.mass_per_area_kg_m2;
-                if (a.added_mass_kg) {
-                    aj["added_mass_kg"] = *a.added_mass_kg;
-                }
-            }
-            for (const auto& p : a.curve) {
-                aj["curve"].push_back({{"areal_density_g_cm2", p.areal_density_g_cm2},
-                                       {"event_mGyEq", p.event_mGyEq}});
-            }
-            j["answers"].push_back(aj);
-        }
-        return dump_checked(j);
+    const auto sig3 = [](std::string key, double v) {
+        return Field{std::move(key), v, 3, report::Rounding::significant};
+    };
+    // The targets' doses, text and CSV: each computed (a finite dose >= 0), or the report stops
+    // (exit 3) before anything is printed.
+    std::map<std::string, double> target;
+    std::map<std::string, double> other;
+    for (const auto& [organ, t] : rep.target_mGyEq) {
+        target[organ] = require_dose(t, "a shelter target");
+        other[organ] =
+            require_dose(value_or_nan(rep.other_30d_mGyEq, organ), "a shelter's other 30-day dose");
     }
-    if (format == OutputFormat::csv) {
-        // One header. The answers first ("answer" rows), then the curves ("curve" rows).
-        std::string out = "material,areal_density_g_cm2,organ,event_mGyEq,other_30d_mGyEq,"
-                          "target_mGyEq,row,achievable,added_mass_kg\n";
-        for (const auto& a : rep.answers) {
-            const Outcome k = outcome_of(rep, a);
-            const bool found = k == Outcome::as_built || k == Outcome::needs;
-            const std::string& organ = a.binding_organ;
-            // The numbers go through require_dose: a value that was not computed stops the
-            // report (exit 3), never prints.
-            const std::string depth =
-                found ? fmt::format("{:.10g}", require_dose(answer_depth(k, a), "a shelter answer"))
-                      : "";
-            const std::string event =
-                found ? fmt::format("{:.10g}", require_dose(event_at(a, answer_depth(k, a), organ),
-                                                            "a shelter answer's dose"))
-                      : "";
-            out += fmt::format(
-                "{},{},{},{},{:.10g},{:.10g},answer,{},{}\n", a.material, depth, organ, event,
-                require_dose(value_or_nan(rep.other_30d_mGyEq, organ),
-                             "a shelter answer's other dose"),
-                require_dose(value_or_nan(rep.target_mGyEq, organ), "a shelter target"),
-                k == Outcome::impossible ? "impossible" : (found ? "yes" : "no"),
-                found && a.added_mass_kg ? fmt::format("{:.10g}", *a.added_mass_kg) : "");
+    const auto curve_dose = [](const ShelterPoint& p, const std::string& organ) {
+        return require_dose(p.event_mGyEq.at(organ), "a shelter curve's dose");
+    };
+    const VerdictTable answer = shelter_answer(rep);
+    report::Document doc;
+
+    // JSON: the request and its context, the answer sentence (the table's headline, so that
+    // JSON, text and HTML cannot disagree).
+    const auto by_organ_numbers = [](const std::map<std::string, double>& m) {
+        report::Object o;
+        for (const auto& [organ, v] : m) {
+            o.fields.push_back({organ, v});
         }
-        for (const auto& a : rep.answers) {
-            for (const auto& p : a.curve) {
-                for (const auto& [organ, d] : p.event_mGyEq) {
-                    if (!rep.target_mGyEq.count(organ)) {
-                        continue;
-                    }
-                    out += fmt::format("{},{:.10g},{},{:.10g},{:.10g},{:.10g},curve,,\n",
-                                       a.material, p.areal_density_g_cm2, organ,
-                                       require_dose(d, "a shelter curve's dose"),
-                                       rep.other_30d_mGyEq.at(organ), rep.target_mGyEq.at(organ));
-                }
-            }
-        }
-        return out;
-    }
-    std::string out = wrap(fmt::format("crewdose shelter: event {} at location {}, {}", r.event_id,
-                                       r.location_id, where),
-                           100, "  ") +
-                      fmt::format("scenario: {}\n\n", sc.file);
-    out += format_verdict_text(shelter_answer(rep));
-    out += caution_text() + "\n";
-    out +=
-        wrap(fmt::format(
-                 "Sizing rule: the crew receive the whole event in the shelter; its dose ({} "
-                 "body model at the shelter; the higher "
-                 "of with and without nuclear reactions; uncertainty factor {:.2f}) plus the "
-                 "highest 30-day dose any crew member has from everything else must stay "
-                 "within each target. Searched from 0 to {} g/cm2{}; the answer's dose is at or "
-                 "below its target and within 0.5 % of it. The event is taken at {} AU from "
-                 "the Sun ({}), its fluence {} times the spectrum as written.",
-                 study.location(r.location_id).body, sc.limits.uncertainty_factor,
-                 significant(r.max_g_cm2, 3), room_note(rep), significant(rep.sun_distance_AU, 3),
-                 rep.sun_distance_AU == sc.mission.sun_distance_AU
-                     ? "the site's distance"
-                     : "the nearest to the Sun a crew member comes: a shelter in space",
-                 significant(rep.fluence_scale, 3)),
-             96) +
-        "\n";
-    out += fmt::format("  {:<6} {:>12} {:>16}\n", "organ", "target", "other 30-day");
-    for (const auto& [organ, target] : rep.target_mGyEq) {
-        out += fmt::format("  {:<6} {:>12} {:>16}   mGy-Eq\n", organ_label(organ),
-                           significant(target, 3), significant(rep.other_30d_mGyEq.at(organ), 3));
-    }
+        return o;
+    };
+    report::Object not_targets;
     for (const auto& [organ, why] : rep.not_targets) {
-        out += wrap(fmt::format("  {}: not a target: the crew's 30-day {} dose is not evaluated "
-                                "for {} (the quick body model; body = \"phantom\" there "
-                                "makes it one)",
-                                organ_label(organ), organ_label(organ), why),
-                    100, "    ");
+        not_targets.fields.push_back({organ, why});
     }
-    out += "\n";
+    doc.group({"",
+               {{"event", r.event_id},
+                {"location", r.location_id},
+                {"added_as", where_text(r)},
+                {"body_model", study.location(r.location_id).body},
+                {"uncertainty_factor", sc.limits.uncertainty_factor},
+                {"max_g_cm2", r.max_g_cm2},
+                {"targets_mGyEq", by_organ_numbers(rep.target_mGyEq)},
+                {"other_30d_mGyEq", by_organ_numbers(rep.other_30d_mGyEq)},
+                {"sun_distance_AU", rep.sun_distance_AU},
+                {"fluence_scale", rep.fluence_scale},
+                {"other_alone_exceeds_target", report::List{rep.other_alone_exceeds}},
+                {"not_targets", not_targets},
+                {"answer", answer.headline}}});
+
+    // JSON: per material the answer's status (the word and class of the same table), its dose
+    // (null when not computed) and the search's figures; the curve as records.
+    report::Table answers;
+    answers.key = "answers";
+    answers.in_text = false;
+    const auto json_column = [](std::string key, bool omit_absent = false) {
+        auto c = report::text_column(std::move(key)).shown_in(false, true, false);
+        c.omit_absent_in_json = omit_absent;
+        return c;
+    };
+    for (const char* key : {"material", "status", "status_text", "dose_mGyEq", "target_mGyEq",
+                            "density_g_cm3", "achievable", "none_needed", "binding_organ",
+                            "searched_to_g_cm2", "limited_by_room", "evaluations"}) {
+        answers.columns.push_back(json_column(key));
+    }
+    for (const char* key :
+         {"areal_density_g_cm2", "thickness_cm", "mass_per_area_kg_m2", "added_mass_kg", "curve"}) {
+        answers.columns.push_back(json_column(key, true));
+    }
+    // A dose that was not computed is nothing (JSON null), never a number.
+    const auto dose_value = [](double v) -> Value {
+        return std::isfinite(v) && v >= 0.0 ? Value(v) : Value();
+    };
+    for (std::size_t i = 0; i < rep.answers.size(); ++i) {
+        const ShelterAnswer& a = rep.answers[i];
+        report::Records curve;
+        for (const auto& p : a.curve) {
+            report::Object event;
+            for (const auto& [organ, d] : p.event_mGyEq) {
+                event.fields.push_back({organ, target.count(organ) ? curve_dose(p, organ) : d});
+            }
+            curve.items.push_back(
+                {{"areal_density_g_cm2", p.areal_density_g_cm2}, {"event_mGyEq", event}});
+        }
+        const auto if_achievable = [&](double v) {
+            return a.achievable ? Value(v) : Value();
+        };
+        answers.rows.push_back(
+            {a.material, answer.rows[i].back().status, answer.rows[i].back().text,
+             dose_value(answer_dose(rep, a)),
+             dose_value(value_or_nan(rep.target_mGyEq, a.binding_organ)), a.density_g_cm3,
+             a.achievable, a.none_needed, a.binding_organ, a.searched_to_g_cm2, a.limited_by_room,
+             static_cast<std::int64_t>(a.evaluations), if_achievable(a.areal_density_g_cm2),
+             if_achievable(a.thickness_cm), if_achievable(a.mass_per_area_kg_m2),
+             a.achievable && a.added_mass_kg ? Value(*a.added_mass_kg) : Value(),
+             a.curve.empty() ? Value() : Value(std::move(curve))});
+    }
+    doc.table(std::move(answers));
+
+    // CSV: one header; each material's answer first ("answer" rows), then the curves ("curve"
+    // rows, the targets' organs only).
+    report::Table csv;
+    csv.key = "rows";
+    csv.in_text = false;
+    csv.in_json = false;
+    csv.is_csv = true;
+    const auto csv_text = [](std::string key) {
+        return report::text_column(std::move(key));
+    };
+    const auto csv_number = [](std::string key) {
+        return report::number_column(std::move(key), {});
+    };
+    csv.columns = {csv_text("material"),
+                   csv_number("areal_density_g_cm2"),
+                   csv_text("organ"),
+                   csv_number("event_mGyEq"),
+                   csv_number("other_30d_mGyEq"),
+                   csv_number("target_mGyEq"),
+                   csv_text("row"),
+                   csv_text("achievable"),
+                   csv_number("added_mass_kg")};
     for (const auto& a : rep.answers) {
-        out += fmt::format("{} ({} g/cm3):\n", a.material, significant(a.density_g_cm3, 3));
+        const Outcome k = outcome_of(rep, a);
+        const bool found = k == Outcome::as_built || k == Outcome::needs;
+        const std::string& organ = a.binding_organ;
+        // The event dose at the answer: a value the curve does not have is a NaN, which the
+        // writer refuses (exit 3), never prints.
+        csv.rows.push_back(
+            {a.material, found ? Value(answer_depth(k, a)) : Value(), organ,
+             found ? Value(event_at(a, answer_depth(k, a), organ)) : Value(),
+             require_dose(value_or_nan(rep.other_30d_mGyEq, organ),
+                          "a shelter answer's other dose"),
+             require_dose(value_or_nan(rep.target_mGyEq, organ), "a shelter target"),
+             std::string("answer"),
+             std::string(k == Outcome::impossible ? "impossible" : (found ? "yes" : "no")),
+             found && a.added_mass_kg ? Value(*a.added_mass_kg) : Value()});
+    }
+    for (const auto& a : rep.answers) {
+        for (const auto& p : a.curve) {
+            for (const auto& [organ, d] : p.event_mGyEq) {
+                if (!target.count(organ)) {
+                    continue;
+                }
+                csv.rows.push_back({a.material, p.areal_density_g_cm2, organ, curve_dose(p, organ),
+                                    other.at(organ), target.at(organ), std::string("curve"),
+                                    Value(), Value()});
+            }
+        }
+    }
+    doc.table(std::move(csv));
+
+    // Text: the answer first, the cautions, the sizing rule, the targets, per material the
+    // answer's detail and its dose-thickness table.
+    doc.text("crewdose shelter: event {} at location {}, {}",
+             {Field{"event", r.event_id}, Field{"location", r.location_id},
+              Field{"added_as", where_text(r)}},
+             100, "  ");
+    doc.text("scenario: {}", {Field{"scenario", sc.file}});
+    doc.blank();
+    append_verdict(doc, answer);
+    doc.keyed_text("cautions", caution_text());
+    doc.blank();
+
+    // Where the layer's room stopped the search short of --max-g-cm2: " (the room in the layer
+    // allows no more than 61.1 g/cm2 of polyethylene)", or nothing.
+    std::string room;
+    std::vector<Field> room_args;
+    for (const auto& a : rep.answers) {
+        if (a.limited_by_room) {
+            room += room.empty() ? " (the room in the layer allows no more than " : ", ";
+            room += "{} g/cm2 of {}";
+            room_args.push_back(sig3("searched_to_g_cm2", a.searched_to_g_cm2));
+            room_args.push_back({"material", a.material});
+        }
+    }
+    if (!room.empty()) {
+        room += ")";
+    }
+    std::vector<Field> rule_args{
+        {"body_model", study.location(r.location_id).body},
+        {"uncertainty_factor", sc.limits.uncertainty_factor, 2, report::Rounding::fixed},
+        sig3("max_g_cm2", r.max_g_cm2)};
+    rule_args.insert(rule_args.end(), room_args.begin(), room_args.end());
+    rule_args.push_back(sig3("sun_distance_AU", rep.sun_distance_AU));
+    rule_args.push_back({"where", std::string(rep.sun_distance_AU == sc.mission.sun_distance_AU
+                                                  ? "the site's distance"
+                                                  : "the nearest to the Sun a crew member "
+                                                    "comes: a shelter in space")});
+    rule_args.push_back(sig3("fluence_scale", rep.fluence_scale));
+    doc.text("Sizing rule: the crew receive the whole event in the shelter; its dose ({} body "
+             "model at the shelter; the higher of with and without nuclear reactions; "
+             "uncertainty factor {}) plus the highest 30-day dose any crew member has from "
+             "everything else must stay within each target. Searched from 0 to {} g/cm2" +
+                 room +
+                 "; the answer's dose is at or below its target and within 0.5 % of it. The "
+                 "event is taken at {} AU from the Sun ({}), its fluence {} times the spectrum "
+                 "as written.",
+             rule_args, 96);
+    doc.blank();
+
+    report::Table targets;
+    targets.key = "targets";
+    targets.in_json = false;
+    auto organ_col = report::text_column("organ", "organ");
+    organ_col.min_width = 6;
+    auto target_col = report::number_column("target_mGyEq", "target", {}, 12, 1.0, 3);
+    target_col.gap = 1;
+    auto other_col = report::number_column("other_30d_mGyEq", "other 30-day", {}, 16, 1.0, 3);
+    other_col.gap = 1;
+    auto unit_col = report::text_column("unit");
+    unit_col.gap = 3;
+    targets.columns = {organ_col, target_col, other_col, unit_col};
+    for (const auto& [organ, t] : target) {
+        targets.rows.push_back({organ_label(organ), t, other.at(organ), std::string("mGy-Eq")});
+    }
+    doc.table(std::move(targets));
+    for (const auto& [organ, why] : rep.not_targets) {
+        doc.text("  {}: not a target: the crew's 30-day {} dose is not evaluated for {} (the "
+                 "quick body model; body = \"phantom\" there makes it one)",
+                 {Field{"organ", organ_label(organ)}, Field{"organ", organ_label(organ)},
+                  Field{"why", why}},
+                 100, "    ");
+    }
+    doc.blank();
+
+    for (const auto& a : rep.answers) {
+        doc.text("{} ({} g/cm3):",
+                 {Field{"material", a.material}, sig3("density", a.density_g_cm3)});
         if (a.none_needed) {
-            out += fmt::format("  no added material needed: every target is met as built "
-                               "(closest: {})\n",
-                               organ_label(a.binding_organ));
+            doc.text("  no added material needed: every target is met as built (closest: {})",
+                     {Field{"organ", organ_label(a.binding_organ)}});
         } else if (!rep.other_alone_exceeds.empty()) {
             // Nothing was searched: the crew's other dose alone is already beyond a target.
             std::string doses;
+            std::vector<Field> args;
             bool all_above = true;
             for (std::size_t k = 0; k < rep.other_alone_exceeds.size(); ++k) {
                 const std::string& organ = rep.other_alone_exceeds[k];
-                const double other = rep.other_30d_mGyEq.at(organ);
-                const double target = rep.target_mGyEq.at(organ);
-                all_above = all_above && other > target;
-                doses += fmt::format(
-                    "{}{} {} mGy-Eq, target {}",
-                    k == 0 ? "" : (k + 1 == rep.other_alone_exceeds.size() ? " and " : ", "),
-                    organ_label(organ), significant(other, 3), significant(target, 3));
+                all_above = all_above && other.at(organ) > target.at(organ);
+                doses += k == 0 ? "" : (k + 1 == rep.other_alone_exceeds.size() ? " and " : ", ");
+                doses += "{} {} mGy-Eq, target {}";
+                args.push_back({"organ", organ_label(organ)});
+                args.push_back(sig3("other_30d_mGyEq", other.at(organ)));
+                args.push_back(sig3("target_mGyEq", target.at(organ)));
             }
-            out += wrap(fmt::format("  NOT ACHIEVABLE: the crew's other 30-day dose alone ({}) "
-                                    "{} its target, so no shelter can meet it",
-                                    doses, all_above ? "exceeds" : "reaches or exceeds"),
-                        100, "    ");
+            args.push_back({"verb", std::string(all_above ? "exceeds" : "reaches or exceeds")});
+            doc.text("  NOT ACHIEVABLE: the crew's other 30-day dose alone (" + doses +
+                         ") {} its target, so no shelter can meet it",
+                     args, 100, "    ");
         } else if (!a.achievable) {
-            out += wrap(fmt::format("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its "
-                                    "target",
-                                    significant(a.searched_to_g_cm2, 3),
-                                    a.limited_by_room ? " (as much as the geometry takes: more "
-                                                        "would reach the dose point or another "
-                                                        "solid)"
-                                                      : "",
-                                    organ_label(a.binding_organ)),
-                        100, "    ");
+            doc.text("  NOT ACHIEVABLE: {} g/cm2{} does not bring {} within its target",
+                     {sig3("searched_to_g_cm2", a.searched_to_g_cm2),
+                      Field{"room",
+                            std::string(a.limited_by_room ? " (as much as the geometry takes: more "
+                                                            "would reach the dose point or another "
+                                                            "solid)"
+                                                          : "")},
+                      Field{"organ", organ_label(a.binding_organ)}},
+                     100, "    ");
         } else {
-            out += fmt::format(
-                "  minimum {} g/cm2 = {} cm, {} kg/m2", significant(a.areal_density_g_cm2, 3),
-                significant(a.thickness_cm, 3), significant(a.mass_per_area_kg_m2, 3));
+            std::vector<Field> args{sig3("areal_density_g_cm2", a.areal_density_g_cm2),
+                                    sig3("thickness_cm", a.thickness_cm),
+                                    sig3("mass_per_area_kg_m2", a.mass_per_area_kg_m2)};
+            std::string pattern = "  minimum {} g/cm2 = {} cm, {} kg/m2";
             if (a.added_mass_kg) {
-                out += fmt::format(", added mass {} kg", significant(*a.added_mass_kg, 3));
+                pattern += ", added mass {} kg";
+                args.push_back(sig3("added_mass_kg", *a.added_mass_kg));
             }
-            out += fmt::format("; set by {}\n", organ_label(a.binding_organ));
+            args.push_back({"organ", organ_label(a.binding_organ)});
+            doc.text(pattern + "; set by {}", args);
         }
-        out += fmt::format("  {:>12}", "g/cm2");
-        for (const auto& [organ, target] : rep.target_mGyEq) {
-            out += fmt::format(" {:>14}", organ_label(organ) + " event");
+        report::Table t;
+        t.key = "curve";
+        t.in_json = false;
+        t.columns.push_back(report::number_column("areal_density_g_cm2", "g/cm2", {}, 12, 1.0, 3));
+        for (const auto& [organ, tg] : target) {
+            auto c = report::number_column(organ, organ_label(organ) + " event", {}, 14, 1.0, 3);
+            c.gap = 1;
+            t.columns.push_back(std::move(c));
         }
-        out += "   (mGy-Eq)\n";
+        auto unit = report::text_column("unit", "(mGy-Eq)");
+        unit.gap = 3;
+        t.columns.push_back(std::move(unit));
         for (const auto& p : a.curve) {
-            out += fmt::format("  {:>12}", significant(p.areal_density_g_cm2, 3));
-            for (const auto& [organ, target] : rep.target_mGyEq) {
-                out += fmt::format(" {:>14}", significant(p.event_mGyEq.at(organ), 3));
+            std::vector<Value> row{p.areal_density_g_cm2};
+            for (const auto& [organ, tg] : target) {
+                row.emplace_back(curve_dose(p, organ));
             }
-            out += "\n";
+            row.emplace_back(std::string());
+            t.rows.push_back(std::move(row));
         }
-        out += "\n";
+        doc.table(std::move(t));
+        doc.blank();
     }
-    return out;
+    return doc;
+}
+
+std::string format_shelter_report(const Study& study, const ShelterReport& rep,
+                                  OutputFormat format) {
+    return report::write(shelter_document(study, rep), format);
 }
 
 } // namespace crewdose::planner

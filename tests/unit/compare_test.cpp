@@ -5,13 +5,16 @@
 #include "planner/analyses/compare.hpp"
 #include "planner/report/compare_html.hpp"
 #include "planner/report/compare_report.hpp"
+#include "planner/report/number_format.hpp"
 #include "planner/study/ledger.hpp"
 #include "planner/study/study.hpp"
 
 #include <catch2/catch.hpp>
+#include <fmt/format.h>
 
 #include <algorithm>
 #include <limits>
+#include <sstream>
 #include <string>
 #include <utility>
 
@@ -179,4 +182,65 @@ TEST_CASE("compare: a change that rounds to nothing is never printed as a negati
     const std::string text =
         format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
     CHECK(has_negative_change_then_zero(text));
+}
+
+TEST_CASE("compare: limits near, a limit that differs, the change in per cent", "[compare]") {
+    // By construction: B is A with its first limit's dose at 95 % of the limit (near, with
+    // near at 90 %) and its second limit raised by half.
+    const Study study(parse_scenario(read_fixture("ledger-hand.toml"), "hand.toml"));
+    LedgerResult a = build_ledger(study);
+    // The verdict lines read the ledgers' flags: cleared, so that they count the limits near.
+    a.any_exceeded = false;
+    LedgerResult b = a;
+    REQUIRE(b.crew.front().checks.size() >= 2);
+    auto& first = b.crew.front().checks.front();
+    first.dose = 0.95 * first.limit.value;
+    first.exceeded = false;
+    b.crew.front().checks.at(1).limit.value *= 1.5;
+    const PlanComparison cmp = compare_plans(a, b, 0.9);
+    const auto& r = cmp.rows.front();
+    REQUIRE(r.status_b == LimitStatus::near);
+    REQUIRE(r.dose_a > 0.0);
+    CHECK(r.relative_change() == Approx(0.95 * r.limit_b / r.dose_a - 1.0));
+    std::size_t near_a = 0;
+    for (const auto& row : cmp.rows) {
+        near_a += row.status_a == LimitStatus::near ? 1U : 0U;
+    }
+    const std::string text =
+        format_comparison(cmp, study.scenario(), study.scenario(), OutputFormat::text);
+    INFO(text);
+    CHECK(text.find(near_a == 0 ? "Verdict A: every evaluated planning limit is met.\n"
+                                : "Verdict A: every evaluated planning limit is met; ") !=
+          std::string::npos);
+    CHECK(text.find(
+              fmt::format("Verdict B: every evaluated planning limit is met; {} limit{} "
+                          "near.\n",
+                          near_a + (r.status_a == LimitStatus::near ? 0 : 1),
+                          near_a + (r.status_a == LimitStatus::near ? 0 : 1) == 1 ? "" : "s")) !=
+          std::string::npos);
+    // The first row's change in whole per cent, with its sign (signed_whole).
+    const auto& second = cmp.rows.at(1);
+    const std::string row = text.substr(text.find("\n* " + r.crew) + 1);
+    CHECK(
+        row.substr(0, row.find('\n')).find(" " + signed_whole(100.0 * r.relative_change()) + " ") !=
+        std::string::npos);
+    // A limit differs: both plans' limits, each in its column, on every row; the status column
+    // stays aligned on every row.
+    REQUIRE(second.limit_a != second.limit_b);
+    const std::size_t header = text.find("  crew ");
+    const std::string heading = text.substr(header, text.find('\n', header) - header);
+    CHECK(heading.find("% limit A limit B  status A -> B") == heading.size() - 32);
+    const std::string row2 = text.substr(text.find('\n', text.find('\n', header) + 1) + 1);
+    CHECK(row2.find(" " + significant(second.limit_a, 3) + " ") < row2.find('\n'));
+    CHECK(row2.find(" " + significant(second.limit_b, 3) + " ") < row2.find('\n'));
+    const std::size_t column = text.find("status A -> B", header) - header;
+    std::istringstream rows(text.substr(text.find('\n', header) + 1));
+    std::size_t n = 0;
+    for (std::string line; std::getline(rows, line) && line.rfind("  A, B:", 0) != 0; ++n) {
+        INFO(line);
+        REQUIRE(line.size() > column);
+        CHECK((line.compare(column, 7, "within ") == 0 || line.compare(column, 5, "near ") == 0 ||
+               line.compare(column, 9, "exceeded ") == 0));
+    }
+    CHECK(n == cmp.rows.size());
 }

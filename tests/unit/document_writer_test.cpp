@@ -209,3 +209,37 @@ TEST_CASE("report model: a list of words in every format", "[report]") {
     CHECK(j["gaps"][0]["where"] == nlohmann::json::array({"habitat", "rover"}));
     CHECK(j["gaps"][1]["where"] == nlohmann::json::array());
 }
+
+TEST_CASE("report model: a change as a signed whole number", "[report]") {
+    // By construction (the rounding rule of signed_whole in number_format.hpp): a whole number
+    // with its sign, 0 from either side, never "-0" or "+0"; scaled first (a share in %);
+    // CSV and JSON keep the value itself.
+    report::Table t;
+    t.key = "rows";
+    t.is_csv = true;
+    auto c = report::number_column("change_share", "%", {}, 0, 100.0);
+    c.rounding = report::Rounding::signed_whole;
+    c.absent = "-";
+    t.columns = {c};
+    for (const double v : {0.03, -0.12, -0.002, 0.004, 0.0, -0.0, 0.125}) {
+        t.rows.push_back({v});
+    }
+    t.rows.push_back({report::Value()});
+    report::Document doc;
+    doc.table(t);
+    doc.text("{} and {}", {report::Field{"a", 2.6, 0, report::Rounding::signed_whole},
+                           report::Field{"b", -0.4, 0, report::Rounding::signed_whole}});
+    CHECK(lines_of(report::write_text(doc)) ==
+          std::vector<std::string>{"    %", "   +3", "  -12", "    0", "    0", "    0", "    0",
+                                   "  +13", "    -", "+3 and 0"});
+    const auto csv = lines_of(report::write_csv(doc));
+    REQUIRE(csv.size() == 9);
+    CHECK(csv[1] == "3");
+    CHECK(csv[2] == "-12");
+    CHECK(csv[3] == "-0.2");
+    CHECK(csv[6] == "0");
+    CHECK(csv[8].empty());
+    const auto j = nlohmann::json::parse(report::write_json(doc));
+    CHECK(j["rows"][1]["change_share"].get<double>() == Approx(-12.0));
+    CHECK(j["rows"][7]["change_share"].is_null());
+}

@@ -325,8 +325,11 @@ TEST_CASE("shelter: a dose that was not computed reads so in the answer, never m
         CHECK(html.find("not computed") != std::string::npos);
         CHECK(html.find("within") == std::string::npos);
         CHECK(html.find("met as built") == std::string::npos);
-        // The CSV refuses it: nothing not computed is printed as a number.
+        // The report refuses it in every format: nothing not computed is printed as a number
+        // (a dose on the curve is one the report prints).
         CHECK_THROWS_AS(format_shelter_report(study, broken, OutputFormat::csv), ResultFault);
+        CHECK_THROWS_AS(format_shelter_report(study, broken, OutputFormat::text), ResultFault);
+        CHECK_THROWS_AS(format_shelter_report(study, broken, OutputFormat::json), ResultFault);
     }
 }
 
