@@ -21,8 +21,10 @@ jobs=$(nproc 2>/dev/null || echo 2)
 
 if ((sanitize)); then
   dir=build-sanitize
-  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCREWDOSE_WERROR=ON \
-        -DCREWDOSE_SANITIZE=ON -DCREWDOSE_BUILD_BENCHMARKS=OFF > /dev/null
+  # -g1: line tables only, enough for file and line in the sanitizers' stack traces, and about
+  # 30 % less compile time than full debug information.
+  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=Debug -DCMAKE_CXX_FLAGS_DEBUG=-g1 \
+        -DCREWDOSE_WERROR=ON -DCREWDOSE_SANITIZE=ON -DCREWDOSE_BUILD_BENCHMARKS=OFF > /dev/null
   # Only what this pass runs: the slow and expected-output test programs are not built (their
   # tests are skipped below, and Catch's placeholder for an unbuilt program is excluded).
   cmake --build "$dir" -j "$jobs" --target crewdose crewdose_unit_tests crewdose_reference_tests \
@@ -47,7 +49,11 @@ if ((sanitize)); then
      -E "$heavy")
 else
   dir=build
-  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=RelWithDebInfo -DCREWDOSE_WERROR=ON > /dev/null
+  # -O2 without debug info: a test run needs no debugger, and -g costs about 45 % of the
+  # compile time of a test file (GCC 12). Not -O3: GCC 12 warns falsely there (-Wrestrict,
+  # -Wmaybe-uninitialized inside std::string), which -Werror would make errors.
+  cmake -S . -B "$dir" -G Ninja -DCMAKE_BUILD_TYPE=Release "-DCMAKE_CXX_FLAGS_RELEASE=-O2 -DNDEBUG" \
+        -DCREWDOSE_WERROR=ON > /dev/null
   cmake --build "$dir" -j "$jobs"
   (cd "$dir" && ctest --output-on-failure --no-tests=error -j "$jobs")
 fi
