@@ -322,12 +322,8 @@ void add_json(report::Document& doc, const Study& study, const LedgerResult& led
 // exceeded; binding: the crew member's highest share of a limit. evaluated: "computed", "upper
 // bound at LOCATIONS" (the quick model's bound of the effective dose) or, on a row of its own
 // with no dose, "not evaluated at LOCATIONS".
-report::Table csv_table(const LedgerResult& ledger, double near_share) {
-    report::Table t;
-    t.key = "limits";
-    t.is_csv = true;
-    t.in_text = false;
-    t.in_json = false;
+report::Table limits_csv_table(const LedgerResult& ledger, double near_share) {
+    report::Table t = report::csv_only_table("limits");
     for (const char* key : {"crew", "organ", "window", "dose", "limit", "margin", "unit",
                             "exceeded", "status", "binding", "basis", "evaluated"}) {
         t.columns.push_back(report::text_column(key));
@@ -516,15 +512,9 @@ void add_crew_text(report::Document& doc, const CrewResult& c) {
         doc.text("  budget left: no limit binds from the GCR background of this timeline alone");
     }
     doc.table(source_table(c));
-    report::Table top;
-    top.key = "contributors_" + c.crew;
-    top.title = "  largest BFO contributors:";
-    top.in_json = false;
-    top.view = report::Table::View::list;
-    top.item_pattern = "{0} mGy-Eq  {1}";
-    top.indent = "    ";
-    top.wrap_width = 100;
-    top.wrap_indent = std::string(23, ' ');
+    report::Table top = report::text_list("contributors_" + c.crew,
+                                          "  largest BFO contributors:", "{0} mGy-Eq  {1}", "    ",
+                                          std::string(23, ' '));
     top.columns = {report::number_column("dose_mGyEq", "dose", "mGy-Eq", 10, 1.0, 3),
                    report::text_column("what", "what")};
     for (std::size_t i = 0; i < std::min<std::size_t>(3, c.contributors.size()); ++i) {
@@ -678,7 +668,7 @@ report::Document check_document(const Study& study, const LedgerResult& ledger, 
     report::Document doc;
     add_text(doc, study, ledger, near_share);
     add_json(doc, study, ledger, near_share);
-    doc.table(csv_table(ledger, near_share));
+    doc.table(limits_csv_table(ledger, near_share));
     return doc;
 }
 

@@ -107,6 +107,15 @@ struct Table {
     bool is_csv = false; ///< the table the CSV format writes (one per document)
 };
 
+/// A table only the CSV format writes, under `key` (a report whose text and JSON show the same
+/// numbers in other shapes).
+[[nodiscard]] Table csv_only_table(std::string key);
+/// A text-only list: `title`, then one line per row from `item_pattern`, starting with
+/// `indent` and wrapped at `wrap_width` columns with `wrap_indent`.
+[[nodiscard]] Table text_list(std::string key, std::string title, std::string item_pattern,
+                              std::string indent = "  ", std::string wrap_indent = "    ",
+                              std::size_t wrap_width = 100);
+
 struct Field {
     std::string key;
     Value value;

@@ -33,6 +33,29 @@ Column text_column(std::string key, std::string header) {
     return c;
 }
 
+Table csv_only_table(std::string key) {
+    Table t;
+    t.key = std::move(key);
+    t.in_text = false;
+    t.in_json = false;
+    t.is_csv = true;
+    return t;
+}
+
+Table text_list(std::string key, std::string title, std::string item_pattern, std::string indent,
+                std::string wrap_indent, std::size_t wrap_width) {
+    Table t;
+    t.key = std::move(key);
+    t.title = std::move(title);
+    t.in_json = false;
+    t.view = Table::View::list;
+    t.item_pattern = std::move(item_pattern);
+    t.indent = std::move(indent);
+    t.wrap_width = wrap_width;
+    t.wrap_indent = std::move(wrap_indent);
+    return t;
+}
+
 Document& Document::text(std::string pattern, std::vector<Field> args, std::size_t wrap_width,
                          std::string wrap_indent) {
     blocks.emplace_back(

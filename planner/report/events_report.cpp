@@ -94,12 +94,8 @@ report::Document events_document() {
                  hidden("source"),
                  hidden("read_in"),
                  hidden("note")};
-    report::Table fits;
-    fits.key = "fits";
-    fits.title = "Fits (crewdose's spectrum spelling):";
-    fits.view = report::Table::View::list;
-    fits.item_pattern = "{}: {}: {}";
-    fits.in_json = false;
+    report::Table fits = report::text_list(
+        "fits", "Fits (crewdose's spectrum spelling):", "{}: {}: {}", "  ", "    ", 96);
     fits.columns = {column("id", "", true), column("title", "", true),
                     column("spectrum", "", true)};
     for (const auto& e : events) {
@@ -124,12 +120,8 @@ report::Document events_document() {
 
     // Each source once, with the entries it covers (entries sharing one are listed together):
     // a text view of the events' source columns.
-    report::Table sources;
-    sources.key = "sources";
-    sources.title = "Sources:";
-    sources.view = report::Table::View::list;
-    sources.item_pattern = "{}: {}; read {}. Note: {}.";
-    sources.in_json = false;
+    report::Table sources =
+        report::text_list("sources", "Sources:", "{}: {}; read {}. Note: {}.", "  ", "    ", 96);
     sources.columns = {column("ids", "", true), column("source", "", true),
                        column("read_in", "", true), column("note", "", true)};
     for (std::size_t i = 0; i < events.size();) {
@@ -147,11 +139,9 @@ report::Document events_document() {
     doc.table(std::move(sources));
     doc.blank();
 
-    report::Table gaps;
-    gaps.key = "not_in_library";
-    gaps.title = "Not in the library (known gaps):";
-    gaps.view = report::Table::View::list;
-    gaps.item_pattern = "{}: {}.";
+    report::Table gaps = report::text_list(
+        "not_in_library", "Not in the library (known gaps):", "{}: {}.", "  ", "    ", 96);
+    gaps.in_json = true; // the gaps are in JSON too
     gaps.columns = {column("event", "", true), column("why", "", true)};
     for (const auto& m : missing_reference_events()) {
         gaps.rows.push_back({std::string(m.what), std::string(m.why)});

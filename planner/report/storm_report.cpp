@@ -449,15 +449,8 @@ report::Table organ_table(const StormCrew& c) {
 
 // Where a crew member is from t0 on (text; JSON has the spans in "timeline").
 report::Table where_table(const StormCrew& c, Time onset) {
-    report::Table t;
-    t.key = "timeline";
-    t.title = "  where (from t0):";
-    t.in_json = false;
-    t.view = report::Table::View::list;
-    t.item_pattern = "{0} to {1} {2}";
-    t.indent = "    ";
-    t.wrap_width = 100;
-    t.wrap_indent = "      ";
+    report::Table t =
+        report::text_list("timeline", "  where (from t0):", "{0} to {1} {2}", "    ", "      ");
     t.columns = {report::text_column("start"), report::text_column("end"),
                  report::text_column("what")};
     for (const auto& s : c.responded) {
@@ -468,11 +461,7 @@ report::Table where_table(const StormCrew& c, Time onset) {
 
 // The what-if's CSV: a line per crew member and organ.
 report::Table whatif_csv_table(const StormWhatIf& w) {
-    report::Table t;
-    t.key = "organs";
-    t.in_text = false;
-    t.in_json = false;
-    t.is_csv = true;
+    report::Table t = report::csv_only_table("organs");
     auto col = [](std::string key) {
         return report::number_column(std::move(key), {});
     };
@@ -493,11 +482,7 @@ report::Table whatif_csv_table(const StormWhatIf& w) {
 
 // The sweep's CSV: a line per EVA and rover drive.
 report::Table sweep_csv_table(const StormSweep& s) {
-    report::Table t;
-    t.key = "evas";
-    t.in_text = false;
-    t.in_json = false;
-    t.is_csv = true;
+    report::Table t = report::csv_only_table("evas");
     t.columns = {report::text_column("activity"),
                  report::text_column("start"),
                  report::text_column("end"),
