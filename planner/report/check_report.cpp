@@ -540,8 +540,9 @@ void add_text(report::Document& doc, const Study& study, const LedgerResult& led
     doc.text(caution_text());
     doc.blank();
     doc.text("Model: SPE and GCR doses through the shielding and the body, the higher of with and "
-             "without nuclear reactions, uncertainty factor {0} applied; the whole description is "
-             "at the end.",
+             "without nuclear reactions, uncertainty factor {0} applied; events charged on the "
+             "timeline as planned, with no storm response (crewdose storm applies the "
+             "scenario's response policy); the whole description is at the end.",
              {figure(sc.limits.uncertainty_factor, 2, true)}, 96);
     doc.blank();
     doc.text("GCR dose rate at the mission start (phi {0} MV{1}), per day, with nuclear reactions "

@@ -177,6 +177,11 @@ VerdictTable storm_verdict(const StormContext& ctx, const std::vector<StormVerdi
               : "",
         responds ? "; without response: the same organ if the crew kept to the planned timeline"
                  : "");
+    // Organs the body model does not give are said under the table, not only in the model
+    // paragraph: "met" covers only what was evaluated.
+    if (!ctx.unchecked_note().empty()) {
+        t.notes.push_back("not evaluated: " + ctx.unchecked_note());
+    }
     return t;
 }
 
@@ -193,7 +198,7 @@ void set_headline_words(VerdictTable& t, std::size_t exceeded, std::size_t near,
         t.headline_words = crew_count(near, of) + " near a limit";
         t.headline_status = "near";
     } else {
-        t.headline_words = "every 30-day planning limit is met";
+        t.headline_words = "every evaluated 30-day planning limit is met";
         t.headline_status = "within";
     }
 }
@@ -211,12 +216,13 @@ VerdictTable whatif_verdict(const StormContext& ctx, const StormWhatIf& w,
                                  "what-if ({}).",
                                  crew_count(exceeded, rows.size()), how);
     } else if (near > 0) {
-        t.headline = fmt::format("Verdict: every 30-day planning limit is met in this what-if "
-                                 "({}); {} near a limit.",
-                                 how, crew_count(near, rows.size()));
-    } else {
         t.headline =
-            fmt::format("Verdict: every 30-day planning limit is met in this what-if ({}).", how);
+            fmt::format("Verdict: every evaluated 30-day planning limit is met in this what-if "
+                        "({}); {} near a limit.",
+                        how, crew_count(near, rows.size()));
+    } else {
+        t.headline = fmt::format(
+            "Verdict: every evaluated 30-day planning limit is met in this what-if ({}).", how);
     }
     set_headline_words(t, exceeded, near, rows.size());
     return t;
@@ -238,7 +244,7 @@ VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
     if (!s.evas.empty()) {
         evas = no_go > 0
                    ? fmt::format("; {} of {} EVAs and rover drives NO-GO", no_go, s.evas.size())
-                   : fmt::format("; every EVA and rover drive swept is go");
+                   : fmt::format("; every EVA and rover drive is go for an onset during it");
         if (not_swept > 0) {
             evas += fmt::format(" ({} not swept)", not_swept);
         }
@@ -250,13 +256,15 @@ VerdictTable sweep_verdict(const StormContext& ctx, const StormSweep& s,
                                  "for {} ({}){}.",
                                  crew_count(exceeded, rows.size()), how, evas);
     } else if (near > 0) {
-        t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
-                                 "tried ({}); {} near a limit at the worst onset{}.",
-                                 how, crew_count(near, rows.size()), evas);
+        t.headline =
+            fmt::format("Verdict: every evaluated 30-day planning limit is met at every onset "
+                        "tried ({}); {} near a limit at the worst onset{}.",
+                        how, crew_count(near, rows.size()), evas);
     } else {
-        t.headline = fmt::format("Verdict: every 30-day planning limit is met at every onset "
-                                 "tried ({}){}.",
-                                 how, evas);
+        t.headline =
+            fmt::format("Verdict: every evaluated 30-day planning limit is met at every onset "
+                        "tried ({}){}.",
+                        how, evas);
     }
     set_headline_words(t, exceeded, near, rows.size());
     return t;

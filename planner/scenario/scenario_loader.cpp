@@ -344,7 +344,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
                     g.fail("sun_distance_AU", kSunDistanceRange);
                 }
                 if (p.at < sc.mission.start || p.at > sc.mission.end) {
-                    g.fail("at", "lies outside the mission (mission.start to mission.end)");
+                    g.fail("at",
+                           fmt::format("{} lies outside the mission ({} to {})", format_time(p.at),
+                                       format_time(sc.mission.start), format_time(sc.mission.end)));
                 }
                 if (!sc.mission.trajectory.empty() && !(p.at > sc.mission.trajectory.back().at)) {
                     g.fail("at", "must be later than the previous entry's at");
@@ -668,7 +670,9 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
             ev.profile.decay_h = s.within("decay_h", 0.1, 2400.0, "h");
         }
         if (ev.flare_seen < sc.mission.start || ev.flare_seen > sc.mission.end) {
-            s.fail("flare_seen", "lies outside the mission (mission.start to mission.end)");
+            s.fail("flare_seen",
+                   fmt::format("{} lies outside the mission ({} to {})", format_time(ev.flare_seen),
+                               format_time(sc.mission.start), format_time(sc.mission.end)));
         }
         sc.events.push_back(std::move(ev));
     }
@@ -824,9 +828,10 @@ Scenario parse_scenario(const std::string& text, const std::string& file) {
         }
         if (r.start < sc.mission.start || r.end > sc.mission.end) {
             s.fail(r.start < sc.mission.start ? "start" : "end",
-                   "lies outside the mission (mission.start to mission.end); a dose received "
-                   "before the mission belongs in the crew member's prior history "
-                   "(crew.prior)");
+                   fmt::format("lies outside the mission ({} to {}); a dose received "
+                               "before the mission belongs in the crew member's prior history "
+                               "(crew.prior)",
+                               format_time(sc.mission.start), format_time(sc.mission.end)));
         }
         if (r.doses.mGyEq.empty() && !r.doses.effective_mSv) {
             s.fail("source", "the reading gives no dose; give at least one of bfo_mGyEq, "

@@ -149,7 +149,7 @@ TEST_CASE("storm --sweep --html and shelter --html: headless Chromium loads them
     REQUIRE(s.dom.exit_code == 0);
     check_no_load_errors(s.errors);
     const std::string& sh = s.dom.out;
-    CHECK(sh.find("Verdict: every 30-day planning limit is met at every onset tried") !=
+    CHECK(sh.find("Verdict: every evaluated 30-day planning limit is met at every onset tried") !=
           std::string::npos);
     for (const char* name : {"Amara Osei", "Tomasz Wren", "Ines Halvorsen", "Kenji Marlow"}) {
         INFO(name);

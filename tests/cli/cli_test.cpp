@@ -1510,13 +1510,20 @@ TEST_CASE("storm: the verdict first, --near flags it, a bad --near is refused wr
     // The demo at this onset with the response: osei and wren at 33 and 35 % of the lens limit,
     // halvorsen and marlow at 14 % of the BFO limit (tests/expected/storm-onset.txt).
     // The headline wraps at 100 columns: read it joined.
+    // (A continuation line starts with two spaces and a lower-case word or a parenthesis.)
     std::string joined = r.out;
-    for (auto at = joined.find("\n  m"); at != std::string::npos; at = joined.find("\n  m")) {
-        joined.replace(at, 3, " ");
+    for (auto at = joined.find("\n  "); at != std::string::npos; at = joined.find("\n  ", at)) {
+        const char next = at + 3 < joined.size() ? joined[at + 3] : ' ';
+        if ((next >= 'a' && next <= 'z') || next == '(') {
+            joined.replace(at, 3, " ");
+        } else {
+            at += 3;
+        }
     }
-    const auto verdict = joined.find("Verdict: every 30-day planning limit is met in this what-if "
-                                     "(with the planned response); 2 of 4 crew members near a "
-                                     "limit.");
+    const auto verdict =
+        joined.find("Verdict: every evaluated 30-day planning limit is met in this what-if "
+                    "(with the planned response); 2 of 4 crew members near a "
+                    "limit.");
     REQUIRE(verdict != std::string::npos);
     CHECK(r.out.find("Verdict: ") < r.out.find("Cautions:"));
     CHECK(r.out.find("  Tomasz Wren     lens       350 / 1000 mGy-Eq  35 %  near") <

@@ -193,7 +193,7 @@ TEST_CASE("storm html: the what-if and the sweep as pages, the sweep with its ch
     const auto rows = table_rows(elements);
     REQUIRE(rows.size() == w.crew.size() + 1); // the heading row has <th> only
     CHECK(rows.at(1).at(0) == w.crew[0].name);
-    CHECK(page.find("Verdict: every 30-day planning limit is met in this what-if") <
+    CHECK(page.find("Verdict: every evaluated 30-day planning limit is met in this what-if") <
           page.find("<pre>"));
 
     const Time from = parse_command_time("2032-01-03T06:00:00Z", "x");

@@ -87,7 +87,8 @@ TEST_CASE("non-positive sizes and durations, times out of order or outside the m
     expect(replace(kBase, "location = \"inside\"", "location = \"insid\""),
            "activity.location: unknown location 'insid'; allowed: inside");
     expect(replace(kBase, "flare_seen = 2032-01-05T00:00:00Z", "flare_seen = 2033-01-05T00:00:00Z"),
-           "plan.toml:22: event.flare_seen: lies outside the mission");
+           "plan.toml:22: event.flare_seen: 2033-01-05T00:00:00Z lies outside the mission "
+           "(2032-01-01T00:00:00Z to 2032-01-11T00:00:00Z)");
 }
 
 TEST_CASE("overlapping activities of one crew member", "[scenario]") {

@@ -219,7 +219,7 @@ TEST_CASE("distances the loader refuses", "[distance]") {
          "mission.trajectory.at: must be later than the previous entry's at");
     says(legs({{"mission", "[[mission.trajectory]]\nat = 2030-02-01T00:00:00Z\n"
                            "sun_distance_AU = 1.0\n"}}),
-         "mission.trajectory.at: lies outside the mission");
+         "mission.trajectory.at: 2030-02-01T00:00:00Z lies outside the mission");
     says(legs({{"mission", "[[mission.trajectory]]\nat = 2035-02-01T00:00:00Z\n"
                            "sun_distance_AU = nan\n"}}),
          "mission.trajectory.sun_distance_AU");
