@@ -66,8 +66,10 @@ Command add_shelter_command(CLI::App& app) {
         shelter->add_option("--material,-m", shelter_materials,
                             "material to add (repeat for several; default water)");
         shelter->add_option("--target,-t", shelter_targets,
-                            "ORGAN=VALUE in mGy-Eq, e.g. bfo=250mGyEq (repeat; organs bfo, lens, "
-                            "skin; others keep their 30-day planning limit)");
+                            "ORGAN=VALUE in mGy-Eq, e.g. bfo=250mGyEq (repeat; any organ with a "
+                            "30-day limit that the location's body model gives: bfo, lens, skin, "
+                            "and heart and brain with the phantom; others keep their 30-day "
+                            "planning limit)");
         shelter->add_option("--layer", shelter_layer,
                             "SOLID:LAYER, the wall layer to back with the material (LAYER: its "
                             "number, 1 = outermost, or its material)");
