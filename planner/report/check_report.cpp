@@ -620,7 +620,8 @@ void add_text(report::Document& doc, const Study& study, const LedgerResult& led
                               word(c.crew), word(organ_label(chk.limit.organ)),
                               word(chk.limit.window), figure(chk.dose), figure(chk.limit.value),
                               word(unit_of(chk.limit.organ)),
-                              word(chk.window_text.empty() ? "" : ", window " + chk.window_text)});
+                              word(chk.window_text.empty() ? "" : ", window " + chk.window_text)},
+                             100, "  ");
                 }
             }
         }

@@ -431,7 +431,7 @@ report::Table organ_table(const StormCrew& c) {
     t.in_json = false; // JSON: the crew member's "organs" object
     auto col = [](std::string key, std::string header, int width) {
         report::Column k =
-            report::number_column(std::move(key), std::move(header), {}, width, 1.0, 3);
+            report::number_column(std::move(key), std::move(header), "mGy-Eq", width, 1.0, 3);
         k.gap = 1;
         return k;
     };
