@@ -3,7 +3,7 @@
 #   scripts/test.sh              normal build in build/, all tests (slow ones included)
 #   scripts/test.sh --sanitize   AddressSanitizer + UndefinedBehaviorSanitizer build in
 #                                build-sanitize/, every test except those labelled 'slow' or
-#                                'expected' and ten heavy end-to-end runs (below)
+#                                'expected' and fourteen heavy end-to-end runs (below)
 set -euo pipefail
 cd "$(dirname "$0")/.."
 
@@ -32,8 +32,8 @@ if ((sanitize)); then
   export ASAN_OPTIONS=detect_leaks=1:abort_on_error=1
   export UBSAN_OPTIONS=print_stacktrace=1:halt_on_error=1
   # The expected-output tests are skipped too: the ASan build runs each scenario slowly, and
-  # the normal build already compares every output. So are the ten end-to-end runs that cost
-  # the most under ASan (each runs the whole lunar demo several times, 60-180 s apiece; the cache's
+  # the normal build already compares every output. So are the fourteen end-to-end runs that cost
+  # the most under ASan (each runs the whole lunar demo several times, 40-180 s apiece; the cache's
   # own checks run under the sanitizers in the unit tests): the
   # code they drive is exercised under the sanitizers by the unit tests and the other CLI
   # tests, and the normal build runs them all. This keeps .ci/run under 25 minutes.
@@ -44,6 +44,9 @@ if ((sanitize)); then
   heavy+='cli:storm --sweep --html and shelter --html: headless Chromium|'
   heavy+='cli:check: the same bytes with a cold, warm or damaged cache|'
   heavy+='cli:progress: a line on a terminal|'
+  heavy+='cli:check: --chart draws every crew member|cli:storm: --chart draws the sweep|'
+  heavy+='cli:shelter: --chart draws the dose against added material|'
+  heavy+='cli:check: --html is one deterministic page|'
   heavy+='_NOT_BUILT'
   (cd "$dir" && ctest --output-on-failure --no-tests=error -j "$jobs" -LE 'slow|expected' \
      -E "$heavy")
