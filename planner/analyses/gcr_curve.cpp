@@ -192,4 +192,16 @@ std::vector<GcrDepthRow> gcr_depth_rows(double phi_MV, const exposure::Material&
     }
     return rows;
 }
+double GcrDepthRow::mean_quality_factor() const {
+    return per_day.absorbed_Gy > 0.0 ? per_day.dose_equivalent_Sv / per_day.absorbed_Gy : 0.0;
+}
+
+double GcrDepthRow::uncharged_equivalent_share() const {
+    double charged = 0.0;
+    for (const double v : equivalent_share) {
+        charged += v;
+    }
+    return std::max(0.0, 1.0 - charged);
+}
+
 } // namespace crewdose::planner

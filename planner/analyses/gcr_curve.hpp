@@ -47,6 +47,14 @@ struct GcrDepthRow {
     std::array<double, kChargeGroups.size()> equivalent_share{};
     std::array<double, kDoseSources.size()> source_absorbed_share{};
     std::array<double, kDoseSources.size()> source_equivalent_share{};
+
+    /// Mean quality factor of the whole field: dose equivalent over absorbed dose (0 when
+    /// there is no absorbed dose).
+    [[nodiscard]] double mean_quality_factor() const;
+    /// The share of the dose equivalent that no charged particle crossing the point carries:
+    /// the energy that reactions deposit there (neutron reactions, target fragments); 1 minus
+    /// the charge groups' shares, never below zero.
+    [[nodiscard]] double uncharged_equivalent_share() const;
 };
 
 /// Where the shield stands.

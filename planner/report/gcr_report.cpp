@@ -23,10 +23,6 @@
 namespace crewdose::planner {
 namespace {
 
-double mean_q(const exposure::DoseQuantities& d) {
-    return d.absorbed_Gy > 0.0 ? d.dose_equivalent_Sv / d.absorbed_Gy : 0.0;
-}
-
 const char* kModelText =
     "Model: the GCR nuclei Z = 1-28 (Burger et al. 2000 interstellar spectrum for protons and "
     "helium, ISO 15390 spectral shapes for heavier nuclei, HEAO-3 abundances, force field) "
@@ -181,7 +177,7 @@ report::Document gcr_depth_document(double phi_MV, const exposure::Material& shi
                                        r.per_day.absorbed_Gy,
                                        r.per_day.dose_equivalent_Sv,
                                        r.per_day.rbe_weighted_GyEq,
-                                       mean_q(r.per_day),
+                                       r.mean_quality_factor(),
                                        r.per_day_without_reactions.dose_equivalent_Sv,
                                        r.per_day_primaries.dose_equivalent_Sv};
         row.insert(row.end(), r.equivalent_share.begin(), r.equivalent_share.end());
@@ -236,14 +232,8 @@ report::Document gcr_depth_document(double phi_MV, const exposure::Material& shi
     }
     for (const auto& r : rows) {
         std::vector<report::Value> row{r.shield_g_cm2};
-        double charged = 0.0;
-        for (const double v : r.equivalent_share) {
-            row.emplace_back(v);
-            charged += v;
-        }
-        // The rest is what no charged particle crossing the point carries: the energy that
-        // reactions deposit there (neutron reactions, target fragments); never below zero.
-        row.emplace_back(std::max(0.0, 1.0 - charged));
+        row.insert(row.end(), r.equivalent_share.begin(), r.equivalent_share.end());
+        row.emplace_back(r.uncharged_equivalent_share());
         row.emplace_back(std::string("|"));
         row.insert(row.end(), r.source_equivalent_share.begin(), r.source_equivalent_share.end());
         s.rows.push_back(std::move(row));

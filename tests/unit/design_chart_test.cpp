@@ -420,3 +420,17 @@ TEST_CASE("depth chart: a dose that was not computed is a gap labelled so, never
     CHECK(values(charts[1], "dose equivalent (mSv)").size() == 1);
     CHECK(!has(charts[1].texts, "not computed"));
 }
+
+TEST_CASE("gcr rows: the mean quality factor and the share no charged particle carries", "[gcr]") {
+    // By construction: mean Q = H / D (ICRP Publication 60's definition of the mean quality
+    // factor); the uncharged share is 1 minus the charge groups' shares, never below zero.
+    GcrDepthRow r;
+    CHECK(r.mean_quality_factor() == 0.0); // no dose: no mean Q, never a NaN
+    r.per_day.absorbed_Gy = 2e-4;
+    r.per_day.dose_equivalent_Sv = 8e-4;
+    CHECK(r.mean_quality_factor() == Approx(4.0).epsilon(1e-15));
+    r.equivalent_share = {0.3, 0.25, 0.15, 0.05, 0.05};
+    CHECK(r.uncharged_equivalent_share() == Approx(0.2).epsilon(1e-12));
+    r.equivalent_share = {0.6, 0.3, 0.15, 0.05, 0.05}; // rounding can sum past 1
+    CHECK(r.uncharged_equivalent_share() == 0.0);
+}
