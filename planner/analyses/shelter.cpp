@@ -125,7 +125,8 @@ double largest_allowed_g_cm2(const Study& study, const LocationSpec& loc, const 
     return lo;
 }
 
-constexpr double kShortfall = 0.995; // the answer's dose is within 0.5 % below the target
+// The answer's event dose is within 0.5 % below what the other 30-day dose leaves of the target.
+constexpr double kShortfall = 0.995;
 
 } // namespace
 
@@ -442,7 +443,13 @@ ShelterReport size_shelter(const Study& study, const ShelterRequest& request,
                     it->second.at(o), fmt::format("shelter: the event's {} dose behind {} g/cm2 "
                                                   "of {}",
                                                   o, x, material_id));
-                const double ratio = (event + rep.other_30d_mGyEq.at(o)) / target;
+                // The event's share of what the other 30-day dose leaves of the target (> 0
+                // here: a target the other dose reaches is never searched). <= 1 exactly
+                // when event + other <= target, as before; but the search's 0.5 % now
+                // applies to the event's dose, which the material changes, not to the total:
+                // when the other dose takes most of a target, 0.5 % of the total was a
+                // large share of the event and the answer came out coarse.
+                const double ratio = event / (target - rep.other_30d_mGyEq.at(o));
                 if (ratio > worst) {
                     worst = ratio;
                     if (organ) {

@@ -393,7 +393,8 @@ report::Document shelter_document(const Study& study, const ShelterReport& rep) 
              "uncertainty factor {}) plus the highest 30-day dose any crew member has from "
              "everything else must stay within each target. Searched from 0 to {} g/cm2" +
                  room +
-                 "; the answer's dose is at or below its target and within 0.5 % of it. The "
+                 "; the answer's dose is at or below its target, the event within 0.5 % of "
+                 "what the other dose leaves. The "
                  "event is taken at {} AU from the Sun ({}), its fluence {} times the spectrum "
                  "as written.",
              rule_args, 96);
