@@ -388,16 +388,17 @@ report::Document shelter_document(const Study& study, const ShelterReport& rep) 
                                                   : "the nearest to the Sun a crew member "
                                                     "comes: a shelter in space")});
     rule_args.push_back(sig3("fluence_scale", rep.fluence_scale));
-    doc.text("Sizing rule: the crew receive the whole event in the shelter; its dose ({} body "
-             "model at the shelter; the higher of with and without nuclear reactions; "
-             "uncertainty factor {}) plus the highest 30-day dose any crew member has from "
-             "everything else must stay within each target. Searched from 0 to {} g/cm2" +
-                 room +
-                 "; the answer's dose is at or below its target, the event within 0.5 % of "
-                 "what the other dose leaves. The "
-                 "event is taken at {} AU from the Sun ({}), its fluence {} times the spectrum "
-                 "as written.",
-             rule_args, 96);
+    doc.text(
+        "Sizing rule: the crew receive the whole event in the shelter; its dose ({} body "
+        "model at the shelter; the higher of with and without nuclear reactions; "
+        "uncertainty factor {}) plus the highest 30-day dose any crew member has from "
+        "everything else must stay within each target. Searched from 0 to {} g/cm2" +
+            room +
+            "; the answer's dose is at or below its target, the event's within half a per cent of "
+            "what the other dose leaves. The "
+            "event is taken at {} AU from the Sun ({}), its fluence {} times the spectrum "
+            "as written.",
+        rule_args, 96);
     doc.blank();
 
     report::Table targets;
