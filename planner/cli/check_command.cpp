@@ -11,9 +11,7 @@
 
 #include <fmt/format.h>
 
-#include <cstdlib>
 #include <filesystem>
-#include <unistd.h>
 
 #include <memory>
 #include <string>

@@ -3,14 +3,12 @@
 #include "planner/report/check_chart.hpp"
 #include "planner/report/check_report.hpp"
 #include "planner/report/html_page.hpp"
-#include "planner/report/number_format.hpp"
 #include "planner/scenario/time_format.hpp"
 
 #include <fmt/format.h>
 
-#include <cmath>
-
 namespace crewdose::planner {
+
 std::string format_check_html(const Study& study, const LedgerResult& ledger, double near_share,
                               const HtmlAbout& about) {
     const Scenario& sc = study.scenario();
